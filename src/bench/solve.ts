@@ -1,0 +1,126 @@
+/**
+ * Benchmark of the sparse direct solver on plane-stress stiffness matrices of
+ * linear (constant strain) triangles on a jittered triangulated 2 x 1
+ * rectangle with its left edge fixed.
+ *
+ *   npx tsc -p tsconfig.build.json && node dist/bench/solve.js [--large] [--amd] [--runs N]
+ *
+ * --large adds the 5e5 and 1e6 DOF cases; --amd also times the AMD ordering
+ * (the default is nested dissection from the node coordinates). Each case
+ * runs once as a warm-up, then `runs` times (default 3); the medians are
+ * printed.
+ */
+
+import { performance } from 'node:perf_hooks';
+import { fileURLToPath } from 'node:url';
+import { cantileverProblem } from '../solve/testing.js';
+import { solveSpd, type OrderingMethod, type SolveStats } from '../solve/index.js';
+
+export interface SolveBenchRow {
+  readonly dof: number;
+  readonly ordering: OrderingMethod;
+  readonly nnzA: number;
+  readonly nnzL: number;
+  readonly flops: number;
+  readonly seconds: { ordering: number; symbolic: number; numeric: number; solve: number; total: number };
+  readonly gflops: number;
+  readonly bytesPerNnzL: number;
+  readonly peakRssBytes: number;
+  readonly relativeResidual: number;
+  readonly assemblySeconds: number;
+}
+
+export interface SolveBenchOptions {
+  /** approximate DOF counts to run */
+  readonly sizes?: readonly number[];
+  readonly orderings?: readonly OrderingMethod[];
+  readonly runs?: number;
+  readonly log?: (line: string) => void;
+}
+
+function median(xs: number[]): number {
+  const s = xs.slice().sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+}
+
+/** Runs the benchmark and returns one row per (size, ordering); prints the table through log. */
+export function runSolveBench(options: SolveBenchOptions = {}): SolveBenchRow[] {
+  const sizes = options.sizes ?? [1e4, 1e5];
+  const orderings = options.orderings ?? ['nested-dissection'];
+  const runs = options.runs ?? 3;
+  const log = options.log ?? ((line: string) => console.log(line));
+  const out: SolveBenchRow[] = [];
+  log(`node ${process.version}, ${runs} timed runs after one warm-up; times in seconds (medians)`);
+  log(
+    '| DOF | ordering | nnz(A) | nnz(L) | flops | order | symbolic | numeric | solve | total | GFLOP/s | bytes/nnz(L) | peak RSS | rel. residual |',
+  );
+  log('|---|---|---|---|---|---|---|---|---|---|---|---|---|---|');
+  for (const target of sizes) {
+    // 2:1 rectangle, nx = 2 ny cells: about 4 ny^2 DOF
+    const ny = Math.max(2, Math.round(Math.sqrt(target / 4)));
+    const tA = performance.now();
+    const prob = cantileverProblem(2 * ny, ny, 7);
+    const assemblySeconds = (performance.now() - tA) / 1e3;
+    const n = prob.matrix.n;
+    const b = new Float64Array(n);
+    // unit downward load on the free end: every y DOF of the nodes at x = 2
+    for (let r = 0; r < n; r++) {
+      const d = prob.fullDofOfRow[r];
+      const v = d >> 1;
+      if (d % 2 === 1 && prob.mesh.coords[2 * v] === 2) b[r] = -1;
+    }
+    for (const ordering of orderings) {
+      const samples: SolveStats[] = [];
+      for (let run = 0; run <= runs; run++) {
+        const { stats } = solveSpd(prob.matrix, b, {
+          coords: prob.mesh.coords,
+          nodeAdjacency: prob.adjacency,
+          dofsPerNode: 2,
+          fullDofOfRow: prob.fullDofOfRow,
+          ordering,
+        });
+        if (run > 0) samples.push(stats);
+      }
+      const s0 = samples[0];
+      const sec = {
+        ordering: median(samples.map((s) => s.seconds.ordering)),
+        symbolic: median(samples.map((s) => s.seconds.symbolic)),
+        numeric: median(samples.map((s) => s.seconds.numeric)),
+        solve: median(samples.map((s) => s.seconds.solve)),
+        total: median(samples.map((s) => s.seconds.ordering + s.seconds.symbolic + s.seconds.numeric + s.seconds.solve)),
+      };
+      const row: SolveBenchRow = {
+        dof: n,
+        ordering,
+        nnzA: s0.nnzA,
+        nnzL: s0.nnzL,
+        flops: s0.flops,
+        seconds: sec,
+        gflops: s0.flops / sec.numeric / 1e9,
+        bytesPerNnzL: s0.bytesPerNnzL,
+        peakRssBytes: process.resourceUsage().maxRSS * 1024,
+        relativeResidual: Math.max(...samples.map((s) => s.relativeResidual)),
+        assemblySeconds,
+      };
+      out.push(row);
+      const e = (x: number): string => x.toExponential(2);
+      const f = (x: number): string => x.toFixed(3);
+      log(
+        `| ${n} | ${ordering} | ${e(row.nnzA)} | ${e(row.nnzL)} | ${e(row.flops)} | ${f(sec.ordering)} | ${f(sec.symbolic)} | ${f(sec.numeric)} | ${f(sec.solve)} | ${f(sec.total)} | ${row.gflops.toFixed(2)} | ${row.bytesPerNnzL.toFixed(1)} | ${(row.peakRssBytes / 2 ** 30).toFixed(2)} GB | ${e(row.relativeResidual)} |`,
+      );
+    }
+  }
+  return out;
+}
+
+if (process.argv[1] !== undefined && fileURLToPath(import.meta.url) === process.argv[1]) {
+  const args = process.argv.slice(2);
+  const large = args.includes('--large');
+  const runsAt = args.indexOf('--runs');
+  const runs = runsAt >= 0 ? Number(args[runsAt + 1]) : 3;
+  const sizesAt = args.indexOf('--sizes');
+  const sizes = sizesAt >= 0 ? args[sizesAt + 1].split(',').map(Number) : large ? [1e4, 1e5, 5e5, 1e6] : [1e4, 1e5];
+  const orderings: OrderingMethod[] = args.includes('--amd') ? ['nested-dissection', 'amd'] : ['nested-dissection'];
+  runSolveBench({ sizes, orderings, runs });
+}

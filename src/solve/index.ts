@@ -1,0 +1,156 @@
+/**
+ * One entry point for a sparse symmetric positive definite solve:
+ * ordering -> symbolic analysis -> supernodal numeric factorisation ->
+ * triangular solves, with timings and sizes of each phase.
+ *
+ * Ordering choice: nested dissection from node coordinates when coordinates
+ * and the node adjacency are given (the better ordering for 2D meshes as
+ * they grow), approximate minimum degree on the matrix graph otherwise.
+ */
+
+import { performance } from 'node:perf_hooks';
+import { type SymmetricCsc, adjacencyGraph, multiplySymmetric } from './sparse.js';
+import {
+  type CsrGraph,
+  type Ordering,
+  orderAmd,
+  orderNatural,
+  orderNestedDissection,
+  restrictOrdering,
+} from './ordering.js';
+import { analyzeCholesky, factorCholesky, solveCholesky, type CholeskyFactor, type RelaxOptions } from './cholesky.js';
+
+export * from './sparse.js';
+export * from './ordering.js';
+export * from './cholesky.js';
+export * from './matrixmarket.js';
+
+export type OrderingMethod = 'nested-dissection' | 'amd' | 'natural';
+
+export interface SolveOptions {
+  /** node coordinates [x0, y0, x1, y1, ...] of the mesh the matrix comes from */
+  readonly coords?: Float64Array;
+  /** node adjacency graph of that mesh (CSR) */
+  readonly nodeAdjacency?: CsrGraph;
+  /** DOFs per node (default 2); full DOF index = dofsPerNode * node + component */
+  readonly dofsPerNode?: number;
+  /**
+   * When A is a reduced matrix (fixed DOFs removed), the full DOF index of
+   * each row of A. Omitted: row r of A is full DOF r.
+   */
+  readonly fullDofOfRow?: Int32Array;
+  /** force an ordering method (default: nested dissection with coordinates, AMD without) */
+  readonly ordering?: OrderingMethod;
+  /** relative pivot tolerance (see factorCholesky) */
+  readonly pivotTolerance?: number;
+  /** relaxed supernode rules (see analyzeCholesky) */
+  readonly relax?: RelaxOptions;
+  /** leaf size of nested dissection in nodes */
+  readonly leafSize?: number;
+}
+
+export interface SolveStats {
+  readonly n: number;
+  /** nonzeros of the full symmetric A */
+  readonly nnzA: number;
+  /** nonzeros of L, diagonal included */
+  readonly nnzL: number;
+  /** sum over columns of colCount^2 */
+  readonly flops: number;
+  readonly ordering: OrderingMethod;
+  readonly nSupernodes: number;
+  /** values stored by the supernodal factor (>= nnzL: relaxed supernodes store some zeros) */
+  readonly storedValues: number;
+  /** bytes held by the factor (values, indices, pointers, permutation) */
+  readonly factorBytes: number;
+  readonly bytesPerNnzL: number;
+  /** peak bytes of the multifrontal update stack plus the largest front (freed after the factorisation) */
+  readonly workspaceBytes: number;
+  readonly seconds: { readonly ordering: number; readonly symbolic: number; readonly numeric: number; readonly solve: number };
+  /** max over right-hand sides of ||A x - b|| / ||b|| (2-norms; 0 when b = 0 and x = 0) */
+  readonly relativeResidual: number;
+}
+
+/** Computes the fill-reducing ordering solveSpd would use. */
+export function chooseOrdering(a: SymmetricCsc, options: SolveOptions = {}): { ordering: Ordering; method: OrderingMethod } {
+  const haveGeometry = options.coords !== undefined && options.nodeAdjacency !== undefined;
+  const method: OrderingMethod = options.ordering ?? (haveGeometry ? 'nested-dissection' : 'amd');
+  if (method === 'natural') return { ordering: orderNatural(a.n), method };
+  if (method === 'amd') return { ordering: orderAmd(adjacencyGraph(a)), method };
+  if (!haveGeometry) throw new RangeError('chooseOrdering: nested dissection needs coords and nodeAdjacency');
+  const dpn = options.dofsPerNode ?? 2;
+  const full = orderNestedDissection(options.nodeAdjacency!, options.coords!, dpn, { leafSize: options.leafSize });
+  const nFull = full.perm.length;
+  if (options.fullDofOfRow === undefined) {
+    if (nFull !== a.n) {
+      throw new RangeError(`chooseOrdering: mesh has ${nFull} DOFs, matrix ${a.n}; pass fullDofOfRow for a reduced matrix`);
+    }
+    return { ordering: full, method };
+  }
+  if (options.fullDofOfRow.length !== a.n) throw new RangeError('chooseOrdering: fullDofOfRow length differs from the matrix order');
+  const rowOfFull = new Int32Array(nFull).fill(-1);
+  options.fullDofOfRow.forEach((d, r) => {
+    if (d < 0 || d >= nFull || rowOfFull[d] !== -1) throw new RangeError(`chooseOrdering: fullDofOfRow[${r}] = ${d} invalid or repeated`);
+    rowOfFull[d] = r;
+  });
+  return { ordering: restrictOrdering(full.perm, rowOfFull), method };
+}
+
+/** max over right-hand sides of ||A x - b|| / ||b||. */
+export function relativeResidual(a: SymmetricCsc, x: Float64Array, b: Float64Array, nrhs = 1): number {
+  const n = a.n;
+  const ax = new Float64Array(n);
+  let worst = 0;
+  for (let r = 0; r < nrhs; r++) {
+    const xr = x.subarray(r * n, (r + 1) * n);
+    const br = b.subarray(r * n, (r + 1) * n);
+    multiplySymmetric(a, xr, ax);
+    let num = 0;
+    let den = 0;
+    for (let i = 0; i < n; i++) {
+      const d = ax[i] - br[i];
+      num += d * d;
+      den += br[i] * br[i];
+    }
+    const rel = den > 0 ? Math.sqrt(num / den) : Math.sqrt(num);
+    if (rel > worst || Number.isNaN(rel)) worst = rel;
+  }
+  return worst;
+}
+
+/**
+ * Solves A x = b for a symmetric positive definite A (lower triangle CSC).
+ * b may hold several right-hand sides of length n one after another.
+ * Throws SolverPivotError when A is singular or not positive definite.
+ */
+export function solveSpd(a: SymmetricCsc, b: Float64Array, options: SolveOptions = {}): { x: Float64Array; stats: SolveStats; factor: CholeskyFactor } {
+  const n = a.n;
+  if (n === 0 ? b.length !== 0 : b.length % n !== 0 || b.length === 0) {
+    throw new RangeError(`solveSpd: right-hand side length ${b.length} is not a positive multiple of ${n}`);
+  }
+  const nrhs = n === 0 ? 0 : b.length / n;
+  const t0 = performance.now();
+  const { ordering, method } = chooseOrdering(a, options);
+  const t1 = performance.now();
+  const symbolic = analyzeCholesky(a, ordering, options.relax);
+  const t2 = performance.now();
+  const factor = factorCholesky(a, symbolic, { pivotTolerance: options.pivotTolerance });
+  const t3 = performance.now();
+  const x = solveCholesky(factor, b, nrhs);
+  const t4 = performance.now();
+  const stats: SolveStats = {
+    n,
+    nnzA: symbolic.nnzA,
+    nnzL: symbolic.nnzL,
+    flops: symbolic.flops,
+    ordering: method,
+    nSupernodes: symbolic.nSuper,
+    storedValues: symbolic.storedValues,
+    factorBytes: factor.bytes,
+    bytesPerNnzL: symbolic.nnzL > 0 ? factor.bytes / symbolic.nnzL : 0,
+    workspaceBytes: 8 * (symbolic.stackPeak + symbolic.maxFront * symbolic.maxFront),
+    seconds: { ordering: (t1 - t0) / 1e3, symbolic: (t2 - t1) / 1e3, numeric: (t3 - t2) / 1e3, solve: (t4 - t3) / 1e3 },
+    relativeResidual: relativeResidual(a, x, b, nrhs),
+  };
+  return { x, stats, factor };
+}
