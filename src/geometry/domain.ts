@@ -1,0 +1,425 @@
+/**
+ * Turns the geometry of a model file into a Domain: closed loops of curves with the material on
+ * the left (outline counter-clockwise, holes clockwise), each edge carrying its tags and a label
+ * people can read ("hole 2", "fillet at corner 5"). Corner rounding and hole primitives are
+ * expanded here; nothing downstream knows about them.
+ */
+import { ModelError, formatPath } from '../model/errors.js';
+import type { ArcSpec, Geometry, Loop, Vertex } from '../model/schema.js';
+import { type Curve, curveAreaTerm, curveDerivative, evaluateCurve, reverseCurve } from './curve.js';
+
+export interface DomainEdge {
+  id: number;
+  loop: number;
+  curve: Curve;
+  tags: string[];
+  /** what a person calls this piece of boundary */
+  label: string;
+  /** the feature the edge belongs to, for naming where a peak sits */
+  feature: string;
+  /** JSON path of the model field it came from */
+  source: string;
+}
+
+export interface DomainCorner {
+  loop: number;
+  x: number;
+  y: number;
+  /** interior angle in the material, radians (pi = no corner; > pi re-entrant) */
+  materialAngle: number;
+  edgeIn: number;
+  edgeOut: number;
+  label: string;
+}
+
+export interface DomainLoop {
+  index: number;
+  /** 0 for the outline, k for hole k (counting from 1) */
+  hole: number;
+  name?: string;
+  label: string;
+  /** edge ids in order of travel, material on the left */
+  edges: number[];
+  source: string;
+  /** signed area enclosed (positive for the outline, negative for holes) */
+  signedArea: number;
+}
+
+export interface Domain {
+  loops: DomainLoop[];
+  edges: DomainEdge[];
+  /** junctions between consecutive edges that are not tangent-continuous */
+  corners: DomainCorner[];
+  bbox: [number, number, number, number];
+  /** the bounding-box diagonal, the length scale for tolerances */
+  scale: number;
+  /** exact material area (outline minus holes) */
+  area: number;
+}
+
+interface RawEdge {
+  curve: Curve;
+  tags: string[];
+  label: string;
+  feature: string;
+  source: string;
+}
+
+const DEG = Math.PI / 180;
+
+/** Builds the domain; throws ModelError naming the field when a loop cannot be built. */
+export function buildDomain(geometry: Geometry, basePath = 'geometry'): Domain {
+  const loops: DomainLoop[] = [];
+  const edges: DomainEdge[] = [];
+  const all: Loop[] = [geometry.outline, ...(geometry.holes ?? [])];
+  all.forEach((loop, li) => {
+    const hole = li;
+    const path = li === 0 ? `${basePath}.outline` : formatPath([basePath, 'holes', li - 1]);
+    const name = loop.name;
+    const label = li === 0 ? 'outline' : name ? `hole ${hole} "${name}"` : `hole ${hole}`;
+    const raw = buildLoop(loop, path, label, li === 0);
+    if (raw.length === 0) throw new ModelError(path, `${label}: the loop has no edges`);
+    let signed = 0;
+    for (const e of raw) signed += curveAreaTerm(e.curve);
+    const wantPositive = li === 0;
+    let ordered = raw;
+    if (Math.abs(signed) === 0 || !Number.isFinite(signed)) {
+      throw new ModelError(path, `${label}: the loop encloses no area`, 'check that its vertices are not all on one line');
+    }
+    if (signed > 0 !== wantPositive) {
+      ordered = raw.slice().reverse().map((e) => ({ ...e, curve: reverseCurve(e.curve) }));
+      signed = -signed;
+    }
+    const ids: number[] = [];
+    for (const e of ordered) {
+      const id = edges.length;
+      edges.push({ id, loop: li, ...e });
+      ids.push(id);
+    }
+    loops.push({ index: li, hole, name, label, edges: ids, source: path, signedArea: signed });
+  });
+
+  const corners = findCorners(loops, edges);
+  let xmin = Infinity;
+  let ymin = Infinity;
+  let xmax = -Infinity;
+  let ymax = -Infinity;
+  const p = [0, 0];
+  for (const e of edges) {
+    for (let k = 0; k <= 32; k++) {
+      evaluateCurve(e.curve, k / 32, p);
+      xmin = Math.min(xmin, p[0]);
+      ymin = Math.min(ymin, p[1]);
+      xmax = Math.max(xmax, p[0]);
+      ymax = Math.max(ymax, p[1]);
+    }
+  }
+  const area = loops.reduce((s, l) => s + l.signedArea, 0);
+  return { loops, edges, corners, bbox: [xmin, ymin, xmax, ymax], scale: Math.hypot(xmax - xmin, ymax - ymin), area };
+}
+
+function findCorners(loops: DomainLoop[], edges: DomainEdge[]): DomainCorner[] {
+  const corners: DomainCorner[] = [];
+  const d0 = [0, 0];
+  const d1 = [0, 0];
+  const p = [0, 0];
+  for (const loop of loops) {
+    const n = loop.edges.length;
+    for (let k = 0; k < n; k++) {
+      const ein = edges[loop.edges[k]];
+      const eout = edges[loop.edges[(k + 1) % n]];
+      curveDerivative(ein.curve, 1, d0);
+      curveDerivative(eout.curve, 0, d1);
+      const turn = Math.atan2(d0[0] * d1[1] - d0[1] * d1[0], d0[0] * d1[0] + d0[1] * d1[1]);
+      if (Math.abs(turn) < 1e-6) continue; // tangent-continuous: no corner
+      evaluateCurve(eout.curve, 0, p);
+      corners.push({
+        loop: loop.index,
+        x: p[0],
+        y: p[1],
+        materialAngle: Math.PI - turn,
+        edgeIn: ein.id,
+        edgeOut: eout.id,
+        label: `corner at (${fmt(p[0])}, ${fmt(p[1])}) of the ${loop.label}`,
+      });
+    }
+  }
+  return corners;
+}
+
+function fmt(v: number): string {
+  return Number(v.toPrecision(6)).toString();
+}
+
+// ---------------------------------------------------------------------------------------------
+
+function buildLoop(loop: Loop, path: string, label: string, isOutline: boolean): RawEdge[] {
+  const loopTags = loop.tag ? [loop.tag] : [];
+  const feature = isOutline ? 'outline' : label;
+  switch (loop.shape) {
+    case 'path':
+      return buildPath(loop.path, `${path}.path`, loopTags, isOutline, label);
+    case 'circle': {
+      const r = circleRadius(loop, path);
+      return [{ curve: { kind: 'arc', cx: loop.center[0], cy: loop.center[1], r, a0: 0, sweep: 2 * Math.PI }, tags: loopTags, label, feature, source: path }];
+    }
+    case 'ellipse': {
+      const rot = (loop.angle ?? 0) * DEG;
+      return [
+        {
+          curve: { kind: 'ellipse', cx: loop.center[0], cy: loop.center[1], a: loop.a, b: loop.b, rot, t0: 0, sweep: 2 * Math.PI },
+          tags: loopTags,
+          label,
+          feature,
+          source: path,
+        },
+      ];
+    }
+    case 'slot': {
+      if (loop.length <= loop.width) {
+        throw new ModelError(`${path}.length`, `${label}: a slot's length (${loop.length}) must exceed its width (${loop.width})`, 'for a round hole use shape "circle"');
+      }
+      const r = loop.width / 2;
+      const half = loop.length / 2 - r;
+      return roundedBox(loop.center, half, r, r, loop.angle ?? 0, loopTags, label, feature, path);
+    }
+    case 'rounded-rect': {
+      const rmax = Math.min(loop.width, loop.height) / 2;
+      if (loop.radius > rmax * (1 + 1e-12)) {
+        throw new ModelError(`${path}.radius`, `${label}: corner radius ${loop.radius} is larger than half the smaller side (${rmax})`, `use a radius of at most ${rmax}`);
+      }
+      const r = Math.min(loop.radius, rmax);
+      return roundedBox(loop.center, loop.width / 2 - r, loop.height / 2 - r, r, loop.angle ?? 0, loopTags, label, feature, path);
+    }
+  }
+}
+
+function circleRadius(loop: { radius?: number; diameter?: number }, path: string): number {
+  if (loop.radius !== undefined && loop.diameter !== undefined) {
+    if (Math.abs(loop.radius * 2 - loop.diameter) > 1e-12 * loop.diameter) {
+      throw new ModelError(path, `radius ${loop.radius} and diameter ${loop.diameter} disagree`, 'give one of them');
+    }
+  }
+  const r = loop.radius ?? (loop.diameter !== undefined ? loop.diameter / 2 : undefined);
+  if (r === undefined) throw new ModelError(path, 'a circle needs a radius or a diameter');
+  return r;
+}
+
+/**
+ * A rectangle of half sizes (hx + r, hy + r) with corners rounded to radius r, rotated by
+ * angleDeg about centre c; counter-clockwise. hx or hy may be zero (a slot end is then a half circle).
+ */
+function roundedBox(
+  c: readonly [number, number],
+  hx: number,
+  hy: number,
+  r: number,
+  angleDeg: number,
+  tags: string[],
+  label: string,
+  feature: string,
+  source: string,
+): RawEdge[] {
+  const th = angleDeg * DEG;
+  const co = Math.cos(th);
+  const si = Math.sin(th);
+  const X = (x: number, y: number) => c[0] + co * x - si * y;
+  const Y = (x: number, y: number) => c[1] + si * x + co * y;
+  const out: RawEdge[] = [];
+  const line = (x0: number, y0: number, x1: number, y1: number) => {
+    if (Math.hypot(x1 - x0, y1 - y0) <= 1e-12 * (hx + hy + r)) return;
+    out.push({ curve: { kind: 'line', x0: X(x0, y0), y0: Y(x0, y0), x1: X(x1, y1), y1: Y(x1, y1) }, tags, label, feature, source });
+  };
+  const arc = (cx: number, cy: number, a0: number) => {
+    if (r <= 0) return;
+    out.push({ curve: { kind: 'arc', cx: X(cx, cy), cy: Y(cx, cy), r, a0: a0 + th, sweep: Math.PI / 2 }, tags, label, feature, source });
+  };
+  // Counter-clockwise from the bottom edge.
+  line(-hx, -hy - r, hx, -hy - r);
+  arc(hx, -hy, -Math.PI / 2);
+  line(hx + r, -hy, hx + r, hy);
+  arc(hx, hy, 0);
+  line(hx, hy + r, -hx, hy + r);
+  arc(-hx, hy, Math.PI / 2);
+  line(-hx - r, hy, -hx - r, -hy);
+  arc(-hx, -hy, Math.PI);
+  return out;
+}
+
+interface PathVertex {
+  x: number;
+  y: number;
+  round?: number;
+  edge?: string;
+  arc?: ArcSpec;
+}
+
+function normaliseVertex(v: Vertex): PathVertex {
+  if (Array.isArray(v)) return { x: v[0], y: v[1] };
+  const o = v as Exclude<Vertex, readonly [number, number]>;
+  return { x: o.at[0], y: o.at[1], round: o.round, edge: o.edge, arc: o.arc };
+}
+
+/** An arc from (ax, ay) to (bx, by) as given by spec; throws when it cannot be built. */
+function buildArc(ax: number, ay: number, bx: number, by: number, spec: ArcSpec, path: string, scale: number): Curve {
+  const chord = Math.hypot(bx - ax, by - ay);
+  let cx: number;
+  let cy: number;
+  let ccw: boolean;
+  if ('through' in spec) {
+    const [px, py] = spec.through;
+    const d = 2 * (ax * (py - by) + px * (by - ay) + bx * (ay - py));
+    if (Math.abs(d) <= 1e-12 * scale * scale) {
+      throw new ModelError(`${path}.through`, 'the three points of the arc lie on one line', 'move the "through" point off the chord, or make the edge straight');
+    }
+    const a2 = ax * ax + ay * ay;
+    const p2 = px * px + py * py;
+    const b2 = bx * bx + by * by;
+    cx = (a2 * (py - by) + p2 * (by - ay) + b2 * (ay - py)) / d;
+    cy = (a2 * (bx - px) + p2 * (ax - bx) + b2 * (px - ax)) / d;
+    ccw = (px - ax) * (by - ay) - (py - ay) * (bx - ax) < 0; // A -> P -> B turns left
+  } else if ('center' in spec) {
+    [cx, cy] = spec.center;
+    const ra = Math.hypot(ax - cx, ay - cy);
+    const rb = Math.hypot(bx - cx, by - cy);
+    if (Math.abs(ra - rb) > 1e-6 * Math.max(ra, rb)) {
+      throw new ModelError(`${path}.center`, `the arc centre is ${fmt(ra)} from the start and ${fmt(rb)} from the end; they must be equal`, 'correct the centre or the end points');
+    }
+    ccw = spec.turn === 'ccw';
+  } else {
+    const r = spec.radius;
+    if (r < chord / 2 * (1 - 1e-9)) {
+      throw new ModelError(`${path}.radius`, `an arc of radius ${r} cannot span a chord of ${fmt(chord)}`, `use a radius of at least ${fmt(chord / 2)}`);
+    }
+    const h = Math.sqrt(Math.max(0, r * r - (chord * chord) / 4));
+    const mx = (ax + bx) / 2;
+    const my = (ay + by) / 2;
+    const nx = -(by - ay) / chord;
+    const ny = (bx - ax) / chord;
+    ccw = spec.turn === 'ccw';
+    const left = ccw !== (spec.large ?? false); // small ccw arc: centre on the left of A -> B
+    cx = mx + (left ? h : -h) * nx;
+    cy = my + (left ? h : -h) * ny;
+  }
+  const r = Math.hypot(ax - cx, ay - cy);
+  const a0 = Math.atan2(ay - cy, ax - cx);
+  const a1 = Math.atan2(by - cy, bx - cx);
+  let sweep = a1 - a0;
+  if (ccw) {
+    while (sweep <= 0) sweep += 2 * Math.PI;
+    while (sweep > 2 * Math.PI) sweep -= 2 * Math.PI;
+  } else {
+    while (sweep >= 0) sweep -= 2 * Math.PI;
+    while (sweep < -2 * Math.PI) sweep += 2 * Math.PI;
+  }
+  return { kind: 'arc', cx, cy, r, a0, sweep };
+}
+
+function buildPath(vertices: Vertex[], path: string, loopTags: string[], isOutline: boolean, loopLabel: string): RawEdge[] {
+  const vs = vertices.map(normaliseVertex);
+  const n = vs.length;
+  let scale = 0;
+  for (const v of vs) scale = Math.max(scale, Math.abs(v.x), Math.abs(v.y));
+  const where = (i: number) => (isOutline ? `corner ${i + 1}` : `corner ${i + 1} of ${loopLabel}`);
+  const edgeName = (i: number) => (isOutline ? `outline edge ${i + 1}` : `edge ${i + 1} of ${loopLabel}`);
+  // Zero-length edges.
+  for (let i = 0; i < n; i++) {
+    const a = vs[i];
+    const b = vs[(i + 1) % n];
+    if (Math.hypot(b.x - a.x, b.y - a.y) <= 1e-9 * (scale || 1)) {
+      throw new ModelError(
+        formatPath([path, (i + 1) % n]),
+        `vertices ${i + 1} and ${((i + 1) % n) + 1} are at the same place (${fmt(a.x)}, ${fmt(a.y)}): a zero-length edge`,
+        'remove the repeated vertex (the loop closes itself; do not repeat the first vertex at the end)',
+      );
+    }
+  }
+  // Fillet trims: at vertex i with radius r, the tangent points lie d_i along both neighbouring edges.
+  const trim = new Float64Array(n);
+  const filletArcs: (Curve | null)[] = new Array(n).fill(null);
+  for (let i = 0; i < n; i++) {
+    const r = vs[i].round;
+    if (r === undefined) continue;
+    const prev = vs[(i - 1 + n) % n];
+    const v = vs[i];
+    const next = vs[(i + 1) % n];
+    if (prev.arc || v.arc) {
+      throw new ModelError(formatPath([path, i, 'round']), `${where(i)}: rounding needs straight edges on both sides of the corner`, 'draw the fillet as an arc edge instead');
+    }
+    const l1 = Math.hypot(prev.x - v.x, prev.y - v.y);
+    const l2 = Math.hypot(next.x - v.x, next.y - v.y);
+    const u1x = (prev.x - v.x) / l1;
+    const u1y = (prev.y - v.y) / l1;
+    const u2x = (next.x - v.x) / l2;
+    const u2y = (next.y - v.y) / l2;
+    const cosA = Math.max(-1, Math.min(1, u1x * u2x + u1y * u2y));
+    const angle = Math.acos(cosA); // angle between the two edges at the vertex, (0, pi)
+    if (angle > Math.PI - 1e-9) {
+      throw new ModelError(formatPath([path, i, 'round']), `${where(i)}: the edges are in line, there is no corner to round`, 'remove "round" from this vertex');
+    }
+    const d = r / Math.tan(angle / 2);
+    trim[i] = d;
+    const bx = u1x + u2x;
+    const by = u1y + u2y;
+    const bl = Math.hypot(bx, by);
+    const dist = r / Math.sin(angle / 2);
+    const cx = v.x + (bx / bl) * dist;
+    const cy = v.y + (by / bl) * dist;
+    const t1x = v.x + u1x * d;
+    const t1y = v.y + u1y * d;
+    const t2x = v.x + u2x * d;
+    const t2y = v.y + u2y * d;
+    const a0 = Math.atan2(t1y - cy, t1x - cx);
+    const a1 = Math.atan2(t2y - cy, t2x - cx);
+    // The short way round from the first tangent point to the second.
+    let sweep = a1 - a0;
+    while (sweep > Math.PI) sweep -= 2 * Math.PI;
+    while (sweep < -Math.PI) sweep += 2 * Math.PI;
+    filletArcs[i] = { kind: 'arc', cx, cy, r, a0, sweep };
+  }
+  for (let i = 0; i < n; i++) {
+    const a = vs[i];
+    const b = vs[(i + 1) % n];
+    const len = Math.hypot(b.x - a.x, b.y - a.y);
+    const used = trim[i] + trim[(i + 1) % n];
+    if (used > len * (1 + 1e-9)) {
+      const j = trim[i] > trim[(i + 1) % n] ? i : (i + 1) % n;
+      throw new ModelError(
+        formatPath([path, j, 'round']),
+        `${edgeName(i)} is ${fmt(len)} long, but the roundings at its ends need ${fmt(used)} of it`,
+        'use smaller radii at its corners',
+      );
+    }
+  }
+  const out: RawEdge[] = [];
+  for (let i = 0; i < n; i++) {
+    const a = vs[i];
+    const b = vs[(i + 1) % n];
+    const tags = [...loopTags, ...(a.edge ? [a.edge] : [])];
+    const source = formatPath([path, i]);
+    const label = a.edge ? `edge "${a.edge}"` : edgeName(i);
+    if (filletArcs[i]) {
+      out.push({ curve: filletArcs[i]!, tags: [...loopTags], label: `fillet at ${where(i)}`, feature: `fillet at ${where(i)}`, source: formatPath([path, i, 'round']) });
+    }
+    if (a.arc) {
+      const curve = buildArc(a.x, a.y, b.x, b.y, a.arc, `${source}.arc`, scale || 1);
+      out.push({ curve, tags, label: `arc ${label}`, feature: isOutline ? `arc ${label}` : loopLabel, source: `${source}.arc` });
+    } else {
+      const len = Math.hypot(b.x - a.x, b.y - a.y);
+      const ux = (b.x - a.x) / len;
+      const uy = (b.y - a.y) / len;
+      const s0 = trim[i];
+      const s1 = len - trim[(i + 1) % n];
+      if (s1 - s0 > 1e-12 * len) {
+        out.push({
+          curve: { kind: 'line', x0: a.x + ux * s0, y0: a.y + uy * s0, x1: a.x + ux * s1, y1: a.y + uy * s1 },
+          tags,
+          label,
+          feature: isOutline ? label : loopLabel,
+          source,
+        });
+      }
+    }
+  }
+  return out;
+}

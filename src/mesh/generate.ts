@@ -1,0 +1,241 @@
+/**
+ * The mesh pipeline: size field -> boundary points -> boundary check -> initial constrained
+ * triangulation (cdt2d, once) -> Delaunay refinement in place -> compact linear mesh ->
+ * optional quadratic upgrade with midside nodes on the true curves -> mesh check.
+ */
+import { evaluateCurve } from '../geometry/curve.js';
+import type { Domain } from '../geometry/domain.js';
+import { findContacts } from '../geometry/intersect.js';
+import { AnalysisError, InternalError } from '../model/errors.js';
+import { discretiseBoundary, type BoundaryPoints } from './boundary.js';
+import { checkMesh } from './check.js';
+import { refineMesh } from './refine.js';
+import { buildSizeField, type SizeField, type SizeOptions } from './sizefield.js';
+import { TriMesh } from './trimesh.js';
+import type { Mesh, MeshStats } from './types.js';
+
+export interface MeshOptions extends SizeOptions {
+  minAngleDeg?: number;
+  maxVertices?: number;
+}
+
+export interface MeshResult {
+  mesh: Mesh;
+  stats: MeshStats;
+  size: SizeField;
+}
+
+export function generateMesh(domain: Domain, opts: MeshOptions): MeshResult {
+  const t0 = performance.now();
+  const size = buildSizeField(domain, opts);
+  const boundary = discretiseBoundary(domain, size);
+  checkBoundary(domain, boundary);
+  const t1 = performance.now();
+
+  const nb = boundary.xy.length / 2;
+  const ns = boundary.segments.length / 2;
+  const tm = new TriMesh(Math.max(1024, 4 * nb), Math.max(2048, 8 * nb), Math.max(1024, 2 * ns));
+  // Box corners, well outside the part so every boundary point lies strictly inside.
+  const [x0, y0, x1, y1] = domain.bbox;
+  const pad = 0.1 * domain.scale;
+  tm.addVertex(x0 - pad, y0 - pad, 2, -1, 0, -1);
+  tm.addVertex(x1 + pad, y0 - pad, 2, -1, 0, -1);
+  tm.addVertex(x1 + pad, y1 + pad, 2, -1, 0, -1);
+  tm.addVertex(x0 - pad, y1 + pad, 2, -1, 0, -1);
+  for (let i = 0; i < nb; i++) {
+    tm.addVertex(boundary.xy[2 * i], boundary.xy[2 * i + 1], 1, boundary.edge[i], boundary.param[i], boundary.corner[i]);
+  }
+  for (let s = 0; s < ns; s++) {
+    tm.addSegment(4 + boundary.segments[2 * s], 4 + boundary.segments[2 * s + 1], boundary.segEdge[s], boundary.segT0[s], boundary.segT1[s]);
+  }
+  tm.triangulateInitial();
+  const t2 = performance.now();
+
+  const refineStats = refineMesh(tm, domain, {
+    minAngleDeg: opts.minAngleDeg ?? 25,
+    size,
+    maxVertices: opts.maxVertices ?? 4_000_000,
+  });
+  const t3 = performance.now();
+
+  const linear = extractLinear(tm);
+  const mesh = opts.order === 2 ? upgradeToQuadratic(linear, domain) : linear;
+  const quality = checkMesh(mesh, domain);
+  const t4 = performance.now();
+  return {
+    mesh,
+    size,
+    stats: {
+      minAngleDeg: quality.minAngleDeg,
+      maxAngleDeg: quality.maxAngleDeg,
+      minAngleUnforcedDeg: minUnforcedAngle(mesh, domain),
+      triangles: mesh.nElements,
+      vertices: mesh.nVertices,
+      timeMs: { boundary: t1 - t0, triangulate: t2 - t1, refine: t3 - t2, finish: t4 - t3, total: t4 - t0 },
+      refine: refineStats,
+    },
+  };
+}
+
+/** The boundary polygon must be clean before it goes to cdt2d, which would fail silently. */
+function checkBoundary(domain: Domain, b: BoundaryPoints): void {
+  const ns = b.segments.length / 2;
+  const segLoop = new Int32Array(ns);
+  for (let s = 0; s < ns; s++) segLoop[s] = domain.edges[b.segEdge[s]].loop;
+  const contacts = findContacts({ xy: b.xy, segs: b.segments, segLoop, segSlack: new Float64Array(ns) }, 1e-9 * domain.scale, 1);
+  if (contacts.length > 0) {
+    const c = contacts[0];
+    const l1 = domain.loops[c.loop1].label;
+    const l2 = domain.loops[c.loop2].label;
+    throw new AnalysisError(
+      `the boundary points of the ${l1}${c.loop1 === c.loop2 ? '' : ` and the ${l2}`} come too close near (${c.x.toPrecision(5)}, ${c.y.toPrecision(5)}) for the element size there`,
+      'use a smaller mesh.size or mesh.raiserSize, or widen the gap',
+    );
+  }
+}
+
+/** Compacts the material triangles of the work mesh into a linear Mesh. */
+function extractLinear(tm: TriMesh): Mesh {
+  const newIndex = new Int32Array(tm.nv).fill(-1);
+  let nTri = 0;
+  for (let t = 0; t < tm.nt; t++) if (tm.talive[t] && tm.treg[t] === 1) nTri++;
+  const elements = new Int32Array(3 * nTri);
+  let nNodes = 0;
+  let e = 0;
+  for (let t = 0; t < tm.nt; t++) {
+    if (!tm.talive[t] || tm.treg[t] !== 1) continue;
+    for (let i = 0; i < 3; i++) {
+      const v = tm.tv[3 * t + i];
+      if (newIndex[v] < 0) newIndex[v] = nNodes++;
+      elements[3 * e + i] = newIndex[v];
+    }
+    e++;
+  }
+  const nodes = new Float64Array(2 * nNodes);
+  const nodeEdge = new Int32Array(nNodes).fill(-1);
+  const nodeCorner = new Int32Array(nNodes).fill(-1);
+  for (let v = 0; v < tm.nv; v++) {
+    const n = newIndex[v];
+    if (n < 0) continue;
+    nodes[2 * n] = tm.px[v];
+    nodes[2 * n + 1] = tm.py[v];
+    nodeEdge[n] = tm.vEdge[v];
+    nodeCorner[n] = tm.vCorner[v];
+  }
+  const bEdges = new Int32Array(3 * tm.ns);
+  const bEdgeDomain = new Int32Array(tm.ns);
+  const bEdgeT = new Float64Array(2 * tm.ns);
+  for (let s = 0; s < tm.ns; s++) {
+    const a = newIndex[tm.segA[s]];
+    const b = newIndex[tm.segB[s]];
+    if (a < 0 || b < 0) throw new InternalError(`boundary segment ${s} lost its material triangle`);
+    bEdges[3 * s] = a;
+    bEdges[3 * s + 1] = b;
+    bEdges[3 * s + 2] = -1;
+    bEdgeDomain[s] = tm.segEdge[s];
+    bEdgeT[2 * s] = tm.segT0[s];
+    bEdgeT[2 * s + 1] = tm.segT1[s];
+    // A junction node belongs to the edge that starts there.
+    if (nodeEdge[a] < 0) nodeEdge[a] = tm.segEdge[s];
+  }
+  return {
+    order: 1,
+    nNodes,
+    nVertices: nNodes,
+    nodes,
+    nElements: nTri,
+    elements,
+    bEdges,
+    nBEdges: tm.ns,
+    bEdgeDomain,
+    bEdgeT,
+    nodeEdge,
+    nodeCorner,
+  };
+}
+
+/**
+ * Adds a midside node on every edge. On boundary edges it sits on the true curve at the middle
+ * parameter, so curved sides are isoparametric quadratic curves; elsewhere at the chord midpoint.
+ */
+export function upgradeToQuadratic(lin: Mesh, domain: Domain): Mesh {
+  const nv = lin.nNodes;
+  const ne = lin.nElements;
+  const edgeKey = (a: number, b: number) => (a < b ? a * nv + b : b * nv + a);
+  const mid = new Map<number, number>();
+  const elements = new Int32Array(6 * ne);
+  const extra: number[] = [];
+  let next = nv;
+  const local = [
+    [0, 1],
+    [1, 2],
+    [2, 0],
+  ];
+  for (let e = 0; e < ne; e++) {
+    for (let i = 0; i < 3; i++) elements[6 * e + i] = lin.elements[3 * e + i];
+    for (let k = 0; k < 3; k++) {
+      const a = lin.elements[3 * e + local[k][0]];
+      const b = lin.elements[3 * e + local[k][1]];
+      const key = edgeKey(a, b);
+      let m = mid.get(key);
+      if (m === undefined) {
+        m = next++;
+        mid.set(key, m);
+        extra.push((lin.nodes[2 * a] + lin.nodes[2 * b]) / 2, (lin.nodes[2 * a + 1] + lin.nodes[2 * b + 1]) / 2);
+      }
+      elements[6 * e + 3 + k] = m;
+    }
+  }
+  const nodes = new Float64Array(2 * next);
+  nodes.set(lin.nodes);
+  nodes.set(extra, 2 * nv);
+  const nodeEdge = new Int32Array(next).fill(-1);
+  nodeEdge.set(lin.nodeEdge);
+  const nodeCorner = new Int32Array(next).fill(-1);
+  nodeCorner.set(lin.nodeCorner);
+  const bEdges = Int32Array.from(lin.bEdges);
+  const p = [0, 0];
+  for (let s = 0; s < lin.nBEdges; s++) {
+    const a = bEdges[3 * s];
+    const b = bEdges[3 * s + 1];
+    const m = mid.get(edgeKey(a, b));
+    if (m === undefined) throw new InternalError(`boundary edge ${a}-${b} is not an element edge`);
+    bEdges[3 * s + 2] = m;
+    const edge = domain.edges[lin.bEdgeDomain[s]];
+    nodeEdge[m] = edge.id;
+    if (edge.curve.kind !== 'line') {
+      evaluateCurve(edge.curve, 0.5 * (lin.bEdgeT[2 * s] + lin.bEdgeT[2 * s + 1]), p);
+      nodes[2 * m] = p[0];
+      nodes[2 * m + 1] = p[1];
+    }
+  }
+  return { ...lin, order: 2, nNodes: next, nodes, elements, bEdges, nodeEdge, nodeCorner };
+}
+
+/** Smallest corner angle over triangles not touching a sharp input corner (degrees). */
+function minUnforcedAngle(mesh: Mesh, domain: Domain): number {
+  const per = mesh.order === 2 ? 6 : 3;
+  let best = 180;
+  for (let e = 0; e < mesh.nElements; e++) {
+    let forced = false;
+    for (let i = 0; i < 3; i++) {
+      const c = mesh.nodeCorner[mesh.elements[per * e + i]];
+      if (c >= 0 && domain.corners[c].materialAngle < Math.PI / 3) forced = true;
+    }
+    if (forced) continue;
+    best = Math.min(best, triangleMinAngle(mesh, per, e));
+  }
+  return best;
+}
+
+export function triangleMinAngle(mesh: Mesh, per: number, e: number): number {
+  const n = mesh.nodes;
+  const a = mesh.elements[per * e];
+  const b = mesh.elements[per * e + 1];
+  const c = mesh.elements[per * e + 2];
+  const la = Math.hypot(n[2 * b] - n[2 * c], n[2 * b + 1] - n[2 * c + 1]);
+  const lb = Math.hypot(n[2 * a] - n[2 * c], n[2 * a + 1] - n[2 * c + 1]);
+  const lc = Math.hypot(n[2 * a] - n[2 * b], n[2 * a + 1] - n[2 * b + 1]);
+  const angle = (x: number, y: number, z: number) => Math.acos(Math.max(-1, Math.min(1, (y * y + z * z - x * x) / (2 * y * z))));
+  return (Math.min(angle(la, lb, lc), angle(lb, la, lc), angle(lc, la, lb)) * 180) / Math.PI;
+}

@@ -1,0 +1,95 @@
+/**
+ * Errors meant for people. Each names where the problem is (a JSON path into the model file,
+ * such as `geometry.holes[1].radius`), what is wrong, and how to fix it. The command line turns
+ * them into exit codes: ModelError -> 2 (bad input), AnalysisError -> 3 (the model cannot be
+ * analysed as given), anything else -> 1 (an internal fault).
+ */
+
+export class ModelError extends Error {
+  override readonly name = 'ModelError';
+  /** 1-based line and column in the file, when the problem can be placed there */
+  line?: number;
+  column?: number;
+  /** the offending lines of the file with a caret under the column, when known */
+  excerpt?: string;
+  constructor(
+    /** JSON path of the offending field, '' for the whole file */
+    readonly path: string,
+    message: string,
+    /** how to fix it, if there is something to say */
+    readonly hint?: string,
+    /** the file the model came from, when known */
+    public file?: string,
+  ) {
+    super(message);
+  }
+
+  /**
+   * "file:line:column: at path: message", then the excerpt and "fix: hint" on lines of their
+   * own. The file:line:column form is the one terminals and editors turn into a link.
+   */
+  describe(): string {
+    let place = this.file ?? '';
+    if (this.line !== undefined) place += `${place ? ':' : 'line '}${this.line}${this.column !== undefined ? `:${this.column}` : ''}`;
+    const where = [place, this.path ? `at ${this.path}` : ''].filter(Boolean).join(': ');
+    const excerpt = this.excerpt ? `\n${indent(this.excerpt, '    ')}` : '';
+    return `${where ? where + ': ' : ''}${this.message}${excerpt}${this.hint ? `\n  fix: ${this.hint}` : ''}`;
+  }
+}
+
+/**
+ * Several problems found in one pass over a model file, reported together so that one run
+ * shows everything to correct. It is a ModelError (exit code 2); `problems` holds each one,
+ * in the order they occur in the file, and the message lists them one per line.
+ */
+export class ModelErrorList extends ModelError {
+  readonly problems: readonly ModelError[];
+  constructor(problems: readonly ModelError[], file?: string) {
+    if (problems.length === 0) throw new InternalError('ModelErrorList needs at least one problem');
+    const lines = problems.map((p) => `${p.path ? `${p.path}: ` : ''}${p.message}`);
+    super('', `${problems.length} problem${problems.length === 1 ? '' : 's'} in the model:\n${lines.join('\n')}`, undefined, file);
+    this.problems = problems;
+    for (const p of problems) if (file !== undefined && p.file === undefined) p.file = file;
+  }
+
+  override describe(): string {
+    const head = `${this.file ? `${this.file}: ` : ''}${this.problems.length} problem${this.problems.length === 1 ? '' : 's'} in the model`;
+    return [head, ...this.problems.map((p) => indent(p.describe(), '  '))].join('\n');
+  }
+}
+
+function indent(text: string, by: string): string {
+  return text
+    .split('\n')
+    .map((l) => by + l)
+    .join('\n');
+}
+
+export class AnalysisError extends Error {
+  override readonly name = 'AnalysisError';
+  constructor(
+    message: string,
+    readonly hint?: string,
+  ) {
+    super(message);
+  }
+
+  describe(): string {
+    return `${this.message}${this.hint ? `\n  fix: ${this.hint}` : ''}`;
+  }
+}
+
+/** A check inside raiser failed: a bug, not a problem with the model. */
+export class InternalError extends Error {
+  override readonly name = 'InternalError';
+}
+
+/** Formats a JSON path from its parts: ['geometry', 'holes', 1, 'radius'] -> geometry.holes[1].radius */
+export function formatPath(parts: readonly (string | number)[]): string {
+  let s = '';
+  for (const p of parts) {
+    if (typeof p === 'number') s += `[${p}]`;
+    else s += s ? `.${p}` : p;
+  }
+  return s;
+}

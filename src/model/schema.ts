@@ -1,0 +1,264 @@
+/**
+ * The model file format: one schema, used both to validate model files at run time and to
+ * generate the JSON Schema that editors use (schema/raiser-model.schema.json, written by
+ * `npm run schema`). Every field carries its description here, so the generated schema and
+ * the validation messages never drift apart.
+ *
+ * Conventions: y points up; lengths, forces and stresses are in the units the file declares
+ * (default mm, N, MPa). Indices shown to people (hole 2, corner 5) count from 1.
+ */
+import { z } from 'zod';
+
+const finite = () => z.number();
+const positive = () => z.number().positive();
+export const Point = z.tuple([finite(), finite()]).describe('a point [x, y] in model length units');
+
+// ---------------------------------------------------------------------------------------------
+// Boundary selectors: how loads and supports find the part of the boundary they act on.
+
+export const Selector = z
+  .union([
+    z.string().min(1).describe('a tag name given to edges in the geometry'),
+    z.strictObject({ x: finite().describe('edges lying on the line x = value') }),
+    z.strictObject({ y: finite().describe('edges lying on the line y = value') }),
+    z.strictObject({
+      line: z.tuple([Point, Point]).describe('edges lying on the infinite line through these two points'),
+    }),
+    z.strictObject({
+      hole: z.union([z.number().int().positive(), z.string().min(1)]).describe('every edge of a hole, by its number (from 1) or name'),
+    }),
+    z.strictObject({ outline: z.literal(true).describe('every edge of the outline') }),
+    z.strictObject({
+      box: z.tuple([Point, Point]).describe('edges lying wholly inside the box [[xmin, ymin], [xmax, ymax]]'),
+    }),
+  ])
+  .describe('which boundary edges: a tag name, or a geometric selector');
+export type Selector = z.infer<typeof Selector>;
+
+export const Target = z.union([Selector, z.array(Selector).min(1)]).describe('one selector or a list of them (their union)');
+export type Target = z.infer<typeof Target>;
+
+// ---------------------------------------------------------------------------------------------
+// Geometry.
+
+export const ArcSpec = z
+  .union([
+    z.strictObject({
+      radius: positive().describe('arc radius'),
+      turn: z.enum(['ccw', 'cw']).describe('direction of travel around the arc centre, from this vertex to the next'),
+      large: z.boolean().optional().describe('take the arc longer than a half circle (default false)'),
+    }),
+    z.strictObject({
+      center: Point.describe('arc centre; its distance to both end points must agree'),
+      turn: z.enum(['ccw', 'cw']).describe('direction of travel around the centre, from this vertex to the next'),
+    }),
+    z.strictObject({ through: Point.describe('a third point the arc passes through, between its ends') }),
+  ])
+  .describe('makes the edge from this vertex to the next a circular arc');
+export type ArcSpec = z.infer<typeof ArcSpec>;
+
+export const Vertex = z
+  .union([
+    Point,
+    z.strictObject({
+      at: Point.describe('vertex position'),
+      round: positive().optional().describe('round this corner with a fillet of this radius (both neighbouring edges straight)'),
+      edge: z.string().min(1).optional().describe('tag for the edge from this vertex to the next one'),
+      arc: ArcSpec.optional(),
+    }),
+  ])
+  .describe('a loop vertex: [x, y], or an object with the edge that leaves it');
+export type Vertex = z.infer<typeof Vertex>;
+
+const loopCommon = {
+  name: z.string().min(1).optional().describe('a name used in messages and results (for example "bolt hole")'),
+  tag: z.string().min(1).optional().describe('tag given to every edge of this loop'),
+};
+
+export const PathLoop = z.strictObject({
+  shape: z.literal('path'),
+  path: z.array(Vertex).min(3).describe('vertices in order; the loop closes itself from the last vertex back to the first'),
+  ...loopCommon,
+});
+export const CircleLoop = z.strictObject({
+  shape: z.literal('circle'),
+  center: Point,
+  radius: positive().optional().describe('radius (give radius or diameter)'),
+  diameter: positive().optional().describe('diameter (give radius or diameter)'),
+  ...loopCommon,
+});
+export const EllipseLoop = z.strictObject({
+  shape: z.literal('ellipse'),
+  center: Point,
+  a: positive().describe('semi-axis along the direction given by angle'),
+  b: positive().describe('semi-axis across it'),
+  angle: finite().optional().describe('rotation of the a axis from +x, degrees counter-clockwise (default 0)'),
+  ...loopCommon,
+});
+export const SlotLoop = z.strictObject({
+  shape: z.literal('slot'),
+  center: Point,
+  length: positive().describe('overall length, end to end, including the round ends'),
+  width: positive().describe('width; the ends are half circles of diameter width'),
+  angle: finite().optional().describe('rotation of the length direction from +x, degrees counter-clockwise (default 0)'),
+  ...loopCommon,
+});
+export const RoundedRectLoop = z.strictObject({
+  shape: z.literal('rounded-rect'),
+  center: Point,
+  width: positive().describe('size along the rotated x direction'),
+  height: positive().describe('size along the rotated y direction'),
+  radius: z.number().nonnegative().describe('corner radius; 0 gives sharp corners'),
+  angle: finite().optional().describe('rotation from +x, degrees counter-clockwise (default 0)'),
+  ...loopCommon,
+});
+
+export const Loop = z
+  .discriminatedUnion('shape', [PathLoop, CircleLoop, EllipseLoop, SlotLoop, RoundedRectLoop])
+  .describe('a closed boundary loop');
+export type Loop = z.infer<typeof Loop>;
+export type PathLoop = z.infer<typeof PathLoop>;
+
+export const Geometry = z.strictObject({
+  outline: Loop.describe('the outer boundary of the plate'),
+  holes: z.array(Loop).optional().describe('holes and cutouts, each wholly inside the outline and apart from the others'),
+});
+export type Geometry = z.infer<typeof Geometry>;
+
+// ---------------------------------------------------------------------------------------------
+// Material, units, supports, loads.
+
+export const LENGTH_UNITS = ['mm', 'cm', 'm', 'in', 'ft'] as const;
+export const FORCE_UNITS = ['N', 'kN', 'MN', 'lbf', 'kip'] as const;
+
+export const Units = z
+  .strictObject({
+    length: z.enum(LENGTH_UNITS).optional().describe('length unit (default mm)'),
+    force: z.enum(FORCE_UNITS).optional().describe('force unit (default N); stress is force / length^2'),
+  })
+  .describe('a consistent unit set; stresses and E are in force/length^2 (N and mm give MPa)');
+
+export const Material = z.strictObject({
+  name: z.string().optional(),
+  E: positive().describe("Young's modulus, in stress units"),
+  nu: z.number().min(0).lt(0.5).describe("Poisson's ratio, 0 <= nu < 0.5"),
+  yield: positive().optional().describe('yield strength, for the safety summary'),
+  ultimate: positive().optional().describe('ultimate tensile strength, for the safety summary and notch sensitivity'),
+});
+export type Material = z.infer<typeof Material>;
+
+export const Support = z.discriminatedUnion('type', [
+  z.strictObject({ type: z.literal('fixed'), on: Target, note: z.string().optional() }).describe('both displacement components zero'),
+  z.strictObject({
+    type: z.literal('roller'),
+    fix: z.enum(['x', 'y']).describe('the displacement component held at zero; the other is free'),
+    on: Target,
+    note: z.string().optional(),
+  }),
+  z.strictObject({ type: z.literal('symmetry'), on: Target, note: z.string().optional() }).describe(
+    'a mirror plane: the displacement normal to the edge is zero (edges must be straight and axis-parallel)',
+  ),
+  z.strictObject({
+    type: z.literal('pin'),
+    at: Point.describe('the boundary node nearest this point is held'),
+    fix: z.enum(['x', 'y', 'xy']).optional().describe('components held (default xy)'),
+    note: z.string().optional(),
+  }),
+]);
+export type Support = z.infer<typeof Support>;
+
+export const Load = z.discriminatedUnion('type', [
+  z.strictObject({
+    type: z.literal('traction'),
+    on: Target,
+    normal: finite().optional().describe('normal traction, positive pulling outward (tension), stress units'),
+    shear: finite().optional().describe('tangential traction, positive along the edge direction with the material on the left, stress units'),
+    note: z.string().optional(),
+  }),
+  z.strictObject({
+    type: z.literal('force'),
+    on: Target,
+    fx: finite().optional().describe('total force in x, spread uniformly over the edges, force units'),
+    fy: finite().optional().describe('total force in y, spread uniformly over the edges, force units'),
+    note: z.string().optional(),
+  }),
+  z.strictObject({
+    type: z.literal('moment'),
+    on: Target,
+    m: finite().describe('in-plane bending moment, counter-clockwise positive, force x length; applied as a linearly varying normal traction on straight collinear edges'),
+    note: z.string().optional(),
+  }),
+  z.strictObject({
+    type: z.literal('pressure'),
+    on: Target,
+    p: finite().describe('pressure pushing on the surface (into the material), stress units; straight or curved edges'),
+    note: z.string().optional(),
+  }),
+  z.strictObject({
+    type: z.literal('remote'),
+    sxx: finite().optional(),
+    syy: finite().optional(),
+    sxy: finite().optional(),
+    on: Target.optional().describe('edges it acts on (default: every outline edge without a support)'),
+    note: z.string().optional(),
+  }).describe('a remote plane stress state, applied as traction sigma . n on the outer edges'),
+]);
+export type Load = z.infer<typeof Load>;
+
+export const MeshSettings = z.strictObject({
+  element: z.enum(['quadratic', 'linear']).optional().describe('6-node (default) or 3-node triangles'),
+  size: positive().optional().describe('target element edge length away from stress raisers (default: from the part size)'),
+  raiserSize: positive().optional().describe('target element edge length at stress raisers (default: from the radii found)'),
+  grading: z.number().min(0.05).max(1).optional().describe('how fast the element size may grow away from a raiser, per unit distance (default 0.25)'),
+  minAngle: z.number().min(10).max(30).optional().describe('minimum triangle angle, degrees (default 25)'),
+});
+export type MeshSettings = z.infer<typeof MeshSettings>;
+
+export const STRESS_MEASURES = ['max-principal', 'von-mises', 'tresca', 'sxx', 'syy', 'sxy', 'min-principal'] as const;
+export type StressMeasure = (typeof STRESS_MEASURES)[number];
+
+export const ResultSettings = z.strictObject({
+  measure: z.enum(STRESS_MEASURES).optional().describe('the stress measure for the peak and Kt (default max-principal)'),
+  section: z
+    .union([
+      z.literal('auto'),
+      z.strictObject({ from: Point, to: Point }).describe('a user-given straight cut for the nominal stress'),
+    ])
+    .optional()
+    .describe('the nominal section: auto (the least net section across the load) or a cut'),
+  direction: Point.optional().describe('load direction for the nominal section, if it should not be taken from the loads'),
+});
+export type ResultSettings = z.infer<typeof ResultSettings>;
+
+export const ChartLink = z.strictObject({
+  family: z.string().describe('the published chart family this model was built for'),
+  dims: z.record(z.string(), z.number()).describe('the family\'s dimensions, in model length units'),
+});
+
+export const Model = z.strictObject({
+  $schema: z.string().optional(),
+  title: z.string().optional().describe('shown in results and reports'),
+  note: z.string().optional().describe('free text: where the model comes from, what it is for'),
+  units: Units.optional(),
+  material: Material,
+  thickness: positive().describe('plate thickness, length units'),
+  state: z.enum(['plane-stress', 'plane-strain']).optional().describe('default plane-stress'),
+  geometry: Geometry,
+  supports: z.array(Support).describe('at least enough to stop rigid motion'),
+  loads: z.array(Load).min(1),
+  mesh: MeshSettings.optional(),
+  results: ResultSettings.optional(),
+  chart: ChartLink.optional(),
+});
+export type Model = z.infer<typeof Model>;
+
+/** The JSON Schema for editors, generated from the schema above. */
+export function modelJsonSchema(): object {
+  const schema = z.toJSONSchema(Model, { target: 'draft-2020-12' }) as Record<string, unknown>;
+  return {
+    ...schema,
+    $id: 'https://raiser.invalid/schema/raiser-model.schema.json',
+    title: 'raiser model file',
+    description: 'A flat part for stress-concentration analysis: geometry, material, supports, loads.',
+  };
+}
