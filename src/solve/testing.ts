@@ -285,3 +285,78 @@ export function gridGeometry(nx: number, ny: number, stencil: 5 | 9 = 5): { coor
   }
   return { coords, adjacency: { ptr, idx } };
 }
+
+/** Random sparse symmetric matrix with density d off the diagonal, made strictly diagonally dominant (so SPD). */
+export function randomSpd(n: number, density: number, seed: number): SymmetricCsc {
+  const rnd = seededRandom(seed);
+  const r: number[] = [];
+  const c: number[] = [];
+  const v: number[] = [];
+  const rowSum = new Float64Array(n);
+  for (let j = 0; j < n; j++) {
+    for (let i = j + 1; i < n; i++) {
+      if (rnd() < density) {
+        const x = 2 * rnd() - 1;
+        r.push(i);
+        c.push(j);
+        v.push(x);
+        rowSum[i] += Math.abs(x);
+        rowSum[j] += Math.abs(x);
+      }
+    }
+  }
+  for (let i = 0; i < n; i++) {
+    r.push(i);
+    c.push(i);
+    v.push(rowSum[i] + 0.1 + rnd());
+  }
+  return assembleSymmetric(n, Int32Array.from(r), Int32Array.from(c), Float64Array.from(v), 'triangle');
+}
+
+export function randomVector(n: number, seed: number): Float64Array {
+  const rnd = seededRandom(seed);
+  const b = new Float64Array(n);
+  for (let i = 0; i < n; i++) b[i] = 2 * rnd() - 1;
+  return b;
+}
+
+/** max_i |x_i - y_i| / max_i |y_i| */
+export function relativeMaxDifference(x: ArrayLike<number>, y: ArrayLike<number>): number {
+  let d = 0;
+  let s = 0;
+  for (let i = 0; i < y.length; i++) {
+    d = Math.max(d, Math.abs(x[i] - y[i]));
+    s = Math.max(s, Math.abs(y[i]));
+  }
+  return d / s;
+}
+
+/**
+ * Structure of L by boolean Gaussian elimination on the dense pattern of
+ * A(perm, perm) (Parter 1961 / Rose 1972 elimination graph): returns the
+ * column counts (diagonal included) and the elimination tree.
+ */
+export function denseSymbolic(a: SymmetricCsc, perm: Int32Array): { colCount: Int32Array; parent: Int32Array } {
+  const n = a.n;
+  const inv = new Int32Array(n);
+  perm.forEach((old, k) => (inv[old] = k));
+  const s = new Uint8Array(n * n);
+  for (let j = 0; j < n; j++) {
+    for (let p = a.colPtr[j]; p < a.colPtr[j + 1]; p++) {
+      const i = inv[a.rowIndex[p]];
+      const jj = inv[j];
+      s[i * n + jj] = 1;
+      s[jj * n + i] = 1;
+    }
+  }
+  const colCount = new Int32Array(n);
+  const parent = new Int32Array(n).fill(-1);
+  for (let k = 0; k < n; k++) {
+    const below: number[] = [];
+    for (let i = k + 1; i < n; i++) if (s[i * n + k]) below.push(i);
+    colCount[k] = below.length + 1;
+    if (below.length > 0) parent[k] = below[0];
+    for (const i of below) for (const j of below) s[i * n + j] = 1;
+  }
+  return { colCount, parent };
+}

@@ -1,0 +1,115 @@
+import { describe, it, expect } from 'vitest';
+import {
+  orderAmd,
+  orderNatural,
+  orderNestedDissection,
+  orderNestedDissectionNodes,
+  restrictOrdering,
+  isPermutation,
+  type Ordering,
+} from '../src/solve/ordering.js';
+import { analyzeCholesky } from '../src/solve/cholesky.js';
+import { adjacencyGraph, assembleSymmetric } from '../src/solve/sparse.js';
+import { cantileverProblem, gridGeometry, gridLaplacian, randomSpd } from '../src/solve/testing.js';
+
+function expectValid(o: Ordering, n: number): void {
+  expect(o.perm.length).toBe(n);
+  expect(isPermutation(o.perm)).toBe(true);
+  for (let k = 0; k < n; k++) expect(o.invPerm[o.perm[k]]).toBe(k);
+}
+
+describe('orderings are valid permutations', () => {
+  it('AMD on random sparse matrices, a grid, a stiffness matrix, an edgeless and a disconnected graph', () => {
+    for (const seed of [1, 2, 3]) {
+      const a = randomSpd(80, 0.05 * seed, seed);
+      expectValid(orderAmd(adjacencyGraph(a)), 80);
+    }
+    const g = gridLaplacian(17, 13, 9);
+    expectValid(orderAmd(adjacencyGraph(g)), g.n);
+    const k = cantileverProblem(12, 6).matrix;
+    expectValid(orderAmd(adjacencyGraph(k)), k.n);
+    const diag = assembleSymmetric(5, Int32Array.from([0, 1, 2, 3, 4]), Int32Array.from([0, 1, 2, 3, 4]), new Float64Array(5).fill(1), 'full');
+    expectValid(orderAmd(adjacencyGraph(diag)), 5);
+    // two separate paths 0-1-2 and 3-4
+    const two = assembleSymmetric(5, Int32Array.from([1, 2, 4]), Int32Array.from([0, 1, 3]), new Float64Array(3).fill(1), 'triangle');
+    expectValid(orderAmd(adjacencyGraph(two)), 5);
+  });
+
+  it('AMD tolerates self loops and repeated neighbours in its input graph', () => {
+    const ptr = Int32Array.from([0, 3, 6, 8]);
+    const idx = Int32Array.from([0, 1, 1, 0, 2, 2, 1, 2]);
+    expectValid(orderAmd({ ptr, idx }), 3);
+  });
+
+  it('nested dissection on a grid, a jittered mesh and nodes that all share one point', () => {
+    const geo = gridGeometry(30, 20);
+    expectValid(orderNestedDissectionNodes(geo.adjacency, geo.coords, { leafSize: 16 }), 600);
+    const p = cantileverProblem(30, 15);
+    const nn = p.mesh.coords.length / 2;
+    expectValid(orderNestedDissection(p.adjacency, p.mesh.coords, 2), 2 * nn);
+    const same = new Float64Array(2 * 600); // every node at (0, 0)
+    expectValid(orderNestedDissectionNodes(geo.adjacency, same, { leafSize: 8 }), 600);
+  });
+
+  it('nested dissection numbers the two DOFs of a node consecutively', () => {
+    const p = cantileverProblem(10, 5);
+    const o = orderNestedDissection(p.adjacency, p.mesh.coords, 2);
+    for (let k = 0; k < o.perm.length; k += 2) {
+      expect(o.perm[k] % 2).toBe(0);
+      expect(o.perm[k + 1]).toBe(o.perm[k] + 1);
+    }
+  });
+
+  it('restrictOrdering keeps the relative order of the kept DOFs', () => {
+    const full = Int32Array.from([3, 0, 4, 1, 2]);
+    const newOfOld = Int32Array.from([0, -1, 1, 2, -1]); // keep 0, 2, 3
+    const r = restrictOrdering(full, newOfOld);
+    expect(Array.from(r.perm)).toEqual([2, 0, 1]); // old 3, 0, 2
+    expectValid(r, 3);
+  });
+
+  it('nested dissection puts the top-level separator last: removing it leaves no edge between the two halves', () => {
+    const geo = gridGeometry(40, 20);
+    const o = orderNestedDissectionNodes(geo.adjacency, geo.coords, { leafSize: 16 });
+    // the top split is along x (the longer side) at the median: the
+    // separator is one grid column of 20 nodes, numbered last
+    const sep = new Set(Array.from(o.perm.subarray(780)));
+    const xs = new Set(Array.from(sep, (v) => geo.coords[2 * v]));
+    expect(xs.size).toBe(1);
+    const cut = [...xs][0];
+    for (let v = 0; v < 800; v++) {
+      if (sep.has(v)) continue;
+      for (let q = geo.adjacency.ptr[v]; q < geo.adjacency.ptr[v + 1]; q++) {
+        const u = geo.adjacency.idx[q];
+        if (sep.has(u)) continue;
+        expect(geo.coords[2 * u] < cut).toBe(geo.coords[2 * v] < cut);
+      }
+    }
+  });
+});
+
+describe('fill reduction', () => {
+  // Measured on these exact problems: the natural (row-by-row) order has
+  // bandwidth ~ one grid row, so its fill is O(n^1.5); both orderings cut
+  // it to 25-55 % here, and the margin grows with the problem size.
+  it('on a 40 x 40 five-point grid, AMD gives < 0.4 and nested dissection < 0.5 of the natural nnz(L)', () => {
+    const g = gridLaplacian(40, 40, 5);
+    const geo = gridGeometry(40, 40, 5);
+    const nat = analyzeCholesky(g, orderNatural(g.n)).nnzL;
+    const amd = analyzeCholesky(g, orderAmd(adjacencyGraph(g))).nnzL;
+    const nd = analyzeCholesky(g, orderNestedDissectionNodes(geo.adjacency, geo.coords, { leafSize: 32 })).nnzL;
+    expect(amd / nat).toBeLessThan(0.4); // measured 0.32
+    expect(nd / nat).toBeLessThan(0.5); // measured 0.44
+  });
+
+  it('on a 40 x 20 cantilever stiffness, AMD and nested dissection give < 0.35 of the natural nnz(L)', () => {
+    const p = cantileverProblem(40, 20, 3);
+    const a = p.matrix;
+    const nat = analyzeCholesky(a, orderNatural(a.n)).nnzL;
+    const amd = analyzeCholesky(a, orderAmd(adjacencyGraph(a))).nnzL;
+    const ndFull = orderNestedDissection(p.adjacency, p.mesh.coords, 2);
+    const nd = analyzeCholesky(a, restrictOrdering(ndFull.perm, p.rowOfFullDof)).nnzL;
+    expect(amd / nat).toBeLessThan(0.35); // measured 0.26
+    expect(nd / nat).toBeLessThan(0.35); // measured 0.32
+  });
+});
