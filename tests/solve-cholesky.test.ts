@@ -47,6 +47,9 @@ const cases: Case[] = [
   { name: 'random SPD n=50 density 0.1', a: randomSpd(50, 0.1, 1) },
   { name: 'random SPD n=120 density 0.03', a: randomSpd(120, 0.03, 2) },
   { name: 'random SPD n=30 dense', a: randomSpd(30, 1, 3) },
+  // one supernode of 100 columns: several pivot panels and every edge case of the 4 x 2 blocking
+  { name: 'random SPD n=100 dense', a: randomSpd(100, 1, 5) },
+  { name: 'random SPD n=150 density 0.3', a: randomSpd(150, 0.3, 6) },
   { name: '5-point Laplacian 12 x 9', a: gridLaplacian(12, 9, 5) },
   { name: '9-point Laplacian 11 x 10', a: gridLaplacian(11, 10, 9) },
   { name: 'plane-stress cantilever 12 x 6', a: cantileverProblem(12, 6, 4).matrix },

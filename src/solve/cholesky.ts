@@ -36,6 +36,7 @@ import {
   upperPattern,
 } from './sparse.js';
 import { type Ordering, invertPermutation } from './ordering.js';
+import { PANEL, factorFrontPivots, failedPivotValue, rankUpdate } from './dense.js';
 
 /**
  * Thrown when a pivot is not safely positive: pivot <= tol * max diag(A), or
@@ -474,10 +475,10 @@ export interface FactorOptions {
  * Numeric factorisation by the supernodal multifrontal method. For each
  * supernode, in postorder: its frontal matrix (dense, row-major lower) is
  * assembled from the columns of A(p, p) and the children's update matrices
- * (extend-add), its k pivot columns are factorised (row-oriented Crout: the
- * dense Cholesky of the k x k block and the triangular solve of the rows
- * below, one pass), the Schur complement is formed by a register-blocked
- * symmetric rank-k update and pushed on the update stack.
+ * (extend-add), its k pivot columns are factorised (dense.ts: panel-blocked
+ * Cholesky of the k x k block with the triangular solve of the rows below),
+ * and the Schur complement is formed by a register-blocked symmetric rank-k
+ * update written straight onto the update stack.
  */
 export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, options: FactorOptions = {}): CholeskyFactor {
   const { n, perm, invPerm, nSuper, superStart, superParent, rowPtr, superRows, valuePtr, maxFront, stackPeak } = symbolic;
@@ -492,6 +493,7 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
   const stack = new Float64Array(Math.max(1, stackPeak));
   const map = new Int32Array(n);
   const rel = new Int32Array(maxFront);
+  const panelScratch = new Float64Array(PANEL);
   // Children of each supernode, in order; their updates lie on top of the
   // stack in the same order when the parent is reached (postorder).
   const sHead = new Int32Array(nSuper).fill(-1);
@@ -528,32 +530,13 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
       for (let t = 0; t < mc; t++) rel[t] = map[superRows[rc + t]];
       const base = updStart[ch];
       if (firstChildStart < 0) firstChildStart = base;
-      let u = base;
-      for (let aa = 0; aa < mc; aa++) {
-        const row = rel[aa] * m;
-        for (let bb = 0; bb <= aa; bb++) front[row + rel[bb]] += stack[u++];
-      }
+      extendAdd(front, m, stack, base, rel, mc);
     }
     if (firstChildStart >= 0) top = firstChildStart; // pop all children
 
     // partial factorisation of the k pivot columns
-    for (let aa = 0; aa < m; aa++) {
-      const rowA = aa * m;
-      const jmax = aa < k ? aa : k - 1;
-      for (let j = 0; j <= jmax; j++) {
-        const rowJ = j * m;
-        let sum = front[rowA + j];
-        for (let t = 0; t < j; t++) sum -= front[rowA + t] * front[rowJ + t];
-        if (j === aa) {
-          if (!(sum > threshold) || !Number.isFinite(sum)) {
-            throw new SolverPivotError(f + j, perm[f + j], sum, threshold);
-          }
-          front[rowA + j] = Math.sqrt(sum);
-        } else {
-          front[rowA + j] = sum / front[rowJ + j];
-        }
-      }
-    }
+    const bad = factorFrontPivots(front, m, k, threshold, panelScratch);
+    if (bad >= 0) throw new SolverPivotError(f + bad, perm[f + bad], failedPivotValue, threshold);
     // copy the factor rows out
     {
       let dst = valuePtr[s];
@@ -568,7 +551,7 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
     const u = m - k;
     if (u > 0 && superParent[s] !== -1) {
       updStart[s] = top;
-      schurUpdate(front, m, k, stack, top);
+      rankUpdate(front, m, k, m, k, m, 0, k, stack, top);
       top += (u * (u + 1)) / 2;
     }
   }
@@ -576,66 +559,12 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
   return { symbolic, values: L, bytes };
 }
 
-/**
- * out[packed (a', b')] = F[a, b] - sum_t F[a, t] F[b, t] for k <= b <= a < m,
- * a' = a - k, b' = b - k, packed row-major lower. 2 x 2 register blocking:
- * each pass over t feeds four dot products from four row segments.
- */
-function schurUpdate(F: Float64Array, m: number, k: number, out: Float64Array, base: number): void {
-  for (let a = k; a < m; a += 2) {
-    const ra0 = a * m;
-    const a1 = a + 1;
-    const ap = a - k;
-    const o0 = base + (ap * (ap + 1)) / 2; // start of packed row a'
-    if (a1 < m) {
-      const ra1 = a1 * m;
-      const o1 = o0 + ap + 1; // start of packed row a'+1
-      let b = k;
-      for (; b + 1 <= a; b += 2) {
-        const rb0 = b * m;
-        const rb1 = rb0 + m;
-        let s00 = 0;
-        let s01 = 0;
-        let s10 = 0;
-        let s11 = 0;
-        for (let t = 0; t < k; t++) {
-          const x0 = F[ra0 + t];
-          const x1 = F[ra1 + t];
-          const y0 = F[rb0 + t];
-          const y1 = F[rb1 + t];
-          s00 += x0 * y0;
-          s01 += x0 * y1;
-          s10 += x1 * y0;
-          s11 += x1 * y1;
-        }
-        const bp = b - k;
-        out[o0 + bp] = F[ra0 + b] - s00;
-        out[o0 + bp + 1] = F[ra0 + b + 1] - s01;
-        out[o1 + bp] = F[ra1 + b] - s10;
-        out[o1 + bp + 1] = F[ra1 + b + 1] - s11;
-      }
-      // remaining columns b = a (and b = a+1 for row a1)
-      for (; b <= a1; b++) {
-        const rb = b * m;
-        let s0 = 0;
-        let s1 = 0;
-        for (let t = 0; t < k; t++) {
-          const y = F[rb + t];
-          s0 += F[ra0 + t] * y;
-          s1 += F[ra1 + t] * y;
-        }
-        const bp = b - k;
-        if (b <= a) out[o0 + bp] = F[ra0 + b] - s0;
-        out[o1 + bp] = F[ra1 + b] - s1;
-      }
-    } else {
-      for (let b = k; b <= a; b++) {
-        const rb = b * m;
-        let s0 = 0;
-        for (let t = 0; t < k; t++) s0 += F[ra0 + t] * F[rb + t];
-        out[o0 + b - k] = F[ra0 + b] - s0;
-      }
-    }
+/** F[rel[a], rel[b]] += U(a, b) for the packed lower mc x mc update U at stack[base]. */
+function extendAdd(F: Float64Array, m: number, stack: Float64Array, base: number, rel: Int32Array, mc: number): void {
+  let u = base;
+  for (let aa = 0; aa < mc; aa++) {
+    const row = rel[aa] * m;
+    for (let bb = 0; bb <= aa; bb++) F[row + rel[bb]] += stack[u++];
   }
 }
 
