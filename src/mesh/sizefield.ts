@@ -23,6 +23,8 @@ export interface SizeOptions {
   raiserSize?: number;
   /** growth rate of the size per unit distance */
   grading?: number;
+  /** multiplies every size (1 = as given or as defaulted); used to build series of meshes */
+  sizeFactor?: number;
 }
 
 export interface SizeSource {
@@ -132,9 +134,11 @@ export function defaultGlobalSize(domain: Domain, order: 1 | 2): number {
 
 /** Builds the size field of a domain. */
 export function buildSizeField(domain: Domain, opts: SizeOptions): SizeField {
-  const hGlobal = opts.size ?? defaultGlobalSize(domain, opts.order);
+  const k = opts.sizeFactor ?? 1;
+  const hGlobal = k * (opts.size ?? defaultGlobalSize(domain, opts.order));
   const grading = opts.grading ?? 0.25;
-  const perCircle = RAISER_ELEMENTS_PER_CIRCLE[opts.order];
+  const perCircle = RAISER_ELEMENTS_PER_CIRCLE[opts.order] / k;
+  const raiserSize = opts.raiserSize !== undefined ? k * opts.raiserSize : undefined;
   const sources: { meta: SizeSource; geom: number[] }[] = [];
   const p = [0, 0];
   const q = [0, 0];
@@ -143,7 +147,7 @@ export function buildSizeField(domain: Domain, opts: SizeOptions): SizeField {
     if (c.kind === 'line') continue;
     const concave = curveConcavity(c) > 0;
     if (c.kind === 'arc') {
-      const h = concave ? (opts.raiserSize ?? (2 * Math.PI * c.r) / perCircle) : (2 * Math.PI * c.r) / CONVEX_ELEMENTS_PER_CIRCLE;
+      const h = concave ? (raiserSize ?? (2 * Math.PI * c.r) / perCircle) : (2 * Math.PI * c.r) / CONVEX_ELEMENTS_PER_CIRCLE;
       if (h >= hGlobal) continue;
       sources.push({ meta: { kind: 'arc', edge: e.id, h }, geom: [ARC, h, c.cx, c.cy, c.r, c.a0, c.sweep] });
     } else {
@@ -154,8 +158,8 @@ export function buildSizeField(domain: Domain, opts: SizeOptions): SizeField {
         const tb = (k + 1) / pieces;
         evaluateCurve(c, ta, p);
         evaluateCurve(c, tb, q);
-        const ha = sizeOnCurve(curvatureRadius(c, ta), concave, perCircle, opts.raiserSize);
-        const hb = sizeOnCurve(curvatureRadius(c, tb), concave, perCircle, opts.raiserSize);
+        const ha = sizeOnCurve(curvatureRadius(c, ta), concave, perCircle, raiserSize);
+        const hb = sizeOnCurve(curvatureRadius(c, tb), concave, perCircle, raiserSize);
         if (Math.min(ha, hb) >= hGlobal) continue;
         sources.push({ meta: { kind: 'segment', edge: e.id, h: Math.min(ha, hb) }, geom: [SEGMENT, ha, p[0], p[1], q[0], q[1], hb] });
       }
@@ -165,7 +169,7 @@ export function buildSizeField(domain: Domain, opts: SizeOptions): SizeField {
     if (corner.materialAngle <= Math.PI + 1e-6) continue;
     // A re-entrant sharp corner: the elastic stress is singular there, so no size is right; refine
     // it well enough to show the concentration, and let the convergence check say it diverges.
-    const h = opts.raiserSize ?? hGlobal / 12;
+    const h = raiserSize ?? hGlobal / 12;
     sources.push({ meta: { kind: 'point', edge: -1, h }, geom: [POINT, h, corner.x, corner.y] });
   }
   return new SizeField(hGlobal, grading, sources);

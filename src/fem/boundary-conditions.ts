@@ -1,0 +1,320 @@
+/**
+ * Loads and supports of a model, turned into a nodal force vector and prescribed degrees of
+ * freedom on a mesh. Edge loads are consistent nodal loads: f_i = t * integral N_i(s) q(x(s)) |x'(s)| ds
+ * along each boundary edge, on the isoparametric edge (3 nodes for quadratic elements), by
+ * 4-point Gauss-Legendre quadrature (exact for polynomial integrands to degree 7).
+ *
+ * Sign conventions: the outward normal n points out of the material (to the right of the
+ * boundary's direction of travel, material on the left); a positive normal traction pulls
+ * outward (tension); pressure pushes inward; a remote stress state s acts as traction s . n.
+ */
+import type { Domain } from '../geometry/domain.js';
+import { describeSelector, selectTarget } from '../geometry/select.js';
+import type { Mesh } from '../mesh/types.js';
+import { ModelError } from '../model/errors.js';
+import type { Load, Model, Support, Target } from '../model/schema.js';
+import type { Constraints } from './assemble.js';
+
+const GL4_S = [0.5 - 0.5 * 0.8611363115940526, 0.5 - 0.5 * 0.3399810435848563, 0.5 + 0.5 * 0.3399810435848563, 0.5 + 0.5 * 0.8611363115940526];
+const GL4_W = [0.5 * 0.3478548451374538, 0.5 * 0.6521451548625461, 0.5 * 0.6521451548625461, 0.5 * 0.3478548451374538];
+
+/** q(x, y, nx, ny, out): writes the traction (stress units) at a boundary point with outward normal n. */
+export type TractionField = (x: number, y: number, nx: number, ny: number, out: number[]) => void;
+
+/** Adds the consistent nodal forces of a traction field on the chosen domain edges into f. */
+export function addEdgeTraction(mesh: Mesh, onDomainEdge: Uint8Array, q: TractionField, thickness: number, f: Float64Array): void {
+  const nodes = mesh.nodes;
+  const t = [0, 0];
+  for (let s = 0; s < mesh.nBEdges; s++) {
+    if (!onDomainEdge[mesh.bEdgeDomain[s]]) continue;
+    const a = mesh.bEdges[3 * s];
+    const b = mesh.bEdges[3 * s + 1];
+    const m = mesh.bEdges[3 * s + 2];
+    for (let g = 0; g < 4; g++) {
+      const u = GL4_S[g];
+      let x: number, y: number, dx: number, dy: number;
+      let na: number, nb: number, nm = 0;
+      if (m >= 0) {
+        na = (1 - u) * (1 - 2 * u);
+        nm = 4 * u * (1 - u);
+        nb = u * (2 * u - 1);
+        const da = 4 * u - 3;
+        const dm = 4 - 8 * u;
+        const db = 4 * u - 1;
+        x = na * nodes[2 * a] + nm * nodes[2 * m] + nb * nodes[2 * b];
+        y = na * nodes[2 * a + 1] + nm * nodes[2 * m + 1] + nb * nodes[2 * b + 1];
+        dx = da * nodes[2 * a] + dm * nodes[2 * m] + db * nodes[2 * b];
+        dy = da * nodes[2 * a + 1] + dm * nodes[2 * m + 1] + db * nodes[2 * b + 1];
+      } else {
+        na = 1 - u;
+        nb = u;
+        x = na * nodes[2 * a] + nb * nodes[2 * b];
+        y = na * nodes[2 * a + 1] + nb * nodes[2 * b + 1];
+        dx = nodes[2 * b] - nodes[2 * a];
+        dy = nodes[2 * b + 1] - nodes[2 * a + 1];
+      }
+      const js = Math.hypot(dx, dy);
+      q(x, y, dy / js, -dx / js, t);
+      const w = GL4_W[g] * js * thickness;
+      f[2 * a] += w * na * t[0];
+      f[2 * a + 1] += w * na * t[1];
+      f[2 * b] += w * nb * t[0];
+      f[2 * b + 1] += w * nb * t[1];
+      if (m >= 0) {
+        f[2 * m] += w * nm * t[0];
+        f[2 * m + 1] += w * nm * t[1];
+      }
+    }
+  }
+}
+
+export interface CompiledLoads {
+  f: Float64Array;
+  /** per domain edge: 1 when some load acts on it */
+  loaded: Uint8Array;
+  /** per load of the model: its force resultant and what it acts on */
+  items: { index: number; type: Load['type']; fx: number; fy: number; edges: number[] }[];
+  /** the remote stress state, when one is applied */
+  remote?: { sxx: number; syy: number; sxy: number };
+  /** moment loads only: the bending moment applied */
+  moment?: number;
+}
+
+export interface CompiledSupports {
+  constraints: Constraints;
+  /** per domain edge: 1 when a support acts on it */
+  supported: Uint8Array;
+  /** per domain edge: 1 when the support is a symmetry plane */
+  symmetry: Uint8Array;
+}
+
+function edgeMask(domain: Domain, edges: number[]): Uint8Array {
+  const m = new Uint8Array(domain.edges.length);
+  for (const e of edges) m[e] = 1;
+  return m;
+}
+
+function resolve(domain: Domain, target: Target, path: string, warnings: string[]): number[] {
+  const { edges, empty } = selectTarget(domain, target);
+  for (const s of empty) warnings.push(`${path}: ${describeSelector(s)} matched no edge of the boundary`);
+  return edges;
+}
+
+/** Total length of the chosen domain edges, measured on the mesh boundary (isoparametric). */
+function meshedLength(mesh: Mesh, mask: Uint8Array): number {
+  const f = new Float64Array(2 * mesh.nNodes);
+  addEdgeTraction(mesh, mask, (_x, _y, _nx, _ny, out) => ((out[0] = 1), (out[1] = 0)), 1, f);
+  let s = 0;
+  for (let i = 0; i < f.length; i += 2) s += f[i];
+  return s;
+}
+
+/** The outline's straight edges on the sides of its bounding box: where a remote stress acts by default. */
+export function outerEdges(domain: Domain): number[] {
+  const [x0, y0, x1, y1] = domain.bbox;
+  const tol = 1e-7 * domain.scale;
+  return domain.loops[0].edges.filter((id) => {
+    const c = domain.edges[id].curve;
+    if (c.kind !== 'line') return false;
+    const on = (a: number, b: number, v: number) => Math.abs(a - v) <= tol && Math.abs(b - v) <= tol;
+    return on(c.x0, c.x1, x0) || on(c.x0, c.x1, x1) || on(c.y0, c.y1, y0) || on(c.y0, c.y1, y1);
+  });
+}
+
+export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports: CompiledSupports, warnings: string[]): CompiledLoads {
+  const t = model.thickness;
+  const f = new Float64Array(2 * mesh.nNodes);
+  const loaded = new Uint8Array(domain.edges.length);
+  const items: CompiledLoads['items'] = [];
+  let remote: CompiledLoads['remote'];
+  let moment: number | undefined;
+  model.loads.forEach((load, index) => {
+    const path = `loads[${index}]`;
+    let edges: number[];
+    if (load.type === 'remote') {
+      edges = load.on ? resolve(domain, load.on, `${path}.on`, warnings) : outerEdges(domain).filter((e) => !supports.supported[e]);
+    } else {
+      edges = resolve(domain, load.on, `${path}.on`, warnings);
+    }
+    const mask = edgeMask(domain, edges);
+    const before = Float64Array.from(f);
+    switch (load.type) {
+      case 'traction': {
+        const tn = load.normal ?? 0;
+        const ts = load.shear ?? 0;
+        addEdgeTraction(mesh, mask, (_x, _y, nx, ny, out) => {
+          // Tangent along the direction of travel (material on the left) is (-ny, nx).
+          out[0] = tn * nx - ts * ny;
+          out[1] = tn * ny + ts * nx;
+        }, t, f);
+        break;
+      }
+      case 'force': {
+        if (edges.length === 0) break;
+        const len = meshedLength(mesh, mask);
+        const qx = (load.fx ?? 0) / (len * t);
+        const qy = (load.fy ?? 0) / (len * t);
+        addEdgeTraction(mesh, mask, (_x, _y, _nx, _ny, out) => ((out[0] = qx), (out[1] = qy)), t, f);
+        break;
+      }
+      case 'pressure': {
+        const p = load.p;
+        addEdgeTraction(mesh, mask, (_x, _y, nx, ny, out) => ((out[0] = -p * nx), (out[1] = -p * ny)), t, f);
+        break;
+      }
+      case 'remote': {
+        const sxx = load.sxx ?? 0;
+        const syy = load.syy ?? 0;
+        const sxy = load.sxy ?? 0;
+        remote = remote ? { sxx: remote.sxx + sxx, syy: remote.syy + syy, sxy: remote.sxy + sxy } : { sxx, syy, sxy };
+        addEdgeTraction(mesh, mask, (_x, _y, nx, ny, out) => ((out[0] = sxx * nx + sxy * ny), (out[1] = sxy * nx + syy * ny)), t, f);
+        break;
+      }
+      case 'moment': {
+        if (edges.length === 0) break;
+        const line = collinearLine(domain, edges, path);
+        // Normal traction q_n = k M (s - s_mean) / I with I = t * integral (s - s_mean)^2 ds and
+        // k = tau x n, which makes the applied moment about the centroid exactly M (counter-clockwise).
+        const { tx, ty, ox, oy, sMean, I2, nx, ny } = line;
+        const k = tx * ny - ty * nx;
+        const I = t * I2;
+        const M = load.m;
+        addEdgeTraction(mesh, mask, (x, y, _nx, _ny, out) => {
+          const s = (x - ox) * tx + (y - oy) * ty - sMean;
+          const q = (k * M * s) / I;
+          out[0] = q * nx;
+          out[1] = q * ny;
+        }, t, f);
+        moment = (moment ?? 0) + M;
+        break;
+      }
+    }
+    let fx = 0;
+    let fy = 0;
+    for (let i = 0; i < f.length; i += 2) {
+      fx += f[i] - before[i];
+      fy += f[i + 1] - before[i + 1];
+    }
+    for (const e of edges) loaded[e] = 1;
+    items.push({ index, type: load.type, fx, fy, edges });
+  });
+  let any = false;
+  for (let i = 0; i < f.length; i++) if (f[i] !== 0) any = true;
+  if (!any) throw new ModelError('loads', 'no load acts on the model: every load is zero or matched no edge', 'check the load values and the edges they name');
+  return { f, loaded, items, remote, moment };
+}
+
+/** The line that straight, collinear edges lie on, with the second moment of their length about its centroid. */
+function collinearLine(domain: Domain, edges: number[], path: string) {
+  const segs: [number, number, number, number][] = [];
+  for (const id of edges) {
+    const c = domain.edges[id].curve;
+    if (c.kind !== 'line') throw new ModelError(`${path}.on`, `a moment load needs straight edges, but ${domain.edges[id].label} is curved`, 'apply the moment to a straight end of the part');
+    segs.push([c.x0, c.y0, c.x1, c.y1]);
+  }
+  const [ax, ay, bx, by] = segs[0];
+  const l0 = Math.hypot(bx - ax, by - ay);
+  const tx = (bx - ax) / l0;
+  const ty = (by - ay) / l0;
+  // Outward normal of the first edge: right of its direction of travel.
+  const nx = ty;
+  const ny = -tx;
+  const tol = 1e-7 * domain.scale;
+  let len = 0;
+  let first = 0;
+  for (const [x0, y0, x1, y1] of segs) {
+    for (const [x, y] of [
+      [x0, y0],
+      [x1, y1],
+    ]) {
+      if (Math.abs((x - ax) * nx + (y - ay) * ny) > tol) {
+        throw new ModelError(`${path}.on`, 'a moment load needs its edges to lie on one straight line', 'select only the straight end edge(s) of the part');
+      }
+    }
+    const s0 = (x0 - ax) * tx + (y0 - ay) * ty;
+    const s1 = (x1 - ax) * tx + (y1 - ay) * ty;
+    len += Math.abs(s1 - s0);
+    first += 0.5 * Math.abs(s1 - s0) * (s0 + s1);
+  }
+  const sMean = first / len;
+  let I2 = 0;
+  for (const [x0, y0, x1, y1] of segs) {
+    const s0 = (x0 - ax) * tx + (y0 - ay) * ty - sMean;
+    const s1 = (x1 - ax) * tx + (y1 - ay) * ty - sMean;
+    I2 += Math.abs(s1 * s1 * s1 - s0 * s0 * s0) / 3;
+  }
+  return { tx, ty, ox: ax, oy: ay, sMean, I2, nx, ny, length: len };
+}
+
+export function compileSupports(model: Model, domain: Domain, mesh: Mesh, warnings: string[]): CompiledSupports {
+  const nDof = 2 * mesh.nNodes;
+  const fixed = new Uint8Array(nDof);
+  const value = new Float64Array(nDof);
+  const supported = new Uint8Array(domain.edges.length);
+  const symmetry = new Uint8Array(domain.edges.length);
+  const nodesOf = (mask: Uint8Array) => {
+    const set = new Set<number>();
+    for (let s = 0; s < mesh.nBEdges; s++) {
+      if (!mask[mesh.bEdgeDomain[s]]) continue;
+      for (let k = 0; k < 3; k++) if (mesh.bEdges[3 * s + k] >= 0) set.add(mesh.bEdges[3 * s + k]);
+    }
+    return set;
+  };
+  model.supports.forEach((sup: Support, i) => {
+    const path = `supports[${i}]`;
+    if (sup.type === 'pin') {
+      const node = nearestBoundaryNode(mesh, sup.at[0], sup.at[1]);
+      const fix = sup.fix ?? 'xy';
+      if (fix.includes('x')) fixed[2 * node] = 1;
+      if (fix.includes('y')) fixed[2 * node + 1] = 1;
+      const d = Math.hypot(mesh.nodes[2 * node] - sup.at[0], mesh.nodes[2 * node + 1] - sup.at[1]);
+      if (d > 1e-3 * domain.scale) warnings.push(`${path}: the pin at (${sup.at.join(', ')}) is ${d.toPrecision(3)} from the nearest boundary node, which it holds`);
+      return;
+    }
+    const edges = resolve(domain, sup.on, `${path}.on`, warnings);
+    const mask = edgeMask(domain, edges);
+    for (const e of edges) supported[e] = 1;
+    if (sup.type === 'fixed' || sup.type === 'roller') {
+      const comps = sup.type === 'fixed' ? [0, 1] : [sup.fix === 'x' ? 0 : 1];
+      for (const n of nodesOf(mask)) for (const c of comps) fixed[2 * n + c] = 1;
+      return;
+    }
+    // Symmetry: the displacement normal to the (straight, axis-parallel) edge is held.
+    for (const id of edges) {
+      const e = domain.edges[id];
+      const c = e.curve;
+      const tol = 1e-9 * domain.scale;
+      if (c.kind !== 'line') {
+        throw new ModelError(`${path}.on`, `a symmetry plane must be straight, but ${e.label} is curved`, 'put the symmetry support on the straight cut edges of the model');
+      }
+      let comp: number;
+      if (Math.abs(c.x1 - c.x0) <= tol) comp = 0;
+      else if (Math.abs(c.y1 - c.y0) <= tol) comp = 1;
+      else {
+        throw new ModelError(`${path}.on`, `${e.label} is not parallel to x or y; symmetry planes must be (inclined ones are not supported)`, 'rotate the model so the symmetry plane lies on x = const or y = const');
+      }
+      symmetry[id] = 1;
+      const one = new Uint8Array(domain.edges.length);
+      one[id] = 1;
+      for (const n of nodesOf(one)) fixed[2 * n + comp] = 1;
+    }
+  });
+  return { constraints: { fixed, value }, supported, symmetry };
+}
+
+export function nearestBoundaryNode(mesh: Mesh, x: number, y: number): number {
+  let best = -1;
+  let bd = Infinity;
+  for (let s = 0; s < mesh.nBEdges; s++) {
+    for (let k = 0; k < 3; k++) {
+      const n = mesh.bEdges[3 * s + k];
+      if (n < 0) continue;
+      const d = Math.hypot(mesh.nodes[2 * n] - x, mesh.nodes[2 * n + 1] - y);
+      if (d < bd) {
+        bd = d;
+        best = n;
+      }
+    }
+  }
+  return best;
+}

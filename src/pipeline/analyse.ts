@@ -1,0 +1,283 @@
+/**
+ * One analysis, end to end: model -> domain -> mesh -> loads and supports -> stiffness ->
+ * sparse Cholesky -> recovered stresses -> peak, nominal section, Kt. This file only wires the
+ * stages together; each stage lives in its own module and knows nothing of the ones after it.
+ */
+import { buildDomain, type Domain } from '../geometry/domain.js';
+import { traceLoops } from '../geometry/validate.js';
+import { validateDomain } from '../geometry/validate.js';
+import { assembleSystem, internalForces, meshNodeGraph } from '../fem/assemble.js';
+import { compileLoads, compileSupports, type CompiledLoads } from '../fem/boundary-conditions.js';
+import { constitutiveMatrix, type PlaneState } from '../fem/material.js';
+import { checkRigidMotion } from '../fem/rigid.js';
+import { generateMesh } from '../mesh/generate.js';
+import type { Mesh, MeshStats } from '../mesh/types.js';
+import { AnalysisError } from '../model/errors.js';
+import type { Model, StressMeasure } from '../model/schema.js';
+import { resolveUnits, type ResolvedUnits } from '../model/units.js';
+import { findPeak, outOfPlaneFactor, type Peak } from '../post/peak.js';
+import { recoverNodalStress } from '../post/recover.js';
+import { findSections, sectionAlong, type Cut } from '../post/section.js';
+import { sampleElementStresses } from '../post/stress.js';
+import { SolverPivotError, solveSpd, type SolveStats } from '../solve/index.js';
+
+export interface AnalyseOptions {
+  /** overrides the model's mesh.element */
+  element?: 'linear' | 'quadratic';
+  /** overrides the model's results.measure */
+  measure?: StressMeasure;
+  /** multiplies every mesh size (global and at raisers); 1 = the model's own */
+  sizeFactor?: number;
+}
+
+export interface NominalInfo {
+  stress: number;
+  kind: 'tension' | 'bending';
+  definition: string;
+  section: Cut;
+}
+
+export interface Analysis {
+  model: Model;
+  units: ResolvedUnits;
+  state: PlaneState;
+  domain: Domain;
+  mesh: Mesh;
+  meshStats: MeshStats;
+  solveStats: SolveStats;
+  /** displacements, 2 per node */
+  u: Float64Array;
+  /** recovered nodal stresses, sxx, syy, sxy per node */
+  stress: Float64Array;
+  /** nodal forces K u */
+  nodalForce: Float64Array;
+  szzFactor: number;
+  peak: Peak;
+  direction: [number, number];
+  net: NominalInfo;
+  gross: NominalInfo;
+  kt: { net: number; gross: number };
+  load: { fx: number; fy: number; m: number; items: CompiledLoads['items']; remote?: CompiledLoads['remote'] };
+  reaction: { fx: number; fy: number; m: number };
+  /** |applied + reactions| relative to the applied load */
+  equilibriumError: number;
+  timeMs: { mesh: number; assemble: number; solve: number; recover: number; total: number };
+  warnings: string[];
+}
+
+export function analyseModel(model: Model, opts: AnalyseOptions = {}): Analysis {
+  const t0 = performance.now();
+  const warnings: string[] = [];
+  const units = resolveUnits(model.units);
+  const state: PlaneState = model.state ?? 'plane-stress';
+  const measure: StressMeasure = opts.measure ?? model.results?.measure ?? 'max-principal';
+  const domain = buildDomain(model.geometry);
+  validateDomain(domain);
+
+  const order = (opts.element ?? model.mesh?.element ?? 'quadratic') === 'linear' ? 1 : 2;
+  const k = opts.sizeFactor ?? 1;
+  const ms = model.mesh ?? {};
+  const { mesh, stats: meshStats } = generateMesh(domain, {
+    order,
+    size: ms.size,
+    raiserSize: ms.raiserSize,
+    grading: ms.grading,
+    minAngleDeg: ms.minAngle,
+    sizeFactor: k,
+  });
+  const t1 = performance.now();
+
+  const supports = compileSupports(model, domain, mesh, warnings);
+  const loads = compileLoads(model, domain, mesh, supports, warnings);
+  checkRigidMotion(mesh, supports.constraints.fixed, domain.scale);
+  const D = constitutiveMatrix(model.material.E, model.material.nu, state);
+  const system = assembleSystem(mesh, D, model.thickness, loads.f, supports.constraints);
+  const t2 = performance.now();
+
+  let solved;
+  try {
+    solved = solveSpd(system.K, system.f, { coords: mesh.nodes, nodeAdjacency: meshNodeGraph(mesh), dofsPerNode: 2, fullDofOfRow: system.freeDof });
+  } catch (err) {
+    if (err instanceof SolverPivotError) {
+      const dof = system.freeDof[err.originalIndex];
+      const node = dof >> 1;
+      throw new AnalysisError(
+        `the stiffness matrix is singular near (${mesh.nodes[2 * node].toPrecision(5)}, ${mesh.nodes[2 * node + 1].toPrecision(5)}) (${dof & 1 ? 'y' : 'x'} direction): part of the model can move without straining`,
+        'check the supports: every piece of the part must be held against moving in x, in y and rotating',
+      );
+    }
+    throw err;
+  }
+  const nDof = 2 * mesh.nNodes;
+  const u = new Float64Array(nDof);
+  for (let d = 0; d < nDof; d++) u[d] = supports.constraints.value[d];
+  for (let i = 0; i < system.freeDof.length; i++) u[system.freeDof[i]] = solved.x[i];
+  for (let d = 0; d < nDof; d++) {
+    if (!Number.isFinite(u[d])) throw new AnalysisError('the solution is not finite: the stiffness matrix is too badly conditioned to solve', 'check for parts joined by a very thin ligament or extreme dimensions');
+  }
+  const t3 = performance.now();
+
+  const r = internalForces(mesh, D, model.thickness, u);
+  const applied = resultant(mesh, loads.f);
+  const reactionVec = new Float64Array(nDof);
+  for (let d = 0; d < nDof; d++) if (supports.constraints.fixed[d]) reactionVec[d] = r[d] - loads.f[d];
+  const reaction = resultant(mesh, reactionVec);
+  let fAbs = 0;
+  for (let d = 0; d < nDof; d++) fAbs += Math.abs(loads.f[d]);
+  const equilibriumError = Math.hypot(applied.fx + reaction.fx, applied.fy + reaction.fy) / (fAbs || 1);
+
+  const samples = sampleElementStresses(mesh, D, u);
+  const free = new Uint8Array(domain.edges.length);
+  for (let e = 0; e < domain.edges.length; e++) free[e] = loads.loaded[e] || supports.supported[e] ? 0 : 1;
+  const stress = recoverNodalStress(mesh, samples, free);
+  for (let i = 0; i < stress.length; i++) {
+    if (!Number.isFinite(stress[i])) throw new AnalysisError('the recovered stresses are not finite', 'check the model for extreme dimensions');
+  }
+  const szzFactor = outOfPlaneFactor(state, model.material.nu);
+  const peak = findPeak(mesh, domain, stress, measure, szzFactor);
+
+  // Load direction and kind of nominal stress.
+  const bendingOnly = model.loads.every((l) => l.type === 'moment');
+  let dir: [number, number];
+  if (model.results?.direction) {
+    const [a, b] = model.results.direction;
+    const l = Math.hypot(a, b);
+    dir = [a / l, b / l];
+  } else {
+    dir = loadDirection(loads, domain, bendingOnly);
+  }
+  const kind = bendingOnly ? 'bending' : 'tension';
+  const trace = traceLoops(domain);
+  const sectionInput = { trace, nodes: mesh.nodes, nodalForce: r, thickness: model.thickness, dx: dir[0], dy: dir[1], kind, peakX: peak.x, peakY: peak.y, scale: domain.scale } as const;
+  let netCut: Cut;
+  let grossCut: Cut;
+  const userSection = model.results?.section;
+  const auto = findSections(sectionInput);
+  if (userSection && userSection !== 'auto') {
+    netCut = sectionAlong(sectionInput, userSection.from[0], userSection.from[1], userSection.to[0], userSection.to[1]);
+    if (!(netCut.length > 0)) throw new AnalysisError('the nominal section given in results.section crosses no material', 'give a cut from one edge of the part to the other');
+  } else netCut = auto.net;
+  grossCut = auto.gross;
+  const bendingWord = 'M c / I over the cut (6 M / (t d^2) for a solid section)';
+  const net: NominalInfo = {
+    stress: netCut.stress,
+    kind,
+    section: netCut,
+    definition:
+      kind === 'tension'
+        ? userSection && userSection !== 'auto'
+          ? 'F / A on the given section: F the force through it, A = thickness x material length'
+          : 'F / A_net: F the force through the net section, A_net = thickness x material length of the cut across the load with the least material'
+        : `bending: ${bendingWord}, on the cut with the least material`,
+  };
+  let gross: NominalInfo;
+  if (loads.remote && kind === 'tension') {
+    const { sxx, syy, sxy } = loads.remote;
+    const s1 = principalMax(sxx, syy, sxy);
+    grossCut = { ...grossCut, stress: s1 };
+    gross = { stress: s1, kind, section: grossCut, definition: 'the remote stress: the largest principal value of the applied remote stress state' };
+  } else {
+    gross = {
+      stress: grossCut.stress,
+      kind,
+      section: grossCut,
+      definition: kind === 'tension' ? 'F / A_gross on the widest cut across the load that carries it' : `bending: ${bendingWord}, on the widest cut`,
+    };
+  }
+  const peakMag = measure === 'min-principal' ? -peak.stress : peak.stress;
+  const kt = { net: peakMag / Math.abs(net.stress), gross: peakMag / Math.abs(gross.stress) };
+  if (peak.atSharpCorner) {
+    warnings.push(`the peak sits on a sharp re-entrant corner (${peak.feature}): the elastic stress there is infinite in theory and grows as the mesh is refined, so this Kt is not a converged value; model the real corner radius`);
+  }
+  const y = model.material.yield;
+  if (y !== undefined && Math.abs(peak.stress) > y) {
+    warnings.push(`the elastic peak stress ${peak.stress.toPrecision(4)} ${units.stress} exceeds the yield strength ${y} ${units.stress}: local plastic flow is expected there and the linear result overstates the real peak stress`);
+  }
+  if (equilibriumError > 1e-6) warnings.push(`applied loads and reactions balance only to ${equilibriumError.toExponential(2)} of the load`);
+  const t4 = performance.now();
+  return {
+    model,
+    units,
+    state,
+    domain,
+    mesh,
+    meshStats,
+    solveStats: solved.stats,
+    u,
+    stress,
+    nodalForce: r,
+    szzFactor,
+    peak,
+    direction: dir,
+    net,
+    gross,
+    kt,
+    load: { ...applied, items: loads.items, remote: loads.remote },
+    reaction,
+    equilibriumError,
+    timeMs: { mesh: t1 - t0, assemble: t2 - t1, solve: t3 - t2, recover: t4 - t3, total: t4 - t0 },
+    warnings,
+  };
+}
+
+function principalMax(sxx: number, syy: number, sxy: number): number {
+  const c = 0.5 * (sxx + syy);
+  const r = Math.hypot(0.5 * (sxx - syy), sxy);
+  return Math.abs(c + r) >= Math.abs(c - r) ? c + r : c - r;
+}
+
+function resultant(mesh: Mesh, f: Float64Array): { fx: number; fy: number; m: number } {
+  let fx = 0;
+  let fy = 0;
+  let m = 0;
+  for (let i = 0; i < mesh.nNodes; i++) {
+    fx += f[2 * i];
+    fy += f[2 * i + 1];
+    m += mesh.nodes[2 * i] * f[2 * i + 1] - mesh.nodes[2 * i + 1] * f[2 * i];
+  }
+  return { fx, fy, m };
+}
+
+/**
+ * The load axis: for a remote stress, its largest principal direction; for moments only, the
+ * normal of the loaded edge (the beam axis); otherwise the dominant direction of the loads'
+ * resultants (the leading eigenvector of sum f f^T, so loads pulling both ends agree).
+ */
+function loadDirection(loads: CompiledLoads, domain: Domain, bendingOnly: boolean): [number, number] {
+  if (loads.remote) {
+    const { sxx, syy, sxy } = loads.remote;
+    const s1 = principalMax(sxx, syy, sxy);
+    // Eigenvector of [sxx sxy; sxy syy] for s1.
+    let vx = sxy;
+    let vy = s1 - sxx;
+    if (Math.hypot(vx, vy) < 1e-12 * (Math.abs(s1) + 1e-300)) [vx, vy] = Math.abs(sxx) >= Math.abs(syy) ? [1, 0] : [0, 1];
+    const l = Math.hypot(vx, vy);
+    return [vx / l, vy / l];
+  }
+  if (bendingOnly) {
+    const item = loads.items.find((i) => i.edges.length > 0);
+    if (item) {
+      const c = domain.edges[item.edges[0]].curve;
+      if (c.kind === 'line') {
+        const l = Math.hypot(c.x1 - c.x0, c.y1 - c.y0);
+        return [(c.y1 - c.y0) / l, -(c.x1 - c.x0) / l];
+      }
+    }
+  }
+  let a = 0;
+  let b = 0;
+  let c = 0;
+  for (const it of loads.items) {
+    a += it.fx * it.fx;
+    b += it.fx * it.fy;
+    c += it.fy * it.fy;
+  }
+  const tr = 0.5 * (a + c);
+  const rr = Math.hypot(0.5 * (a - c), b);
+  const lam = tr + rr;
+  let vx = b;
+  let vy = lam - a;
+  if (Math.hypot(vx, vy) < 1e-12 * (lam + 1e-300)) [vx, vy] = a >= c ? [1, 0] : [0, 1];
+  const l = Math.hypot(vx, vy);
+  return [vx / l, vy / l];
+}

@@ -1,0 +1,78 @@
+/**
+ * The peak of a stress measure over the recovered nodal field, on the boundary and inside, and
+ * the feature of the part it sits on.
+ */
+import type { Domain } from '../geometry/domain.js';
+import type { Mesh } from '../mesh/types.js';
+import type { StressMeasure } from '../model/schema.js';
+import { stressMeasure } from './stress.js';
+
+export interface Peak {
+  measure: StressMeasure;
+  /** the measure's value at the peak (for min-principal, the most compressive value) */
+  stress: number;
+  x: number;
+  y: number;
+  node: number;
+  /** where it is, in words: "hole 2", "fillet at corner 5", "interior" */
+  feature: string;
+  onBoundary: boolean;
+  /** the peak sits on a re-entrant sharp corner, where the elastic stress is singular */
+  atSharpCorner: boolean;
+  components: { sxx: number; syy: number; sxy: number };
+}
+
+/** szz for the out-of-plane normal stress: 0 in plane stress, nu (sxx + syy) in plane strain. */
+export function outOfPlaneFactor(state: 'plane-stress' | 'plane-strain', nu: number): number {
+  return state === 'plane-strain' ? nu : 0;
+}
+
+/** Nodal values of a measure. */
+export function measureField(stress: Float64Array, measure: StressMeasure, szzFactor: number): Float64Array {
+  const n = stress.length / 3;
+  const v = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const sxx = stress[3 * i];
+    const syy = stress[3 * i + 1];
+    v[i] = stressMeasure(measure, sxx, syy, stress[3 * i + 2], szzFactor * (sxx + syy));
+  }
+  return v;
+}
+
+export function findPeak(mesh: Mesh, domain: Domain, stress: Float64Array, measure: StressMeasure, szzFactor: number): Peak {
+  const field = measureField(stress, measure, szzFactor);
+  const sign = measure === 'min-principal' ? -1 : 1;
+  let best = 0;
+  for (let i = 1; i < mesh.nNodes; i++) if (sign * field[i] > sign * field[best]) best = i;
+  const e = mesh.nodeEdge[best];
+  const corner = mesh.nodeCorner[best];
+  let feature = 'interior';
+  let atSharp = false;
+  if (corner >= 0) {
+    const c = domain.corners[corner];
+    atSharp = c.materialAngle > Math.PI + 1e-6;
+    // A junction between a fillet or hole arc and a straight edge belongs to the curved feature.
+    const ein = domain.edges[c.edgeIn];
+    const eout = domain.edges[c.edgeOut];
+    feature = atSharp ? `sharp ${c.label}` : eout.curve.kind !== 'line' ? eout.feature : ein.curve.kind !== 'line' ? ein.feature : c.label;
+  } else if (e >= 0) {
+    feature = domain.edges[e].feature;
+    // At a smooth junction (a fillet meeting its straight edge), name the curved feature.
+    for (let s = 0; s < mesh.nBEdges; s++) {
+      if (mesh.bEdges[3 * s] !== best && mesh.bEdges[3 * s + 1] !== best) continue;
+      const de = domain.edges[mesh.bEdgeDomain[s]];
+      if (de.curve.kind !== 'line') feature = de.feature;
+    }
+  }
+  return {
+    measure,
+    stress: field[best],
+    x: mesh.nodes[2 * best],
+    y: mesh.nodes[2 * best + 1],
+    node: best,
+    feature,
+    onBoundary: e >= 0 || corner >= 0,
+    atSharpCorner: atSharp,
+    components: { sxx: stress[3 * best], syy: stress[3 * best + 1], sxy: stress[3 * best + 2] },
+  };
+}

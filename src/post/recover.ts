@@ -1,0 +1,311 @@
+/**
+ * Recovered (smoothed) nodal stresses by superconvergent patch recovery: O. C. Zienkiewicz &
+ * J. Z. Zhu, "The superconvergent patch recovery and a posteriori error estimates", Parts 1-2,
+ * IJNME 33 (1992) 1331-1364 and 1365-1382.
+ *
+ * For every vertex a polynomial of the element's degree (linear for 3-node, quadratic for
+ * 6-node elements) is fitted by least squares to the element stresses at the sampling points
+ * (centroids, or the 3 Gauss points) of the elements around it, then evaluated at the vertex.
+ * Patches of vertices on the boundary, and patches with too few points, are grown by one ring
+ * of elements, so the boundary value is an interpolation from inside rather than an
+ * extrapolation from one element. Midside nodes take the mean of the two end vertices'
+ * polynomials at the midside point.
+ *
+ * At nodes on a traction-free edge the exact stress is uniaxial along the edge (sigma . n = 0),
+ * so the recovered tensor there is replaced by its tangential part s_tt t (x) t; this follows
+ * the boundary-condition enhancement of SPR described by T. Blacker & T. Belytschko,
+ * "Superconvergent patch recovery with equilibrium and conjoint interpolant enhancements",
+ * IJNME 37 (1994) 517-536.
+ */
+import type { Mesh } from '../mesh/types.js';
+import type { ElementSamples } from './stress.js';
+
+export interface NodalStress {
+  /** sxx, syy, sxy per node */
+  stress: Float64Array;
+}
+
+/** Vertex -> elements incidence (CSR). */
+export function vertexElements(mesh: Mesh): { ptr: Int32Array; idx: Int32Array } {
+  const per = mesh.order === 2 ? 6 : 3;
+  const nv = mesh.nVertices;
+  const ptr = new Int32Array(nv + 1);
+  for (let e = 0; e < mesh.nElements; e++) for (let i = 0; i < 3; i++) ptr[mesh.elements[per * e + i] + 1]++;
+  for (let v = 0; v < nv; v++) ptr[v + 1] += ptr[v];
+  const fill = ptr.slice(0, nv);
+  const idx = new Int32Array(ptr[nv]);
+  for (let e = 0; e < mesh.nElements; e++) for (let i = 0; i < 3; i++) idx[fill[mesh.elements[per * e + i]]++] = e;
+  return { ptr, idx };
+}
+
+/** Boundary flag per node. */
+export function boundaryNodes(mesh: Mesh): Uint8Array {
+  const on = new Uint8Array(mesh.nNodes);
+  for (let s = 0; s < mesh.nBEdges; s++) for (let k = 0; k < 3; k++) if (mesh.bEdges[3 * s + k] >= 0) on[mesh.bEdges[3 * s + k]] = 1;
+  return on;
+}
+
+/**
+ * SPR nodal stresses. `tractionFree` marks the domain edges that carry neither load nor
+ * support; pass null to skip the boundary projection.
+ */
+export function recoverNodalStress(mesh: Mesh, samples: ElementSamples, tractionFree: Uint8Array | null): Float64Array {
+  const per = mesh.order === 2 ? 6 : 3;
+  const terms = mesh.order === 2 ? 6 : 3;
+  const nv = mesh.nVertices;
+  const { ptr, idx } = vertexElements(mesh);
+  const onBoundary = boundaryNodes(mesh);
+  const coef = new Float64Array(nv * 3 * terms);
+  const centre = new Float64Array(3 * nv); // x, y, scale of each vertex's fit
+  const stamp = new Int32Array(mesh.nElements).fill(-1);
+  const patch: number[] = [];
+  const ata = new Float64Array(terms * terms);
+  const atb = new Float64Array(3 * terms);
+  const phi = new Float64Array(terms);
+  const k = samples.perElement;
+  const minPoints = 2 * terms;
+
+  for (let v = 0; v < nv; v++) {
+    patch.length = 0;
+    for (let p = ptr[v]; p < ptr[v + 1]; p++) {
+      const e = idx[p];
+      stamp[e] = v;
+      patch.push(e);
+    }
+    const grow = () => {
+      const n0 = patch.length;
+      for (let q = 0; q < n0; q++) {
+        const e = patch[q];
+        for (let i = 0; i < 3; i++) {
+          const w = mesh.elements[per * e + i];
+          for (let p = ptr[w]; p < ptr[w + 1]; p++) {
+            const f = idx[p];
+            if (stamp[f] === v) continue;
+            stamp[f] = v;
+            patch.push(f);
+          }
+        }
+      }
+    };
+    if (onBoundary[v] || patch.length * k < minPoints) grow();
+    if (patch.length * k < minPoints) grow();
+    const x0 = mesh.nodes[2 * v];
+    const y0 = mesh.nodes[2 * v + 1];
+    let h = 0;
+    for (const e of patch) {
+      for (let q = 0; q < k; q++) {
+        const s = e * k + q;
+        h = Math.max(h, Math.abs(samples.xy[2 * s] - x0), Math.abs(samples.xy[2 * s + 1] - y0));
+      }
+    }
+    centre[3 * v] = x0;
+    centre[3 * v + 1] = y0;
+    centre[3 * v + 2] = h;
+    // Normal equations in scaled coordinates, solved by Cholesky; the patch grows once more if singular.
+    for (let attempt = 0; attempt < 3; attempt++) {
+      ata.fill(0);
+      atb.fill(0);
+      for (const e of patch) {
+        for (let q = 0; q < k; q++) {
+          const s = e * k + q;
+          basis((samples.xy[2 * s] - x0) / h, (samples.xy[2 * s + 1] - y0) / h, terms, phi);
+          for (let a = 0; a < terms; a++) {
+            for (let b = 0; b <= a; b++) ata[a * terms + b] += phi[a] * phi[b];
+            for (let c = 0; c < 3; c++) atb[c * terms + a] += phi[a] * samples.stress[3 * s + c];
+          }
+        }
+      }
+      if (solveNormal(ata, atb, terms, coef, v * 3 * terms)) break;
+      if (attempt === 2) {
+        // Fall back to the plain mean of the patch (a degree-0 fit), never to nothing.
+        const o = v * 3 * terms;
+        coef.fill(0, o, o + 3 * terms);
+        let cnt = 0;
+        for (const e of patch) for (let q = 0; q < k; q++) for (let c = 0; c < 3; c++) coef[o + c * terms] += samples.stress[3 * (e * k + q) + c];
+        for (const e of patch) for (let q = 0; q < k; q++) cnt++;
+        for (let c = 0; c < 3; c++) coef[o + c * terms] /= cnt;
+        break;
+      }
+      grow();
+    }
+  }
+
+  const out = new Float64Array(3 * mesh.nNodes);
+  const evalAt = (v: number, x: number, y: number, c: number) => {
+    const h = centre[3 * v + 2];
+    basis((x - centre[3 * v]) / h, (y - centre[3 * v + 1]) / h, terms, phi);
+    let s = 0;
+    const o = v * 3 * terms + c * terms;
+    for (let a = 0; a < terms; a++) s += coef[o + a] * phi[a];
+    return s;
+  };
+  for (let v = 0; v < nv; v++) {
+    for (let c = 0; c < 3; c++) out[3 * v + c] = coef[v * 3 * terms + c * terms]; // phi = 1 at the centre
+  }
+  if (mesh.order === 2) {
+    const done = new Uint8Array(mesh.nNodes);
+    const pairs = [
+      [0, 1, 3],
+      [1, 2, 4],
+      [2, 0, 5],
+    ];
+    for (let e = 0; e < mesh.nElements; e++) {
+      for (const [i, j, m] of pairs) {
+        const node = mesh.elements[6 * e + m];
+        if (done[node]) continue;
+        done[node] = 1;
+        const a = mesh.elements[6 * e + i];
+        const b = mesh.elements[6 * e + j];
+        const x = mesh.nodes[2 * node];
+        const y = mesh.nodes[2 * node + 1];
+        for (let c = 0; c < 3; c++) out[3 * node + c] = 0.5 * (evalAt(a, x, y, c) + evalAt(b, x, y, c));
+      }
+    }
+  }
+  if (tractionFree) projectFreeBoundary(mesh, out, tractionFree);
+  return out;
+}
+
+/** Monomials 1, x, y (, x^2, x y, y^2). */
+function basis(x: number, y: number, terms: number, phi: Float64Array): void {
+  phi[0] = 1;
+  phi[1] = x;
+  phi[2] = y;
+  if (terms === 6) {
+    phi[3] = x * x;
+    phi[4] = x * y;
+    phi[5] = y * y;
+  }
+}
+
+/** Solves the symmetric normal equations (lower triangle of ata) for 3 right-hand sides; false if not positive definite. */
+function solveNormal(ata: Float64Array, atb: Float64Array, n: number, out: Float64Array, o: number): boolean {
+  const L = new Float64Array(n * n);
+  let dmax = 0;
+  for (let i = 0; i < n; i++) dmax = Math.max(dmax, ata[i * n + i]);
+  for (let j = 0; j < n; j++) {
+    let d = ata[j * n + j];
+    for (let k = 0; k < j; k++) d -= L[j * n + k] * L[j * n + k];
+    if (!(d > 1e-10 * dmax)) return false;
+    const ljj = Math.sqrt(d);
+    L[j * n + j] = ljj;
+    for (let i = j + 1; i < n; i++) {
+      let s = ata[i * n + j];
+      for (let k = 0; k < j; k++) s -= L[i * n + k] * L[j * n + k];
+      L[i * n + j] = s / ljj;
+    }
+  }
+  const y = new Float64Array(n);
+  for (let c = 0; c < 3; c++) {
+    for (let i = 0; i < n; i++) {
+      let s = atb[c * n + i];
+      for (let k = 0; k < i; k++) s -= L[i * n + k] * y[k];
+      y[i] = s / L[i * n + i];
+    }
+    for (let i = n - 1; i >= 0; i--) {
+      let s = y[i];
+      for (let k = i + 1; k < n; k++) s -= L[k * n + i] * out[o + c * n + k];
+      out[o + c * n + i] = s / L[i * n + i];
+    }
+  }
+  return true;
+}
+
+/**
+ * Unit tangents of the boundary at each boundary node (direction of travel, material on the
+ * left), from the isoparametric boundary edges; a node where the tangent jumps (a corner) gets
+ * NaN, since no single normal applies there.
+ */
+export function boundaryTangents(mesh: Mesh): Float64Array {
+  const tan = new Float64Array(2 * mesh.nNodes).fill(NaN);
+  const acc = new Float64Array(2 * mesh.nNodes);
+  const cnt = new Uint8Array(mesh.nNodes);
+  const n = mesh.nodes;
+  const put = (node: number, dx: number, dy: number) => {
+    const l = Math.hypot(dx, dy);
+    const tx = dx / l;
+    const ty = dy / l;
+    if (cnt[node] > 0) {
+      const px = acc[2 * node] / cnt[node];
+      const py = acc[2 * node + 1] / cnt[node];
+      // Tangents that disagree by more than 10 degrees mark a corner.
+      if (px * tx + py * ty < Math.cos(Math.PI / 18)) cnt[node] = 255;
+    }
+    if (cnt[node] === 255) return;
+    acc[2 * node] += tx;
+    acc[2 * node + 1] += ty;
+    cnt[node]++;
+  };
+  for (let s = 0; s < mesh.nBEdges; s++) {
+    const a = mesh.bEdges[3 * s];
+    const b = mesh.bEdges[3 * s + 1];
+    const m = mesh.bEdges[3 * s + 2];
+    if (m >= 0) {
+      // x(u) = Na xa + Nm xm + Nb xb; dx/du at u = 0, 1/2, 1.
+      put(a, -3 * n[2 * a] + 4 * n[2 * m] - n[2 * b], -3 * n[2 * a + 1] + 4 * n[2 * m + 1] - n[2 * b + 1]);
+      put(m, n[2 * b] - n[2 * a], n[2 * b + 1] - n[2 * a + 1]);
+      put(b, n[2 * a] - 4 * n[2 * m] + 3 * n[2 * b], n[2 * a + 1] - 4 * n[2 * m + 1] + 3 * n[2 * b + 1]);
+    } else {
+      put(a, n[2 * b] - n[2 * a], n[2 * b + 1] - n[2 * a + 1]);
+      put(b, n[2 * b] - n[2 * a], n[2 * b + 1] - n[2 * a + 1]);
+    }
+  }
+  for (let i = 0; i < mesh.nNodes; i++) {
+    if (cnt[i] === 0 || cnt[i] === 255) continue;
+    const l = Math.hypot(acc[2 * i], acc[2 * i + 1]);
+    tan[2 * i] = acc[2 * i] / l;
+    tan[2 * i + 1] = acc[2 * i + 1] / l;
+  }
+  return tan;
+}
+
+/** Replaces the stress at nodes on traction-free edges by its tangential part. */
+function projectFreeBoundary(mesh: Mesh, out: Float64Array, tractionFree: Uint8Array): void {
+  const tan = boundaryTangents(mesh);
+  // A node is projected only if every boundary edge touching it is traction-free.
+  const ok = new Int8Array(mesh.nNodes);
+  for (let s = 0; s < mesh.nBEdges; s++) {
+    const free = tractionFree[mesh.bEdgeDomain[s]] === 1;
+    for (let k = 0; k < 3; k++) {
+      const node = mesh.bEdges[3 * s + k];
+      if (node < 0) continue;
+      if (!free) ok[node] = -1;
+      else if (ok[node] === 0) ok[node] = 1;
+    }
+  }
+  for (let i = 0; i < mesh.nNodes; i++) {
+    if (ok[i] !== 1 || Number.isNaN(tan[2 * i])) continue;
+    const tx = tan[2 * i];
+    const ty = tan[2 * i + 1];
+    const sxx = out[3 * i];
+    const syy = out[3 * i + 1];
+    const sxy = out[3 * i + 2];
+    const stt = tx * tx * sxx + ty * ty * syy + 2 * tx * ty * sxy;
+    out[3 * i] = stt * tx * tx;
+    out[3 * i + 1] = stt * ty * ty;
+    out[3 * i + 2] = stt * tx * ty;
+  }
+}
+
+/**
+ * The plain alternative, for comparison: at each node the mean of the stresses that the
+ * elements around it give at that node (extrapolated within each element).
+ */
+export function averageNodalStress(mesh: Mesh, stressAtNode: (e: number, local: number, out: Float64Array) => void): Float64Array {
+  const per = mesh.order === 2 ? 6 : 3;
+  const out = new Float64Array(3 * mesh.nNodes);
+  const cnt = new Float64Array(mesh.nNodes);
+  const s = new Float64Array(3);
+  for (let e = 0; e < mesh.nElements; e++) {
+    for (let i = 0; i < per; i++) {
+      const node = mesh.elements[per * e + i];
+      stressAtNode(e, i, s);
+      out[3 * node] += s[0];
+      out[3 * node + 1] += s[1];
+      out[3 * node + 2] += s[2];
+      cnt[node]++;
+    }
+  }
+  for (let i = 0; i < mesh.nNodes; i++) for (let c = 0; c < 3; c++) out[3 * i + c] /= cnt[i];
+  return out;
+}
