@@ -250,6 +250,13 @@ export interface SymbolicFactor {
   readonly maxFront: number;
   /** peak number of doubles on the update-matrix stack of the multifrontal method */
   readonly stackPeak: number;
+  /** pattern of A(perm, perm) (lower CSC) and, for entry p of A, its index there */
+  readonly permutedColPtr: Int32Array;
+  readonly permutedRowIndex: Int32Array;
+  readonly valueMap: Int32Array;
+  /** the pattern of the analysed A, to check that a matrix to factorise has it */
+  readonly sourceColPtr: Int32Array;
+  readonly sourceRowIndex: Int32Array;
 }
 
 /**
@@ -261,100 +268,168 @@ export interface SymbolicFactor {
 export function analyzeCholesky(a: SymmetricCsc, ordering: Ordering, relax: RelaxOptions = {}): SymbolicFactor {
   const n = a.n;
   if (ordering.perm.length !== n) throw new RangeError(`analyzeCholesky: ordering has ${ordering.perm.length} entries, matrix ${n}`);
-  // etree of A(p, p), then its postorder; compose.
+  // etree of A(q, q) for the given ordering q, its postorder, and the
+  // column counts (computed on A(q, q) with that postorder).
   const c0 = permuteSymmetric(a, ordering.perm, ordering.invPerm);
   const up0 = upperPattern(c0);
   const parent0 = eliminationTree(n, up0.colPtr, up0.rowIndex);
   const post = postorderTree(parent0);
-  const perm = new Int32Array(n);
-  for (let k = 0; k < n; k++) perm[k] = ordering.perm[post[k]];
-  const invPerm = invertPermutation(perm);
+  const count0 = columnCounts(c0, parent0, post);
+  // Renumber in postorder: column k is old column post[k].
   const postInv = invertPermutation(post);
-  const parent = new Int32Array(n);
+  const parentP = new Int32Array(n);
+  const countP = new Int32Array(n);
   for (let k = 0; k < n; k++) {
     const p0 = parent0[post[k]];
-    parent[k] = p0 === -1 ? -1 : postInv[p0];
+    parentP[k] = p0 === -1 ? -1 : postInv[p0];
+    countP[k] = count0[post[k]];
   }
-  const c = permuteSymmetric(a, perm, invPerm);
-  const identity = new Int32Array(n);
-  for (let k = 0; k < n; k++) identity[k] = k;
-  const colCount = columnCounts(c, parent, identity);
   let nnzL = 0;
   let flops = 0;
   for (let j = 0; j < n; j++) {
-    nnzL += colCount[j];
-    flops += colCount[j] * colCount[j];
+    nnzL += countP[j];
+    flops += countP[j] * countP[j];
   }
 
-  // Fundamental supernodes (Liu, Ng & Peyton 1993): j+1 joins j when it is
-  // j's parent, its only child, and its column is j's minus the diagonal.
+  // Fundamental supernodes (Liu, Ng & Peyton 1993): j joins j-1 when it is
+  // j-1's parent, its only child, and its column is j-1's minus the diagonal.
   const nChild = new Int32Array(n);
-  for (let j = 0; j < n; j++) if (parent[j] !== -1) nChild[parent[j]]++;
-  const fundStart: number[] = [];
+  for (let j = 0; j < n; j++) if (parentP[j] !== -1) nChild[parentP[j]]++;
+  const fundStartList: number[] = [];
   for (let j = 0; j < n; j++) {
-    if (j === 0 || !(parent[j - 1] === j && colCount[j - 1] === colCount[j] + 1 && nChild[j] === 1)) fundStart.push(j);
+    if (j === 0 || !(parentP[j - 1] === j && countP[j - 1] === countP[j] + 1 && nChild[j] === 1)) fundStartList.push(j);
   }
-  const nf = fundStart.length;
-  fundStart.push(n);
+  const nf = fundStartList.length;
+  fundStartList.push(n);
+  const fundStart = Int32Array.from(fundStartList);
   const superOfCol = new Int32Array(n);
   for (let s = 0; s < nf; s++) for (let j = fundStart[s]; j < fundStart[s + 1]; j++) superOfCol[j] = s;
+  const fParent = new Int32Array(nf);
+  for (let s = 0; s < nf; s++) {
+    const pc = parentP[fundStart[s + 1] - 1];
+    fParent[s] = pc === -1 ? -1 : superOfCol[pc];
+  }
 
-  // Relaxed amalgamation: walk supernodes in order; the current group may
-  // absorb the next supernode when that one is the group's parent.
+  // Relaxed amalgamation (Ashcraft & Grimes 1989) on the supernodal tree: a
+  // child group merges into its parent group when the merged front stores
+  // few enough explicit zeros. Any child may merge, not only the one
+  // numbered just before the parent: the columns are renumbered afterwards
+  // by a postorder of the merged tree, a topological reordering of the
+  // elimination tree, which leaves the filled graph unchanged (Liu 1990).
   const rules = relax.rules ?? DEFAULT_RELAX_RULES;
-  const groupStart: number[] = [];
-  {
-    let gFirst = 0; // first column of the current group
-    let gCols = 0;
-    let gTrue = 0; // true nonzeros of L in the group
-    let gLastSuper = -1;
-    for (let s = 0; s < nf; s++) {
-      const f = fundStart[s];
-      const k = fundStart[s + 1] - f;
-      const m = colCount[f];
-      let tru = 0;
-      for (let j = f; j < f + k; j++) tru += colCount[j];
-      let merged = false;
-      if (gLastSuper >= 0 && rules.length > 0) {
-        const lastCol = fundStart[gLastSuper + 1] - 1;
-        if (parent[lastCol] === f) {
-          const kk = gCols + k;
-          const mm = gCols + m;
-          const stored = (kk * (kk + 1)) / 2 + (mm - kk) * kk;
-          const zeroFrac = (stored - gTrue - tru) / stored;
-          for (const [maxCols, maxZero] of rules) {
-            if (kk <= maxCols) {
-              merged = zeroFrac <= maxZero;
-              break;
-            }
-          }
-          if (merged) {
-            gCols = kk;
-            gTrue += tru;
-            gLastSuper = s;
-          }
+  const gCols = new Float64Array(nf); // columns of the group rooted at s
+  const gTrue = new Float64Array(nf); // true nonzeros of L in the group
+  const belowRows = new Float64Array(nf); // rows below the group (those of its root supernode)
+  const mergedInto = new Int32Array(nf).fill(-1);
+  const cHead = new Int32Array(nf).fill(-1);
+  const cNext = new Int32Array(nf).fill(-1);
+  for (let s = nf - 1; s >= 0; s--) {
+    const p = fParent[s];
+    if (p !== -1) {
+      cNext[s] = cHead[p];
+      cHead[p] = s;
+    }
+  }
+  for (let s = 0; s < nf; s++) {
+    const f = fundStart[s];
+    const k = fundStart[s + 1] - f;
+    gCols[s] = k;
+    belowRows[s] = countP[f] - k;
+    let tru = 0;
+    for (let j = f; j < f + k; j++) tru += countP[j];
+    gTrue[s] += tru;
+    if (rules.length === 0) continue;
+    for (let c = cHead[s]; c !== -1; c = cNext[c]) {
+      const kk = gCols[c] + gCols[s];
+      const mm = kk + belowRows[s];
+      const stored = (kk * (kk + 1)) / 2 + (mm - kk) * kk;
+      const zeroFrac = (stored - gTrue[c] - gTrue[s]) / stored;
+      let ok = false;
+      for (const [maxCols, maxZero] of rules) {
+        if (kk <= maxCols) {
+          ok = zeroFrac <= maxZero;
+          break;
         }
       }
-      if (!merged) {
-        if (gLastSuper >= 0) groupStart.push(gFirst);
-        gFirst = f;
-        gCols = k;
-        gTrue = tru;
-        gLastSuper = s;
+      if (ok) {
+        mergedInto[c] = s;
+        gCols[s] = kk;
+        gTrue[s] += gTrue[c];
       }
     }
-    if (gLastSuper >= 0) groupStart.push(gFirst);
   }
-  const nSuper = groupStart.length;
+  // Group root of every fundamental supernode (parents have larger numbers).
+  const root = new Int32Array(nf);
+  for (let s = nf - 1; s >= 0; s--) root[s] = mergedInto[s] === -1 ? s : root[mergedInto[s]];
+  // Members of each group, increasing; children groups of each group.
+  const memHead = new Int32Array(nf).fill(-1);
+  const memNext = new Int32Array(nf).fill(-1);
+  const memTail = new Int32Array(nf).fill(-1);
+  for (let s = 0; s < nf; s++) {
+    const r = root[s];
+    if (memTail[r] === -1) memHead[r] = s;
+    else memNext[memTail[r]] = s;
+    memTail[r] = s;
+  }
+  const gHead = new Int32Array(nf).fill(-1);
+  const gNext = new Int32Array(nf).fill(-1);
+  for (let s = nf - 1; s >= 0; s--) {
+    if (root[s] !== s || fParent[s] === -1) continue;
+    const pg = root[fParent[s]];
+    gNext[s] = gHead[pg];
+    gHead[pg] = s;
+  }
+  // Postorder of the group tree; each group lists its members' columns.
+  const newToP = new Int32Array(n); // new column -> postordered column
+  const starts: number[] = [];
+  {
+    const stack = new Int32Array(nf);
+    let w = 0;
+    for (let r0 = 0; r0 < nf; r0++) {
+      if (root[r0] !== r0 || fParent[r0] !== -1) continue;
+      let top = 0;
+      stack[0] = r0;
+      while (top >= 0) {
+        const g = stack[top];
+        const c = gHead[g];
+        if (c !== -1) {
+          gHead[g] = gNext[c];
+          stack[++top] = c;
+          continue;
+        }
+        top--;
+        starts.push(w);
+        for (let s = memHead[g]; s !== -1; s = memNext[s]) {
+          for (let j = fundStart[s]; j < fundStart[s + 1]; j++) newToP[w++] = j;
+        }
+      }
+    }
+    if (w !== n) throw new Error('analyzeCholesky: supernode renumbering lost columns');
+  }
+  const nSuper = starts.length;
   const superStart = new Int32Array(nSuper + 1);
-  for (let s = 0; s < nSuper; s++) superStart[s] = groupStart[s];
+  for (let s = 0; s < nSuper; s++) superStart[s] = starts[s];
   superStart[nSuper] = n;
+  const pToNew = invertPermutation(newToP);
+  const perm = new Int32Array(n);
+  const parent = new Int32Array(n);
+  const colCount = new Int32Array(n);
+  for (let k = 0; k < n; k++) {
+    const j = newToP[k];
+    perm[k] = ordering.perm[post[j]];
+    parent[k] = parentP[j] === -1 ? -1 : pToNew[parentP[j]];
+    colCount[k] = countP[j];
+  }
+  const invPerm = invertPermutation(perm);
   for (let s = 0; s < nSuper; s++) for (let j = superStart[s]; j < superStart[s + 1]; j++) superOfCol[j] = s;
   const superParent = new Int32Array(nSuper);
   for (let s = 0; s < nSuper; s++) {
     const pc = parent[superStart[s + 1] - 1];
     superParent[s] = pc === -1 ? -1 : superOfCol[pc];
+    if (superParent[s] !== -1 && superParent[s] <= s) throw new Error('analyzeCholesky: supernodal tree not in postorder');
   }
+  const valueMap = new Int32Array(a.colPtr[n]);
+  const c = permuteSymmetric(a, perm, invPerm, valueMap);
 
   // Row structure of each supernode: its columns, the rows of C below them,
   // and the update rows of its children (supernodal symbolic factorisation).
@@ -445,7 +520,36 @@ export function analyzeCholesky(a: SymmetricCsc, ordering: Ordering, relax: Rela
     storedValues: valuePtr[nSuper],
     maxFront,
     stackPeak,
+    permutedColPtr: c.colPtr,
+    permutedRowIndex: c.rowIndex,
+    valueMap,
+    sourceColPtr: a.colPtr,
+    sourceRowIndex: a.rowIndex,
   };
+}
+
+/** Throws unless a has exactly the pattern the symbolic factor was computed for. */
+function checkPattern(a: SymmetricCsc, symbolic: SymbolicFactor, who: string): void {
+  if (a.n !== symbolic.n) throw new RangeError(`${who}: matrix order ${a.n}, analysis ${symbolic.n}`);
+  const same = (x: Int32Array, y: Int32Array): boolean => {
+    if (x === y) return true;
+    if (x.length !== y.length) return false;
+    for (let i = 0; i < x.length; i++) if (x[i] !== y[i]) return false;
+    return true;
+  };
+  if (!same(a.colPtr, symbolic.sourceColPtr) || !same(a.rowIndex.subarray(0, a.colPtr[a.n]), symbolic.sourceRowIndex.subarray(0, symbolic.sourceColPtr[a.n]))) {
+    throw new RangeError(`${who}: the matrix pattern differs from the analysed one`);
+  }
+}
+
+/** Values of A(perm, perm) in the analysed pattern, by a scatter. */
+function permutedValues(a: SymmetricCsc, symbolic: SymbolicFactor): Float64Array {
+  const nz = a.colPtr[a.n];
+  const v = new Float64Array(nz);
+  const map = symbolic.valueMap;
+  const av = a.values;
+  for (let p = 0; p < nz; p++) v[map[p]] = av[p];
+  return v;
 }
 
 // ---------------------------------------------------------------------------
@@ -481,12 +585,13 @@ export interface FactorOptions {
  * update written straight onto the update stack.
  */
 export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, options: FactorOptions = {}): CholeskyFactor {
-  const { n, perm, invPerm, nSuper, superStart, superParent, rowPtr, superRows, valuePtr, maxFront, stackPeak } = symbolic;
-  if (a.n !== n) throw new RangeError(`factorCholesky: matrix order ${a.n}, analysis ${n}`);
+  const { n, perm, nSuper, superStart, superParent, rowPtr, superRows, valuePtr, maxFront, stackPeak } = symbolic;
+  checkPattern(a, symbolic, 'factorCholesky');
   const tol = options.pivotTolerance ?? DEFAULT_PIVOT_TOLERANCE;
   const threshold = tol * maxDiagonal(a);
-  const c = permuteSymmetric(a, perm, invPerm);
-  const { colPtr, rowIndex, values: av } = c;
+  const colPtr = symbolic.permutedColPtr;
+  const rowIndex = symbolic.permutedRowIndex;
+  const av = permutedValues(a, symbolic);
 
   const L = new Float64Array(symbolic.storedValues);
   const front = new Float64Array(maxFront * maxFront);
@@ -662,10 +767,10 @@ export interface SimplicialFactor {
  */
 export function factorCholeskySimplicial(a: SymmetricCsc, symbolic: SymbolicFactor, options: FactorOptions = {}): SimplicialFactor {
   const { n, perm, invPerm, parent, colCount } = symbolic;
-  if (a.n !== n) throw new RangeError(`factorCholeskySimplicial: matrix order ${a.n}, analysis ${n}`);
+  checkPattern(a, symbolic, 'factorCholeskySimplicial');
   const tol = options.pivotTolerance ?? DEFAULT_PIVOT_TOLERANCE;
   const threshold = tol * maxDiagonal(a);
-  const c = permuteSymmetric(a, perm, invPerm);
+  const c: SymmetricCsc = { n, colPtr: symbolic.permutedColPtr, rowIndex: symbolic.permutedRowIndex, values: permutedValues(a, symbolic) };
   const up = upperPattern(c);
   const lp = new Int32Array(n + 1);
   for (let j = 0; j < n; j++) lp[j + 1] = lp[j] + colCount[j];
