@@ -403,7 +403,8 @@ function buildPath(vertices: Vertex[], path: string, loopTags: string[], isOutli
     }
     if (a.arc) {
       const curve = buildArc(a.x, a.y, b.x, b.y, a.arc, `${source}.arc`, scale || 1);
-      out.push({ curve, tags, label: `arc ${label}`, feature: isOutline ? `arc ${label}` : loopLabel, source: `${source}.arc` });
+      const arcName = a.edge ? `arc "${a.edge}" (${edgeName(i)})` : `arc ${edgeName(i)}`;
+      out.push({ curve, tags, label: arcName, feature: isOutline ? arcName : loopLabel, source: `${source}.arc` });
     } else {
       const len = Math.hypot(b.x - a.x, b.y - a.y);
       const ux = (b.x - a.x) / len;

@@ -1,0 +1,98 @@
+/**
+ * The command line: parses arguments, calls the library, prints. No analysis logic lives here.
+ * Exit codes: 0 done, 2 bad input, 3 the model cannot be analysed as given, 1 internal fault.
+ */
+import { Command, CommanderError, Option } from 'commander';
+import { STRESS_MEASURES, type StressMeasure } from '../model/schema.js';
+import { AnalysisError, ModelError } from '../model/errors.js';
+import { loadModelFile } from '../model/load.js';
+import { analyseModel } from '../pipeline/analyse.js';
+import { buildResult, TOOL_VERSION } from '../report/result.js';
+import { formatSummary } from '../report/summary.js';
+import { writeResultFiles } from '../report/files.js';
+import { newCommand } from './new.js';
+
+export const EXIT = { ok: 0, internal: 1, badInput: 2, cannotAnalyse: 3 } as const;
+
+interface SolveFlags {
+  json?: boolean;
+  out?: string;
+  force?: boolean;
+  measure?: StressMeasure;
+  element?: 'linear' | 'quadratic';
+  debug?: boolean;
+}
+
+function runSolve(file: string, flags: SolveFlags): number {
+  const { model, warnings } = loadModelFile(file);
+  const analysis = analyseModel(model, { measure: flags.measure, element: flags.element });
+  analysis.warnings.unshift(...warnings.map((w) => w.describe()));
+  const result = buildResult(analysis, file);
+  let written: string[] = [];
+  if (flags.out) written = writeResultFiles(flags.out, analysis, result, flags.force ?? false);
+  if (flags.json) {
+    process.stdout.write(JSON.stringify(result, null, 2) + '\n');
+  } else {
+    process.stdout.write(formatSummary(result) + '\n');
+    if (written.length) process.stdout.write(`\n  wrote ${written.join(', ')}\n`);
+  }
+  return EXIT.ok;
+}
+
+/** Runs the program; returns the exit code (the process is not exited here, so tests can call it). */
+export function main(argv: string[]): number {
+  let code: number = EXIT.ok;
+  let debug = argv.includes('--debug');
+  const program = new Command();
+  program
+    .name('raiser')
+    .description('Stress concentration factors of flat parts by finite elements')
+    .version(TOOL_VERSION)
+    .exitOverride()
+    .configureOutput({ writeErr: (s) => process.stderr.write(s) });
+
+  program
+    .command('solve')
+    .description('mesh, solve and report the peak stress, nominal stress and Kt of a model file')
+    .argument('<model>', 'model file (JSON)')
+    .option('--json', 'print the result as one JSON object on stdout, nothing else')
+    .option('-o, --out <dir>', 'write result files (result.json, nodes.csv) into this folder')
+    .option('--force', 'replace result files that already exist in the output folder')
+    .addOption(new Option('--measure <measure>', 'stress measure for the peak and Kt').choices(STRESS_MEASURES as unknown as string[]))
+    .addOption(new Option('--element <type>', 'element type, overriding the model file').choices(['linear', 'quadratic']))
+    .option('--debug', 'show internal details (stack traces) on errors')
+    .action((file: string, flags: SolveFlags) => {
+      debug = debug || !!flags.debug;
+      code = runSolve(file, flags);
+    });
+
+  newCommand(program, (c) => (code = c));
+
+  try {
+    program.parse(argv, { from: 'user' });
+  } catch (err) {
+    return reportError(err, debug);
+  }
+  return code;
+}
+
+function reportError(err: unknown, debug: boolean): number {
+  if (err instanceof CommanderError) {
+    // commander has already printed its message (help and version exit with code 0).
+    return err.exitCode === 0 ? EXIT.ok : EXIT.badInput;
+  }
+  if (err instanceof ModelError) {
+    process.stderr.write(`raiser: bad input: ${err.describe()}\n`);
+    if (debug && err.stack) process.stderr.write(err.stack + '\n');
+    return EXIT.badInput;
+  }
+  if (err instanceof AnalysisError) {
+    process.stderr.write(`raiser: cannot analyse: ${err.describe()}\n`);
+    if (debug && err.stack) process.stderr.write(err.stack + '\n');
+    return EXIT.cannotAnalyse;
+  }
+  const e = err as Error;
+  process.stderr.write(`raiser: internal fault: ${e?.message ?? String(err)}\n  this is a bug in raiser, not in your model; please report it with the model file\n`);
+  if (debug && e?.stack) process.stderr.write(e.stack + '\n');
+  return EXIT.internal;
+}

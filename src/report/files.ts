@@ -1,0 +1,65 @@
+/**
+ * Result files. Each is written to a temporary name in the same folder and renamed into place,
+ * so an interrupted run never leaves a half-written file under the final name; existing
+ * results are not replaced unless the caller says so.
+ */
+import { existsSync, mkdirSync, renameSync, writeFileSync, rmSync } from 'node:fs';
+import { join } from 'node:path';
+import { ModelError } from '../model/errors.js';
+import type { Analysis } from '../pipeline/analyse.js';
+import { measureField } from '../post/peak.js';
+import type { ResultJson } from './result.js';
+
+export function writeAtomic(path: string, data: string | Uint8Array): void {
+  const tmp = `${path}.raiser-tmp-${process.pid}`;
+  try {
+    writeFileSync(tmp, data);
+    renameSync(tmp, path);
+  } catch (err) {
+    rmSync(tmp, { force: true });
+    throw err;
+  }
+}
+
+/** Refuses to overwrite unless `force`; creates the folder. */
+export function prepareOutputDir(dir: string, names: string[], force: boolean): void {
+  mkdirSync(dir, { recursive: true });
+  if (force) return;
+  const taken = names.filter((n) => existsSync(join(dir, n)));
+  if (taken.length > 0) {
+    throw new ModelError('', `the output folder ${dir} already holds ${taken.join(', ')}`, 'pass --force to replace them, or choose another folder with -o');
+  }
+}
+
+/** Nodal results as CSV: position, displacement, recovered stresses and measures. */
+export function nodalCsv(a: Analysis): string {
+  const n = a.mesh.nNodes;
+  const s1 = measureField(a.stress, 'max-principal', a.szzFactor);
+  const s2 = measureField(a.stress, 'min-principal', a.szzFactor);
+  const vm = measureField(a.stress, 'von-mises', a.szzFactor);
+  const tr = measureField(a.stress, 'tresca', a.szzFactor);
+  const lines = ['node,x,y,ux,uy,sxx,syy,sxy,s1,s2,von_mises,tresca'];
+  const num = (v: number) => (Number.isFinite(v) ? Number(v.toPrecision(10)).toString() : '');
+  for (let i = 0; i < n; i++) {
+    lines.push(
+      [i, a.mesh.nodes[2 * i], a.mesh.nodes[2 * i + 1], a.u[2 * i], a.u[2 * i + 1], a.stress[3 * i], a.stress[3 * i + 1], a.stress[3 * i + 2], s1[i], s2[i], vm[i], tr[i]]
+        .map((v, k) => (k === 0 ? String(v) : num(v)))
+        .join(','),
+    );
+  }
+  return lines.join('\n') + '\n';
+}
+
+export const RESULT_FILES = ['result.json', 'nodes.csv'];
+
+export function writeResultFiles(dir: string, a: Analysis, result: ResultJson, force: boolean): string[] {
+  prepareOutputDir(dir, RESULT_FILES, force);
+  const written: string[] = [];
+  const json = join(dir, 'result.json');
+  writeAtomic(json, JSON.stringify(result, null, 2) + '\n');
+  written.push(json);
+  const csv = join(dir, 'nodes.csv');
+  writeAtomic(csv, nodalCsv(a));
+  written.push(csv);
+  return written;
+}

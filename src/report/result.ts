@@ -1,0 +1,105 @@
+/**
+ * The result of an analysis as one plain JSON object: what `raiser solve --json` prints and
+ * `-o DIR` writes as result.json. Every field is documented in the README ("Result fields");
+ * keep the two in step.
+ */
+import type { Analysis } from '../pipeline/analyse.js';
+import type { Cut } from '../post/section.js';
+
+export const TOOL_VERSION = '0.1.0';
+
+/** The cautions every result carries, in plain words. */
+export const CAUTIONS = [
+  'Linear elastic, small-strain analysis: stresses are proportional to the loads; yielding, contact, buckling and large deflection are not modelled.',
+  'A peak stress above the yield strength means local plastic flow: the real peak stress is lower and the local strain higher than this elastic result.',
+  'Kt is the elastic (theoretical) stress concentration factor. For fatigue use the fatigue notch factor Kf = 1 + q (Kt - 1), with the notch sensitivity q of the material and notch radius.',
+  'The result depends on the model (geometry, loads, supports, material) and on the mesh; it must be checked by a qualified engineer under the applicable codes and standards before it is used for design.',
+];
+
+/** Coordinates closer to zero than 1e-7 of the model size are shown as zero. */
+function snap(v: number, scale: number): number {
+  return Math.abs(v) < 1e-7 * scale ? 0 : v;
+}
+
+function cut(c: Cut, scale: number) {
+  const p = (q: readonly number[]): [number, number] => [snap(q[0], scale), snap(q[1], scale)];
+  return {
+    from: p(c.from),
+    to: p(c.to),
+    length: c.length,
+    area: c.area,
+    force: c.force,
+    moment: c.moment,
+    intervals: c.intervals.map(([x0, y0, x1, y1]) => ({ from: p([x0, y0]), to: p([x1, y1]) })),
+  };
+}
+
+export function buildResult(a: Analysis, file?: string) {
+  const m = a.model;
+  const y = m.material.yield;
+  const scale = a.domain.scale;
+  return {
+    tool: { name: 'raiser', version: TOOL_VERSION },
+    model: { title: m.title ?? null, file: file ?? null, chart: m.chart ?? null },
+    units: { length: a.units.length, force: a.units.force, stress: a.units.stress, moment: a.units.moment },
+    analysis: { state: a.state, measure: a.peak.measure, thickness: m.thickness, E: m.material.E, nu: m.material.nu },
+    kt: {
+      net: a.kt.net,
+      gross: a.kt.gross,
+      netDefinition: `peak ${a.peak.measure} stress / net nominal stress (${a.net.definition})`,
+      grossDefinition: `peak ${a.peak.measure} stress / gross nominal stress (${a.gross.definition})`,
+    },
+    peak: {
+      stress: a.peak.stress,
+      measure: a.peak.measure,
+      x: snap(a.peak.x, scale),
+      y: snap(a.peak.y, scale),
+      feature: a.peak.feature,
+      onBoundary: a.peak.onBoundary,
+      atSharpCorner: a.peak.atSharpCorner,
+      sxx: a.peak.components.sxx,
+      syy: a.peak.components.syy,
+      sxy: a.peak.components.sxy,
+    },
+    nominal: {
+      stress: a.net.stress,
+      kind: a.net.kind,
+      definition: a.net.definition,
+      section: cut(a.net.section, scale),
+      gross: { stress: a.gross.stress, definition: a.gross.definition, section: cut(a.gross.section, scale) },
+    },
+    load: {
+      resultant: { fx: a.load.fx, fy: a.load.fy, m: a.load.m },
+      direction: a.direction,
+      remote: a.load.remote ?? null,
+      reaction: a.reaction,
+      equilibriumError: a.equilibriumError,
+    },
+    mesh: {
+      nodes: a.mesh.nNodes,
+      elements: a.mesh.nElements,
+      dofs: 2 * a.mesh.nNodes,
+      elementType: a.mesh.order === 2 ? 'quadratic' : 'linear',
+      nodesPerElement: a.mesh.order === 2 ? 6 : 3,
+      minAngleDeg: a.meshStats.minAngleDeg,
+      maxAngleDeg: a.meshStats.maxAngleDeg,
+    },
+    solver: {
+      ordering: a.solveStats.ordering,
+      equations: a.solveStats.n,
+      factorNonzeros: a.solveStats.nnzL,
+      relativeResidual: a.solveStats.relativeResidual,
+    },
+    timeMs: a.timeMs,
+    safety: {
+      yield: y ?? null,
+      ultimate: m.material.ultimate ?? null,
+      peakOverYield: y !== undefined ? Math.abs(a.peak.stress) / y : null,
+      localPlasticity: y !== undefined ? Math.abs(a.peak.stress) > y : null,
+    },
+    warnings: a.warnings,
+    cautions: CAUTIONS,
+  };
+}
+
+export type ResultJson = ReturnType<typeof buildResult>;
