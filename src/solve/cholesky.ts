@@ -36,7 +36,8 @@ import {
   upperPattern,
 } from './sparse.js';
 import { type Ordering, invertPermutation } from './ordering.js';
-import { PANEL, factorFrontPivots, failedPivotValue, rankUpdate } from './dense.js';
+import { PANEL, factorFrontPivots, failedPivotValue, rankUpdate, type SimdKernel } from './dense.js';
+import { sharedWasmHeap } from './wasm-kernel.js';
 
 /**
  * Thrown when a pivot is not safely positive: pivot <= tol * max diag(A), or
@@ -573,6 +574,14 @@ export interface CholeskyFactor {
 export interface FactorOptions {
   /** relative pivot tolerance (default DEFAULT_PIVOT_TOLERANCE) */
   readonly pivotTolerance?: number;
+  /**
+   * Dense update kernel: 'simd' (WebAssembly SIMD, wasm-kernel.ts), 'js'
+   * (plain JavaScript), or 'auto' (default): 'simd' when the engine has it
+   * and the front and update stack fit in a 32-bit WebAssembly memory.
+   * Both compute the same sums in the same order of pairs, so results agree
+   * to rounding.
+   */
+  readonly kernel?: 'auto' | 'simd' | 'js';
 }
 
 /**
@@ -594,8 +603,25 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
   const av = permutedValues(a, symbolic);
 
   const L = new Float64Array(symbolic.storedValues);
-  const front = new Float64Array(maxFront * maxFront);
-  const stack = new Float64Array(Math.max(1, stackPeak));
+  const frontLen = maxFront * maxFront;
+  const stackLen = Math.max(1, stackPeak);
+  let front: Float64Array;
+  let stack: Float64Array;
+  let simdFront: SimdKernel | null = null;
+  let simdStack: SimdKernel | null = null;
+  const kernel = options.kernel ?? 'auto';
+  const heap = kernel === 'js' ? null : sharedWasmHeap();
+  const view = heap === null ? null : heap.reserve(frontLen + stackLen);
+  if (kernel === 'simd' && view === null) throw new Error('factorCholesky: the WebAssembly SIMD kernel is not available here');
+  if (heap !== null && view !== null) {
+    front = view.subarray(0, frontLen);
+    stack = view.subarray(frontLen, frontLen + stackLen);
+    simdFront = { rowBlock4: heap.rowBlock4, fByte: 0, outByte: 0 };
+    simdStack = { rowBlock4: heap.rowBlock4, fByte: 0, outByte: frontLen * 8 };
+  } else {
+    front = new Float64Array(frontLen);
+    stack = new Float64Array(stackLen);
+  }
   const map = new Int32Array(n);
   const rel = new Int32Array(maxFront);
   const panelScratch = new Float64Array(PANEL);
@@ -640,7 +666,7 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
     if (firstChildStart >= 0) top = firstChildStart; // pop all children
 
     // partial factorisation of the k pivot columns
-    const bad = factorFrontPivots(front, m, k, threshold, panelScratch);
+    const bad = factorFrontPivots(front, m, k, threshold, panelScratch, simdFront);
     if (bad >= 0) throw new SolverPivotError(f + bad, perm[f + bad], failedPivotValue, threshold);
     // copy the factor rows out
     {
@@ -656,7 +682,7 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
     const u = m - k;
     if (u > 0 && superParent[s] !== -1) {
       updStart[s] = top;
-      rankUpdate(front, m, k, m, k, m, 0, k, stack, top);
+      rankUpdate(front, m, k, m, k, m, 0, k, stack, top, simdStack);
       top += (u * (u + 1)) / 2;
     }
   }

@@ -16,8 +16,20 @@
  * high-performance matrix multiplication", ACM TOMS 34, 2008, in scalar form).
  */
 
+import type { RowBlock4 } from './wasm-kernel.js';
+
+/**
+ * The WebAssembly SIMD body of rankUpdate (wasm-kernel.ts) with the byte
+ * offsets of F[0] and out[0] in its memory; F and out must be views of it.
+ */
+export interface SimdKernel {
+  readonly rowBlock4: RowBlock4;
+  readonly fByte: number;
+  readonly outByte: number;
+}
+
 /** Width of a panel of pivot columns. */
-export const PANEL = 32;
+export const PANEL = 16;
 
 /** Value of the pivot that factorFrontPivots last reported as failed. */
 export let failedPivotValue = 0;
@@ -28,12 +40,12 @@ export let failedPivotValue = 0;
  * column of the first pivot d with !(d > threshold) or d not finite (its
  * value in failedPivotValue). scratch needs PANEL entries.
  */
-export function factorFrontPivots(F: Float64Array, m: number, k: number, threshold: number, scratch: Float64Array): number {
+export function factorFrontPivots(F: Float64Array, m: number, k: number, threshold: number, scratch: Float64Array, simd: SimdKernel | null = null): number {
   for (let p0 = 0; p0 < k; p0 += PANEL) {
     const p1 = p0 + PANEL < k ? p0 + PANEL : k;
     const bad = factorPanel(F, m, p0, p1, threshold, scratch);
     if (bad >= 0) return bad;
-    if (p1 < k) rankUpdate(F, m, p1, m, p1, k, p0, p1, F, -1);
+    if (p1 < k) rankUpdate(F, m, p1, m, p1, k, p0, p1, F, -1, simd);
   }
   return -1;
 }
@@ -118,8 +130,10 @@ export function rankUpdate(
   t1: number,
   out: Float64Array,
   packedBase: number,
+  simd: SimdKernel | null = null,
 ): void {
   const packed = packedBase >= 0;
+  const m8 = m * 8;
   let a = a0;
   for (; a + 3 < a1; a += 4) {
     const r0 = a * m;
@@ -139,6 +153,13 @@ export function rankUpdate(
     const o3 = packed ? o2 + (a - a0) + 3 : r3;
     const bFull = a < b1 - 1 ? a : b1 - 1; // columns valid for all four rows
     let b = b0;
+    if (simd !== null && bFull > b0) {
+      const nPairs = (bFull - b0 + 1) >> 1;
+      const fb = simd.fByte;
+      const ob = simd.outByte;
+      simd.rowBlock4(fb + (r0 + t0) * 8, m8, fb + (b0 * m + t0) * 8, nPairs, t1 - t0, fb + (r0 + b0) * 8, ob + (o0 + b0) * 8, ob + (o1 + b0) * 8, ob + (o2 + b0) * 8, ob + (o3 + b0) * 8);
+      b = b0 + 2 * nPairs;
+    }
     for (; b + 1 <= bFull; b += 2) {
       const q0 = b * m;
       const q1 = q0 + m;
