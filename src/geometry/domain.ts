@@ -277,7 +277,7 @@ function buildArc(ax: number, ay: number, bx: number, by: number, spec: ArcSpec,
     const b2 = bx * bx + by * by;
     cx = (a2 * (py - by) + p2 * (by - ay) + b2 * (ay - py)) / d;
     cy = (a2 * (bx - px) + p2 * (ax - bx) + b2 * (px - ax)) / d;
-    ccw = (px - ax) * (by - ay) - (py - ay) * (bx - ax) < 0; // A -> P -> B turns left
+    ccw = (px - ax) * (by - ay) - (py - ay) * (bx - ax) > 0; // A -> P -> B turns left
   } else if ('center' in spec) {
     [cx, cy] = spec.center;
     const ra = Math.hypot(ax - cx, ay - cy);

@@ -9,7 +9,7 @@ import { findContacts } from '../geometry/intersect.js';
 import { AnalysisError, InternalError } from '../model/errors.js';
 import { discretiseBoundary, type BoundaryPoints } from './boundary.js';
 import { checkMesh } from './check.js';
-import { refineMesh } from './refine.js';
+import { refineMesh, SharpCorners } from './refine.js';
 import { buildSizeField, type SizeField, type SizeOptions } from './sizefield.js';
 import { TriMesh } from './trimesh.js';
 import type { Mesh, MeshStats } from './types.js';
@@ -68,7 +68,7 @@ export function generateMesh(domain: Domain, opts: MeshOptions): MeshResult {
     stats: {
       minAngleDeg: quality.minAngleDeg,
       maxAngleDeg: quality.maxAngleDeg,
-      minAngleUnforcedDeg: minUnforcedAngle(mesh, domain),
+      minAngleUnforcedDeg: minUnforcedAngle(mesh, domain, opts.minAngleDeg ?? 25),
       triangles: mesh.nElements,
       vertices: mesh.nVertices,
       timeMs: { boundary: t1 - t0, triangulate: t2 - t1, refine: t3 - t2, finish: t4 - t3, total: t4 - t0 },
@@ -212,18 +212,28 @@ export function upgradeToQuadratic(lin: Mesh, domain: Domain): Mesh {
   return { ...lin, order: 2, nNodes: next, nodes, elements, bEdges, nodeEdge, nodeCorner };
 }
 
-/** Smallest corner angle over triangles not touching a sharp input corner (degrees). */
-function minUnforcedAngle(mesh: Mesh, domain: Domain): number {
+/** Smallest corner angle over the triangles not forced by a sharp input corner (degrees). */
+function minUnforcedAngle(mesh: Mesh, domain: Domain, minAngleDeg: number): number {
   const per = mesh.order === 2 ? 6 : 3;
+  const corners = new SharpCorners(domain, Math.PI / 3);
+  const n = mesh.nodes;
+  // Junction nodes count as corners, not as points inside an edge.
+  const edgeOf = (v: number) => (mesh.nodeCorner[v] >= 0 ? -1 : mesh.nodeEdge[v]);
   let best = 180;
   for (let e = 0; e < mesh.nElements; e++) {
-    let forced = false;
-    for (let i = 0; i < 3; i++) {
-      const c = mesh.nodeCorner[mesh.elements[per * e + i]];
-      if (c >= 0 && domain.corners[c].materialAngle < Math.PI / 3) forced = true;
+    const ang = triangleMinAngle(mesh, per, e);
+    if (ang >= minAngleDeg) {
+      best = Math.min(best, ang);
+      continue;
     }
-    if (forced) continue;
-    best = Math.min(best, triangleMinAngle(mesh, per, e));
+    const v = [mesh.elements[per * e], mesh.elements[per * e + 1], mesh.elements[per * e + 2]];
+    const len = (i: number) => Math.hypot(n[2 * v[(i + 1) % 3]] - n[2 * v[(i + 2) % 3]], n[2 * v[(i + 1) % 3] + 1] - n[2 * v[(i + 2) % 3] + 1]);
+    let opp = 0;
+    for (let i = 1; i < 3; i++) if (len(i) < len(opp)) opp = i;
+    const u = v[(opp + 1) % 3];
+    const w = v[(opp + 2) % 3];
+    if (corners.forces(mesh.nodeCorner[v[opp]], edgeOf(u), mesh.nodeCorner[u], edgeOf(w), mesh.nodeCorner[w])) continue;
+    best = Math.min(best, ang);
   }
   return best;
 }

@@ -46,25 +46,59 @@ export interface RefineStats {
  */
 const SIZE_RATIO = 0.72;
 
+/**
+ * Input corners sharper than a limit, with the domain edges (arms) that meet at each. A skinny
+ * triangle is forced by such a corner when its smallest angle sits at the corner, or when its
+ * shortest edge joins the corner's two arms: refining it would only make another like it.
+ */
+export class SharpCorners {
+  private readonly arm: Int32Array;
+  constructor(
+    private readonly domain: Domain,
+    private readonly limit: number,
+  ) {
+    this.arm = new Int32Array(domain.edges.length * 2).fill(-1);
+    domain.corners.forEach((c, i) => {
+      if (c.materialAngle >= limit) return;
+      this.arm[2 * c.edgeIn] = i;
+      this.arm[2 * c.edgeOut + 1] = i;
+    });
+  }
+
+  isSharp(corner: number): boolean {
+    return corner >= 0 && this.domain.corners[corner].materialAngle < this.limit;
+  }
+
+  /** Does vertex (edge, corner) lie on an arm of sharp corner k (or at k itself)? */
+  private onArm(edge: number, corner: number, k: number): boolean {
+    if (corner >= 0) return corner === k;
+    return edge >= 0 && (this.arm[2 * edge] === k || this.arm[2 * edge + 1] === k);
+  }
+
+  /**
+   * oppCorner: corner at the smallest angle's vertex (-1 if none); the shortest edge joins
+   * vertices (uEdge, uCorner) and (wEdge, wCorner), given as the domain edge they lie inside
+   * (-1 for junctions) and the corner they are (-1 if none).
+   */
+  forces(oppCorner: number, uEdge: number, uCorner: number, wEdge: number, wCorner: number): boolean {
+    if (this.isSharp(oppCorner)) return true;
+    if (uEdge === wEdge && uEdge >= 0) return false;
+    const cands = [uCorner, uEdge >= 0 ? this.arm[2 * uEdge] : -1, uEdge >= 0 ? this.arm[2 * uEdge + 1] : -1];
+    for (const k of cands) {
+      if (k >= 0 && this.isSharp(k) && this.onArm(uEdge, uCorner, k) && this.onArm(wEdge, wCorner, k) && !(uCorner === k && wCorner === k)) return true;
+    }
+    return false;
+  }
+}
+
 export function refineMesh(m: TriMesh, domain: Domain, opts: RefineOptions): RefineStats {
   const sinMin = Math.sin((opts.minAngleDeg * Math.PI) / 180);
   const sharp = ((opts.sharpCornerDeg ?? 60) * Math.PI) / 180;
   const size = opts.size;
   const stats: RefineStats = { insertedInterior: 0, segmentSplits: 0, rejected: 0, chordSplits: 0, exemptTriangles: 0 };
 
-  // Sharp corners and their arms (domain edges meeting there).
-  const sharpVertex = (v: number) => m.vCorner[v] >= 0 && domain.corners[m.vCorner[v]].materialAngle < sharp;
-  const armCorner = new Int32Array(domain.edges.length * 2).fill(-1);
-  domain.corners.forEach((c, i) => {
-    if (c.materialAngle >= sharp) return;
-    armCorner[2 * c.edgeIn] = i;
-    armCorner[2 * c.edgeOut + 1] = i;
-  });
-  const onArmOf = (v: number, corner: number) => {
-    const e = m.vEdge[v];
-    if (e < 0) return m.vCorner[v] === corner;
-    return armCorner[2 * e] === corner || armCorner[2 * e + 1] === corner;
-  };
+  const corners = new SharpCorners(domain, sharp);
+  const sharpVertex = (v: number) => corners.isSharp(m.vCorner[v]);
 
   // Queues.
   let triQ = new Int32Array(1024);
@@ -195,17 +229,7 @@ export function refineMesh(m: TriMesh, domain: Domain, opts: RefineOptions): Ref
     const lmin = Math.sqrt(lmin2);
     const skinny = lmin < 2 * r * sinMin * (1 - 1e-12);
     if (skinny) {
-      let exempt = sharpVertex(opp);
-      if (!exempt) {
-        const cu = m.vCorner[u] >= 0 ? m.vCorner[u] : -1;
-        // The shortest edge spans the two arms of a sharp corner.
-        for (const k of [armCorner[2 * Math.max(0, m.vEdge[u])], armCorner[2 * Math.max(0, m.vEdge[u]) + 1], cu]) {
-          if (k >= 0 && domain.corners[k].materialAngle < sharp && onArmOf(u, k) && onArmOf(w, k) && m.vEdge[u] !== m.vEdge[w]) {
-            exempt = true;
-            break;
-          }
-        }
-      }
+      const exempt = corners.forces(m.vCorner[opp], m.vEdge[u], m.vCorner[u], m.vEdge[w], m.vCorner[w]);
       if (exempt) {
         stats.exemptTriangles++;
       } else {
@@ -268,7 +292,7 @@ export function refineMesh(m: TriMesh, domain: Domain, opts: RefineOptions): Ref
     }
     if (m.walkCrossed >= 0) {
       // The new point lies beyond a boundary segment: split the segment instead.
-      if (splitSegment(m.walkCrossed)) pushTri(t);
+      if (splitSegment(m.walkCrossed) && m.talive[t] && m.tver[t] === ver) pushTri(t);
       continue;
     }
     if (m.treg[tc] !== 1 || !m.findCavity(x, y, tc, -1, -1)) {
@@ -288,7 +312,7 @@ export function refineMesh(m: TriMesh, domain: Domain, opts: RefineOptions): Ref
     if (encroached.length > 0) {
       let any = false;
       for (const s of encroached) any = splitSegment(s) || any;
-      if (any) pushTri(t);
+      if (any && m.talive[t] && m.tver[t] === ver) pushTri(t);
       continue;
     }
     m.commitCavity(x, y, 0, -1, 0, -1);

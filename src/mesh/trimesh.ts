@@ -450,6 +450,22 @@ export class TriMesh {
     return v;
   }
 
+  /** Debug aid: region flags agree across free edges and differ across segments. */
+  checkRegions(where: string): void {
+    for (let t = 0; t < this.nt; t++) {
+      if (!this.talive[t]) continue;
+      for (let i = 0; i < 3; i++) {
+        const n = this.tn[3 * t + i];
+        if (n < 0) continue;
+        const j = this.edgeIndex(n, this.tv[3 * t + PREV[i]], this.tv[3 * t + NEXT[i]]);
+        if (j < 0) throw new InternalError(`${where}: neighbour link broken at ${t}/${i}`);
+        if ((this.tseg[3 * t + i] >= 0) !== (this.tseg[3 * n + j] >= 0)) throw new InternalError(`${where}: segment marked on one side only at ${t}/${i}`);
+        const differ = this.treg[t] !== this.treg[n];
+        if (differ !== this.tseg[3 * t + i] >= 0) throw new InternalError(`${where}: region flags inconsistent at ${t}/${i} seg ${this.tseg[3 * t + i]}`);
+      }
+    }
+  }
+
   /** Marks the fan edge between the new vertex and cavity vertex u as lying on segment s. */
   private markFanEdge(u: number, s: number): void {
     const t1 = this.startOf[u]; // (u, x, v): edge (v, u) is local 1

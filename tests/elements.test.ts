@@ -1,0 +1,157 @@
+/**
+ * Element properties and patch tests.
+ *  - Stiffness matrices are symmetric with exactly three zero-energy modes (the plane rigid
+ *    motions), for the 3-node and the 6-node triangle, straight and curved.
+ *  - Patch tests A, B and C of O. C. Zienkiewicz & R. L. Taylor, The Finite Element Method,
+ *    vol. 1 (5th ed., 2000), sec. 10.3, on the distorted patch of MacNeal & Harder (1985):
+ *    a linear displacement field is reproduced to round-off, with the exact constant stress.
+ *  - The 6-node triangle reproduces a quadratic field exactly: pure bending of a plane-stress
+ *    beam, u = -k x y, v = k (x^2 + nu y^2) / 2, whose stress sxx = -E k y, syy = sxy = 0 is in
+ *    equilibrium without body force (S. Timoshenko & J. N. Goodier, Theory of Elasticity, 3rd
+ *    ed. 1970, sec. 22), from its boundary values alone.
+ */
+import { describe, expect, it } from 'vitest';
+import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
+import { constitutiveMatrix } from '../src/fem/material.js';
+import { P2Scratch, stiffnessP1, stiffnessP2 } from '../src/fem/elements.js';
+import { addEdgeTraction } from '../src/fem/boundary-conditions.js';
+import { sampleElementStresses } from '../src/post/stress.js';
+import { boundaryFlags, distortedPatch, solveLinear } from './support/fe.js';
+
+const E = 1e6;
+const NU = 0.25;
+const D = constitutiveMatrix(E, NU, 'plane-stress');
+
+function eigenvalues(ke: Float64Array, n: number): number[] {
+  const rows: number[][] = [];
+  for (let i = 0; i < n; i++) rows.push(Array.from(ke.subarray(i * n, i * n + n)));
+  return new EigenvalueDecomposition(new Matrix(rows)).realEigenvalues.sort((a, b) => a - b);
+}
+
+function expectSymmetric(ke: Float64Array, n: number) {
+  let maxAbs = 0;
+  for (const v of ke.subarray(0, n * n)) maxAbs = Math.max(maxAbs, Math.abs(v));
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) expect(Math.abs(ke[i * n + j] - ke[j * n + i])).toBeLessThanOrEqual(1e-13 * maxAbs);
+}
+
+describe('element stiffness', () => {
+  it('stiffnessP1 is symmetric with exactly three zero-energy modes', () => {
+    const nodes = Float64Array.of(0, 0, 2, 0.3, 0.4, 1.5);
+    const ke = new Float64Array(36);
+    stiffnessP1(nodes, Int32Array.of(0, 1, 2), 0, D, 1, ke, new Float64Array(18));
+    expectSymmetric(ke, 6);
+    const ev = eigenvalues(ke, 6);
+    const max = ev[5];
+    expect(ev.slice(0, 3).every((v) => Math.abs(v) < 1e-10 * max)).toBe(true);
+    expect(ev.slice(3).every((v) => v > 1e-6 * max)).toBe(true);
+  });
+
+  for (const curved of [false, true]) {
+    it(`stiffnessP2 (${curved ? 'curved' : 'straight'} sides) is symmetric with exactly three zero-energy modes`, () => {
+      // Midside node 4 (between 1 and 2) pushed off the chord for the curved case.
+      const nodes = Float64Array.of(0, 0, 2, 0.3, 0.4, 1.5, 1, 0.15, curved ? 1.35 : 1.2, curved ? 1.05 : 0.9, 0.2, 0.75);
+      const ke = new Float64Array(144);
+      stiffnessP2(nodes, Int32Array.of(0, 1, 2, 3, 4, 5), 0, D, 1, ke, new P2Scratch());
+      expectSymmetric(ke, 12);
+      const ev = eigenvalues(ke, 12);
+      const max = ev[11];
+      expect(ev.slice(0, 3).every((v) => Math.abs(v) < 1e-10 * max)).toBe(true);
+      expect(ev.slice(3).every((v) => v > 1e-6 * max)).toBe(true);
+    });
+  }
+
+  it('stiffnessP1 refuses a clockwise element instead of taking |det J|', () => {
+    const ke = new Float64Array(36);
+    expect(() => stiffnessP1(Float64Array.of(0, 0, 0, 1, 1, 0), Int32Array.of(0, 1, 2), 0, D, 1, ke, new Float64Array(18))).toThrow(RangeError);
+  });
+});
+
+// Linear field: u = a0 + a1 x + a2 y, v = b0 + b1 x + b2 y.
+const LIN = { a0: 1e-3, a1: 2e-3, a2: -1e-3, b0: -2e-3, b1: 3e-4, b2: 1.5e-3 };
+const linU = (x: number, y: number) => [LIN.a0 + LIN.a1 * x + LIN.a2 * y, LIN.b0 + LIN.b1 * x + LIN.b2 * y];
+function exactLinearStress(): [number, number, number] {
+  const ex = LIN.a1;
+  const ey = LIN.b2;
+  const g = LIN.a2 + LIN.b1;
+  return [D[0] * ex + D[1] * ey, D[3] * ex + D[4] * ey, D[8] * g];
+}
+
+function maxStressError(mesh: ReturnType<typeof distortedPatch>['mesh'], u: Float64Array, exact: (x: number, y: number) => number[]) {
+  const s = sampleElementStresses(mesh, D, u);
+  let err = 0;
+  let ref = 0;
+  for (let i = 0; i < s.stress.length / 3; i++) {
+    const ex = exact(s.xy[2 * i], s.xy[2 * i + 1]);
+    for (let c = 0; c < 3; c++) {
+      err = Math.max(err, Math.abs(s.stress[3 * i + c] - ex[c]));
+      ref = Math.max(ref, Math.abs(ex[c]));
+    }
+  }
+  return err / ref;
+}
+
+describe('patch tests on the distorted MacNeal-Harder patch', () => {
+  for (const order of [1, 2] as const) {
+    const name = order === 1 ? '3-node' : '6-node';
+    it(`${name} test A: all nodes prescribed give the exact constant stress`, () => {
+      const { mesh } = distortedPatch(order);
+      const u = new Float64Array(2 * mesh.nNodes);
+      for (let i = 0; i < mesh.nNodes; i++) [u[2 * i], u[2 * i + 1]] = linU(mesh.nodes[2 * i], mesh.nodes[2 * i + 1]);
+      expect(maxStressError(mesh, u, exactLinearStress)).toBeLessThan(1e-11);
+    });
+
+    it(`${name} test B: boundary prescribed, interior nodes solved, exact to round-off`, () => {
+      const { mesh } = distortedPatch(order);
+      const on = boundaryFlags(mesh);
+      const fixed = new Uint8Array(2 * mesh.nNodes);
+      const value = new Float64Array(2 * mesh.nNodes);
+      for (let i = 0; i < mesh.nNodes; i++) {
+        if (!on[i]) continue;
+        fixed[2 * i] = fixed[2 * i + 1] = 1;
+        [value[2 * i], value[2 * i + 1]] = linU(mesh.nodes[2 * i], mesh.nodes[2 * i + 1]);
+      }
+      const u = solveLinear(mesh, D, 1, new Float64Array(2 * mesh.nNodes), fixed, value);
+      for (let i = 0; i < mesh.nNodes; i++) {
+        const [ux, uy] = linU(mesh.nodes[2 * i], mesh.nodes[2 * i + 1]);
+        expect(Math.abs(u[2 * i] - ux) + Math.abs(u[2 * i + 1] - uy)).toBeLessThan(1e-13);
+      }
+      expect(maxStressError(mesh, u, exactLinearStress)).toBeLessThan(1e-10);
+    });
+
+    it(`${name} test C: minimal supports and the consistent edge tractions give the exact stress`, () => {
+      const { mesh, domain } = distortedPatch(order);
+      const [sxx, syy, sxy] = exactLinearStress();
+      const f = new Float64Array(2 * mesh.nNodes);
+      addEdgeTraction(mesh, new Uint8Array(domain.edges.length).fill(1), (_x, _y, nx, ny, out) => {
+        out[0] = sxx * nx + sxy * ny;
+        out[1] = sxy * nx + syy * ny;
+      }, 1, f);
+      // Node 0 pinned, node 1 held in y: no rigid motion left, nothing over-constrained.
+      const fixed = new Uint8Array(2 * mesh.nNodes);
+      fixed[0] = fixed[1] = fixed[3] = 1;
+      const u = solveLinear(mesh, D, 1, f, fixed, new Float64Array(2 * mesh.nNodes));
+      expect(maxStressError(mesh, u, exactLinearStress)).toBeLessThan(1e-10);
+    });
+  }
+
+  it('6-node triangle reproduces the pure-bending quadratic field from its boundary values', () => {
+    const { mesh } = distortedPatch(2);
+    const k = 1e-2;
+    const exactU = (x: number, y: number) => [-k * x * y, 0.5 * k * (x * x + NU * y * y)];
+    const on = boundaryFlags(mesh);
+    const fixed = new Uint8Array(2 * mesh.nNodes);
+    const value = new Float64Array(2 * mesh.nNodes);
+    for (let i = 0; i < mesh.nNodes; i++) {
+      if (!on[i]) continue;
+      fixed[2 * i] = fixed[2 * i + 1] = 1;
+      [value[2 * i], value[2 * i + 1]] = exactU(mesh.nodes[2 * i], mesh.nodes[2 * i + 1]);
+    }
+    const u = solveLinear(mesh, D, 1, new Float64Array(2 * mesh.nNodes), fixed, value);
+    for (let i = 0; i < mesh.nNodes; i++) {
+      const [ux, uy] = exactU(mesh.nodes[2 * i], mesh.nodes[2 * i + 1]);
+      expect(Math.abs(u[2 * i] - ux) + Math.abs(u[2 * i + 1] - uy)).toBeLessThan(1e-14);
+    }
+    const err = maxStressError(mesh, u, (_x, y) => [-E * k * y, 0, 0]);
+    expect(err).toBeLessThan(1e-10);
+  });
+});

@@ -1,0 +1,119 @@
+/**
+ * Mesh properties, checked on every kind of boundary the model format offers:
+ *  - the mesh checker passes (it runs inside generateMesh: det J > 0, element areas summing to
+ *    the area the boundary encloses, every boundary segment present, every node used);
+ *  - the smallest angle is at least the 25 degree target, except in triangles forced by an input
+ *    corner sharper than 60 degrees (the exemption of J. R. Shewchuk, "Delaunay refinement
+ *    algorithms for triangular mesh generation", Comput. Geom. 22, 2002, sec. 5);
+ *  - boundary nodes lie on the true curves (round-off), so the meshed area of a quadratic mesh
+ *    converges to the exact area at the rate of the isoparametric boundary;
+ *  - the size field is honoured at a raiser;
+ *  - the checker rejects a broken mesh rather than passing it.
+ */
+import { describe, expect, it } from 'vitest';
+import { buildDomain } from '../src/geometry/domain.js';
+import { curvatureRadius, evaluateCurve } from '../src/geometry/curve.js';
+import { checkMesh } from '../src/mesh/check.js';
+import { generateMesh } from '../src/mesh/generate.js';
+import type { Geometry } from '../src/model/schema.js';
+
+const SHAPES: Record<string, Geometry> = {
+  'plate with a circular hole': {
+    outline: { shape: 'path', path: [[0, 0], [100, 0], [100, 40], [0, 40]] },
+    holes: [{ shape: 'circle', center: [50, 20], radius: 5 }],
+  },
+  'bracket with fillets, slot, ellipse and rounded rectangle': {
+    outline: {
+      shape: 'path',
+      path: [{ at: [0, 0], round: 5 }, [120, 0], { at: [120, 30], round: 8 }, { at: [60, 30], round: 6 }, { at: [60, 80], round: 10 }, { at: [0, 80], round: 3 }],
+    },
+    holes: [
+      { shape: 'slot', center: [90, 15], length: 30, width: 8 },
+      { shape: 'ellipse', center: [30, 55], a: 12, b: 4, angle: 30 },
+      { shape: 'rounded-rect', center: [30, 20], width: 20, height: 12, radius: 2, angle: -15 },
+    ],
+  },
+  'outline with arcs given by centre, radius and a through point': {
+    outline: {
+      shape: 'path',
+      path: [
+        { at: [0, 0], arc: { through: [25, -6] } },
+        { at: [50, 0] },
+        { at: [50, 30], arc: { radius: 30, turn: 'ccw' } },
+        { at: [0, 30], arc: { center: [0, 15], turn: 'ccw' } },
+      ],
+    },
+  },
+  'strip with a sharp V notch (re-entrant corner)': {
+    outline: { shape: 'path', path: [[0, 0], [40, 0], [40, 20], [21, 20], [20, 12], [19, 20], [0, 20]] },
+  },
+  'wedge with a 10 degree tip': {
+    outline: { shape: 'path', path: [[0, 0], [50, 0], [50 * Math.cos(Math.PI / 18), 50 * Math.sin(Math.PI / 18)]] },
+  },
+};
+
+describe('generateMesh', () => {
+  for (const [name, geometry] of Object.entries(SHAPES)) {
+    for (const order of [1, 2] as const) {
+      it(`${name}, ${order === 2 ? 'quadratic' : 'linear'}: quality, area and boundary placement`, () => {
+        const domain = buildDomain(geometry);
+        const { mesh, stats } = generateMesh(domain, { order });
+        expect(stats.minAngleUnforcedDeg).toBeGreaterThanOrEqual(25);
+        expect(stats.refine.rejected).toBe(0);
+        // Every boundary node lies on its curve.
+        const p = [0, 0];
+        for (let s = 0; s < mesh.nBEdges; s++) {
+          const e = domain.edges[mesh.bEdgeDomain[s]];
+          for (const [k, t] of [[0, mesh.bEdgeT[2 * s]], [1, mesh.bEdgeT[2 * s + 1]], [2, 0.5 * (mesh.bEdgeT[2 * s] + mesh.bEdgeT[2 * s + 1])]] as const) {
+            const node = mesh.bEdges[3 * s + k];
+            if (node < 0) continue;
+            evaluateCurve(e.curve, t, p);
+            expect(Math.hypot(mesh.nodes[2 * node] - p[0], mesh.nodes[2 * node + 1] - p[1])).toBeLessThan(1e-12 * domain.scale);
+          }
+        }
+        const q = checkMesh(mesh, domain);
+        // Meshed area against the exact area: chords lose O(h^2) (linear), parabolas O(h^4).
+        const rel = Math.abs(q.area - domain.area) / domain.area;
+        expect(rel).toBeLessThan(order === 2 ? 2e-5 : 5e-3);
+      });
+    }
+  }
+
+  it('halving the size field shrinks the quadratic area error by about 2^4 on a curved boundary', () => {
+    const domain = buildDomain(SHAPES['plate with a circular hole']);
+    const err = (k: number) => {
+      const { mesh } = generateMesh(domain, { order: 2, raiserSize: 2 * k, size: 8 * k });
+      return Math.abs(checkMesh(mesh, domain).area - domain.area);
+    };
+    const rate = Math.log2(err(1) / err(0.5));
+    expect(rate).toBeGreaterThan(3.3);
+  });
+
+  it('edges on a hole follow the raiser size (2 pi r / 48 for quadratic elements)', () => {
+    const domain = buildDomain(SHAPES['plate with a circular hole']);
+    const { mesh } = generateMesh(domain, { order: 2 });
+    const hole = domain.loops[1].edges[0];
+    let sum = 0;
+    let n = 0;
+    for (let s = 0; s < mesh.nBEdges; s++) {
+      if (mesh.bEdgeDomain[s] !== hole) continue;
+      const a = mesh.bEdges[3 * s];
+      const b = mesh.bEdges[3 * s + 1];
+      sum += Math.hypot(mesh.nodes[2 * b] - mesh.nodes[2 * a], mesh.nodes[2 * b + 1] - mesh.nodes[2 * a + 1]);
+      n++;
+    }
+    const target = (2 * Math.PI * curvatureRadius(domain.edges[hole].curve, 0)) / 48;
+    expect(sum / n).toBeGreaterThan(0.8 * target);
+    expect(sum / n).toBeLessThan(1.2 * target);
+  });
+
+  it('the mesh checker rejects a flipped element and a missing element', () => {
+    const domain = buildDomain(SHAPES['plate with a circular hole']);
+    const { mesh } = generateMesh(domain, { order: 1 });
+    const flipped = { ...mesh, elements: Int32Array.from(mesh.elements) };
+    [flipped.elements[0], flipped.elements[1]] = [flipped.elements[1], flipped.elements[0]];
+    expect(() => checkMesh(flipped, domain)).toThrow(/counter-clockwise/);
+    const missing = { ...mesh, nElements: mesh.nElements - 1 };
+    expect(() => checkMesh(missing, domain)).toThrow(/mesh check/);
+  });
+});
