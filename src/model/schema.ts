@@ -1,8 +1,9 @@
 /**
  * The model file format: one schema, used both to validate model files at run time and to
  * generate the JSON Schema that editors use (schema/raiser-model.schema.json, written by
- * `npm run schema`). Every field carries its description here, so the generated schema and
- * the validation messages never drift apart.
+ * `node dist/model/write-schema.js` after a build; a test checks the committed file is current).
+ * Every field carries its description here, so the generated schema and the validation
+ * messages never drift apart.
  *
  * Conventions: y points up; lengths, forces and stresses are in the units the file declares
  * (default mm, N, MPa). Indices shown to people (hole 2, corner 5) count from 1.
@@ -76,36 +77,36 @@ const loopCommon = {
 };
 
 export const PathLoop = z.strictObject({
-  shape: z.literal('path'),
+  shape: z.literal('path').describe('a loop drawn vertex by vertex, with straight, arc and rounded edges'),
   path: z.array(Vertex).min(3).describe('vertices in order; the loop closes itself from the last vertex back to the first'),
   ...loopCommon,
 });
 export const CircleLoop = z.strictObject({
-  shape: z.literal('circle'),
-  center: Point,
+  shape: z.literal('circle').describe('a circle'),
+  center: Point.describe('centre of the circle'),
   radius: positive().optional().describe('radius (give radius or diameter)'),
   diameter: positive().optional().describe('diameter (give radius or diameter)'),
   ...loopCommon,
 });
 export const EllipseLoop = z.strictObject({
-  shape: z.literal('ellipse'),
-  center: Point,
+  shape: z.literal('ellipse').describe('an ellipse'),
+  center: Point.describe('centre of the ellipse'),
   a: positive().describe('semi-axis along the direction given by angle'),
   b: positive().describe('semi-axis across it'),
   angle: finite().optional().describe('rotation of the a axis from +x, degrees counter-clockwise (default 0)'),
   ...loopCommon,
 });
 export const SlotLoop = z.strictObject({
-  shape: z.literal('slot'),
-  center: Point,
+  shape: z.literal('slot').describe('a straight slot with half-circle ends'),
+  center: Point.describe('centre of the slot'),
   length: positive().describe('overall length, end to end, including the round ends'),
   width: positive().describe('width; the ends are half circles of diameter width'),
   angle: finite().optional().describe('rotation of the length direction from +x, degrees counter-clockwise (default 0)'),
   ...loopCommon,
 });
 export const RoundedRectLoop = z.strictObject({
-  shape: z.literal('rounded-rect'),
-  center: Point,
+  shape: z.literal('rounded-rect').describe('a rectangle with rounded corners'),
+  center: Point.describe('centre of the rectangle'),
   width: positive().describe('size along the rotated x direction'),
   height: positive().describe('size along the rotated y direction'),
   radius: z.number().nonnegative().describe('corner radius; 0 gives sharp corners'),
@@ -139,7 +140,7 @@ export const Units = z
   .describe('a consistent unit set; stresses and E are in force/length^2 (N and mm give MPa)');
 
 export const Material = z.strictObject({
-  name: z.string().optional(),
+  name: z.string().optional().describe('material name, for reports'),
   E: positive().describe("Young's modulus, in stress units"),
   nu: z.number().min(0).lt(0.5).describe("Poisson's ratio, 0 <= nu < 0.5"),
   yield: positive().optional().describe('yield strength, for the safety summary'),
@@ -147,24 +148,26 @@ export const Material = z.strictObject({
 });
 export type Material = z.infer<typeof Material>;
 
+const itemNote = () => z.string().optional().describe('free text about this item');
+
 export const Support = z.discriminatedUnion('type', [
-  z.strictObject({ type: z.literal('fixed'), on: Target, note: z.string().optional() }).describe('both displacement components zero'),
+  z.strictObject({ type: z.literal('fixed'), on: Target, note: itemNote() }).describe('both displacement components zero'),
   z.strictObject({
     type: z.literal('roller'),
     fix: z.enum(['x', 'y']).describe('the displacement component held at zero; the other is free'),
     on: Target,
-    note: z.string().optional(),
+    note: itemNote(),
   }),
-  z.strictObject({ type: z.literal('symmetry'), on: Target, note: z.string().optional() }).describe(
+  z.strictObject({ type: z.literal('symmetry'), on: Target, note: itemNote() }).describe(
     'a mirror plane: the displacement normal to the edge is zero (edges must be straight and axis-parallel)',
   ),
   z.strictObject({
     type: z.literal('pin'),
     at: Point.describe('the boundary node nearest this point is held'),
     fix: z.enum(['x', 'y', 'xy']).optional().describe('components held (default xy)'),
-    note: z.string().optional(),
+    note: itemNote(),
   }),
-]);
+]).describe('how part of the boundary is held, chosen by "type"');
 export type Support = z.infer<typeof Support>;
 
 export const Load = z.discriminatedUnion('type', [
@@ -173,36 +176,36 @@ export const Load = z.discriminatedUnion('type', [
     on: Target,
     normal: finite().optional().describe('normal traction, positive pulling outward (tension), stress units'),
     shear: finite().optional().describe('tangential traction, positive along the edge direction with the material on the left, stress units'),
-    note: z.string().optional(),
+    note: itemNote(),
   }),
   z.strictObject({
     type: z.literal('force'),
     on: Target,
     fx: finite().optional().describe('total force in x, spread uniformly over the edges, force units'),
     fy: finite().optional().describe('total force in y, spread uniformly over the edges, force units'),
-    note: z.string().optional(),
+    note: itemNote(),
   }),
   z.strictObject({
     type: z.literal('moment'),
     on: Target,
     m: finite().describe('in-plane bending moment, counter-clockwise positive, force x length; applied as a linearly varying normal traction on straight collinear edges'),
-    note: z.string().optional(),
+    note: itemNote(),
   }),
   z.strictObject({
     type: z.literal('pressure'),
     on: Target,
     p: finite().describe('pressure pushing on the surface (into the material), stress units; straight or curved edges'),
-    note: z.string().optional(),
+    note: itemNote(),
   }),
   z.strictObject({
     type: z.literal('remote'),
-    sxx: finite().optional(),
-    syy: finite().optional(),
-    sxy: finite().optional(),
+    sxx: finite().optional().describe('remote normal stress along x, stress units'),
+    syy: finite().optional().describe('remote normal stress along y, stress units'),
+    sxy: finite().optional().describe('remote shear stress, stress units'),
     on: Target.optional().describe('edges it acts on (default: every outline edge without a support)'),
-    note: z.string().optional(),
+    note: itemNote(),
   }).describe('a remote plane stress state, applied as traction sigma . n on the outer edges'),
-]);
+]).describe('a load on part of the boundary, chosen by "type"');
 export type Load = z.infer<typeof Load>;
 
 export const MeshSettings = z.strictObject({
@@ -236,16 +239,16 @@ export const ChartLink = z.strictObject({
 });
 
 export const Model = z.strictObject({
-  $schema: z.string().optional(),
+  $schema: z.string().optional().describe('path or address of the JSON Schema, for editors; ignored by raiser'),
   title: z.string().optional().describe('shown in results and reports'),
   note: z.string().optional().describe('free text: where the model comes from, what it is for'),
   units: Units.optional(),
   material: Material,
   thickness: positive().describe('plate thickness, length units'),
-  state: z.enum(['plane-stress', 'plane-strain']).optional().describe('default plane-stress'),
+  state: z.enum(['plane-stress', 'plane-strain']).optional().describe('plane-stress (thin plates; the default) or plane-strain (thick parts, no strain through the thickness)'),
   geometry: Geometry,
-  supports: z.array(Support).describe('at least enough to stop rigid motion'),
-  loads: z.array(Load).min(1),
+  supports: z.array(Support).min(1).describe('at least enough to stop rigid motion'),
+  loads: z.array(Load).min(1).describe('the loads; at least one'),
   mesh: MeshSettings.optional(),
   results: ResultSettings.optional(),
   chart: ChartLink.optional(),
