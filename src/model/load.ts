@@ -1,0 +1,270 @@
+/**
+ * Reading a model file: text -> JSON -> schema -> semantic checks -> Model.
+ *
+ * Every problem becomes a ModelError that names the JSON path and, where it can, the line and
+ * column in the file with the offending line quoted. All problems found in one pass are
+ * reported together: one problem is thrown as a plain ModelError, several as a ModelErrorList
+ * (a ModelError carrying the list). A file with a JSON syntax error stops at that error, since
+ * nothing after it can be read reliably.
+ */
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { basename, dirname, extname } from 'node:path';
+import { checkModel } from './checks.js';
+import { ModelError, ModelErrorList, formatPath } from './errors.js';
+import { type Problem, translateIssues } from './issues.js';
+import { excerptAt, lineColumn, scanJson, type JsonScan } from './json-text.js';
+import { Model } from './schema.js';
+import { closest, quoteList } from './suggest.js';
+import { resolveUnits } from './units.js';
+
+export interface LoadedModel {
+  model: Model;
+  /** legal but probably unintended settings, each placed in the file like an error */
+  warnings: ModelError[];
+}
+
+const MODEL_FIELDS = Object.keys(Model.shape);
+const REQUIRED_FIELDS = MODEL_FIELDS.filter((k) => !Model.shape[k as keyof typeof Model.shape].safeParse(undefined).success);
+
+/** Parses and validates model text; throws ModelError (or ModelErrorList) on any problem. */
+export function parseModelText(text: string, file?: string): Model {
+  return loadModelText(text, file).model;
+}
+
+/** Reads, parses and validates a model file; throws ModelError (or ModelErrorList) on any problem. */
+export function readModelFile(path: string): Model {
+  return loadModelFile(path).model;
+}
+
+/** As parseModelText, also returning the warnings. */
+export function loadModelText(text: string, file?: string): LoadedModel {
+  // A byte-order mark is not part of the JSON; editors do not count it as a column.
+  const src = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  let data: unknown;
+  try {
+    data = JSON.parse(src);
+  } catch (e) {
+    throw syntaxError(src, e, file);
+  }
+  const scan = scanJson(src);
+  const problems: ModelError[] = [];
+  for (const d of scan.duplicates) {
+    const first = lineColumn(src, d.firstOffset);
+    problems.push(
+      place(
+        new ModelError(d.path, `the field "${d.key}" is given twice in the same object (first on line ${first.line}); only the last would count`, 'remove one of them', file),
+        src,
+        d.offset,
+      ),
+    );
+  }
+  for (const h of scan.hugeNumbers) {
+    problems.push(place(new ModelError(h.path, `the number ${h.text} is too large to represent`, 'check the value and its unit', file), src, h.offset));
+  }
+
+  notAModel(data, src, file);
+
+  const parsed = Model.safeParse(data);
+  if (!parsed.success) {
+    const units = unitsOf(data);
+    const found = translateIssues(parsed.error.issues, { root: Model, data, units });
+    // A number too large for a double is already reported; zod would only add "found Infinity".
+    const huge = new Set(scan.hugeNumbers.map((h) => h.path));
+    for (const p of found) if (!huge.has(formatPath(p.parts))) problems.push(placeProblem(p, src, scan, file));
+    throwAll(problems, file);
+  }
+  throwAll(problems, file);
+  const model = parsed.data!;
+  const { errors, warnings } = checkModel(model);
+  for (const e of [...errors, ...warnings]) {
+    e.file = file;
+    const off = offsetOf(e.path, scan);
+    if (off !== undefined) place(e, src, off);
+  }
+  throwAll(errors, file);
+  return { model, warnings };
+}
+
+/** As readModelFile, also returning the warnings. */
+export function loadModelFile(path: string): LoadedModel {
+  let st;
+  try {
+    st = statSync(path);
+  } catch (e) {
+    throw fileError(path, e);
+  }
+  if (st.isDirectory()) {
+    let jsons: string[] = [];
+    try {
+      jsons = readdirSync(path).filter((f) => f.toLowerCase().endsWith('.json'));
+    } catch {
+      // The listing is only a hint.
+    }
+    const hint =
+      jsons.length === 0
+        ? 'give the path of a model file (.json), not of a folder'
+        : `give the path of a model file; this folder holds ${jsons.length > 6 ? `${jsons.slice(0, 6).join(', ')} and ${jsons.length - 6} more` : jsons.join(', ')}`;
+    throw new ModelError('', `"${path}" is a folder, not a model file`, hint, path);
+  }
+  if (!st.isFile()) throw new ModelError('', `"${path}" is not a regular file`, 'give the path of a model file (.json)', path);
+  let bytes: Buffer;
+  try {
+    bytes = readFileSync(path);
+  } catch (e) {
+    throw fileError(path, e);
+  }
+  return loadModelText(decodeText(bytes, path), path);
+}
+
+// ---------------------------------------------------------------------------------------------
+
+function throwAll(problems: ModelError[], file?: string): void {
+  if (problems.length === 0) return;
+  const sorted = problems
+    .map((p, i) => ({ p, i }))
+    .sort((a, b) => (a.p.line ?? Infinity) - (b.p.line ?? Infinity) || (a.p.column ?? 0) - (b.p.column ?? 0) || a.i - b.i)
+    .map((x) => x.p);
+  if (sorted.length === 1) throw sorted[0];
+  throw new ModelErrorList(sorted, file);
+}
+
+function place(e: ModelError, src: string, offset: number): ModelError {
+  const { line, column } = lineColumn(src, offset);
+  e.line = line;
+  e.column = column;
+  e.excerpt = excerptAt(src, offset);
+  return e;
+}
+
+/** Offset of the value at a path, or of its nearest enclosing value that is in the file. */
+function offsetOf(path: string, scan: JsonScan, prefer: 'key' | 'value' = 'value'): number | undefined {
+  if (prefer === 'key' && scan.keyAt.has(path)) return scan.keyAt.get(path);
+  if (scan.valueAt.has(path)) return scan.valueAt.get(path);
+  if (scan.keyAt.has(path)) return scan.keyAt.get(path);
+  // Walk up: drop the last ".name" or "[i]".
+  let p = path;
+  while (p) {
+    const cut = Math.max(p.lastIndexOf('.'), p.lastIndexOf('['));
+    p = cut > 0 ? p.slice(0, cut) : '';
+    if (scan.valueAt.has(p)) return scan.valueAt.get(p);
+  }
+  return scan.valueAt.get('');
+}
+
+function placeProblem(p: Problem, src: string, scan: JsonScan, file?: string): ModelError {
+  const path = formatPath(p.parts);
+  const e = new ModelError(path, p.message, p.hint, file);
+  const off = p.at === 'parent' ? offsetOf(formatPath(p.parts.slice(0, -1)), scan) : offsetOf(path, scan, p.at);
+  return off === undefined ? e : place(e, src, off);
+}
+
+function unitsOf(data: unknown): { length: string; force: string; stress: string } {
+  const u = (data as { units?: unknown })?.units;
+  const parsed = Model.shape.units.safeParse(u);
+  const r = resolveUnits(parsed.success ? parsed.data : undefined);
+  return { length: r.length, force: r.force, stress: r.stress };
+}
+
+/** Throws when the JSON value is plainly not a model at all (rather than a model with mistakes). */
+function notAModel(data: unknown, src: string, file?: string): void {
+  const required = quoteList(REQUIRED_FIELDS, 'and');
+  const fail = (message: string, hint: string) => {
+    const e = new ModelError('', message, hint, file);
+    const first = src.search(/\S/);
+    throw first >= 0 ? place(e, src, first) : e;
+  };
+  if (Array.isArray(data)) {
+    const looksLikeModels = data.length > 0 && data.every((d) => d && typeof d === 'object' && !Array.isArray(d) && 'geometry' in d);
+    fail(
+      `the file holds a JSON list${data.length ? ` of ${data.length} item${data.length === 1 ? '' : 's'}` : ''}, not a model`,
+      looksLikeModels ? 'a file holds one model; put each model in its own file' : `a model file is one JSON object with the fields ${required}`,
+    );
+  }
+  if (data === null || typeof data !== 'object') {
+    fail(`the file holds ${data === null ? 'null' : `a single ${typeof data === 'string' ? 'text value' : typeof data}`}, not a model`, `a model file is one JSON object with the fields ${required}`);
+  }
+  const keys = Object.keys(data as object);
+  if (keys.length === 0) fail('the file holds an empty object {}, not a model', `a model needs the fields ${required}`);
+  const related = keys.filter((k) => MODEL_FIELDS.includes(k) || closest(k, MODEL_FIELDS) !== undefined);
+  if (related.length === 0) {
+    fail(
+      `this JSON file is not a raiser model: none of its fields (${quoteList(keys.slice(0, 8), 'and')}${keys.length > 8 ? ', ...' : ''}) belongs to a model`,
+      `a model file has the fields ${required}, and may have ${quoteList(
+        MODEL_FIELDS.filter((k) => !REQUIRED_FIELDS.includes(k)),
+        'and',
+      )}`,
+    );
+  }
+}
+
+/** A guess at what a non-JSON file is, from how it starts. */
+function guessFormat(src: string): string | undefined {
+  const head = src.trimStart().slice(0, 200);
+  if (/^<\?xml|^<svg|^<!DOCTYPE|^<html/i.test(head)) return /<svg/i.test(head) ? 'an SVG drawing' : 'XML or HTML';
+  if (/^0\s*\r?\n\s*SECTION/.test(head)) return 'a DXF drawing';
+  if (/^solid\s/.test(head)) return 'an STL mesh';
+  if (/^---\s*$|^[A-Za-z_][\w-]*\s*:(\s|$)/m.test(head.split('\n')[0] ?? '')) return 'YAML or plain text';
+  return undefined;
+}
+
+function syntaxError(src: string, cause: unknown, file?: string): ModelError {
+  const first = src.search(/\S/);
+  if (first < 0) return new ModelError('', 'the file is empty', 'a model file is one JSON object: { "material": ..., "geometry": ..., ... }', file);
+  if (!/[{["\-0-9tfn]/.test(src[first])) {
+    const kind = guessFormat(src);
+    if (kind) {
+      return place(new ModelError('', `this is not a JSON model file: it looks like ${kind}`, 'a model file is JSON text that starts with "{"', file), src, first);
+    }
+  }
+  const scan = scanJson(src);
+  if (scan.error) {
+    return place(new ModelError('', `not valid JSON: ${scan.error.message}`, scan.error.hint, file), src, scan.error.offset);
+  }
+  // The scan accepts exactly what JSON.parse accepts; this is the fallback if they ever differ.
+  const msg = cause instanceof Error ? cause.message : String(cause);
+  const m = /position (\d+)/.exec(msg);
+  const e = new ModelError('', `not valid JSON (${msg})`, undefined, file);
+  return m ? place(e, src, Number(m[1])) : e;
+}
+
+function fileError(path: string, e: unknown): ModelError {
+  const code = (e as { code?: string }).code;
+  if (code === 'ENOENT') {
+    let hint = 'check the path and the current folder';
+    try {
+      const dir = dirname(path);
+      const names = readdirSync(dir);
+      const near = closest(basename(path), names) ?? closest(basename(path, extname(path)), names.map((n) => basename(n, extname(n))));
+      if (near !== undefined) {
+        const full = names.find((n) => n === near || basename(n, extname(n)) === near) ?? near;
+        hint = `did you mean "${dir === '.' ? full : `${dir}/${full}`}"?`;
+      }
+    } catch {
+      // The folder itself may be missing; the plain hint stands.
+    }
+    return new ModelError('', `no such file: "${path}"`, hint, path);
+  }
+  if (code === 'ENOTDIR') return new ModelError('', `"${path}": a part of this path is a file, not a folder`, 'check the path', path);
+  if (code === 'EACCES' || code === 'EPERM') return new ModelError('', `"${path}" cannot be read: permission denied`, 'check the file permissions', path);
+  return new ModelError('', `"${path}" cannot be read (${e instanceof Error ? e.message : String(e)})`, undefined, path);
+}
+
+/** UTF-8 text of a file, or a ModelError saying what the file is instead. */
+function decodeText(bytes: Buffer, path: string): string {
+  const starts = (...b: number[]) => b.every((x, i) => bytes[i] === x);
+  if (starts(0xff, 0xfe) || starts(0xfe, 0xff)) {
+    throw new ModelError('', `"${path}" is saved as UTF-16 text`, 'save it as UTF-8 (most editors offer this under "encoding")', path);
+  }
+  const binary = (kind: string) => new ModelError('', `"${path}" is ${kind}, not a model file`, 'a model file is JSON text; give the path of the .json file', path);
+  if (starts(0x89, 0x50, 0x4e, 0x47)) throw binary('a PNG image');
+  if (starts(0x25, 0x50, 0x44, 0x46)) throw binary('a PDF document');
+  if (starts(0x50, 0x4b, 0x03, 0x04)) throw binary('a ZIP archive (or an office document)');
+  if (starts(0x1f, 0x8b)) throw binary('a gzip-compressed file');
+  const probe = bytes.subarray(0, 8192);
+  if (probe.includes(0)) throw binary('a binary file');
+  try {
+    return new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+  } catch {
+    throw new ModelError('', `"${path}" is not UTF-8 text`, 'save it as UTF-8 (most editors offer this under "encoding")', path);
+  }
+}
