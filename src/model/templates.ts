@@ -1,0 +1,688 @@
+/**
+ * Standard stress-raiser families as templates. Each template is a function from a few
+ * dimensions to an ordinary Model: plain data, valid against the schema, with a note that says
+ * how it was generated and a `chart` record { family, dims } that links it to the published
+ * chart family it was built for. Symmetry is used wherever the loading allows, and the note
+ * says which part is modelled.
+ *
+ * Coordinates: x along the load (the bar or plate axis), y across it, y up. Edge tags used by
+ * the templates:
+ *   "load"   the loaded end(s)
+ *   "sym-x"  a mirror edge on x = 0 (x-displacement held)
+ *   "sym-y"  a mirror edge on y = 0 (y-displacement held)
+ *   "end"    a held end (x-displacement held, free across)
+ *   "hole", "notch", "fillet"   the stress raiser itself
+ *
+ * The registry (TEMPLATES) lists each template's parameters for a `raiser new <template>
+ * --param value` command; expandTemplate() takes those values as text or numbers.
+ */
+import { checkModel } from './checks.js';
+import { InternalError, ModelError } from './errors.js';
+import { FORCE_UNITS, LENGTH_UNITS, Model } from './schema.js';
+import { didYouMean, quoteList } from './suggest.js';
+import { type ForceUnit, type LengthUnit, resolveUnits } from './units.js';
+
+export interface TemplateParam {
+  name: string;
+  meaning: string;
+  /** the default: a number, a choice, or a rule in words such as "4 W" */
+  default: number | string;
+  /** 'length' and 'stress' are in the model's units (mm and MPa unless the unit parameters say otherwise) */
+  quantity: 'length' | 'stress' | 'ratio' | 'choice';
+  /** the unit of the default, as printed: "mm", "MPa", "" */
+  unit: string;
+  choices?: readonly string[];
+}
+
+export interface TemplateInfo {
+  name: string;
+  description: string;
+  params: readonly TemplateParam[];
+}
+
+/** The chart families the templates link to (chart.family), with what the family means. */
+export const CHART_FAMILIES = {
+  'plate-with-hole-tension': 'central circular hole of diameter d in a strip of width W, uniaxial tension along the strip',
+  'plate-with-elliptical-hole-tension': 'central elliptical hole, semi-axis a across the load and b along it, in a strip of width W, uniaxial tension',
+  'stepped-bar-tension': 'flat bar stepping from width D to width d with shoulder fillets of radius r, axial tension',
+  'stepped-bar-bending': 'flat bar stepping from width D to width d with shoulder fillets of radius r, in-plane bending',
+  'u-notched-bar-tension': 'flat bar of width H with two opposite U-notches of depth t and root radius r, axial tension',
+  'edge-notched-bar-tension': 'flat bar of width H with one U-notch of depth t and root radius r on one edge, axial tension',
+} as const;
+export type ChartFamily = keyof typeof CHART_FAMILIES;
+
+// ---------------------------------------------------------------------------------------------
+// Parameters shared by every template.
+
+const COMMON_PARAMS: readonly TemplateParam[] = [
+  { name: 'thickness', meaning: 'plate thickness', default: 10, quantity: 'length', unit: 'mm' },
+  { name: 'E', meaning: "Young's modulus (Kt does not depend on it)", default: '210 GPa in the stress unit (210000 MPa)', quantity: 'stress', unit: 'MPa' },
+  { name: 'nu', meaning: "Poisson's ratio (Kt in plane stress does not depend on it)", default: 0.3, quantity: 'ratio', unit: '' },
+  { name: 'length-unit', meaning: 'length unit of the model', default: 'mm', quantity: 'choice', unit: '', choices: LENGTH_UNITS },
+  { name: 'force-unit', meaning: 'force unit of the model (stress is force / length^2)', default: 'N', quantity: 'choice', unit: '', choices: FORCE_UNITS },
+];
+
+export interface CommonParams {
+  thickness?: number;
+  E?: number;
+  nu?: number;
+  lengthUnit?: LengthUnit;
+  forceUnit?: ForceUnit;
+}
+
+interface Common {
+  thickness: number;
+  E: number;
+  nu: number;
+  units: ReturnType<typeof resolveUnits>;
+}
+
+function resolveCommon(p: CommonParams): Common {
+  const units = resolveUnits({ length: p.lengthUnit, force: p.forceUnit });
+  const E = p.E ?? Number((210e9 / units.toSI.stress).toPrecision(4));
+  const thickness = p.thickness ?? 10;
+  const nu = p.nu ?? 0.3;
+  requirePositive('thickness', 'plate thickness', thickness);
+  requirePositive('E', "Young's modulus E", E);
+  if (!(nu >= 0 && nu < 0.5)) throw new ModelError('nu', `Poisson's ratio nu = ${nu} must be at least 0 and less than 0.5`, 'metals are about 0.27 to 0.34');
+  return { thickness, E, nu, units };
+}
+
+function requirePositive(name: string, what: string, v: number): void {
+  if (!(Number.isFinite(v) && v > 0)) throw new ModelError(name, `${what} ${name} = ${v} must be a positive number`, `give --${name} a value greater than 0`);
+}
+
+function fmt(v: number): string {
+  return Number(v.toPrecision(6)).toString();
+}
+
+/** The parts shared by every generated model. */
+function baseModel(c: Common, title: string, note: string): Pick<Model, 'title' | 'note' | 'units' | 'material' | 'thickness' | 'state'> {
+  return {
+    title,
+    note,
+    units: { length: c.units.length, force: c.units.force },
+    material: { name: 'generic steel (Kt does not depend on E or nu in plane stress)', E: c.E, nu: c.nu },
+    thickness: c.thickness,
+    state: 'plane-stress',
+  };
+}
+
+/** Validates what a template built; a failure here is a fault in the template, not in the input. */
+function finish(model: Model): Model {
+  const parsed = Model.safeParse(model);
+  if (!parsed.success) throw new InternalError(`template output fails the schema: ${JSON.stringify(parsed.error.issues)}`);
+  const { errors } = checkModel(parsed.data);
+  if (errors.length) throw new InternalError(`template output fails the model checks: ${errors.map((e) => e.message).join('; ')}`);
+  return parsed.data;
+}
+
+const GENERATED = 'Generated by the raiser template';
+
+interface PathVertex {
+  at: [number, number];
+  edge: string;
+  arc?: { center: [number, number]; turn: 'cw' | 'ccw' };
+}
+
+// ---------------------------------------------------------------------------------------------
+// plate-with-hole
+
+export interface PlateWithHoleParams extends CommonParams {
+  /** plate width */
+  W?: number;
+  /** hole diameter */
+  d?: number;
+  /** plate length (default 4 W) */
+  L?: number;
+  /** remote tensile stress, gross (on the full width) */
+  stress?: number;
+}
+
+/**
+ * Quarter of a plate W wide and L long with a central hole of diameter d, pulled along x.
+ * Modelled: 0 <= x <= L/2, 0 <= y <= W/2, minus the hole quadrant.
+ *
+ *   y
+ *   W/2 +-----------------------+
+ *       |        (top, free)    |
+ *  sym-x|                       | load (normal traction = stress)
+ *       |_                      |
+ *   d/2  ) hole                 |
+ *       +-+---------------------+-- x
+ *         d/2     sym-y         L/2
+ */
+export function plateWithHole(p: PlateWithHoleParams = {}): Model {
+  const c = resolveCommon(p);
+  const W = p.W ?? 100;
+  const d = p.d ?? 20;
+  requirePositive('W', 'plate width', W);
+  requirePositive('d', 'hole diameter', d);
+  const L = p.L ?? 4 * W;
+  requirePositive('L', 'plate length', L);
+  const stress = p.stress ?? 100;
+  if (d >= W) throw new ModelError('d', `the hole diameter d = ${d} must be less than the plate width W = ${W}`, 'make d smaller or W larger');
+  if (d >= L) throw new ModelError('L', `the plate length L = ${L} must be more than the hole diameter d = ${d}`, `the default L = 4 W keeps the ends far from the hole`);
+  const a = d / 2;
+  const u = c.units;
+  const note =
+    `${GENERATED} "plate-with-hole" (W = ${fmt(W)}, d = ${fmt(d)}, L = ${fmt(L)} ${u.length}; remote stress ${fmt(stress)} ${u.stress}). ` +
+    'Quarter model: the plate is symmetric about x = 0 and y = 0, so only x >= 0, y >= 0 is modelled, with symmetry supports on the edges "sym-x" (on x = 0) and "sym-y" (on y = 0). ' +
+    `The remote tensile stress acts along x as a normal traction on the edge "load" at x = L/2${p.L === undefined ? '; L = 4 W keeps the loaded end far from the hole' : ''}. ` +
+    `The hole edge is tagged "hole". Nominal stress: gross = ${fmt(stress)}, net = stress W / (W - d) = ${fmt((stress * W) / (W - d))} ${u.stress}.`;
+  return finish({
+    ...baseModel(c, `Plate with a central hole, d/W = ${fmt(d / W)} (quarter model)`, note),
+    geometry: {
+      outline: {
+        shape: 'path',
+        path: [
+          { at: [a, 0], edge: 'sym-y' },
+          { at: [L / 2, 0], edge: 'load' },
+          { at: [L / 2, W / 2], edge: 'top' },
+          { at: [0, W / 2], edge: 'sym-x' },
+          { at: [0, a], edge: 'hole', arc: { center: [0, 0], turn: 'cw' } },
+        ],
+      },
+    },
+    supports: [
+      { type: 'symmetry', on: 'sym-x' },
+      { type: 'symmetry', on: 'sym-y' },
+    ],
+    loads: [{ type: 'traction', on: 'load', normal: stress }],
+    chart: { family: 'plate-with-hole-tension', dims: { W, d, L, thickness: c.thickness } },
+  });
+}
+
+// ---------------------------------------------------------------------------------------------
+// plate-with-elliptical-hole
+
+export interface PlateWithEllipticalHoleParams extends CommonParams {
+  W?: number;
+  /** semi-axis across the load (along y) */
+  a?: number;
+  /** semi-axis along the load (along x) */
+  b?: number;
+  L?: number;
+  stress?: number;
+}
+
+/**
+ * A plate W wide and L long with a central elliptical hole, semi-axis a across the load (y)
+ * and b along it (x), pulled along x. Full model: the format has circular-arc edges but no
+ * elliptical-arc edges, so an ellipse can only be a whole hole, and the symmetry lines cannot
+ * cut it. Rigid motion is stopped by two pins on the axis y = 0 at the ends: (-L/2, 0) held in
+ * x and y, (L/2, 0) held in y. The loads balance, so the pins carry no force.
+ */
+export function plateWithEllipticalHole(p: PlateWithEllipticalHoleParams = {}): Model {
+  const c = resolveCommon(p);
+  const W = p.W ?? 100;
+  const a = p.a ?? 10;
+  const b = p.b ?? 5;
+  requirePositive('W', 'plate width', W);
+  requirePositive('a', 'semi-axis across the load', a);
+  requirePositive('b', 'semi-axis along the load', b);
+  const L = p.L ?? 4 * W;
+  requirePositive('L', 'plate length', L);
+  const stress = p.stress ?? 100;
+  if (2 * a >= W) throw new ModelError('a', `the hole width 2a = ${fmt(2 * a)} must be less than the plate width W = ${W}`, 'make a smaller or W larger');
+  if (2 * b >= L) throw new ModelError('L', `the plate length L = ${L} must be more than the hole length 2b = ${fmt(2 * b)}`, 'the default L = 4 W keeps the ends far from the hole');
+  const u = c.units;
+  const note =
+    `${GENERATED} "plate-with-elliptical-hole" (W = ${fmt(W)}, a = ${fmt(a)} across the load, b = ${fmt(b)} along it, L = ${fmt(L)} ${u.length}; remote stress ${fmt(stress)} ${u.stress}). ` +
+    'Full model: the format has no elliptical-arc edges, so the symmetry lines cannot cut the hole. ' +
+    'The remote tensile stress acts along x as a normal traction on both ends (tag "load"); pins at (-L/2, 0) (x and y) and (L/2, 0) (y) stop rigid motion and carry no force. ' +
+    `The hole is tagged "hole". Nominal stress: gross = ${fmt(stress)}, net = stress W / (W - 2a) = ${fmt((stress * W) / (W - 2 * a))} ${u.stress}.`;
+  return finish({
+    ...baseModel(c, `Plate with a central elliptical hole, a/b = ${fmt(a / b)} (full model)`, note),
+    geometry: {
+      outline: {
+        shape: 'path',
+        path: [
+          { at: [-L / 2, -W / 2], edge: 'bottom' },
+          { at: [L / 2, -W / 2], edge: 'load' },
+          { at: [L / 2, W / 2], edge: 'top' },
+          { at: [-L / 2, W / 2], edge: 'load' },
+        ],
+      },
+      holes: [{ shape: 'ellipse', center: [0, 0], a, b, angle: 90, tag: 'hole', name: 'elliptical hole' }],
+    },
+    supports: [
+      { type: 'pin', at: [-L / 2, 0], fix: 'xy' },
+      { type: 'pin', at: [L / 2, 0], fix: 'y' },
+    ],
+    loads: [{ type: 'traction', on: 'load', normal: stress }],
+    chart: { family: 'plate-with-elliptical-hole-tension', dims: { W, a, b, L, thickness: c.thickness } },
+  });
+}
+
+// ---------------------------------------------------------------------------------------------
+// stepped-bar
+
+export interface SteppedBarParams extends CommonParams {
+  /** wide width */
+  D?: number;
+  /** narrow width */
+  d?: number;
+  /** shoulder fillet radius */
+  r?: number;
+  /** length of the wide part, from its end to the shoulder (default 2 D) */
+  wideLength?: number;
+  /** length of the narrow part, from the shoulder to its end (default 2 d + r) */
+  narrowLength?: number;
+  loading?: 'tension' | 'bending';
+  /** nominal stress in the narrow part: P/(d h) in tension, 6M/(h d^2) in bending */
+  stress?: number;
+}
+
+/**
+ * Where the fillet leaves the shoulder. The fillet is a quarter circle of radius r tangent to
+ * the narrow edge, centred r beyond the shoulder plane and r outside the narrow edge. When r
+ * exceeds the step height t = (D - d)/2 the arc meets the wide edge before it reaches the
+ * shoulder plane, at x = r - sqrt(r^2 - (r - t)^2), with a corner there; there is then no
+ * straight shoulder face.
+ */
+function filletMeetsWide(r: number, t: number): number {
+  return r <= t ? 0 : r - Math.sqrt(r * r - (r - t) * (r - t));
+}
+
+/**
+ * A flat bar stepping from width D (x < 0) to width d (x > 0) with shoulder fillets of radius
+ * r at x = 0. Tension: the upper half (y >= 0), symmetric about the axis. Bending: the whole
+ * bar, since in-plane bending is antisymmetric about the axis (see the note).
+ *
+ *        D/2 +--------------+  shoulder
+ *            |  wide part   |__
+ *   end (x   |                 \_ fillet (r)
+ *   held)    |                   +-------------------+ d/2
+ *            |                     narrow part       | load
+ *          0 +---------------------------------------+
+ *          -wideLength      0        axis (sym-y)    narrowLength
+ */
+export function steppedBar(p: SteppedBarParams = {}): Model {
+  const c = resolveCommon(p);
+  const D = p.D ?? 60;
+  const d = p.d ?? 40;
+  const r = p.r ?? 4;
+  requirePositive('D', 'wide width', D);
+  requirePositive('d', 'narrow width', d);
+  requirePositive('r', 'fillet radius', r);
+  const loading = p.loading ?? 'tension';
+  if (loading !== 'tension' && loading !== 'bending') {
+    throw new ModelError('loading', `loading "${loading}" is not one of "tension" or "bending"${didYouMean(loading, ['tension', 'bending'])}`);
+  }
+  if (d >= D) throw new ModelError('d', `the narrow width d = ${d} must be less than the wide width D = ${D}`, 'a stepped bar narrows from D to d');
+  const t = (D - d) / 2;
+  const Lw = p.wideLength ?? 2 * D;
+  const Ln = p.narrowLength ?? 2 * d + r;
+  requirePositive('wide-length', 'length of the wide part', Lw);
+  requirePositive('narrow-length', 'length of the narrow part', Ln);
+  if (Ln <= r) throw new ModelError('narrow-length', `the narrow part (${fmt(Ln)} long) must be longer than the fillet radius r = ${r}`, 'the default is 2 d + r');
+  const stress = p.stress ?? 100;
+  const xs = filletMeetsWide(r, t);
+  const u = c.units;
+  const h = c.thickness;
+
+  // The upper contour, travelled from the narrow end back to the wide edge (counter-clockwise
+  // in the outline): narrow edge, fillet arc (clockwise about its centre: the material is
+  // outside its circle), shoulder face if the fillet leaves one, then the wide edge.
+  const upper: PathVertex[] = [
+    { at: [Ln, d / 2], edge: 'narrow-edge' },
+    { at: [r, d / 2], edge: 'fillet', arc: { center: [r, d / 2 + r], turn: 'cw' } },
+  ];
+  if (r < t) upper.push({ at: [0, d / 2 + r], edge: 'shoulder' });
+  upper.push({ at: [xs, D / 2], edge: 'wide-edge' });
+
+  const dims = { D, d, r, wideLength: Lw, narrowLength: Ln, thickness: h };
+  const head = `${GENERATED} "stepped-bar" (D = ${fmt(D)}, d = ${fmt(d)}, r = ${fmt(r)}, wide part ${fmt(Lw)}, narrow part ${fmt(Ln)} ${u.length}; ${loading}). `;
+  const shape =
+    r <= t
+      ? 'The fillet is a quarter circle tangent to the narrow edge and to the shoulder face (tag "fillet"). '
+      : `The fillet radius exceeds the step height (D - d)/2 = ${fmt(t)}, so the fillet arc (tag "fillet"), tangent to the narrow edge, meets the wide edge at a corner at x = ${fmt(xs)}. `;
+  const ends =
+    'Both ends are at least two widths from the shoulder: the disturbance of a shoulder dies out along a strip like exp(-4.21 x / width) ' +
+    '(the slowest self-equilibrated end state of a strip, from the root 2.106 + 1.125i of sin 2z + 2z = 0, z in half-widths), so at two widths it is below 0.03 %. ';
+
+  if (loading === 'tension') {
+    const note =
+      head +
+      'Half model: the bar is symmetric about its axis y = 0, so only y >= 0 is modelled, with a symmetry support on the axis (tag "sym-y"). ' +
+      'The wide end (tag "end") is held in x and free in y; the narrow end (tag "load") carries a normal traction equal to the nominal stress ' +
+      `P/(d h) = ${fmt(stress)} ${u.stress}. ` +
+      shape +
+      ends;
+    return finish({
+      ...baseModel(c, `Stepped bar in tension, D/d = ${fmt(D / d)}, r/d = ${fmt(r / d)} (half model)`, note),
+      geometry: {
+        outline: {
+          shape: 'path',
+          path: [{ at: [-Lw, 0], edge: 'sym-y' }, { at: [Ln, 0], edge: 'load' }, ...upper, { at: [-Lw, D / 2], edge: 'end' }],
+        },
+      },
+      supports: [
+        { type: 'symmetry', on: 'sym-y' },
+        { type: 'roller', fix: 'x', on: 'end' },
+      ],
+      loads: [{ type: 'traction', on: 'load', normal: stress }],
+      chart: { family: 'stepped-bar-tension', dims },
+    });
+  }
+
+  // Bending: the lower contour, the mirror image of the upper one, travelled from the wide end
+  // to the narrow end.
+  const lower: PathVertex[] = [{ at: [-Lw, -D / 2], edge: 'wide-edge' }];
+  if (r < t) lower.push({ at: [0, -D / 2], edge: 'shoulder' });
+  lower.push({ at: r < t ? [0, -d / 2 - r] : [xs, -D / 2], edge: 'fillet', arc: { center: [r, -d / 2 - r], turn: 'cw' } });
+  lower.push({ at: [r, -d / 2], edge: 'narrow-edge' });
+  lower.push({ at: [Ln, -d / 2], edge: 'load' });
+  const M = (stress * h * d * d) / 6;
+  const note =
+    head +
+    'Full model: in-plane bending is antisymmetric about the axis, so a mirror support there would be wrong, and the whole bar is modelled. ' +
+    'The wide end (tag "end") is held in x and free in y, and a pin at (-wideLength, 0) holds it in y; ' +
+    `the narrow end (tag "load") carries the in-plane moment M = ${fmt(M)} ${u.moment}, counter-clockwise, which puts the lower edge in tension; nominal stress 6M/(h d^2) = ${fmt(stress)} ${u.stress}. ` +
+    shape +
+    ends;
+  return finish({
+    ...baseModel(c, `Stepped bar in bending, D/d = ${fmt(D / d)}, r/d = ${fmt(r / d)} (full model)`, note),
+    geometry: { outline: { shape: 'path', path: [...lower, ...upper, { at: [-Lw, D / 2], edge: 'end' }] } },
+    supports: [
+      { type: 'roller', fix: 'x', on: 'end' },
+      { type: 'pin', at: [-Lw, 0], fix: 'y' },
+    ],
+    loads: [{ type: 'moment', on: 'load', m: M }],
+    chart: { family: 'stepped-bar-bending', dims },
+  });
+}
+
+// ---------------------------------------------------------------------------------------------
+// U-notches
+
+export interface NotchedBarParams extends CommonParams {
+  /** full width of the bar */
+  H?: number;
+  /** notch depth */
+  t?: number;
+  /** notch root radius */
+  r?: number;
+  /** bar length (default 4 H) */
+  L?: number;
+  /** remote tensile stress on the ends, gross (on the full width H) */
+  stress?: number;
+}
+
+/**
+ * The right half of a notch centred on x = 0 that opens from the edge y = edgeY towards -y,
+ * from the notch mouth down to (but not including) the root point (0, edgeY - t).
+ *
+ * t >= r: a U-notch, straight flanks 2r apart ending in a semicircular root of radius r (for
+ * t = r the flanks vanish and the notch is a half circle).
+ * t < r: a U-notch of that depth cannot have a semicircular root, so the notch is a circular
+ * arc of radius r and depth t (a shallow circular notch, continuous with the U-notch at t = r).
+ * Returns the vertices and the half-width of the notch mouth.
+ */
+function notchHalf(edgeY: number, t: number, r: number): { vertices: PathVertex[]; mouth: number } {
+  const cy = edgeY - t + r;
+  if (t > r) {
+    return {
+      vertices: [
+        { at: [r, edgeY], edge: 'notch' },
+        { at: [r, cy], edge: 'notch', arc: { center: [0, cy], turn: 'cw' } },
+      ],
+      mouth: r,
+    };
+  }
+  const x0 = t === r ? r : Math.sqrt(r * r - (r - t) * (r - t));
+  return { vertices: [{ at: [x0, edgeY], edge: 'notch', arc: { center: [0, cy], turn: 'cw' } }], mouth: x0 };
+}
+
+function notchShapeWords(t: number, r: number): string {
+  if (t > r) return 'U-notch: straight flanks 2r apart ending in a semicircular root of radius r';
+  if (t === r) return 'semicircular notch (depth equal to the root radius)';
+  return 'shallow circular notch: a circular arc of radius r and depth t (a U-notch needs t >= r)';
+}
+
+function notchParams(p: NotchedBarParams) {
+  const H = p.H ?? 60;
+  const t = p.t ?? 10;
+  const r = p.r ?? 2;
+  requirePositive('H', 'bar width', H);
+  requirePositive('t', 'notch depth', t);
+  requirePositive('r', 'notch root radius', r);
+  const L = p.L ?? 4 * H;
+  requirePositive('L', 'bar length', L);
+  return { H, t, r, L, stress: p.stress ?? 100 };
+}
+
+/**
+ * Quarter of a bar H wide and L long with two opposite notches at x = 0 (on y = +H/2 and
+ * y = -H/2), pulled along x. Modelled: 0 <= x <= L/2, 0 <= y <= H/2 minus half of the upper notch.
+ *
+ *   H/2 +---.  .--------------------+
+ *       |   |__| notch (t, r)       |
+ *  sym-x|                           | load
+ *   0   +---------------------------+
+ *                sym-y              L/2
+ */
+export function uNotchedBar(p: NotchedBarParams = {}): Model {
+  const c = resolveCommon(p);
+  const { H, t, r, L, stress } = notchParams(p);
+  if (2 * t >= H) throw new ModelError('t', `two notches of depth t = ${t} leave no material across the width H = ${H}: 2t must be less than H`, `use t < ${fmt(H / 2)}`);
+  const notch = notchHalf(H / 2, t, r);
+  if (notch.mouth >= L / 2) throw new ModelError('L', `the bar length L = ${L} is too short for a notch ${fmt(2 * notch.mouth)} wide at its mouth`, 'the default L = 4 H keeps the ends far from the notches');
+  const u = c.units;
+  const dNet = H - 2 * t;
+  const note =
+    `${GENERATED} "u-notched-bar" (H = ${fmt(H)}, t = ${fmt(t)}, r = ${fmt(r)}, L = ${fmt(L)} ${u.length}; remote stress ${fmt(stress)} ${u.stress}). ` +
+    `Two opposite notches, each a ${notchShapeWords(t, r)}. ` +
+    'Quarter model: the bar is symmetric about x = 0 (the notch plane) and y = 0 (the axis), so only x >= 0, y >= 0 is modelled, with symmetry supports on "sym-x" (on x = 0) and "sym-y" (on y = 0). ' +
+    `The far end (tag "load", x = L/2) carries a normal traction equal to the remote stress; the notch edge is tagged "notch". ` +
+    `Net width d = H - 2t = ${fmt(dNet)}; nominal stress: gross = ${fmt(stress)}, net = stress H / d = ${fmt((stress * H) / dNet)} ${u.stress}.`;
+  return finish({
+    ...baseModel(c, `Bar with opposite notches, 2t/H = ${fmt((2 * t) / H)}, t/r = ${fmt(t / r)} (quarter model)`, note),
+    geometry: {
+      outline: {
+        shape: 'path',
+        path: [
+          { at: [0, 0], edge: 'sym-y' },
+          { at: [L / 2, 0], edge: 'load' },
+          { at: [L / 2, H / 2], edge: 'top' },
+          ...notch.vertices,
+          { at: [0, H / 2 - t], edge: 'sym-x' },
+        ],
+      },
+    },
+    supports: [
+      { type: 'symmetry', on: 'sym-x' },
+      { type: 'symmetry', on: 'sym-y' },
+    ],
+    loads: [{ type: 'traction', on: 'load', normal: stress }],
+    chart: { family: 'u-notched-bar-tension', dims: { H, t, r, L, thickness: c.thickness } },
+  });
+}
+
+/**
+ * Half of a bar H wide and L long with one notch at x = 0 on the upper edge, pulled along x.
+ * Modelled: 0 <= x <= L/2, -H/2 <= y <= H/2 minus half of the notch. The notch plane x = 0 is a
+ * mirror (tag "sym-x"); it stops x-motion and rotation, and one pin at (0, -H/2) stops the
+ * remaining motion across the bar.
+ *
+ *   H/2  +---.  .-----------------+
+ *        |   |__| notch           |
+ *   sym-x|                        | load
+ *  -H/2  +------------------------+
+ *        pin (y)                  L/2
+ */
+export function edgeNotchedBar(p: NotchedBarParams = {}): Model {
+  const c = resolveCommon(p);
+  const { H, t, r, L, stress } = notchParams(p);
+  if (t >= H) throw new ModelError('t', `a notch of depth t = ${t} leaves no material across the width H = ${H}`, `use t < ${fmt(H)}`);
+  const notch = notchHalf(H / 2, t, r);
+  if (notch.mouth >= L / 2) throw new ModelError('L', `the bar length L = ${L} is too short for a notch ${fmt(2 * notch.mouth)} wide at its mouth`, 'the default L = 4 H keeps the ends far from the notch');
+  const u = c.units;
+  const dNet = H - t;
+  const note =
+    `${GENERATED} "edge-notched-bar" (H = ${fmt(H)}, t = ${fmt(t)}, r = ${fmt(r)}, L = ${fmt(L)} ${u.length}; remote stress ${fmt(stress)} ${u.stress}). ` +
+    `One notch on the upper edge, a ${notchShapeWords(t, r)}. ` +
+    'Half model: the bar is symmetric about the notch plane x = 0, so only x >= 0 is modelled, with a symmetry support on "sym-x" and one pin at (0, -H/2) held in y against motion across the bar. ' +
+    'The far end (tag "load", x = L/2) carries a uniform normal traction equal to the remote stress and is free to rotate, so the net section carries the load off its centre line and bends as well as stretches. ' +
+    `Net width d = H - t = ${fmt(dNet)}; nominal stress: gross = ${fmt(stress)}, net (tension only) = stress H / d = ${fmt((stress * H) / dNet)} ${u.stress}.`;
+  return finish({
+    ...baseModel(c, `Bar with one edge notch, t/H = ${fmt(t / H)}, t/r = ${fmt(t / r)} (half model)`, note),
+    geometry: {
+      outline: {
+        shape: 'path',
+        path: [
+          { at: [0, -H / 2], edge: 'bottom' },
+          { at: [L / 2, -H / 2], edge: 'load' },
+          { at: [L / 2, H / 2], edge: 'top' },
+          ...notch.vertices,
+          { at: [0, H / 2 - t], edge: 'sym-x' },
+        ],
+      },
+    },
+    supports: [
+      { type: 'symmetry', on: 'sym-x' },
+      { type: 'pin', at: [0, -H / 2], fix: 'y' },
+    ],
+    loads: [{ type: 'traction', on: 'load', normal: stress }],
+    chart: { family: 'edge-notched-bar-tension', dims: { H, t, r, L, thickness: c.thickness } },
+  });
+}
+
+// ---------------------------------------------------------------------------------------------
+// Registry.
+
+const STRESS = (meaning: string): TemplateParam => ({ name: 'stress', meaning, default: 100, quantity: 'stress', unit: 'MPa' });
+const LEN = (name: string, meaning: string, def: number | string): TemplateParam => ({ name, meaning, default: def, quantity: 'length', unit: 'mm' });
+
+interface TemplateEntry extends TemplateInfo {
+  build(values: Record<string, number | string>): Model;
+}
+
+function common(v: Record<string, number | string>): CommonParams {
+  return {
+    thickness: v.thickness as number | undefined,
+    E: v.E as number | undefined,
+    nu: v.nu as number | undefined,
+    lengthUnit: v['length-unit'] as LengthUnit | undefined,
+    forceUnit: v['force-unit'] as ForceUnit | undefined,
+  };
+}
+
+const ENTRIES: readonly TemplateEntry[] = [
+  {
+    name: 'plate-with-hole',
+    description: 'central circular hole in a plate under uniaxial tension (quarter model)',
+    params: [
+      LEN('W', 'plate width', 100),
+      LEN('d', 'hole diameter', 20),
+      LEN('L', 'plate length', '4 W'),
+      STRESS('remote tensile stress on the plate ends (gross, over the width W)'),
+      ...COMMON_PARAMS,
+    ],
+    build: (v) => plateWithHole({ ...common(v), W: v.W as number, d: v.d as number, L: v.L as number, stress: v.stress as number }),
+  },
+  {
+    name: 'plate-with-elliptical-hole',
+    description: 'central elliptical hole in a plate under uniaxial tension (full model)',
+    params: [
+      LEN('W', 'plate width', 100),
+      LEN('a', 'semi-axis of the hole across the load', 10),
+      LEN('b', 'semi-axis of the hole along the load', 5),
+      LEN('L', 'plate length', '4 W'),
+      STRESS('remote tensile stress on the plate ends (gross, over the width W)'),
+      ...COMMON_PARAMS,
+    ],
+    build: (v) => plateWithEllipticalHole({ ...common(v), W: v.W as number, a: v.a as number, b: v.b as number, L: v.L as number, stress: v.stress as number }),
+  },
+  {
+    name: 'stepped-bar',
+    description: 'flat bar stepping from width D to d with shoulder fillets, in tension (half model) or in-plane bending (full model)',
+    params: [
+      LEN('D', 'wide width', 60),
+      LEN('d', 'narrow width', 40),
+      LEN('r', 'shoulder fillet radius', 4),
+      LEN('wide-length', 'length of the wide part, end to shoulder', '2 D'),
+      LEN('narrow-length', 'length of the narrow part, shoulder to end', '2 d + r'),
+      { name: 'loading', meaning: 'tension, or in-plane bending by an end moment', default: 'tension', quantity: 'choice', unit: '', choices: ['tension', 'bending'] },
+      STRESS('nominal stress in the narrow part: P/(d h) in tension, 6M/(h d^2) in bending'),
+      ...COMMON_PARAMS,
+    ],
+    build: (v) =>
+      steppedBar({
+        ...common(v),
+        D: v.D as number,
+        d: v.d as number,
+        r: v.r as number,
+        wideLength: v['wide-length'] as number,
+        narrowLength: v['narrow-length'] as number,
+        loading: v.loading as 'tension' | 'bending',
+        stress: v.stress as number,
+      }),
+  },
+  {
+    name: 'u-notched-bar',
+    description: 'flat bar with two opposite U-notches in tension (quarter model)',
+    params: [
+      LEN('H', 'full width of the bar', 60),
+      LEN('t', 'depth of each notch', 10),
+      LEN('r', 'notch root radius', 2),
+      LEN('L', 'bar length', '4 H'),
+      STRESS('remote tensile stress on the bar ends (gross, over the width H)'),
+      ...COMMON_PARAMS,
+    ],
+    build: (v) => uNotchedBar({ ...common(v), H: v.H as number, t: v.t as number, r: v.r as number, L: v.L as number, stress: v.stress as number }),
+  },
+  {
+    name: 'edge-notched-bar',
+    description: 'flat bar with one U-notch on one edge in tension (half model)',
+    params: [
+      LEN('H', 'full width of the bar', 60),
+      LEN('t', 'notch depth', 10),
+      LEN('r', 'notch root radius', 2),
+      LEN('L', 'bar length', '4 H'),
+      STRESS('remote tensile stress on the bar ends (gross, over the width H)'),
+      ...COMMON_PARAMS,
+    ],
+    build: (v) => edgeNotchedBar({ ...common(v), H: v.H as number, t: v.t as number, r: v.r as number, L: v.L as number, stress: v.stress as number }),
+  },
+];
+
+/** Every template with its description and parameters, for listing and for `raiser new`. */
+export const TEMPLATES: readonly TemplateInfo[] = ENTRIES.map(({ name, description, params }) => ({ name, description, params }));
+
+/**
+ * Builds a model from a template name and parameter values (numbers, or text as typed on a
+ * command line). Unknown templates and parameters, text that is not a number, and choices
+ * that are not offered give a ModelError naming the parameter, with a suggestion.
+ */
+export function expandTemplate(name: string, values: Readonly<Record<string, number | string>> = {}, options: { schema?: string } = {}): Model {
+  const entry = ENTRIES.find((e) => e.name === name);
+  if (!entry) {
+    const names = ENTRIES.map((e) => e.name);
+    throw new ModelError('', `there is no template "${name}"${didYouMean(name, names)}`, `the templates are ${quoteList(names, 'and')}`);
+  }
+  const parsed: Record<string, number | string> = {};
+  const names = entry.params.map((p) => p.name);
+  for (const [key, raw] of Object.entries(values)) {
+    const param = entry.params.find((p) => p.name === key);
+    if (!param) {
+      throw new ModelError(key, `the template "${name}" has no parameter "${key}"${didYouMean(key, names)}`, `its parameters are ${quoteList(names, 'and')}`);
+    }
+    if (param.quantity === 'choice') {
+      const text = String(raw);
+      if (!param.choices!.includes(text)) {
+        throw new ModelError(key, `"${text}" is not one of ${quoteList(param.choices!)}${didYouMean(text, param.choices!)}`, `${key}: ${param.meaning}`);
+      }
+      parsed[key] = text;
+      continue;
+    }
+    const num = typeof raw === 'number' ? raw : /^\s*[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?\s*$/i.test(raw) ? Number(raw) : NaN;
+    if (!Number.isFinite(num)) {
+      throw new ModelError(key, `${key} must be a number; found "${raw}"`, `give the number alone, in the model's units (${param.unit ? `${param.unit} unless the unit parameters say otherwise` : 'no unit'})`);
+    }
+    parsed[key] = num;
+  }
+  const model = entry.build(parsed);
+  return options.schema ? { $schema: options.schema, ...model } : model;
+}
