@@ -73,6 +73,8 @@ export interface CommonParams {
 interface Common {
   thickness: number;
   E: number;
+  /** E was not given, so it is the steel-like default */
+  defaultE: boolean;
   nu: number;
   units: ReturnType<typeof resolveUnits>;
 }
@@ -85,7 +87,7 @@ function resolveCommon(p: CommonParams): Common {
   requirePositive('thickness', 'plate thickness', thickness);
   requirePositive('E', "Young's modulus E", E);
   if (!(nu >= 0 && nu < 0.5)) throw new ModelError('nu', `Poisson's ratio nu = ${nu} must be at least 0 and less than 0.5`, 'metals are about 0.27 to 0.34');
-  return { thickness, E, nu, units };
+  return { thickness, E, defaultE: p.E === undefined, nu, units };
 }
 
 function requirePositive(name: string, what: string, v: number): void {
@@ -100,9 +102,9 @@ function fmt(v: number): string {
 function baseModel(c: Common, title: string, note: string): Pick<Model, 'title' | 'note' | 'units' | 'material' | 'thickness' | 'state'> {
   return {
     title,
-    note,
+    note: note.trim(),
     units: { length: c.units.length, force: c.units.force },
-    material: { name: 'generic steel (Kt does not depend on E or nu in plane stress)', E: c.E, nu: c.nu },
+    material: c.defaultE ? { name: 'generic steel, E = 210 GPa (Kt does not depend on E, nor in plane stress on nu)', E: c.E, nu: c.nu } : { E: c.E, nu: c.nu },
     thickness: c.thickness,
     state: 'plane-stress',
   };
