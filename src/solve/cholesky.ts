@@ -33,6 +33,7 @@ import {
   maxDiagonal,
   nnzFull,
   permuteSymmetric,
+  permutedPatterns,
   upperPattern,
 } from './sparse.js';
 import { type Ordering, invertPermutation } from './ordering.js';
@@ -145,7 +146,7 @@ export function postorderTree(parent: Int32Array): Int32Array {
  * A node j is a leaf of T_i iff C(i, j) != 0 and no earlier (in postorder)
  * k with C(i, k) != 0 is a descendant of j, i.e. first(j) > prevnbr(i).
  */
-export function columnCounts(c: SymmetricCsc, parent: Int32Array, post: Int32Array): Int32Array {
+export function columnCounts(c: Pick<SymmetricCsc, 'n' | 'colPtr' | 'rowIndex'>, parent: Int32Array, post: Int32Array): Int32Array {
   const { n, colPtr, rowIndex } = c;
   const first = new Int32Array(n).fill(-1);
   const weight = new Int32Array(n);
@@ -271,11 +272,10 @@ export function analyzeCholesky(a: SymmetricCsc, ordering: Ordering, relax: Rela
   if (ordering.perm.length !== n) throw new RangeError(`analyzeCholesky: ordering has ${ordering.perm.length} entries, matrix ${n}`);
   // etree of A(q, q) for the given ordering q, its postorder, and the
   // column counts (computed on A(q, q) with that postorder).
-  const c0 = permuteSymmetric(a, ordering.perm, ordering.invPerm);
-  const up0 = upperPattern(c0);
-  const parent0 = eliminationTree(n, up0.colPtr, up0.rowIndex);
+  const pat0 = permutedPatterns(a, ordering.invPerm);
+  const parent0 = eliminationTree(n, pat0.upperPtr, pat0.upperIdx);
   const post = postorderTree(parent0);
-  const count0 = columnCounts(c0, parent0, post);
+  const count0 = columnCounts({ n, colPtr: pat0.lowerPtr, rowIndex: pat0.lowerIdx }, parent0, post);
   // Renumber in postorder: column k is old column post[k].
   const postInv = invertPermutation(post);
   const parentP = new Int32Array(n);
@@ -737,11 +737,25 @@ function forwardSupernodal(factor: CholeskyFactor, y: Float64Array): void {
       y[f + a] = sum / L[o + a];
       o += a + 1;
     }
-    for (let a = k; a < m; a++) {
-      let sum = 0;
-      for (let j = 0; j < k; j++) sum += L[o + j] * y[f + j];
-      y[superRows[r0 + a]] -= sum;
-      o += k;
+    // rows below the diagonal block, two at a time (independent sums)
+    let a = k;
+    for (; a + 1 < m; a += 2) {
+      const o1 = o + k;
+      let s0 = 0;
+      let s1 = 0;
+      for (let j = 0; j < k; j++) {
+        const yj = y[f + j];
+        s0 += L[o + j] * yj;
+        s1 += L[o1 + j] * yj;
+      }
+      y[superRows[r0 + a]] -= s0;
+      y[superRows[r0 + a + 1]] -= s1;
+      o += 2 * k;
+    }
+    if (a < m) {
+      let s0 = 0;
+      for (let j = 0; j < k; j++) s0 += L[o + j] * y[f + j];
+      y[superRows[r0 + a]] -= s0;
     }
   }
 }
@@ -758,16 +772,24 @@ function backwardSupernodal(factor: CholeskyFactor, y: Float64Array, t: Float64A
     for (let j = 0; j < k; j++) t[j] = y[f + j];
     const tri = (k * (k + 1)) / 2;
     let o = valuePtr[s] + tri;
-    for (let a = k; a < m; a++) {
-      const xa = y[superRows[r0 + a]];
-      for (let j = 0; j < k; j++) t[j] -= L[o + j] * xa;
-      o += k;
+    // rows below, two at a time: t -= L(a,:) x_a + L(a+1,:) x_{a+1}
+    let a = k;
+    for (; a + 1 < m; a += 2) {
+      const x0 = y[superRows[r0 + a]];
+      const x1 = y[superRows[r0 + a + 1]];
+      const o1 = o + k;
+      for (let j = 0; j < k; j++) t[j] -= L[o + j] * x0 + L[o1 + j] * x1;
+      o += 2 * k;
     }
-    for (let a = k - 1; a >= 0; a--) {
-      const ro = valuePtr[s] + (a * (a + 1)) / 2;
-      const xa = t[a] / L[ro + a];
-      y[f + a] = xa;
-      for (let j = 0; j < a; j++) t[j] -= L[ro + j] * xa;
+    if (a < m) {
+      const x0 = y[superRows[r0 + a]];
+      for (let j = 0; j < k; j++) t[j] -= L[o + j] * x0;
+    }
+    for (let a2 = k - 1; a2 >= 0; a2--) {
+      const ro = valuePtr[s] + (a2 * (a2 + 1)) / 2;
+      const xa = t[a2] / L[ro + a2];
+      y[f + a2] = xa;
+      for (let j = 0; j < a2; j++) t[j] -= L[ro + j] * xa;
     }
   }
 }

@@ -292,6 +292,48 @@ export function permuteSymmetric(a: SymmetricCsc, perm: Int32Array, invPerm: Int
 }
 
 /**
+ * The patterns of A(perm, perm) without values: its upper triangle by
+ * columns (rows in no particular order) and its lower triangle by columns
+ * (rows sorted). Cheaper than permuteSymmetric followed by upperPattern when
+ * only the structure is needed (elimination tree, column counts).
+ */
+export function permutedPatterns(
+  a: SymmetricCsc,
+  invPerm: Int32Array,
+): { upperPtr: Int32Array; upperIdx: Int32Array; lowerPtr: Int32Array; lowerIdx: Int32Array } {
+  const { n, colPtr, rowIndex } = a;
+  const nz = colPtr[n];
+  const upperPtr = new Int32Array(n + 1);
+  for (let j = 0; j < n; j++) {
+    const jn = invPerm[j];
+    for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
+      const inew = invPerm[rowIndex[p]];
+      upperPtr[(inew > jn ? inew : jn) + 1]++;
+    }
+  }
+  for (let j = 0; j < n; j++) upperPtr[j + 1] += upperPtr[j];
+  const next = upperPtr.slice(0, n);
+  const upperIdx = new Int32Array(nz);
+  for (let j = 0; j < n; j++) {
+    const jn = invPerm[j];
+    for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
+      const inew = invPerm[rowIndex[p]];
+      if (inew > jn) upperIdx[next[inew]++] = jn;
+      else upperIdx[next[jn]++] = inew;
+    }
+  }
+  const lowerPtr = new Int32Array(n + 1);
+  for (let p = 0; p < nz; p++) lowerPtr[upperIdx[p] + 1]++;
+  for (let j = 0; j < n; j++) lowerPtr[j + 1] += lowerPtr[j];
+  const lnext = lowerPtr.slice(0, n);
+  const lowerIdx = new Int32Array(nz);
+  for (let j = 0; j < n; j++) {
+    for (let p = upperPtr[j]; p < upperPtr[j + 1]; p++) lowerIdx[lnext[upperIdx[p]]++] = j;
+  }
+  return { upperPtr, upperIdx, lowerPtr, lowerIdx };
+}
+
+/**
  * Transposes an upper-triangular CSC pattern (column j holds rows <= j, any
  * order) into a lower-triangular CSC with sorted rows.
  */
