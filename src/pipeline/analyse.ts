@@ -240,8 +240,8 @@ function resultant(mesh: Mesh, f: Float64Array): { fx: number; fy: number; m: nu
 
 /**
  * The load axis: for a remote stress, its largest principal direction; for moments only, the
- * normal of the loaded edge (the beam axis); otherwise the dominant direction of the loads'
- * resultants (the leading eigenvector of sum f f^T, so loads pulling both ends agree).
+ * normal of the loaded edge (the beam axis); otherwise the dominant direction of the applied
+ * nodal forces (the leading eigenvector of sum f f^T, so loads pulling both ends agree).
  */
 function loadDirection(loads: CompiledLoads, domain: Domain, bendingOnly: boolean): [number, number] {
   if (loads.remote) {
@@ -264,13 +264,17 @@ function loadDirection(loads: CompiledLoads, domain: Domain, bendingOnly: boolea
       }
     }
   }
+  // Every applied nodal force counts, so loads that pull both ends (and cancel as a
+  // resultant) still give their axis.
   let a = 0;
   let b = 0;
   let c = 0;
-  for (const it of loads.items) {
-    a += it.fx * it.fx;
-    b += it.fx * it.fy;
-    c += it.fy * it.fy;
+  for (let i = 0; i < loads.f.length; i += 2) {
+    const fx = loads.f[i];
+    const fy = loads.f[i + 1];
+    a += fx * fx;
+    b += fx * fy;
+    c += fy * fy;
   }
   const tr = 0.5 * (a + c);
   const rr = Math.hypot(0.5 * (a - c), b);

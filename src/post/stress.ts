@@ -2,13 +2,18 @@
  * Element stresses sigma = D B u_e at chosen points of each element, and the stress measures.
  * Stress components are stored as triples (sxx, syy, sxy).
  */
-import { P2Scratch, TRI3, strainMatrixP1, strainMatrixP2 } from '../fem/elements.js';
+import { P2Scratch, TRI6, strainMatrixP1, strainMatrixP2 } from '../fem/elements.js';
 import type { Mesh } from '../mesh/types.js';
 import type { StressMeasure } from '../model/schema.js';
 
-/** The points where element stresses are sampled for recovery: the centroid (3-node) or the 3 Gauss points (6-node). */
+/**
+ * The points where element stresses are sampled for recovery: the centroid (3-node, where the
+ * constant stress is superconvergent) or the 6 points of the degree-4 rule (6-node; their linear
+ * stress field is then fitted over the whole element, not at three points only).
+ */
 export function samplePoints(order: 1 | 2): { xi: Float64Array; eta: Float64Array } {
-  return order === 1 ? { xi: Float64Array.of(1 / 3), eta: Float64Array.of(1 / 3) } : { xi: TRI3.xi, eta: TRI3.eta };
+  if (order === 1) return { xi: Float64Array.of(1 / 3), eta: Float64Array.of(1 / 3) };
+  return { xi: TRI6.xi, eta: TRI6.eta };
 }
 
 export interface ElementSamples {
