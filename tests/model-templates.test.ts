@@ -221,7 +221,8 @@ describe('registry and expandTemplate', () => {
       expect(t.description.length).toBeGreaterThan(10);
       for (const p of t.params) {
         expect(p.meaning.length).toBeGreaterThan(3);
-        expect(p.default === '' ? 'empty' : p.default).not.toBe('empty');
+        expect(String(p.default).length).toBeGreaterThan(0);
+        if (p.quantity === 'choice') expect(p.choices).toContain(p.default);
       }
       expectValid(expandTemplate(t.name));
     }
