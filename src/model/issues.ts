@@ -392,8 +392,8 @@ function specialHint(pattern: string, v: unknown, ctx: TranslateContext): string
   switch (pattern) {
     case 'material.nu':
       return typeof v === 'number' && v >= 0.5
-        ? "Poisson's ratio must stay below 0.5: 0.5 is an incompressible solid, which these displacement elements cannot represent (they lock); metals are about 0.27 to 0.34"
-        : "Poisson's ratio of an isotropic solid used here lies in 0 <= nu < 0.5; metals are about 0.27 to 0.34";
+        ? "Poisson's ratio must stay below 0.5: 0.5 is an incompressible solid, which these displacement elements cannot represent (they lock); structural metals are about 0.27 to 0.34"
+        : "Poisson's ratio of an isotropic solid used here lies in 0 <= nu < 0.5; structural metals are about 0.27 to 0.34";
     case 'material.E':
       return `Young's modulus in stress units (${ctx.units.stress}); for steel about 210 GPa${ctx.units.stress === 'MPa' ? ', written 210000' : ''}`;
     case 'thickness':

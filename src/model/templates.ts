@@ -86,7 +86,7 @@ function resolveCommon(p: CommonParams): Common {
   const nu = p.nu ?? 0.3;
   requirePositive('thickness', 'plate thickness', thickness);
   requirePositive('E', "Young's modulus E", E);
-  if (!(nu >= 0 && nu < 0.5)) throw new ModelError('nu', `Poisson's ratio nu = ${nu} must be at least 0 and less than 0.5`, 'metals are about 0.27 to 0.34');
+  if (!(nu >= 0 && nu < 0.5)) throw new ModelError('nu', `Poisson's ratio nu = ${nu} must be at least 0 and less than 0.5`, 'structural metals are about 0.27 to 0.34');
   return { thickness, E, defaultE: p.E === undefined, nu, units };
 }
 
