@@ -2,6 +2,7 @@
 import type { Command } from 'commander';
 import { ModelError } from '../model/errors.js';
 import { expandTemplate, TEMPLATES } from '../model/templates.js';
+import { formatJson } from '../model/format-json.js';
 
 function listTemplates(): string {
   const out: string[] = ['templates (raiser new <template> --<parameter> <value> ...):', ''];
@@ -51,7 +52,7 @@ export function newCommand(program: Command, setCode: (c: number) => void): void
         return;
       }
       const model = expandTemplate(name, parseParamPairs(params));
-      process.stdout.write(JSON.stringify(model, null, 2) + '\n');
+      process.stdout.write(formatJson(model) + '\n');
       setCode(0);
     });
 }

@@ -32,7 +32,13 @@ export interface BoundaryPoints {
 const MAX_CHORD_TURN = Math.PI / 6;
 
 /** Places boundary points on every loop of the domain. */
-export function discretiseBoundary(domain: Domain, size: SizeField): BoundaryPoints {
+/** A point the mesh must have a node at: on domain edge `edge` at curve parameter t (0 < t < 1). */
+export interface HardPoint {
+  edge: number;
+  t: number;
+}
+
+export function discretiseBoundary(domain: Domain, size: SizeField, hard: readonly HardPoint[] = []): BoundaryPoints {
   const xs: number[] = [];
   const edgeOf: number[] = [];
   const params: number[] = [];
@@ -52,7 +58,7 @@ export function discretiseBoundary(domain: Domain, size: SizeField): BoundaryPoi
     for (let k = 0; k < loop.edges.length; k++) {
       const edgeId = loop.edges[k];
       const e = domain.edges[edgeId];
-      const ts = placeOnCurve(e.curve, size);
+      const ts = placeWithHardPoints(e.curve, size, hard.filter((h) => h.edge === edgeId).map((h) => h.t));
       // Junction at t = 0 (the end of the previous edge), then interior points.
       const start = xs.length / 2;
       evaluateCurve(e.curve, 0, p);
@@ -89,6 +95,34 @@ export function discretiseBoundary(domain: Domain, size: SizeField): BoundaryPoi
     segT0: Float64Array.from(segT0),
     segT1: Float64Array.from(segT1),
   };
+}
+
+/** As placeOnCurve, with points forced at the given parameters (each piece between them placed alone). */
+function placeWithHardPoints(curve: Parameters<typeof evaluateCurve>[0], size: SizeField, at: number[]): Float64Array {
+  const cuts = [...new Set(at.filter((t) => t > 1e-9 && t < 1 - 1e-9))].sort((a, b) => a - b);
+  if (cuts.length === 0) return placeOnCurve(curve, size);
+  const out: number[] = [0];
+  const bounds = [0, ...cuts, 1];
+  for (let k = 0; k + 1 < bounds.length; k++) {
+    const a = bounds[k];
+    const b = bounds[k + 1];
+    const piece = placeOnCurve(subCurve(curve, a, b), size);
+    for (let j = 1; j < piece.length; j++) out.push(a + (b - a) * piece[j]);
+  }
+  out[out.length - 1] = 1;
+  return Float64Array.from(out);
+}
+
+/** The part of a curve between parameters a and b, reparametrised over [0, 1]. */
+function subCurve(c: Parameters<typeof evaluateCurve>[0], a: number, b: number): Parameters<typeof evaluateCurve>[0] {
+  switch (c.kind) {
+    case 'line':
+      return { kind: 'line', x0: c.x0 + (c.x1 - c.x0) * a, y0: c.y0 + (c.y1 - c.y0) * a, x1: c.x0 + (c.x1 - c.x0) * b, y1: c.y0 + (c.y1 - c.y0) * b };
+    case 'arc':
+      return { ...c, a0: c.a0 + c.sweep * a, sweep: c.sweep * (b - a) };
+    case 'ellipse':
+      return { ...c, t0: c.t0 + c.sweep * a, sweep: c.sweep * (b - a) };
+  }
 }
 
 /** Parameters 0 = t0 < t1 < ... < tn = 1 of the points on one curve. */

@@ -7,7 +7,7 @@ import { evaluateCurve } from '../geometry/curve.js';
 import type { Domain } from '../geometry/domain.js';
 import { findContacts } from '../geometry/intersect.js';
 import { AnalysisError, InternalError } from '../model/errors.js';
-import { discretiseBoundary, type BoundaryPoints } from './boundary.js';
+import { discretiseBoundary, type BoundaryPoints, type HardPoint } from './boundary.js';
 import { checkMesh } from './check.js';
 import { refineMesh, SharpCorners } from './refine.js';
 import { buildSizeField, type SizeField, type SizeOptions } from './sizefield.js';
@@ -17,6 +17,8 @@ import type { Mesh, MeshStats } from './types.js';
 export interface MeshOptions extends SizeOptions {
   minAngleDeg?: number;
   maxVertices?: number;
+  /** boundary points that must be nodes (pins, point supports) */
+  hardPoints?: readonly HardPoint[];
 }
 
 export interface MeshResult {
@@ -28,7 +30,7 @@ export interface MeshResult {
 export function generateMesh(domain: Domain, opts: MeshOptions): MeshResult {
   const t0 = performance.now();
   const size = buildSizeField(domain, opts);
-  const boundary = discretiseBoundary(domain, size);
+  const boundary = discretiseBoundary(domain, size, opts.hardPoints);
   checkBoundary(domain, boundary);
   const t1 = performance.now();
 

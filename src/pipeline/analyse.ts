@@ -12,7 +12,8 @@ import { constitutiveMatrix, type PlaneState } from '../fem/material.js';
 import { checkRigidMotion } from '../fem/rigid.js';
 import { generateMesh } from '../mesh/generate.js';
 import type { Mesh, MeshStats } from '../mesh/types.js';
-import { AnalysisError } from '../model/errors.js';
+import { AnalysisError, ModelError } from '../model/errors.js';
+import { nearestBoundaryPoint } from '../geometry/project.js';
 import type { Model, StressMeasure } from '../model/schema.js';
 import { resolveUnits, type ResolvedUnits } from '../model/units.js';
 import { findPeak, outOfPlaneFactor, type Peak } from '../post/peak.js';
@@ -75,6 +76,15 @@ export function analyseModel(model: Model, opts: AnalyseOptions = {}): Analysis 
   validateDomain(domain);
 
   const order = (opts.element ?? model.mesh?.element ?? 'quadratic') === 'linear' ? 1 : 2;
+  // Pins must sit on a node: they become hard points of the boundary discretisation.
+  const hardPoints = model.supports.flatMap((s, i) => {
+    if (s.type !== 'pin') return [];
+    const b = nearestBoundaryPoint(domain, s.at[0], s.at[1]);
+    if (b.distance > 1e-3 * domain.scale) {
+      throw new ModelError(`supports[${i}].at`, `the pin at (${s.at.join(', ')}) is ${b.distance.toPrecision(3)} from the boundary; pins must lie on it`, `the nearest boundary point is (${b.x.toPrecision(6)}, ${b.y.toPrecision(6)}) on ${domain.edges[b.edge].label}`);
+    }
+    return [{ edge: b.edge, t: b.t }];
+  });
   const k = opts.sizeFactor ?? 1;
   const ms = model.mesh ?? {};
   const { mesh, stats: meshStats } = generateMesh(domain, {
@@ -84,6 +94,7 @@ export function analyseModel(model: Model, opts: AnalyseOptions = {}): Analysis 
     grading: ms.grading,
     minAngleDeg: ms.minAngle,
     sizeFactor: k,
+    hardPoints,
   });
   const t1 = performance.now();
 

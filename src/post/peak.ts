@@ -64,6 +64,29 @@ export function findPeak(mesh: Mesh, domain: Domain, stress: Float64Array, measu
       if (de.curve.kind !== 'line') feature = de.feature;
     }
   }
+  if (!atSharp) {
+    // Next to a re-entrant corner (within two elements of it) counts as at it.
+    const per = mesh.order === 2 ? 6 : 3;
+    let h = 0;
+    for (let el = 0; el < mesh.nElements; el++) {
+      let has = false;
+      for (let i = 0; i < per; i++) if (mesh.elements[per * el + i] === best) has = true;
+      if (!has) continue;
+      for (let i = 0; i < 3; i++) {
+        const a = mesh.elements[per * el + i];
+        const b = mesh.elements[per * el + ((i + 1) % 3)];
+        h = Math.max(h, Math.hypot(mesh.nodes[2 * a] - mesh.nodes[2 * b], mesh.nodes[2 * a + 1] - mesh.nodes[2 * b + 1]));
+      }
+    }
+    for (const c of domain.corners) {
+      if (c.materialAngle <= Math.PI + 1e-6) continue;
+      if (Math.hypot(c.x - mesh.nodes[2 * best], c.y - mesh.nodes[2 * best + 1]) <= 2 * h) {
+        atSharp = true;
+        feature = `next to the sharp ${c.label}`;
+        break;
+      }
+    }
+  }
   return {
     measure,
     stress: field[best],
