@@ -252,10 +252,14 @@ export interface SymbolicFactor {
   readonly maxFront: number;
   /** peak number of doubles on the update-matrix stack of the multifrontal method */
   readonly stackPeak: number;
-  /** pattern of A(perm, perm) (lower CSC) and, for entry p of A, its index there */
-  readonly permutedColPtr: Int32Array;
-  readonly permutedRowIndex: Int32Array;
-  readonly valueMap: Int32Array;
+  /**
+   * Assembly of A: the entries assembled by supernode s are q in
+   * entryPtr[s] .. entryPtr[s+1]-1; entry entryOrder[q] of A's values is added
+   * at entryOffset[q] of that supernode's row-major front.
+   */
+  readonly entryPtr: Int32Array;
+  readonly entryOrder: Int32Array;
+  readonly entryOffset: Int32Array;
   /** the pattern of the analysed A, to check that a matrix to factorise has it */
   readonly sourceColPtr: Int32Array;
   readonly sourceRowIndex: Int32Array;
@@ -429,10 +433,39 @@ export function analyzeCholesky(a: SymmetricCsc, ordering: Ordering, relax: Rela
     superParent[s] = pc === -1 ? -1 : superOfCol[pc];
     if (superParent[s] !== -1 && superParent[s] <= s) throw new Error('analyzeCholesky: supernodal tree not in postorder');
   }
-  const valueMap = new Int32Array(a.colPtr[n]);
-  const c = permuteSymmetric(a, perm, invPerm, valueMap);
+  // Entries of A bucketed by the supernode that assembles them: entry (I, J)
+  // goes to new column min(i, j) and row max(i, j), i = invPerm[I].
+  const nzA = a.colPtr[n];
+  const entryPtr = new Int32Array(nSuper + 1);
+  const entryOrder = new Int32Array(nzA);
+  const entryOffset = new Int32Array(nzA); // first the new row, later the offset in the front
+  const entryCol = new Int32Array(nzA);
+  {
+    const ac = a.colPtr;
+    const ar = a.rowIndex;
+    for (let jo = 0; jo < n; jo++) {
+      const jn = invPerm[jo];
+      for (let p = ac[jo]; p < ac[jo + 1]; p++) {
+        const inew = invPerm[ar[p]];
+        entryPtr[superOfCol[inew < jn ? inew : jn] + 1]++;
+      }
+    }
+    for (let s = 0; s < nSuper; s++) entryPtr[s + 1] += entryPtr[s];
+    const fill = entryPtr.slice(0, nSuper);
+    for (let jo = 0; jo < n; jo++) {
+      const jn = invPerm[jo];
+      for (let p = ac[jo]; p < ac[jo + 1]; p++) {
+        const inew = invPerm[ar[p]];
+        const lo = inew < jn ? inew : jn;
+        const q = fill[superOfCol[lo]]++;
+        entryOrder[q] = p;
+        entryOffset[q] = inew < jn ? jn : inew;
+        entryCol[q] = lo;
+      }
+    }
+  }
 
-  // Row structure of each supernode: its columns, the rows of C below them,
+  // Row structure of each supernode: its columns, the rows of A below them,
   // and the update rows of its children (supernodal symbolic factorisation).
   const sHead = new Int32Array(nSuper).fill(-1);
   const sNext = new Int32Array(nSuper).fill(-1);
@@ -462,13 +495,11 @@ export function analyzeCholesky(a: SymmetricCsc, ordering: Ordering, relax: Rela
       marker[j] = s;
     }
     const below = nr;
-    for (let j = f; j < l; j++) {
-      for (let p = c.colPtr[j]; p < c.colPtr[j + 1]; p++) {
-        const i = c.rowIndex[p];
-        if (i >= l && marker[i] !== s) {
-          marker[i] = s;
-          rows[nr++] = i;
-        }
+    for (let q = entryPtr[s]; q < entryPtr[s + 1]; q++) {
+      const i = entryOffset[q];
+      if (i >= l && marker[i] !== s) {
+        marker[i] = s;
+        rows[nr++] = i;
       }
     }
     for (let ch = sHead[s]; ch !== -1; ch = sNext[ch]) {
@@ -483,6 +514,15 @@ export function analyzeCholesky(a: SymmetricCsc, ordering: Ordering, relax: Rela
     }
     rows.subarray(below, nr).sort();
     rowPtr[s + 1] = nr;
+    // offsets of this supernode's entries of A in its row-major front
+    const m = nr - rowPtr[s];
+    if (m * m > 0x7fffffff) throw new RangeError(`analyzeCholesky: a frontal matrix of order ${m} is too large`);
+    for (let t = rowPtr[s]; t < nr; t++) marker[rows[t]] = -2 - (t - rowPtr[s]); // local position, encoded
+    for (let q = entryPtr[s]; q < entryPtr[s + 1]; q++) {
+      const local = -2 - marker[entryOffset[q]];
+      entryOffset[q] = local * m + (entryCol[q] - f);
+    }
+    for (let t = rowPtr[s]; t < nr; t++) marker[rows[t]] = s;
   }
   const superRows = rows.slice(0, nr);
 
@@ -521,9 +561,9 @@ export function analyzeCholesky(a: SymmetricCsc, ordering: Ordering, relax: Rela
     storedValues: valuePtr[nSuper],
     maxFront,
     stackPeak,
-    permutedColPtr: c.colPtr,
-    permutedRowIndex: c.rowIndex,
-    valueMap,
+    entryPtr,
+    entryOrder,
+    entryOffset,
     sourceColPtr: a.colPtr,
     sourceRowIndex: a.rowIndex,
   };
@@ -543,15 +583,6 @@ function checkPattern(a: SymmetricCsc, symbolic: SymbolicFactor, who: string): v
   }
 }
 
-/** Values of A(perm, perm) in the analysed pattern, by a scatter. */
-function permutedValues(a: SymmetricCsc, symbolic: SymbolicFactor): Float64Array {
-  const nz = a.colPtr[a.n];
-  const v = new Float64Array(nz);
-  const map = symbolic.valueMap;
-  const av = a.values;
-  for (let p = 0; p < nz; p++) v[map[p]] = av[p];
-  return v;
-}
 
 // ---------------------------------------------------------------------------
 // Supernodal multifrontal numeric factorisation
@@ -598,9 +629,8 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
   checkPattern(a, symbolic, 'factorCholesky');
   const tol = options.pivotTolerance ?? DEFAULT_PIVOT_TOLERANCE;
   const threshold = tol * maxDiagonal(a);
-  const colPtr = symbolic.permutedColPtr;
-  const rowIndex = symbolic.permutedRowIndex;
-  const av = permutedValues(a, symbolic);
+  const { entryPtr, entryOrder, entryOffset } = symbolic;
+  const av = a.values;
 
   const L = new Float64Array(symbolic.storedValues);
   const frontLen = maxFront * maxFront;
@@ -647,11 +677,8 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
     for (let t = 0; t < m; t++) map[superRows[r0 + t]] = t;
     // zero the lower triangle of the front
     for (let t = 0; t < m; t++) front.fill(0, t * m, t * m + t + 1);
-    // assemble A(p,p) columns f .. f+k-1
-    for (let jj = 0; jj < k; jj++) {
-      const j = f + jj;
-      for (let p = colPtr[j]; p < colPtr[j + 1]; p++) front[map[rowIndex[p]] * m + jj] += av[p];
-    }
+    // assemble the entries of A(p,p) in columns f .. f+k-1
+    for (let q = entryPtr[s]; q < entryPtr[s + 1]; q++) front[entryOffset[q]] += av[entryOrder[q]];
     // extend-add the children's update matrices
     let firstChildStart = -1;
     for (let ch = sHead[s]; ch !== -1; ch = sNext[ch]) {
@@ -818,7 +845,7 @@ export function factorCholeskySimplicial(a: SymmetricCsc, symbolic: SymbolicFact
   checkPattern(a, symbolic, 'factorCholeskySimplicial');
   const tol = options.pivotTolerance ?? DEFAULT_PIVOT_TOLERANCE;
   const threshold = tol * maxDiagonal(a);
-  const c: SymmetricCsc = { n, colPtr: symbolic.permutedColPtr, rowIndex: symbolic.permutedRowIndex, values: permutedValues(a, symbolic) };
+  const c = permuteSymmetric(a, perm, invPerm);
   const up = upperPattern(c);
   const lp = new Int32Array(n + 1);
   for (let j = 0; j < n; j++) lp[j + 1] = lp[j] + colCount[j];

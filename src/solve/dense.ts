@@ -6,10 +6,12 @@
  * the row of L in the pivot columns, contiguous, so every inner product
  * below runs over contiguous memory.
  *
- * The pivot columns are factorised in panels of `PANEL` columns, right-
- * looking across panels and Crout (dot-product form) inside a panel: the
- * block Cholesky of G. H. Golub and C. F. Van Loan, "Matrix Computations",
- * 4th ed., Johns Hopkins 2013, section 4.2.9. The symmetric rank-w updates
+ * The pivot columns are factorised in panels of `PANEL` columns, left-
+ * looking across panels (each panel is first updated by all earlier
+ * columns in one rank update with long inner products, then factorised)
+ * and Crout (dot-product form) inside a panel: a block Cholesky as in G. H.
+ * Golub and C. F. Van Loan, "Matrix Computations", 4th ed., Johns Hopkins
+ * 2013, section 4.2.9. The symmetric rank-w updates
  * are register-blocked, 4 rows x 2 columns of the output per pass over the
  * inner index, so each pair of loads feeds more than one multiply-add (the
  * register-blocking idea of K. Goto and R. van de Geijn, "Anatomy of
@@ -29,7 +31,7 @@ export interface SimdKernel {
 }
 
 /** Width of a panel of pivot columns. */
-export const PANEL = 16;
+export const PANEL = 8;
 
 /** Value of the pivot that factorFrontPivots last reported as failed. */
 export let failedPivotValue = 0;
@@ -43,15 +45,17 @@ export let failedPivotValue = 0;
 export function factorFrontPivots(F: Float64Array, m: number, k: number, threshold: number, scratch: Float64Array, simd: SimdKernel | null = null): number {
   for (let p0 = 0; p0 < k; p0 += PANEL) {
     const p1 = p0 + PANEL < k ? p0 + PANEL : k;
+    // left-looking: bring the panel up to date with all earlier columns at
+    // once (long inner products), then factorise it
+    if (p0 > 0) rankUpdate(F, m, p0, m, p0, p1, 0, p0, F, -1, simd);
     const bad = factorPanel(F, m, p0, p1, threshold, scratch);
     if (bad >= 0) return bad;
-    if (p1 < k) rankUpdate(F, m, p1, m, p1, k, p0, p1, F, -1, simd);
   }
   return -1;
 }
 
 /**
- * Panel p0..p1-1 (all earlier panels already subtracted): Crout on the
+ * Panel p0..p1-1 (all earlier columns already subtracted): Crout on the
  * diagonal block, then rows below in groups of four sharing each pivot row.
  */
 function factorPanel(F: Float64Array, m: number, p0: number, p1: number, threshold: number, inv: Float64Array): number {

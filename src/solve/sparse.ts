@@ -249,11 +249,8 @@ export function extractPrincipal(a: SymmetricCsc, keep: Uint8Array): PrincipalSu
  * C = A(perm, perm) as a lower triangle: C(k, l) = A(perm[k], perm[l]).
  * perm maps new -> old and invPerm old -> new. Rows of each column of C come
  * out sorted (two-pass transpose construction, Davis 2006 section 2.5 idea).
- * When positions (length nnz) is given, positions[p] receives the index in C
- * of entry p of A, so later matrices with the same pattern can be permuted by
- * a scatter.
  */
-export function permuteSymmetric(a: SymmetricCsc, perm: Int32Array, invPerm: Int32Array, positions?: Int32Array): SymmetricCsc {
+export function permuteSymmetric(a: SymmetricCsc, perm: Int32Array, invPerm: Int32Array): SymmetricCsc {
   const { n, colPtr, rowIndex, values } = a;
   if (perm.length !== n || invPerm.length !== n) throw new RangeError('permuteSymmetric: permutation length');
   const nz = colPtr[n];
@@ -281,14 +278,9 @@ export function permuteSymmetric(a: SymmetricCsc, perm: Int32Array, invPerm: Int
       const q = next[hi]++;
       ui[q] = lo;
       uv[q] = values[p];
-      if (positions !== undefined) positions[p] = q;
     }
   }
-  if (positions === undefined) return transposeUpperToLower(n, up, ui, uv);
-  const where = new Int32Array(nz);
-  const c = transposeUpperToLower(n, up, ui, uv, where);
-  for (let p = 0; p < nz; p++) positions[p] = where[positions[p]];
-  return c;
+  return transposeUpperToLower(n, up, ui, uv);
 }
 
 /**
@@ -337,7 +329,7 @@ export function permutedPatterns(
  * Transposes an upper-triangular CSC pattern (column j holds rows <= j, any
  * order) into a lower-triangular CSC with sorted rows.
  */
-function transposeUpperToLower(n: number, up: Int32Array, ui: Int32Array, uv: Float64Array, where?: Int32Array): SymmetricCsc {
+function transposeUpperToLower(n: number, up: Int32Array, ui: Int32Array, uv: Float64Array): SymmetricCsc {
   const nz = up[n];
   const cnt = new Int32Array(n + 1);
   for (let p = 0; p < nz; p++) cnt[ui[p]]++;
@@ -351,7 +343,6 @@ function transposeUpperToLower(n: number, up: Int32Array, ui: Int32Array, uv: Fl
       const q = next[ui[p]]++;
       li[q] = j;
       lv[q] = uv[p];
-      if (where !== undefined) where[p] = q;
     }
   }
   return { n, colPtr: lp, rowIndex: li, values: lv };
