@@ -43,7 +43,9 @@ export function checkRigidMotion(mesh: Mesh, fixed: Uint8Array, scale: number): 
 }
 
 function describeMotion(a: number, b: number, c: number, cx: number, cy: number, scale: number): string {
-  const fmt = (v: number) => Number(v.toPrecision(4)).toString();
+  // Shown to a millionth of the model size, so round-off does not print as 2.8e-14.
+  const q = 1e-6 * scale;
+  const fmt = (v: number) => Number((Math.round(v / q) * q).toPrecision(6)).toString();
   if (Math.abs(c) < 1e-6 * Math.hypot(a, b)) {
     if (Math.abs(b) < 1e-6 * Math.abs(a)) return 'the model is free to translate in x: no support holds it in that direction';
     if (Math.abs(a) < 1e-6 * Math.abs(b)) return 'the model is free to translate in y: no support holds it in that direction';
