@@ -89,7 +89,7 @@ export function restrictOrdering(fullPerm: Int32Array, newOfOld: Int32Array): Or
 // ---------------------------------------------------------------------------
 
 export interface NestedDissectionOptions {
-  /** ranges of at most this many nodes are not split further but ordered by minimum degree (default 128) */
+  /** ranges of at most this many nodes are not split further but ordered by minimum degree (default 64) */
   readonly leafSize?: number;
 }
 
@@ -120,11 +120,25 @@ export function orderNestedDissectionNodes(
   if (ptr.length !== nn + 1) {
     throw new RangeError(`orderNestedDissection: adjacency has ${ptr.length - 1} nodes, coords ${nn}`);
   }
-  const leafSize = options.leafSize ?? 128;
+  const leafSize = options.leafSize ?? 64;
   if (!(leafSize >= 2)) throw new RangeError('orderNestedDissection: leafSize must be >= 2');
 
   const nodes = new Int32Array(nn);
   for (let i = 0; i < nn; i++) nodes[i] = i;
+  // longest edge projections, to limit the boundary search to a band
+  let maxEdgeDx = 0;
+  let maxEdgeDy = 0;
+  for (let v = 0; v < nn; v++) {
+    for (let q = ptr[v]; q < ptr[v + 1]; q++) {
+      const u = idx[q];
+      if (u < 0 || u >= nn) throw new RangeError(`orderNestedDissection: neighbour ${u} of node ${v} outside [0, ${nn})`);
+      const dx = Math.abs(coords[2 * u] - coords[2 * v]);
+      const dy = Math.abs(coords[2 * u + 1] - coords[2 * v + 1]);
+      if (dx > maxEdgeDx) maxEdgeDx = dx;
+      if (dy > maxEdgeDy) maxEdgeDy = dy;
+    }
+  }
+  if (!Number.isFinite(maxEdgeDx) || !Number.isFinite(maxEdgeDy)) throw new RangeError('orderNestedDissection: coordinates must be finite');
   const stampOf = new Int32Array(nn).fill(-1);
   const side = new Int8Array(nn);
   const tmp = new Int32Array(nn);
@@ -168,11 +182,18 @@ export function orderNestedDissectionNodes(
       stampOf[v] = st;
       side[v] = k < mid ? 0 : 1;
     }
-    // One-sided boundaries: count each.
+    // One-sided boundaries: count each. Only nodes within the longest edge
+    // projection of the cut can have a neighbour across it.
+    const cut = coords[2 * nodes[mid] + axis];
+    const band = axis === 0 ? maxEdgeDx : maxEdgeDy;
+    const bandLo = cut - band;
+    const bandHi = cut + band;
     let countA = 0;
     let countB = 0;
     for (let k = lo; k < hi; k++) {
       const v = nodes[k];
+      const cv = coords[2 * v + axis];
+      if (cv < bandLo || cv > bandHi) continue;
       const sv = side[v];
       for (let q = ptr[v]; q < ptr[v + 1]; q++) {
         const u = idx[q];
@@ -191,6 +212,8 @@ export function orderNestedDissectionNodes(
     const kTo = sepSide === 0 ? mid : hi;
     for (let k = kFrom; k < kTo; k++) {
       const v = nodes[k];
+      const cv = coords[2 * v + axis];
+      if (cv < bandLo || cv > bandHi) continue;
       for (let q = ptr[v]; q < ptr[v + 1]; q++) {
         const u = idx[q];
         if (stampOf[u] === st && side[u] === otherSide) {
