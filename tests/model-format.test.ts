@@ -1,5 +1,5 @@
 /**
- * The examples in src/model/FORMAT.md are tests: the full model is read like a user's file and
+ * The examples in the README's model format section are tests: the full model is read like a user's file and
  * its geometry is built; every JSON fragment is valid for the part of the schema it shows; the
  * printed error shown in the guide is what raiser prints for that file.
  */
@@ -11,7 +11,9 @@ import { ModelError } from '../src/model/errors.js';
 import { parseModelText } from '../src/model/load.js';
 import { Load, Loop, Model, Support, Target } from '../src/model/schema.js';
 
-const doc = readFileSync(new URL('../src/model/FORMAT.md', import.meta.url), 'utf8');
+const readme = readFileSync(new URL('../README.md', import.meta.url), 'utf8');
+// The model format section runs from its heading to the result fields.
+const doc = readme.slice(readme.indexOf('## The model file'), readme.indexOf('## Result fields'));
 
 function blocks(lang: string): string[] {
   const out: string[] = [];
@@ -20,11 +22,11 @@ function blocks(lang: string): string[] {
   return out;
 }
 
-describe('FORMAT.md', () => {
+describe('README model format', () => {
   it('has one complete example, which reads and builds', () => {
     const full = blocks('json');
     expect(full).toHaveLength(1);
-    const m = parseModelText(full[0], 'FORMAT.md');
+    const m = parseModelText(full[0], 'README.md');
     const d = buildDomain(m.geometry);
     expect(d.loops).toHaveLength(2);
     // The notch edge is the half circle of radius 6 through (60, 19).

@@ -29,7 +29,9 @@ export function formatSummary(r: ResultJson): string {
   const what = n.kind === 'tension' ? `F ${fmt(s.force)} ${u.force} over A ${fmt(s.area)} ${u.length}^2` : `M ${fmt(s.moment)} ${u.moment}, section depth ${fmt(s.length)} ${u.length}`;
   out.push(`  net nominal stress    ${fmt(n.stress)} ${u.stress}  ${what}`);
   out.push(`      cut ${pt(s.from)} to ${pt(s.to)}, material length ${fmt(s.length)} ${u.length}`);
-  out.push(`  gross nominal stress  ${fmt(n.gross.stress)} ${u.stress}  (${n.gross.definition})`);
+  out.push(`      ${n.definition}`);
+  out.push(`  gross nominal stress  ${fmt(n.gross.stress)} ${u.stress}`);
+  out.push(`      ${n.gross.definition}`);
   out.push('');
   out.push(`  Kt net    ${fmt(r.kt.net, 4)}   = peak / net nominal stress`);
   out.push(`  Kt gross  ${fmt(r.kt.gross, 4)}   = peak / gross nominal stress`);

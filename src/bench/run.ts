@@ -1,0 +1,95 @@
+/**
+ * `npm run bench`: the stage times of raiser at a few sizes, medians of several runs after a
+ * warm-up. Speed targets live here, never in the tests.
+ *
+ *   npm run bench              mesher and whole-analysis tables, solver at 1e4 and 1e5 DOF
+ *   npm run bench -- --large   also the solver at 5e5 and 1e6 DOF
+ */
+import { performance } from 'node:perf_hooks';
+import { buildDomain } from '../geometry/domain.js';
+import { generateMesh } from '../mesh/generate.js';
+import type { Model } from '../model/schema.js';
+import { analyseModel, type Analysis } from '../pipeline/analyse.js';
+import type { MeshStats } from '../mesh/types.js';
+import { runSolveBench } from './solve.js';
+
+function median(xs: number[]): number {
+  const s = xs.slice().sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+}
+
+/** An invented perforated strap: holes, a slot and fillets, so the size field has many raisers. */
+export function benchModel(sizeFactor: number): Model {
+  return {
+    title: 'bench strap (invented)',
+    material: { E: 210000, nu: 0.3 },
+    thickness: 5,
+    geometry: {
+      outline: { shape: 'path', path: [{ at: [0, 0], round: 4 }, { at: [240, 0], round: 4 }, { at: [240, 60], round: 4 }, { at: [0, 60], round: 4 }] },
+      holes: [
+        { shape: 'circle', center: [40, 30], radius: 8 },
+        { shape: 'circle', center: [90, 22], radius: 5 },
+        { shape: 'slot', center: [150, 30], length: 40, width: 10, angle: 20 },
+        { shape: 'ellipse', center: [205, 32], a: 10, b: 4, angle: 90 },
+      ],
+    },
+    supports: [{ type: 'fixed', on: { x: 0 } }],
+    loads: [{ type: 'force', on: { x: 240 }, fx: 20000 }],
+    mesh: { size: 6 * sizeFactor, raiserSize: 0.6 * sizeFactor },
+  };
+}
+
+function mb(bytes: number): string {
+  return (bytes / 2 ** 20).toFixed(0);
+}
+
+function benchMesher(runs: number, log: (s: string) => void): void {
+  log('\nMesher (graded constrained Delaunay refinement, minimum angle 25 deg, linear triangles)');
+  log('| triangles | vertices | boundary | triangulate | refine | finish + check | total | min angle | peak RSS MB |');
+  log('|---|---|---|---|---|---|---|---|---|');
+  for (const k of [1, 0.4, 0.2, 0.1]) {
+    const model = benchModel(k);
+    const domain = buildDomain(model.geometry);
+    const opts = { order: 1 as const, size: model.mesh!.size, raiserSize: model.mesh!.raiserSize };
+    generateMesh(domain, opts); // warm-up
+    const rows: MeshStats[] = [];
+    for (let r = 0; r < runs; r++) rows.push(generateMesh(domain, opts).stats);
+    const t = (f: (s: (typeof rows)[number]) => number) => `${median(rows.map(f)).toFixed(0)} ms`;
+    const s = rows[0];
+    log(
+      `| ${s.triangles} | ${s.vertices} | ${t((x) => x.timeMs.boundary)} | ${t((x) => x.timeMs.triangulate)} | ${t((x) => x.timeMs.refine)} | ${t((x) => x.timeMs.finish)} | ${t((x) => x.timeMs.total)} | ${s.minAngleUnforcedDeg.toFixed(1)} | ${mb(process.memoryUsage().rss)} |`,
+    );
+  }
+}
+
+function benchAnalysis(runs: number, log: (s: string) => void): void {
+  log('\nWhole analysis (6-node triangles): mesh, stiffness assembly, sparse Cholesky, recovery');
+  log('| DOF | elements | mesh | assembly | solve (order + factor + solve) | recovery + Kt | total | nnz(L) | peak RSS MB |');
+  log('|---|---|---|---|---|---|---|---|---|');
+  for (const k of [1, 0.5, 0.25]) {
+    const model = benchModel(k);
+    analyseModel(model);
+    const rows: Analysis[] = [];
+    for (let r = 0; r < runs; r++) rows.push(analyseModel(model));
+    const t = (f: (a: (typeof rows)[number]) => number) => `${median(rows.map(f)).toFixed(0)} ms`;
+    const a = rows[0];
+    log(
+      `| ${2 * a.mesh.nNodes} | ${a.mesh.nElements} | ${t((x) => x.timeMs.mesh)} | ${t((x) => x.timeMs.assemble)} | ${t((x) => x.timeMs.solve)} | ${t((x) => x.timeMs.recover)} | ${t((x) => x.timeMs.total)} | ${a.solveStats.nnzL} | ${mb(process.memoryUsage().rss)} |`,
+    );
+  }
+}
+
+export function runBench(args: string[], log: (s: string) => void = console.log): void {
+  const runs = 3;
+  const t0 = performance.now();
+  log(`raiser bench: node ${process.version}, ${process.platform} ${process.arch}; medians of ${runs} runs after a warm-up`);
+  log('command: npm run bench' + (args.includes('--large') ? ' -- --large' : ''));
+  benchMesher(runs, log);
+  benchAnalysis(runs, log);
+  log('\nSparse Cholesky on plane-stress stiffness matrices of a jittered rectangle, left edge fixed');
+  runSolveBench({ sizes: args.includes('--large') ? [1e4, 1e5, 5e5, 1e6] : [1e4, 1e5], runs, log });
+  log(`\nbench finished in ${((performance.now() - t0) / 1e3).toFixed(1)} s`);
+}
+
+runBench(process.argv.slice(2));
