@@ -764,25 +764,34 @@ function forwardSupernodal(factor: CholeskyFactor, y: Float64Array): void {
       y[f + a] = sum / L[o + a];
       o += a + 1;
     }
-    // rows below the diagonal block, two at a time (independent sums)
+    // rows below the diagonal block, four at a time (independent sums)
     let a = k;
-    for (; a + 1 < m; a += 2) {
+    for (; a + 3 < m; a += 4) {
       const o1 = o + k;
+      const o2 = o1 + k;
+      const o3 = o2 + k;
       let s0 = 0;
       let s1 = 0;
+      let s2 = 0;
+      let s3 = 0;
       for (let j = 0; j < k; j++) {
         const yj = y[f + j];
         s0 += L[o + j] * yj;
         s1 += L[o1 + j] * yj;
+        s2 += L[o2 + j] * yj;
+        s3 += L[o3 + j] * yj;
       }
       y[superRows[r0 + a]] -= s0;
       y[superRows[r0 + a + 1]] -= s1;
-      o += 2 * k;
+      y[superRows[r0 + a + 2]] -= s2;
+      y[superRows[r0 + a + 3]] -= s3;
+      o += 4 * k;
     }
-    if (a < m) {
+    for (; a < m; a++) {
       let s0 = 0;
       for (let j = 0; j < k; j++) s0 += L[o + j] * y[f + j];
       y[superRows[r0 + a]] -= s0;
+      o += k;
     }
   }
 }
@@ -799,18 +808,23 @@ function backwardSupernodal(factor: CholeskyFactor, y: Float64Array, t: Float64A
     for (let j = 0; j < k; j++) t[j] = y[f + j];
     const tri = (k * (k + 1)) / 2;
     let o = valuePtr[s] + tri;
-    // rows below, two at a time: t -= L(a,:) x_a + L(a+1,:) x_{a+1}
+    // rows below, four at a time: t -= sum_r L(a+r, :) x_{a+r}
     let a = k;
-    for (; a + 1 < m; a += 2) {
+    for (; a + 3 < m; a += 4) {
       const x0 = y[superRows[r0 + a]];
       const x1 = y[superRows[r0 + a + 1]];
+      const x2 = y[superRows[r0 + a + 2]];
+      const x3 = y[superRows[r0 + a + 3]];
       const o1 = o + k;
-      for (let j = 0; j < k; j++) t[j] -= L[o + j] * x0 + L[o1 + j] * x1;
-      o += 2 * k;
+      const o2 = o1 + k;
+      const o3 = o2 + k;
+      for (let j = 0; j < k; j++) t[j] -= L[o + j] * x0 + L[o1 + j] * x1 + L[o2 + j] * x2 + L[o3 + j] * x3;
+      o += 4 * k;
     }
-    if (a < m) {
+    for (; a < m; a++) {
       const x0 = y[superRows[r0 + a]];
       for (let j = 0; j < k; j++) t[j] -= L[o + j] * x0;
+      o += k;
     }
     for (let a2 = k - 1; a2 >= 0; a2--) {
       const ro = valuePtr[s] + (a2 * (a2 + 1)) / 2;
