@@ -45,6 +45,29 @@ describe('dense front kernels', () => {
     }
   });
 
+  it('the WebAssembly extend-add and lower-triangle zeroing do exactly what their JavaScript definitions say', () => {
+    const heap = sharedWasmHeap()!;
+    const m = 13;
+    const mc = 6;
+    const H = heap.reserve(m * m + 64 + 16)!;
+    const relByte = (m * m + 64) * 8;
+    const rel = new Int32Array(H.buffer, relByte, mc);
+    rel.set([1, 2, 5, 6, 10, 12]);
+    const rnd = seededRandom(4);
+    for (let q = 0; q < m * m; q++) H[q] = rnd();
+    const F0 = H.slice(0, m * m);
+    for (let q = 0; q < (mc * (mc + 1)) / 2; q++) H[m * m + q] = q + 1;
+    heap.extendAdd(0, m * 8, m * m * 8, relByte, mc);
+    const expected = F0.slice();
+    let u = 0;
+    for (let a = 0; a < mc; a++) for (let b = 0; b <= a; b++) expected[rel[a] * m + rel[b]] += ++u;
+    expect(Array.from(H.subarray(0, m * m))).toEqual(Array.from(expected));
+    heap.zeroLower(0, m * 8);
+    for (let a = 0; a < m; a++) {
+      for (let b = 0; b < m; b++) expect(H[a * m + b]).toBe(b <= a ? 0 : expected[a * m + b]);
+    }
+  });
+
   it('factorFrontPivots over several panels reproduces the front: L L^T equals the pivot block and L21 L11^T the rows below', () => {
     const m = 3 * PANEL + 7;
     const k = 2 * PANEL + 5;

@@ -641,19 +641,25 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
   let simdStack: SimdKernel | null = null;
   const kernel = options.kernel ?? 'auto';
   const heap = kernel === 'js' ? null : sharedWasmHeap();
-  const view = heap === null ? null : heap.reserve(frontLen + stackLen);
+  // heap layout (doubles): [front | update stack | rel as int32]
+  const relDoubles = Math.ceil(maxFront / 2) + 1;
+  const view = heap === null ? null : heap.reserve(frontLen + stackLen + relDoubles);
   if (kernel === 'simd' && view === null) throw new Error('factorCholesky: the WebAssembly SIMD kernel is not available here');
-  if (heap !== null && view !== null) {
+  let rel: Int32Array;
+  const relByte = (frontLen + stackLen) * 8;
+  const useHeap = heap !== null && view !== null;
+  if (useHeap) {
     front = view.subarray(0, frontLen);
     stack = view.subarray(frontLen, frontLen + stackLen);
+    rel = new Int32Array(view.buffer, relByte, maxFront);
     simdFront = { rowBlock4: heap.rowBlock4, fByte: 0, outByte: 0 };
     simdStack = { rowBlock4: heap.rowBlock4, fByte: 0, outByte: frontLen * 8 };
   } else {
     front = new Float64Array(frontLen);
     stack = new Float64Array(stackLen);
+    rel = new Int32Array(maxFront);
   }
   const map = new Int32Array(n);
-  const rel = new Int32Array(maxFront);
   const panelScratch = new Float64Array(PANEL);
   // Children of each supernode, in order; their updates lie on top of the
   // stack in the same order when the parent is reached (postorder).
@@ -676,7 +682,8 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
     const m = rowPtr[s + 1] - r0;
     for (let t = 0; t < m; t++) map[superRows[r0 + t]] = t;
     // zero the lower triangle of the front
-    for (let t = 0; t < m; t++) front.fill(0, t * m, t * m + t + 1);
+    if (useHeap) heap.zeroLower(0, m * 8);
+    else for (let t = 0; t < m; t++) front.fill(0, t * m, t * m + t + 1);
     // assemble the entries of A(p,p) in columns f .. f+k-1
     for (let q = entryPtr[s]; q < entryPtr[s + 1]; q++) front[entryOffset[q]] += av[entryOrder[q]];
     // extend-add the children's update matrices
@@ -688,7 +695,8 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
       for (let t = 0; t < mc; t++) rel[t] = map[superRows[rc + t]];
       const base = updStart[ch];
       if (firstChildStart < 0) firstChildStart = base;
-      extendAdd(front, m, stack, base, rel, mc);
+      if (useHeap) heap.extendAdd(0, m * 8, (frontLen + base) * 8, relByte, mc);
+      else extendAdd(front, m, stack, base, rel, mc);
     }
     if (firstChildStart >= 0) top = firstChildStart; // pop all children
 

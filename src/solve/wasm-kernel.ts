@@ -16,6 +16,9 @@
  *        s_r = s0 + r*m8 (entry (a+r, b0) of the front).
  * This is the 4 x 2 register-blocked body of rankUpdate for a strip of
  * column pairs; the caller handles the remaining columns and rows.
+ * Two scalar helpers of the multifrontal method sit beside it (extendAdd,
+ * zeroLower), where the JavaScript versions pay a bounds check per access
+ * and a call per row.
  */
 
 // --- a minimal assembler ------------------------------------------------------
@@ -243,12 +246,97 @@ function rowBlock4Body(): number[] {
   return body;
 }
 
+/**
+ * extendAdd(F, m8, U, rel, mc): for a < mc, b <= a:
+ *   F[rel[a]*m8 + rel[b]*8] += U[(a(a+1)/2 + b) * 8]   (byte addresses; rel holds i32)
+ * the extend-add of a packed child update matrix into the row-major front.
+ */
+function extendAddBody(): number[] {
+  const P_F = 0;
+  const P_M8b = 1;
+  const P_U = 2;
+  const P_REL = 3;
+  const P_MC = 4;
+  const L_A = 5;
+  const L_B = 6;
+  const L_ROW = 7;
+  const L_UP = 8;
+  const L_ADDR = 9;
+  const I32_LOAD = 0x28;
+  const I32_GT_S = 0x4a;
+  const c = new Code();
+  c.get(P_U).set(L_UP);
+  c.i32(0).set(L_A);
+  c.op(BLOCK, VOID, LOOP, VOID);
+  {
+    c.get(L_A).get(P_MC).op(I32_GE_S, BR_IF, 1);
+    // row = F + rel[a] * m8
+    c.get(P_F).get(P_REL).get(L_A).i32(2).op(I32_SHL, I32_ADD, I32_LOAD, 2, 0).get(P_M8b).op(I32_MUL, I32_ADD).set(L_ROW);
+    c.i32(0).set(L_B);
+    c.op(BLOCK, VOID, LOOP, VOID);
+    {
+      c.get(L_B).get(L_A).op(I32_GT_S, BR_IF, 1);
+      // addr = row + rel[b] * 8
+      c.get(L_ROW).get(P_REL).get(L_B).i32(2).op(I32_SHL, I32_ADD, I32_LOAD, 2, 0).i32(3).op(I32_SHL, I32_ADD).set(L_ADDR);
+      c.get(L_ADDR).get(L_ADDR).f64Load().get(L_UP).f64Load().op(F64_ADD).f64Store();
+      c.get(L_UP).i32(8).op(I32_ADD).set(L_UP);
+      c.get(L_B).i32(1).op(I32_ADD).set(L_B);
+      c.op(BR, 0);
+    }
+    c.op(END, END);
+    c.get(L_A).i32(1).op(I32_ADD).set(L_A);
+    c.op(BR, 0);
+  }
+  c.op(END, END);
+  c.op(END);
+  const body: number[] = [];
+  uleb(1, body);
+  uleb(5, body);
+  body.push(T_I32);
+  body.push(...c.bytes);
+  return body;
+}
+
+/**
+ * zeroLower(F, m8): zeroes entries 0..a of each row a < m of the row-major
+ * front at byte address F with row stride m8 bytes (memory.fill per row).
+ */
+function zeroLowerBody(): number[] {
+  const P_F = 0;
+  const P_M8b = 1;
+  const L_A8 = 2; // (a+1) * 8, the byte length of row a's lower part
+  const L_ROW = 3;
+  const I32_LE_S = 0x4c;
+  const c = new Code();
+  c.get(P_F).set(L_ROW);
+  c.i32(8).set(L_A8);
+  c.op(BLOCK, VOID, LOOP, VOID);
+  {
+    c.get(L_A8).get(P_M8b).op(I32_LE_S, 0x45 /* i32.eqz */, BR_IF, 1);
+    c.get(L_ROW).i32(0).get(L_A8).op(0xfc, 0x0b, 0x00); // memory.fill
+    c.get(L_ROW).get(P_M8b).op(I32_ADD).set(L_ROW);
+    c.get(L_A8).i32(8).op(I32_ADD).set(L_A8);
+    c.op(BR, 0);
+  }
+  c.op(END, END);
+  c.op(END);
+  const body: number[] = [];
+  uleb(1, body);
+  uleb(2, body);
+  body.push(T_I32);
+  body.push(...c.bytes);
+  return body;
+}
+
 function moduleBytes(): Uint8Array {
   const out: number[] = [0x00, 0x61, 0x73, 0x6d, 0x01, 0x00, 0x00, 0x00];
-  // type section: (i32 x 10) -> ()
-  const types: number[] = [1, 0x60, 10];
-  for (let i = 0; i < 10; i++) types.push(T_I32);
-  types.push(0);
+  // type section: 0 = (i32 x 10) -> (), 1 = (i32 x 5) -> (), 2 = (i32 x 2) -> ()
+  const types: number[] = [3];
+  for (const arity of [10, 5, 2]) {
+    types.push(0x60, arity);
+    for (let i = 0; i < arity; i++) types.push(T_I32);
+    types.push(0);
+  }
   section(1, types, out);
   // import section: env.mem, a memory with minimum 1 page
   const imports: number[] = [1];
@@ -256,15 +344,20 @@ function moduleBytes(): Uint8Array {
   name('mem', imports);
   imports.push(0x02, 0x00, 0x01);
   section(2, imports, out);
-  section(3, [1, 0], out); // one function of type 0
-  const exports: number[] = [1];
+  section(3, [3, 0, 1, 2], out); // three functions of types 0, 1, 2
+  const exports: number[] = [3];
   name('rowBlock4', exports);
   exports.push(0x00, 0x00);
+  name('extendAdd', exports);
+  exports.push(0x00, 0x01);
+  name('zeroLower', exports);
+  exports.push(0x00, 0x02);
   section(7, exports, out);
-  const body = rowBlock4Body();
-  const code: number[] = [1];
-  uleb(body.length, code);
-  code.push(...body);
+  const code: number[] = [3];
+  for (const body of [rowBlock4Body(), extendAddBody(), zeroLowerBody()]) {
+    uleb(body.length, code);
+    code.push(...body);
+  }
   section(10, code, out);
   return Uint8Array.from(out);
 }
@@ -296,15 +389,22 @@ interface WasmApi {
 }
 const wasmApi = (globalThis as unknown as { WebAssembly?: WasmApi }).WebAssembly;
 
-/** A WebAssembly memory with the compiled kernel; grows on demand. */
+export type ExtendAdd = (f: number, m8: number, u: number, rel: number, mc: number) => void;
+export type ZeroLower = (f: number, m8: number) => void;
+
+/** A WebAssembly memory with the compiled kernels; grows on demand. */
 export class WasmHeap {
   readonly memory: WasmMemory;
   readonly rowBlock4: RowBlock4;
+  readonly extendAdd: ExtendAdd;
+  readonly zeroLower: ZeroLower;
   private view: Float64Array;
 
-  private constructor(memory: WasmMemory, rowBlock4: RowBlock4) {
+  private constructor(memory: WasmMemory, exports: Record<string, unknown>) {
     this.memory = memory;
-    this.rowBlock4 = rowBlock4;
+    this.rowBlock4 = exports.rowBlock4 as RowBlock4;
+    this.extendAdd = exports.extendAdd as ExtendAdd;
+    this.zeroLower = exports.zeroLower as ZeroLower;
     this.view = new Float64Array(memory.buffer);
   }
 
@@ -315,7 +415,7 @@ export class WasmHeap {
     if (!wasmApi.validate(bytes)) return null;
     const memory = new wasmApi.Memory({ initial: 1 });
     const instance = new wasmApi.Instance(new wasmApi.Module(bytes), { env: { mem: memory } });
-    return new WasmHeap(memory, instance.exports.rowBlock4 as RowBlock4);
+    return new WasmHeap(memory, instance.exports);
   }
 
   /**
