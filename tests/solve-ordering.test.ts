@@ -35,6 +35,33 @@ describe('orderings are valid permutations', () => {
     expectValid(orderAmd(adjacencyGraph(two)), 5);
   });
 
+  it('AMD orders an arrow matrix (one dense row) with no fill: the dense node among the last two', () => {
+    const n = 200;
+    const r: number[] = [];
+    const c: number[] = [];
+    for (let i = 0; i < n; i++) {
+      r.push(i);
+      c.push(i);
+      if (i > 0) {
+        r.push(i);
+        c.push(0); // node 0 is joined to every other node
+      }
+    }
+    const a = assembleSymmetric(n, Int32Array.from(r), Int32Array.from(c), new Float64Array(r.length).fill(1), 'triangle');
+    const o = orderAmd(adjacencyGraph(a));
+    expectValid(o, n);
+    // once a single leaf is left it is indistinguishable from the dense node
+    expect(o.invPerm[0]).toBeGreaterThanOrEqual(n - 2);
+    expect(analyzeCholesky(a, o).nnzL).toBe(2 * n - 1); // no fill at all
+  });
+
+  it('nested dissection refuses non-finite coordinates', () => {
+    const geo = gridGeometry(4, 4);
+    const bad = geo.coords.slice();
+    bad[5] = NaN;
+    expect(() => orderNestedDissectionNodes(geo.adjacency, bad)).toThrow(RangeError);
+  });
+
   it('AMD tolerates self loops and repeated neighbours in its input graph', () => {
     const ptr = Int32Array.from([0, 3, 6, 8]);
     const idx = Int32Array.from([0, 1, 1, 0, 2, 2, 1, 2]);

@@ -125,6 +125,9 @@ export function orderNestedDissectionNodes(
 
   const nodes = new Int32Array(nn);
   for (let i = 0; i < nn; i++) nodes[i] = i;
+  for (let i = 0; i < coords.length; i++) {
+    if (!Number.isFinite(coords[i])) throw new RangeError(`orderNestedDissection: coordinate ${i} is ${coords[i]}`);
+  }
   // longest edge projections, to limit the boundary search to a band
   let maxEdgeDx = 0;
   let maxEdgeDy = 0;
@@ -138,7 +141,6 @@ export function orderNestedDissectionNodes(
       if (dy > maxEdgeDy) maxEdgeDy = dy;
     }
   }
-  if (!Number.isFinite(maxEdgeDx) || !Number.isFinite(maxEdgeDy)) throw new RangeError('orderNestedDissection: coordinates must be finite');
   const stampOf = new Int32Array(nn).fill(-1);
   const side = new Int8Array(nn);
   const tmp = new Int32Array(nn);
