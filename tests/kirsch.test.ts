@@ -16,7 +16,7 @@ import { constitutiveMatrix } from '../src/fem/material.js';
 import { generateMesh } from '../src/mesh/generate.js';
 import { findPeak } from '../src/post/peak.js';
 import { FieldProbe } from '../src/post/probe.js';
-import { averageNodalStress, recoverNodalStress } from '../src/post/recover.js';
+import { averageNodalStress, recoverNodalStress, type KnownTraction } from '../src/post/recover.js';
 import { elementStressAt, sampleElementStresses, StressWorkspace } from '../src/post/stress.js';
 import { solveLinear } from './support/fe.js';
 
@@ -53,11 +53,12 @@ function solveKirsch(order: 1 | 2, sizeFactor = 1) {
   const f = new Float64Array(2 * mesh.nNodes);
   const outer = new Uint8Array(domain.edges.length);
   for (const e of [...selectEdges(domain, { x: L }), ...selectEdges(domain, { y: L })]) outer[e] = 1;
-  addEdgeTraction(mesh, outer, (x, y, nx, ny, out) => {
+  const exactTraction: KnownTraction = (x, y, nx, ny, out) => {
     const [sxx, syy, sxy] = kirsch(x, y);
     out[0] = sxx * nx + sxy * ny;
     out[1] = sxy * nx + syy * ny;
-  }, 1, f);
+  };
+  addEdgeTraction(mesh, outer, exactTraction, 1, f);
   const fixed = new Uint8Array(2 * mesh.nNodes);
   for (let i = 0; i < mesh.nNodes; i++) {
     if (Math.abs(mesh.nodes[2 * i]) < 1e-12) fixed[2 * i] = 1;
@@ -65,9 +66,12 @@ function solveKirsch(order: 1 | 2, sizeFactor = 1) {
   }
   const u = solveLinear(mesh, D, 1, f, fixed, new Float64Array(2 * mesh.nNodes));
   const samples = sampleElementStresses(mesh, D, u);
-  const free = new Uint8Array(domain.edges.length);
-  for (const e of selectEdges(domain, 'hole')) free[e] = 1;
-  const stress = recoverNodalStress(mesh, samples, free);
+  // Known tractions for the recovery: zero on the hole, the exact ones on the loaded edges,
+  // zero shear on the symmetry edges.
+  const known: KnownTraction[] = domain.edges.map(() => 'symmetry');
+  for (const e of selectEdges(domain, 'hole')) known[e] = (_x, _y, _nx, _ny, out) => ((out[0] = 0), (out[1] = 0));
+  for (let e = 0; e < domain.edges.length; e++) if (outer[e]) known[e] = exactTraction;
+  const stress = recoverNodalStress(mesh, samples, known);
   return { domain, mesh, D, u, stress };
 }
 

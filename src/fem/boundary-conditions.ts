@@ -78,6 +78,8 @@ export interface CompiledLoads {
   remote?: { sxx: number; syy: number; sxy: number };
   /** moment loads only: the bending moment applied */
   moment?: number;
+  /** per domain edge: the applied traction field there (the sum of the loads on it), or null when none */
+  edgeTraction: (TractionField | null)[];
 }
 
 export interface CompiledSupports {
@@ -128,6 +130,11 @@ export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports:
   const items: CompiledLoads['items'] = [];
   let remote: CompiledLoads['remote'];
   let moment: number | undefined;
+  const fields: TractionField[][] = domain.edges.map(() => []);
+  const apply = (mask: Uint8Array, q: TractionField) => {
+    addEdgeTraction(mesh, mask, q, t, f);
+    for (let e = 0; e < mask.length; e++) if (mask[e]) fields[e].push(q);
+  };
   model.loads.forEach((load, index) => {
     const path = `loads[${index}]`;
     let edges: number[];
@@ -142,11 +149,11 @@ export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports:
       case 'traction': {
         const tn = load.normal ?? 0;
         const ts = load.shear ?? 0;
-        addEdgeTraction(mesh, mask, (_x, _y, nx, ny, out) => {
+        apply(mask, (_x, _y, nx, ny, out) => {
           // Tangent along the direction of travel (material on the left) is (-ny, nx).
           out[0] = tn * nx - ts * ny;
           out[1] = tn * ny + ts * nx;
-        }, t, f);
+        });
         break;
       }
       case 'force': {
@@ -154,12 +161,12 @@ export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports:
         const len = meshedLength(mesh, mask);
         const qx = (load.fx ?? 0) / (len * t);
         const qy = (load.fy ?? 0) / (len * t);
-        addEdgeTraction(mesh, mask, (_x, _y, _nx, _ny, out) => ((out[0] = qx), (out[1] = qy)), t, f);
+        apply(mask, (_x, _y, _nx, _ny, out) => ((out[0] = qx), (out[1] = qy)));
         break;
       }
       case 'pressure': {
         const p = load.p;
-        addEdgeTraction(mesh, mask, (_x, _y, nx, ny, out) => ((out[0] = -p * nx), (out[1] = -p * ny)), t, f);
+        apply(mask, (_x, _y, nx, ny, out) => ((out[0] = -p * nx), (out[1] = -p * ny)));
         break;
       }
       case 'remote': {
@@ -167,7 +174,7 @@ export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports:
         const syy = load.syy ?? 0;
         const sxy = load.sxy ?? 0;
         remote = remote ? { sxx: remote.sxx + sxx, syy: remote.syy + syy, sxy: remote.sxy + sxy } : { sxx, syy, sxy };
-        addEdgeTraction(mesh, mask, (_x, _y, nx, ny, out) => ((out[0] = sxx * nx + sxy * ny), (out[1] = sxy * nx + syy * ny)), t, f);
+        apply(mask, (_x, _y, nx, ny, out) => ((out[0] = sxx * nx + sxy * ny), (out[1] = sxy * nx + syy * ny)));
         break;
       }
       case 'moment': {
@@ -179,12 +186,12 @@ export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports:
         const k = tx * ny - ty * nx;
         const I = t * I2;
         const M = load.m;
-        addEdgeTraction(mesh, mask, (x, y, _nx, _ny, out) => {
+        apply(mask, (x, y, _nx, _ny, out) => {
           const s = (x - ox) * tx + (y - oy) * ty - sMean;
           const q = (k * M * s) / I;
           out[0] = q * nx;
           out[1] = q * ny;
-        }, t, f);
+        });
         moment = (moment ?? 0) + M;
         break;
       }
@@ -201,7 +208,21 @@ export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports:
   let any = false;
   for (let i = 0; i < f.length; i++) if (f[i] !== 0) any = true;
   if (!any) throw new ModelError('loads', 'no load acts on the model: every load is zero or matched no edge', 'check the load values and the edges they name');
-  return { f, loaded, items, remote, moment };
+  const edgeTraction = fields.map((qs): TractionField | null => {
+    if (qs.length === 0) return null;
+    if (qs.length === 1) return qs[0];
+    return (x, y, nx, ny, out) => {
+      const tmp = [0, 0];
+      out[0] = 0;
+      out[1] = 0;
+      for (const q of qs) {
+        q(x, y, nx, ny, tmp);
+        out[0] += tmp[0];
+        out[1] += tmp[1];
+      }
+    };
+  });
+  return { f, loaded, items, remote, moment, edgeTraction };
 }
 
 /** The line that straight, collinear edges lie on, with the second moment of their length about its centroid. */

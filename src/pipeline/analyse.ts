@@ -17,7 +17,7 @@ import { nearestBoundaryPoint } from '../geometry/project.js';
 import type { Model, StressMeasure } from '../model/schema.js';
 import { resolveUnits, type ResolvedUnits } from '../model/units.js';
 import { findPeak, outOfPlaneFactor, type Peak } from '../post/peak.js';
-import { recoverNodalStress } from '../post/recover.js';
+import { recoverNodalStress, type KnownTraction } from '../post/recover.js';
 import { findSections, sectionAlong, type Cut } from '../post/section.js';
 import { sampleElementStresses } from '../post/stress.js';
 import { SolverPivotError, solveSpd, type SolveStats } from '../solve/index.js';
@@ -138,9 +138,10 @@ export function analyseModel(model: Model, opts: AnalyseOptions = {}): Analysis 
   const equilibriumError = Math.hypot(applied.fx + reaction.fx, applied.fy + reaction.fy) / (fAbs || 1);
 
   const samples = sampleElementStresses(mesh, D, u);
-  const free = new Uint8Array(domain.edges.length);
-  for (let e = 0; e < domain.edges.length; e++) free[e] = loads.loaded[e] || supports.supported[e] ? 0 : 1;
-  const stress = recoverNodalStress(mesh, samples, free);
+  // Known tractions: the applied ones, zero on free edges, unknown where a support acts.
+  const zero: KnownTraction = (_x, _y, _nx, _ny, out) => ((out[0] = 0), (out[1] = 0));
+  const known = domain.edges.map((_e, i): KnownTraction => (supports.symmetry[i] ? 'symmetry' : supports.supported[i] ? null : (loads.edgeTraction[i] ?? zero)));
+  const stress = recoverNodalStress(mesh, samples, known);
   for (let i = 0; i < stress.length; i++) {
     if (!Number.isFinite(stress[i])) throw new AnalysisError('the recovered stresses are not finite', 'check the model for extreme dimensions');
   }

@@ -12,9 +12,11 @@
  * point. On the Kirsch plate with the default quadratic mesh this keeps the hoop stress along the
  * hole within about 1% and the ligament stress within 0.3% (tests/kirsch.test.ts).
  *
- * At nodes on a traction-free edge the exact stress is uniaxial along the edge (sigma . n = 0),
- * so the recovered tensor there is replaced by its tangential part s_tt t (x) t; this follows
- * the boundary-condition enhancement of SPR described by T. Blacker & T. Belytschko,
+ * Where the traction on the boundary is known (zero on a free edge, the applied traction on a
+ * loaded one), sigma . n must equal it, so at those nodes the normal and shear components of the
+ * recovered tensor are set from it and only the tangential component s_tt comes from the fit; on
+ * a free edge the stress becomes uniaxial along the edge. This follows the boundary-condition
+ * enhancement of SPR described by T. Blacker & T. Belytschko,
  * "Superconvergent patch recovery with equilibrium and conjoint interpolant enhancements",
  * IJNME 37 (1994) 517-536.
  */
@@ -47,10 +49,18 @@ export function boundaryNodes(mesh: Mesh): Uint8Array {
 }
 
 /**
- * SPR nodal stresses. `tractionFree` marks the domain edges that carry neither load nor
- * support; pass null to skip the boundary projection.
+ * What is known of sigma . n on a domain edge: a traction field q(x, y, nx, ny, out) writing
+ * sigma . n (zero on a free edge); 'symmetry' for a mirror plane, where only the shear traction
+ * is known (zero); null where nothing is known (a held edge, whose reaction is unknown).
  */
-export function recoverNodalStress(mesh: Mesh, samples: ElementSamples, tractionFree: Uint8Array | null): Float64Array {
+export type KnownTraction = ((x: number, y: number, nx: number, ny: number, out: number[]) => void) | 'symmetry' | null;
+
+/**
+ * SPR nodal stresses. `tractions` gives, per domain edge, the traction known there; at nodes
+ * whose boundary edges all have one, the normal and shear components of the recovered stress
+ * are set to it and only the tangential component is kept from the fit. Pass null to skip it.
+ */
+export function recoverNodalStress(mesh: Mesh, samples: ElementSamples, tractions: readonly KnownTraction[] | null): Float64Array {
   const per = mesh.order === 2 ? 6 : 3;
   const terms = mesh.order === 2 ? 6 : 3;
   const nv = mesh.nVertices;
@@ -186,7 +196,7 @@ export function recoverNodalStress(mesh: Mesh, samples: ElementSamples, traction
       }
     }
   }
-  if (tractionFree) projectFreeBoundary(mesh, out, tractionFree);
+  if (tractions) projectKnownTractions(mesh, out, tractions);
   return out;
 }
 
@@ -283,31 +293,119 @@ export function boundaryTangents(mesh: Mesh): Float64Array {
   return tan;
 }
 
-/** Replaces the stress at nodes on traction-free edges by its tangential part. */
-function projectFreeBoundary(mesh: Mesh, out: Float64Array, tractionFree: Uint8Array): void {
-  const tan = boundaryTangents(mesh);
-  // A node is projected only if every boundary edge touching it is traction-free.
-  const ok = new Int8Array(mesh.nNodes);
-  for (let s = 0; s < mesh.nBEdges; s++) {
-    const free = tractionFree[mesh.bEdgeDomain[s]] === 1;
-    for (let k = 0; k < 3; k++) {
-      const node = mesh.bEdges[3 * s + k];
-      if (node < 0) continue;
-      if (!free) ok[node] = -1;
-      else if (ok[node] === 0) ok[node] = 1;
+/**
+ * Boundary conditions on the recovered stress. Each boundary edge at a node adds linear
+ * constraints on (sxx, syy, sxy) there: a known traction t gives sigma . n = t (two), a mirror
+ * plane n . sigma . tau = 0 (one). The recovered tensor is moved to the nearest tensor (in the
+ * Frobenius norm) that meets them: on a free edge it becomes uniaxial along the edge, at a free
+ * convex corner zero. Nodes at re-entrant corners are left alone: the exact stress is singular
+ * there and no finite value meets the conditions.
+ */
+function projectKnownTractions(mesh: Mesh, out: Float64Array, tractions: readonly KnownTraction[]): void {
+  const n = mesh.nodes;
+  // Up to 8 constraint rows per node: [a, b, c, d] meaning a sxx + b syy + c sxy = d.
+  const rows = new Float64Array(mesh.nNodes * 8 * 4);
+  const count = new Uint8Array(mesh.nNodes);
+  const skip = new Uint8Array(mesh.nNodes);
+  const inTan = new Float64Array(2 * mesh.nNodes).fill(NaN);
+  const outTan = new Float64Array(2 * mesh.nNodes).fill(NaN);
+  const q = [0, 0];
+  const add = (node: number, a: number, b: number, c: number, d: number) => {
+    if (count[node] >= 8) return;
+    const o = (node * 8 + count[node]++) * 4;
+    rows[o] = a;
+    rows[o + 1] = b;
+    rows[o + 2] = c;
+    rows[o + 3] = d;
+  };
+  for (let e = 0; e < mesh.nBEdges; e++) {
+    const kind = tractions[mesh.bEdgeDomain[e]];
+    const a = mesh.bEdges[3 * e];
+    const b = mesh.bEdges[3 * e + 1];
+    const m = mesh.bEdges[3 * e + 2];
+    const at: [number, number, number][] = [];
+    if (m >= 0) {
+      at.push([a, -3 * n[2 * a] + 4 * n[2 * m] - n[2 * b], -3 * n[2 * a + 1] + 4 * n[2 * m + 1] - n[2 * b + 1]]);
+      at.push([m, n[2 * b] - n[2 * a], n[2 * b + 1] - n[2 * a + 1]]);
+      at.push([b, n[2 * a] - 4 * n[2 * m] + 3 * n[2 * b], n[2 * a + 1] - 4 * n[2 * m + 1] + 3 * n[2 * b + 1]]);
+    } else {
+      at.push([a, n[2 * b] - n[2 * a], n[2 * b + 1] - n[2 * a + 1]]);
+      at.push([b, n[2 * b] - n[2 * a], n[2 * b + 1] - n[2 * a + 1]]);
+    }
+    for (let k = 0; k < at.length; k++) {
+      const [node, dx, dy] = at[k];
+      const l = Math.hypot(dx, dy);
+      const tx = dx / l;
+      const ty = dy / l;
+      if (k === 0) {
+        outTan[2 * node] = tx;
+        outTan[2 * node + 1] = ty;
+      } else if (k === at.length - 1) {
+        inTan[2 * node] = tx;
+        inTan[2 * node + 1] = ty;
+      }
+      if (kind === null) continue;
+      const nx = ty;
+      const ny = -tx;
+      if (kind === 'symmetry') {
+        add(node, nx * tx, ny * ty, nx * ty + ny * tx, 0);
+        continue;
+      }
+      kind(n[2 * node], n[2 * node + 1], nx, ny, q);
+      add(node, nx, 0, ny, q[0]);
+      add(node, 0, ny, nx, q[1]);
     }
   }
+  // Re-entrant corners: the boundary turns right (material on the left) by more than 5 degrees.
   for (let i = 0; i < mesh.nNodes; i++) {
-    if (ok[i] !== 1 || Number.isNaN(tan[2 * i])) continue;
-    const tx = tan[2 * i];
-    const ty = tan[2 * i + 1];
-    const sxx = out[3 * i];
-    const syy = out[3 * i + 1];
-    const sxy = out[3 * i + 2];
-    const stt = tx * tx * sxx + ty * ty * syy + 2 * tx * ty * sxy;
-    out[3 * i] = stt * tx * tx;
-    out[3 * i + 1] = stt * ty * ty;
-    out[3 * i + 2] = stt * tx * ty;
+    if (Number.isNaN(inTan[2 * i]) || Number.isNaN(outTan[2 * i])) continue;
+    const cross = inTan[2 * i] * outTan[2 * i + 1] - inTan[2 * i + 1] * outTan[2 * i];
+    if (cross < -Math.sin((5 * Math.PI) / 180)) skip[i] = 1;
+  }
+  // Project in the scaled variables (sxx, syy, sqrt(2) sxy), where the Frobenius norm is Euclidean.
+  const R2 = Math.SQRT2;
+  const basis = new Float64Array(12);
+  for (let i = 0; i < mesh.nNodes; i++) {
+    if (count[i] === 0 || skip[i]) continue;
+    const v = [out[3 * i], out[3 * i + 1], R2 * out[3 * i + 2]];
+    let nb = 0;
+    for (let r = 0; r < count[i]; r++) {
+      const o = (i * 8 + r) * 4;
+      // Row in scaled variables: c sxy = (c / sqrt 2) (sqrt 2 sxy).
+      let w0 = rows[o];
+      let w1 = rows[o + 1];
+      let w2 = rows[o + 2] / R2;
+      let d = rows[o + 3];
+      const norm0 = Math.hypot(w0, w1, w2);
+      if (norm0 === 0) continue;
+      // Gram-Schmidt against the rows kept so far (modified, with the right-hand side carried).
+      for (let k = 0; k < nb; k++) {
+        const dot = w0 * basis[4 * k] + w1 * basis[4 * k + 1] + w2 * basis[4 * k + 2];
+        w0 -= dot * basis[4 * k];
+        w1 -= dot * basis[4 * k + 1];
+        w2 -= dot * basis[4 * k + 2];
+        d -= dot * basis[4 * k + 3];
+      }
+      const norm = Math.hypot(w0, w1, w2);
+      // Rows from edges whose normals differ by less than about 3 degrees count as the same
+      // condition: the isoparametric tangents at a smooth junction differ by round-off and by
+      // the chord approximation, and a nearly dependent row would impose a spurious condition.
+      if (norm <= 0.05 * norm0 || nb === 3) continue;
+      basis[4 * nb] = w0 / norm;
+      basis[4 * nb + 1] = w1 / norm;
+      basis[4 * nb + 2] = w2 / norm;
+      basis[4 * nb + 3] = d / norm;
+      nb++;
+    }
+    for (let k = 0; k < nb; k++) {
+      const r = v[0] * basis[4 * k] + v[1] * basis[4 * k + 1] + v[2] * basis[4 * k + 2] - basis[4 * k + 3];
+      v[0] -= r * basis[4 * k];
+      v[1] -= r * basis[4 * k + 1];
+      v[2] -= r * basis[4 * k + 2];
+    }
+    out[3 * i] = v[0];
+    out[3 * i + 1] = v[1];
+    out[3 * i + 2] = v[2] / R2;
   }
 }
 

@@ -34,7 +34,7 @@ export function transformModel(model: Model, t: Similarity): Model {
     if (l.shape !== 'circle' && l.shape !== 'path') l.angle = angle(l.angle ?? 0);
     if (l.path) {
       l.path = l.path.map((v: any) => {
-        if (Array.isArray(v)) return point(v);
+        if (Array.isArray(v)) return point(v as [number, number]);
         const o = { ...v, at: point(v.at) };
         if (typeof o.round === 'number') o.round *= s;
         if (o.arc) {
