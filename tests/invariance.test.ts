@@ -2,9 +2,12 @@
  * Invariances of Kt (dimensionless, so independent of size, units, orientation and, for a
  * plane-stress plate loaded by tractions with traction-free holes, of the elastic constants:
  * J. H. Michell, Proc. London Math. Soc. 31 (1899) 100-124 [M], REFERENCES.md "General facts").
- * A change of size or of E leaves the discrete problem the same up to scaling, so Kt agrees to
- * round-off; mirror images and quarter turns give a different (but equally good) mesh, so they
- * agree within the mesh's own scatter (1%); nu changes the discrete solution slightly (0.5%).
+ * A change of E leaves the discrete problem the same, so Kt agrees to round-off. A change of size
+ * does too, except that boundary points on a circle are exactly cocircular, so some Delaunay
+ * tie-breaks depend on the last bit of the scaled coordinates and a few elements may differ:
+ * Kt then agrees to 1e-4. Mirror images and quarter turns give a different (but equally good)
+ * mesh, so they agree within the mesh's own scatter (1%); nu changes the discrete solution
+ * slightly (0.5%).
  */
 import { describe, expect, it } from 'vitest';
 import { expandTemplate } from '../src/model/templates.js';
@@ -16,10 +19,10 @@ const ref = analyseModel(base);
 
 describe('Kt invariance (plate with a hole, d/W = 0.3)', () => {
   for (const scale of [1e-6, 1e6]) {
-    it(`the model scaled by ${scale} gives the same Kt to 1e-6`, () => {
+    it(`the model scaled by ${scale} gives the same Kt to 1e-4`, () => {
       const a = analyseModel(transformModel(base, { scale }));
-      expect(Math.abs(a.kt.net / ref.kt.net - 1)).toBeLessThan(1e-6);
-      expect(Math.abs(a.kt.gross / ref.kt.gross - 1)).toBeLessThan(1e-6);
+      expect(Math.abs(a.kt.net / ref.kt.net - 1)).toBeLessThan(1e-4);
+      expect(Math.abs(a.kt.gross / ref.kt.gross - 1)).toBeLessThan(1e-4);
     });
   }
 
@@ -61,7 +64,7 @@ describe('Kt invariance (plate with a hole, d/W = 0.3)', () => {
     for (const l of m.loads) if (l.type === 'traction' && l.normal) l.normal *= 1e6;
     const a = analyseModel(m);
     expect(a.units.stress).toBe('Pa');
-    expect(Math.abs(a.kt.net / ref.kt.net - 1)).toBeLessThan(1e-6);
-    expect(Math.abs(a.peak.stress / (ref.peak.stress * 1e6) - 1)).toBeLessThan(1e-6);
+    expect(Math.abs(a.kt.net / ref.kt.net - 1)).toBeLessThan(1e-4);
+    expect(Math.abs(a.peak.stress / (ref.peak.stress * 1e6) - 1)).toBeLessThan(1e-4);
   });
 });

@@ -15,6 +15,7 @@ import { buildDomain } from '../src/geometry/domain.js';
 import { curvatureRadius, evaluateCurve } from '../src/geometry/curve.js';
 import { checkMesh } from '../src/mesh/check.js';
 import { generateMesh } from '../src/mesh/generate.js';
+import { buildSizeField } from '../src/mesh/sizefield.js';
 import type { Geometry } from '../src/model/schema.js';
 
 const SHAPES: Record<string, Geometry> = {
@@ -105,6 +106,19 @@ describe('generateMesh', () => {
     const target = (2 * Math.PI * curvatureRadius(domain.edges[hole].curve, 0)) / 48;
     expect(sum / n).toBeGreaterThan(0.8 * target);
     expect(sum / n).toBeLessThan(1.2 * target);
+  });
+
+  it('the size field grid gives exactly the minimum over all sources', () => {
+    const domain = buildDomain(SHAPES['bracket with fillets, slot, ellipse and rounded rectangle']);
+    const size = buildSizeField(domain, { order: 2 });
+    expect(size.count).toBeGreaterThan(8);
+    let seed = 7;
+    const rnd = () => ((seed = (seed * 16807) % 2147483647) / 2147483647);
+    for (let k = 0; k < 5000; k++) {
+      const x = -10 + 140 * rnd();
+      const y = -10 + 100 * rnd();
+      expect(size.at(x, y)).toBe(size.atExhaustive(x, y));
+    }
   });
 
   it('the mesh checker rejects a flipped element and a missing element', () => {

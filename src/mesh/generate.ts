@@ -34,23 +34,7 @@ export function generateMesh(domain: Domain, opts: MeshOptions): MeshResult {
   checkBoundary(domain, boundary);
   const t1 = performance.now();
 
-  const nb = boundary.xy.length / 2;
-  const ns = boundary.segments.length / 2;
-  const tm = new TriMesh(Math.max(1024, 4 * nb), Math.max(2048, 8 * nb), Math.max(1024, 2 * ns));
-  // Box corners, well outside the part so every boundary point lies strictly inside.
-  const [x0, y0, x1, y1] = domain.bbox;
-  const pad = 0.1 * domain.scale;
-  tm.addVertex(x0 - pad, y0 - pad, 2, -1, 0, -1);
-  tm.addVertex(x1 + pad, y0 - pad, 2, -1, 0, -1);
-  tm.addVertex(x1 + pad, y1 + pad, 2, -1, 0, -1);
-  tm.addVertex(x0 - pad, y1 + pad, 2, -1, 0, -1);
-  for (let i = 0; i < nb; i++) {
-    tm.addVertex(boundary.xy[2 * i], boundary.xy[2 * i + 1], 1, boundary.edge[i], boundary.param[i], boundary.corner[i]);
-  }
-  for (let s = 0; s < ns; s++) {
-    tm.addSegment(4 + boundary.segments[2 * s], 4 + boundary.segments[2 * s + 1], boundary.segEdge[s], boundary.segT0[s], boundary.segT1[s]);
-  }
-  tm.triangulateInitial();
+  const tm = triangulateBoundary(domain, boundary);
   const t2 = performance.now();
 
   const refineStats = refineMesh(tm, domain, {
@@ -77,6 +61,129 @@ export function generateMesh(domain: Domain, opts: MeshOptions): MeshResult {
       refine: refineStats,
     },
   };
+}
+
+/** Fewer boundary points go to cdt2d: one in this many along an edge (its in-circle test is exact and slow). */
+const COARSE_STRIDE = 8;
+
+/**
+ * The initial constrained triangulation of the boundary, in the box. cdt2d triangulates a
+ * coarse subset of the boundary points (junctions, and a few points per edge, enough that no
+ * chord turns more than 45 degrees); the other points are then inserted by splitting the
+ * segments in place, which is cheap. When the coarse polygon would come too close to another
+ * part of the boundary, or an insertion cannot be made, all points go to cdt2d instead.
+ */
+function triangulateBoundary(domain: Domain, b: BoundaryPoints): TriMesh {
+  const nb = b.xy.length / 2;
+  const ns = b.segments.length / 2;
+  // Choose the coarse points: per domain edge, an even subset of its run of segments.
+  const keep = new Uint8Array(nb);
+  for (let s = 0; s < ns; ) {
+    const edge = b.segEdge[s];
+    let e = s;
+    while (e < ns && b.segEdge[e] === edge) e++;
+    const n = e - s;
+    const c = domain.edges[edge].curve;
+    const minPieces = c.kind === 'line' ? 1 : Math.ceil(Math.abs(c.sweep) / (Math.PI / 4));
+    const pieces = Math.min(n, Math.max(minPieces, Math.ceil(n / COARSE_STRIDE), c.kind === 'line' ? 1 : 3));
+    for (let k = 0; k <= pieces; k++) {
+      const j = s + Math.round((k * n) / pieces);
+      keep[j < e ? b.segments[2 * j] : b.segments[2 * (e - 1) + 1]] = 1;
+    }
+    s = e;
+  }
+  for (let i = 0; i < nb; i++) if (b.edge[i] < 0) keep[i] = 1;
+  // Coarse segments and the fine points each one stands for.
+  const coarseSegs: number[] = [];
+  const runs: number[][] = [];
+  for (let s = 0; s < ns; ) {
+    const a = b.segments[2 * s];
+    const inner: number[] = [];
+    let e = s;
+    while (!keep[b.segments[2 * e + 1]]) {
+      inner.push(b.segments[2 * e + 1]);
+      e++;
+    }
+    coarseSegs.push(a, b.segments[2 * e + 1], s, e);
+    runs.push(inner);
+    s = e + 1;
+  }
+  const nc = coarseSegs.length / 4;
+  // The coarse polygon must stay clear of the rest of the boundary by the distance its chords
+  // stray from the fine points they stand for.
+  const cxy: number[] = [];
+  const index = new Int32Array(nb).fill(-1);
+  for (let i = 0; i < nb; i++) if (keep[i]) {
+    index[i] = cxy.length / 2;
+    cxy.push(b.xy[2 * i], b.xy[2 * i + 1]);
+  }
+  const csegs = new Int32Array(2 * nc);
+  const cloop = new Int32Array(nc);
+  const slack = new Float64Array(nc);
+  for (let k = 0; k < nc; k++) {
+    const a = coarseSegs[4 * k];
+    const z = coarseSegs[4 * k + 1];
+    csegs[2 * k] = index[a];
+    csegs[2 * k + 1] = index[z];
+    cloop[k] = domain.edges[b.segEdge[coarseSegs[4 * k + 2]]].loop;
+    const ax = b.xy[2 * a];
+    const ay = b.xy[2 * a + 1];
+    const len = Math.hypot(b.xy[2 * z] - ax, b.xy[2 * z + 1] - ay);
+    for (const p of runs[k]) {
+      const d = Math.abs((b.xy[2 * z] - ax) * (b.xy[2 * p + 1] - ay) - (b.xy[2 * z + 1] - ay) * (b.xy[2 * p] - ax)) / len;
+      slack[k] = Math.max(slack[k], d);
+    }
+  }
+  const clear = findContacts({ xy: Float64Array.from(cxy), segs: csegs, segLoop: cloop, segSlack: slack }, 1e-9 * domain.scale, 1).length === 0;
+  if (clear) {
+    const tm = boxTriangulation(domain, b, keep, coarseSegs);
+    let ok = true;
+    const p = [0, 0];
+    for (let k = 0; k < nc && ok; k++) {
+      let seg = k; // coarse segment k was added as segment k
+      for (const q of runs[k]) {
+        const t = b.param[q];
+        p[0] = b.xy[2 * q];
+        p[1] = b.xy[2 * q + 1];
+        // Segment seg ends at the coarse end point; its first half keeps the index.
+        if (!tm.splitSegmentAt(seg, p[0], p[1], t)) {
+          ok = false;
+          break;
+        }
+        seg = tm.ns - 1;
+      }
+    }
+    if (ok) return tm;
+  }
+  const all = new Uint8Array(nb).fill(1);
+  const fine: number[] = [];
+  for (let s = 0; s < ns; s++) fine.push(b.segments[2 * s], b.segments[2 * s + 1], s, s);
+  return boxTriangulation(domain, b, all, fine);
+}
+
+/** A TriMesh of the box corners and the kept boundary points, triangulated by cdt2d. */
+function boxTriangulation(domain: Domain, b: BoundaryPoints, keep: Uint8Array, segs: number[]): TriMesh {
+  const nb = b.xy.length / 2;
+  const tm = new TriMesh(Math.max(1024, 4 * nb), Math.max(2048, 8 * nb), Math.max(1024, 2 * nb));
+  // Box corners, well outside the part so every boundary point lies strictly inside.
+  const [x0, y0, x1, y1] = domain.bbox;
+  const pad = 0.1 * domain.scale;
+  tm.addVertex(x0 - pad, y0 - pad, 2, -1, 0, -1);
+  tm.addVertex(x1 + pad, y0 - pad, 2, -1, 0, -1);
+  tm.addVertex(x1 + pad, y1 + pad, 2, -1, 0, -1);
+  tm.addVertex(x0 - pad, y1 + pad, 2, -1, 0, -1);
+  const index = new Int32Array(nb).fill(-1);
+  for (let i = 0; i < nb; i++) {
+    if (!keep[i]) continue;
+    index[i] = tm.addVertex(b.xy[2 * i], b.xy[2 * i + 1], 1, b.edge[i], b.param[i], b.corner[i]);
+  }
+  for (let k = 0; k < segs.length / 4; k++) {
+    const first = segs[4 * k + 2];
+    const last = segs[4 * k + 3];
+    tm.addSegment(index[segs[4 * k]], index[segs[4 * k + 1]], b.segEdge[first], b.segT0[first], b.segT1[last]);
+  }
+  tm.triangulateInitial();
+  return tm;
 }
 
 /** The boundary polygon must be clean before it goes to cdt2d, which would fail silently. */

@@ -167,20 +167,14 @@ export function refineMesh(m: TriMesh, domain: Domain, opts: RefineOptions): Ref
     }
     const t = t0 + f * (t1 - t0);
     evaluateCurve(edge.curve, t, p);
-    m.segmentSides(s, sides);
-    let ok = m.findCavity(p[0], p[1], sides[0], sides[2], s);
-    if (!ok) {
+    if (!m.splitSegmentAt(s, p[0], p[1], t)) {
       // Fall back to the chord point, which always lies inside the two triangles of the segment.
-      p[0] = m.px[a] + f * (m.px[b] - m.px[a]);
-      p[1] = m.py[a] + f * (m.py[b] - m.py[a]);
-      ok = m.findCavity(p[0], p[1], sides[0], sides[2], s);
-      if (!ok) {
+      if (!m.splitSegmentAt(s, m.px[a] + f * (m.px[b] - m.px[a]), m.py[a] + f * (m.py[b] - m.py[a]), t)) {
         stats.rejected++;
         return false;
       }
       stats.chordSplits++;
     }
-    m.commitCavity(p[0], p[1], 1, edge.id, t, s);
     stats.segmentSplits++;
     segQ.push(s, m.ns - 1);
     afterInsert();

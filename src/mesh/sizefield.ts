@@ -48,71 +48,143 @@ export class SizeField {
   readonly hGlobal: number;
   readonly hMin: number;
   readonly grading: number;
-  /** per source: kind, h, then geometry (arc: cx, cy, r, a0, sweep; point: x, y; segment: x0, y0, x1, y1, h1) */
+  /**
+   * per source, STRIDE numbers: kind, smallest h, then the geometry
+   * (arc: cx, cy, r, a0, sweep; point: x, y; segment: x0, y0, x1, y1, h0, h1)
+   */
   private readonly data: Float64Array;
+  /** per source: how fast its value can change with position (its Lipschitz constant) */
+  private readonly slope: Float64Array;
   readonly count: number;
   readonly sources: SizeSource[];
+  // Candidate lists on a uniform grid: only sources that can be the least in a cell are kept.
+  private gx0 = 0;
+  private gy0 = 0;
+  private cell = 1;
+  private nx = 0;
+  private ny = 0;
+  private cellStart = new Int32Array(1);
+  private cellList = new Int32Array(0);
 
-  constructor(hGlobal: number, grading: number, sources: { meta: SizeSource; geom: number[] }[]) {
+  constructor(hGlobal: number, grading: number, sources: { meta: SizeSource; geom: number[] }[], bbox?: readonly [number, number, number, number]) {
     this.hGlobal = hGlobal;
     this.grading = grading;
     this.count = sources.length;
     this.sources = sources.map((s) => s.meta);
     this.data = new Float64Array(STRIDE * sources.length);
+    this.slope = new Float64Array(sources.length);
     let hMin = hGlobal;
     sources.forEach((s, i) => {
       this.data.set(s.geom, STRIDE * i);
       hMin = Math.min(hMin, s.meta.h);
+      let k = grading;
+      if (s.geom[0] === SEGMENT) {
+        const len = Math.hypot(s.geom[4] - s.geom[2], s.geom[5] - s.geom[3]);
+        if (len > 0) k += Math.abs(s.geom[7] - s.geom[6]) / len;
+      }
+      this.slope[i] = k;
     });
     this.hMin = hMin;
+    if (bbox && sources.length > 8) this.buildGrid(bbox);
+  }
+
+  /** The value h_s + g dist of source i at (x, y). */
+  private value(i: number, x: number, y: number): number {
+    const d = this.data;
+    const o = STRIDE * i;
+    const kind = d[o];
+    const g = this.grading;
+    if (kind === ARC) {
+      const cx = d[o + 2];
+      const cy = d[o + 3];
+      const r = d[o + 4];
+      const a0 = d[o + 5];
+      const sweep = d[o + 6];
+      const dx = x - cx;
+      const dy = y - cy;
+      const rho = Math.hypot(dx, dy);
+      // Is the direction of (x, y) within the arc's angular range?
+      let rel = Math.atan2(dy, dx) - a0;
+      if (sweep < 0) rel = -rel;
+      rel = rel - 2 * Math.PI * Math.floor(rel / (2 * Math.PI));
+      const dist = rel <= Math.abs(sweep) ? Math.abs(rho - r) : endDistance(x, y, cx, cy, r, a0, sweep);
+      return d[o + 1] + g * dist;
+    }
+    if (kind === POINT) return d[o + 1] + g * Math.hypot(x - d[o + 2], y - d[o + 3]);
+    const x0 = d[o + 2];
+    const y0 = d[o + 3];
+    const ex = d[o + 4] - x0;
+    const ey = d[o + 5] - y0;
+    const l2 = ex * ex + ey * ey;
+    let t = l2 > 0 ? ((x - x0) * ex + (y - y0) * ey) / l2 : 0;
+    t = t < 0 ? 0 : t > 1 ? 1 : t;
+    return d[o + 6] + (d[o + 7] - d[o + 6]) * t + g * Math.hypot(x - x0 - t * ex, y - y0 - t * ey);
+  }
+
+  /**
+   * For each cell of a grid over the part, the sources that can give the least value somewhere
+   * in it: v_s(x) lies within slope_s * (half diagonal) of v_s(centre), so a source whose lower
+   * bound exceeds the least upper bound (or the global size) is never the minimum there.
+   */
+  private buildGrid(bbox: readonly [number, number, number, number]): void {
+    const [x0, y0, x1, y1] = bbox;
+    const span = Math.max(x1 - x0, y1 - y0) || 1;
+    // About 4e6 source evaluations at most to build it.
+    const n = Math.max(8, Math.min(256, Math.round(Math.sqrt(4e6 / this.count))));
+    this.cell = span / n;
+    this.gx0 = x0 - this.cell;
+    this.gy0 = y0 - this.cell;
+    this.nx = Math.ceil((x1 - x0) / this.cell) + 3;
+    this.ny = Math.ceil((y1 - y0) / this.cell) + 3;
+    const half = (this.cell * Math.SQRT2) / 2;
+    const start = new Int32Array(this.nx * this.ny + 1);
+    const list: number[] = [];
+    const v = new Float64Array(this.count);
+    for (let j = 0; j < this.ny; j++) {
+      for (let i = 0; i < this.nx; i++) {
+        const cx = this.gx0 + (i + 0.5) * this.cell;
+        const cy = this.gy0 + (j + 0.5) * this.cell;
+        let upper = this.hGlobal;
+        for (let s = 0; s < this.count; s++) {
+          v[s] = this.value(s, cx, cy);
+          upper = Math.min(upper, v[s] + this.slope[s] * half);
+        }
+        for (let s = 0; s < this.count; s++) if (v[s] - this.slope[s] * half < upper) list.push(s);
+        start[j * this.nx + i + 1] = list.length;
+      }
+    }
+    this.cellStart = start;
+    this.cellList = Int32Array.from(list);
+  }
+
+  /** Target edge length at (x, y), by every source (the reference for the grid lookup). */
+  atExhaustive(x: number, y: number): number {
+    let h = this.hGlobal;
+    for (let s = 0; s < this.count; s++) h = Math.min(h, this.value(s, x, y));
+    return h;
   }
 
   /** Target edge length at (x, y). */
   at(x: number, y: number): number {
-    const d = this.data;
-    const g = this.grading;
     let h = this.hGlobal;
-    for (let i = 0; i < this.count; i++) {
-      const o = STRIDE * i;
-      const kind = d[o];
-      const hs = d[o + 1];
-      if (hs >= h) continue;
-      let dist: number;
-      let hLocal = hs;
-      if (kind === ARC) {
-        const cx = d[o + 2];
-        const cy = d[o + 3];
-        const r = d[o + 4];
-        const a0 = d[o + 5];
-        const sweep = d[o + 6];
-        const dx = x - cx;
-        const dy = y - cy;
-        const rho = Math.hypot(dx, dy);
-        // Is the direction of (x, y) within the arc's angular range?
-        let rel = Math.atan2(dy, dx) - a0;
-        if (sweep >= 0) {
-          rel = rel - 2 * Math.PI * Math.floor(rel / (2 * Math.PI));
-          dist = rel <= sweep ? Math.abs(rho - r) : endDistance(x, y, cx, cy, r, a0, sweep);
-        } else {
-          rel = -rel;
-          rel = rel - 2 * Math.PI * Math.floor(rel / (2 * Math.PI));
-          dist = rel <= -sweep ? Math.abs(rho - r) : endDistance(x, y, cx, cy, r, a0, sweep);
+    if (this.nx > 0) {
+      const i = Math.floor((x - this.gx0) / this.cell);
+      const j = Math.floor((y - this.gy0) / this.cell);
+      if (i >= 0 && j >= 0 && i < this.nx && j < this.ny) {
+        const c = j * this.nx + i;
+        for (let p = this.cellStart[c]; p < this.cellStart[c + 1]; p++) {
+          const s = this.cellList[p];
+          if (this.data[STRIDE * s + 1] >= h) continue;
+          const val = this.value(s, x, y);
+          if (val < h) h = val;
         }
-      } else if (kind === POINT) {
-        dist = Math.hypot(x - d[o + 2], y - d[o + 3]);
-      } else {
-        const x0 = d[o + 2];
-        const y0 = d[o + 3];
-        const ex = d[o + 4] - x0;
-        const ey = d[o + 5] - y0;
-        const l2 = ex * ex + ey * ey;
-        let t = l2 > 0 ? ((x - x0) * ex + (y - y0) * ey) / l2 : 0;
-        t = t < 0 ? 0 : t > 1 ? 1 : t;
-        dist = Math.hypot(x - x0 - t * ex, y - y0 - t * ey);
-        hLocal = hs + (d[o + 6] - hs) * t;
+        return h;
       }
-      const v = hLocal + g * dist;
-      if (v < h) h = v;
+    }
+    for (let s = 0; s < this.count; s++) {
+      if (this.data[STRIDE * s + 1] >= h) continue;
+      const val = this.value(s, x, y);
+      if (val < h) h = val;
     }
     return h;
   }
@@ -162,7 +234,7 @@ export function buildSizeField(domain: Domain, opts: SizeOptions): SizeField {
         const ha = sizeOnCurve(curvatureRadius(c, ta), concave, perCircle, raiserSize);
         const hb = sizeOnCurve(curvatureRadius(c, tb), concave, perCircle, raiserSize);
         if (Math.min(ha, hb) >= hGlobal) continue;
-        sources.push({ meta: { kind: 'segment', edge: e.id, h: Math.min(ha, hb) }, geom: [SEGMENT, ha, p[0], p[1], q[0], q[1], hb] });
+        sources.push({ meta: { kind: 'segment', edge: e.id, h: Math.min(ha, hb) }, geom: [SEGMENT, Math.min(ha, hb), p[0], p[1], q[0], q[1], ha, hb] });
       }
     }
   }
@@ -174,7 +246,7 @@ export function buildSizeField(domain: Domain, opts: SizeOptions): SizeField {
     sources.push({ meta: { kind: 'point', edge: -1, h }, geom: [POINT, h, corner.x, corner.y] });
   }
   addLigamentSources(domain, hGlobal, ELEMENTS_ACROSS[opts.order] / k, sources);
-  return new SizeField(hGlobal, grading, sources);
+  return new SizeField(hGlobal, grading, sources, domain.bbox);
 }
 
 /** Elements across a narrow ligament or strip, by element order (common practice). */

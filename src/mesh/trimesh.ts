@@ -475,6 +475,20 @@ export class TriMesh {
     this.segTri[s] = t1;
   }
 
+  private sidesScratch = new Int32Array(4);
+
+  /**
+   * Splits boundary segment s at (x, y), curve parameter t of its domain edge: the segment keeps
+   * its first half, a new segment (index ns - 1 afterwards) takes the second. Returns false,
+   * changing nothing, when the point cannot be inserted.
+   */
+  splitSegmentAt(s: number, x: number, y: number, t: number): boolean {
+    this.segmentSides(s, this.sidesScratch);
+    if (!this.findCavity(x, y, this.sidesScratch[0], this.sidesScratch[2], s)) return false;
+    this.commitCavity(x, y, 1, this.segEdge[s], t, s);
+    return true;
+  }
+
   /** The triangles on either side of segment s: [t, local edge, other t, its local edge]. */
   segmentSides(s: number, out: Int32Array): void {
     const a = this.segA[s];
