@@ -441,26 +441,30 @@ export function analyzeCholesky(a: SymmetricCsc, ordering: Ordering, relax: Rela
   const entryOffset = new Int32Array(nzA); // first the new row, later the offset in the front
   const entryCol = new Int32Array(nzA);
   {
+    // A's columns are visited in the new order, so the entries that fall
+    // below the diagonal of A(p, p) are written to consecutive slots.
     const ac = a.colPtr;
     const ar = a.rowIndex;
-    for (let jo = 0; jo < n; jo++) {
-      const jn = invPerm[jo];
+    for (let jn = 0; jn < n; jn++) {
+      const jo = perm[jn];
+      const sj = superOfCol[jn];
       for (let p = ac[jo]; p < ac[jo + 1]; p++) {
         const inew = invPerm[ar[p]];
-        entryPtr[superOfCol[inew < jn ? inew : jn] + 1]++;
+        entryPtr[(inew < jn ? superOfCol[inew] : sj) + 1]++;
       }
     }
     for (let s = 0; s < nSuper; s++) entryPtr[s + 1] += entryPtr[s];
     const fill = entryPtr.slice(0, nSuper);
-    for (let jo = 0; jo < n; jo++) {
-      const jn = invPerm[jo];
+    for (let jn = 0; jn < n; jn++) {
+      const jo = perm[jn];
+      const sj = superOfCol[jn];
       for (let p = ac[jo]; p < ac[jo + 1]; p++) {
         const inew = invPerm[ar[p]];
-        const lo = inew < jn ? inew : jn;
-        const q = fill[superOfCol[lo]]++;
+        const below = inew >= jn;
+        const q = fill[below ? sj : superOfCol[inew]]++;
         entryOrder[q] = p;
-        entryOffset[q] = inew < jn ? jn : inew;
-        entryCol[q] = lo;
+        entryOffset[q] = below ? inew : jn;
+        entryCol[q] = below ? jn : inew;
       }
     }
   }

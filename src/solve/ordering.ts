@@ -89,7 +89,7 @@ export function restrictOrdering(fullPerm: Int32Array, newOfOld: Int32Array): Or
 // ---------------------------------------------------------------------------
 
 export interface NestedDissectionOptions {
-  /** ranges of at most this many nodes are not split further but ordered by minimum degree (default 64) */
+  /** ranges of at most this many nodes are not split further but ordered by minimum degree (default 128) */
   readonly leafSize?: number;
 }
 
@@ -120,7 +120,7 @@ export function orderNestedDissectionNodes(
   if (ptr.length !== nn + 1) {
     throw new RangeError(`orderNestedDissection: adjacency has ${ptr.length - 1} nodes, coords ${nn}`);
   }
-  const leafSize = options.leafSize ?? 64;
+  const leafSize = options.leafSize ?? 128;
   if (!(leafSize >= 2)) throw new RangeError('orderNestedDissection: leafSize must be >= 2');
 
   const nodes = new Int32Array(nn);
@@ -356,7 +356,7 @@ function swap(a: Int32Array, i: number, j: number): void {
 
 /**
  * Exact minimum degree on a leaf of the dissection, with a dense boolean
- * adjacency matrix: eliminating v joins its remaining neighbours into a
+ * adjacency matrix (bit rows): eliminating v joins its remaining neighbours into a
  * clique (the elimination graph model of S. V. Parter, 1961, and D. J. Rose,
  * 1972). The leaf's neighbours outside it (all in separators, numbered later)
  * take part as a halo that is never eliminated: they count in the degrees,
@@ -364,16 +364,19 @@ function swap(a: Int32Array, i: number, j: number): void {
  * degree used with nested dissection by F. Pellegrini, J. Roman and P.
  * Amestoy, "Hybridizing nested dissection and halo approximate minimum
  * degree for efficient sparse matrix ordering", Concurrency: Practice and
- * Experience 12, 2000. Ties go to the lowest local index.
- * Cost O(M^2 + sum deg^2) per leaf of M = leaf + halo nodes.
+ * Experience 12, 2000. Ties go to the lowest local index. Rows of the
+ * adjacency matrix are bit sets: a clique is formed by OR-ing the pivot's
+ * row into its neighbours' rows, and degrees are population counts.
  */
 class LeafMinimumDegree {
   private cap = 0;
-  private adj = new Uint8Array(0);
+  private words = 0;
+  private bits = new Uint32Array(0); // row t: words [t*W, (t+1)*W) of the adjacency bit matrix
+  private alive = new Uint32Array(0);
+  private nbrMask = new Uint32Array(0);
   private deg = new Int32Array(0);
   private done = new Uint8Array(0);
   private nbr = new Int32Array(0);
-  private local = new Int32Array(0);
   private localOf: Int32Array = new Int32Array(0);
   private haloStamp: Int32Array = new Int32Array(0);
 
@@ -382,12 +385,15 @@ class LeafMinimumDegree {
   private ensure(total: number): void {
     if (total <= this.cap) return;
     const c = Math.max(total, 2 * this.maxSize);
+    const w = (c + 31) >>> 5;
     this.cap = c;
-    this.adj = new Uint8Array(c * c);
+    this.words = w;
+    this.bits = new Uint32Array(c * w);
+    this.alive = new Uint32Array(w);
+    this.nbrMask = new Uint32Array(w);
     this.deg = new Int32Array(c);
     this.done = new Uint8Array(c);
     this.nbr = new Int32Array(c);
-    this.local = new Int32Array(c);
   }
 
   order(nodes: Int32Array, lo: number, hi: number, ptr: Int32Array, idx: Int32Array, stampOf: Int32Array, st: number): void {
@@ -417,27 +423,25 @@ class LeafMinimumDegree {
       }
     }
     this.ensure(total);
-    const { adj, deg, done, nbr, local } = this;
-    for (let t = 0; t < m; t++) local[t] = nodes[lo + t];
-    const M = total;
-    adj.fill(0, 0, M * M);
-    done.fill(0, 0, M);
+    const W = (total + 31) >>> 5;
+    const stride = this.words;
+    const { bits, alive, nbrMask, deg, done, nbr } = this;
+    for (let t = 0; t < m; t++) bits.fill(0, t * stride, t * stride + W);
+    alive.fill(0, 0, W);
+    for (let t = 0; t < total; t++) alive[t >>> 5] |= 1 << (t & 31);
+    done.fill(0, 0, m);
+    // leaf rows only: halo rows are never needed (halo degrees do not matter)
     for (let t = 0; t < m; t++) {
       const v = nodes[lo + t];
+      const row = t * stride;
       for (let q = ptr[v]; q < ptr[v + 1]; q++) {
         const u = idx[q];
         if (u === v) continue;
-        const s = localOf[u];
-        adj[t * M + s] = 1;
-        adj[s * M + t] = 1;
+        const s2 = localOf[u];
+        bits[row + (s2 >>> 5)] |= 1 << (s2 & 31);
       }
     }
-    for (let t = 0; t < m; t++) {
-      let d = 0;
-      for (let s = 0; s < M; s++) d += adj[t * M + s];
-      deg[t] = d;
-    }
-    const out = local;
+    for (let t = 0; t < m; t++) deg[t] = popcountRow(bits, t * stride, alive, W);
     const order = new Int32Array(m);
     for (let step = 0; step < m; step++) {
       let best = -1;
@@ -450,26 +454,45 @@ class LeafMinimumDegree {
       }
       const v = best;
       done[v] = 1;
-      order[step] = out[v];
+      alive[v >>> 5] &= ~(1 << (v & 31));
+      order[step] = nodes[lo + v];
+      // remaining neighbours of v, as a mask and a list of leaf nodes
+      const rv = v * stride;
       let k = 0;
-      for (let s = 0; s < M; s++) if (adj[v * M + s] !== 0 && done[s] === 0) nbr[k++] = s;
-      for (let a = 0; a < k; a++) {
-        const ia = nbr[a];
-        deg[ia]--; // loses v
-        for (let b = a + 1; b < k; b++) {
-          const ib = nbr[b];
-          if (ia >= m && ib >= m) continue; // halo-halo edges never change a leaf degree
-          if (adj[ia * M + ib] === 0) {
-            adj[ia * M + ib] = 1;
-            adj[ib * M + ia] = 1;
-            deg[ia]++;
-            deg[ib]++;
-          }
+      for (let w = 0; w < W; w++) {
+        let x = bits[rv + w] & alive[w];
+        nbrMask[w] = x;
+        while (x !== 0) {
+          const bit = x & -x;
+          const u = (w << 5) + 31 - Math.clz32(bit);
+          if (u < m) nbr[k++] = u;
+          x ^= bit;
         }
+      }
+      // eliminating v makes its neighbours a clique
+      for (let a = 0; a < k; a++) {
+        const u = nbr[a];
+        const ru = u * stride;
+        for (let w = 0; w < W; w++) bits[ru + w] |= nbrMask[w];
+        bits[ru + (u >>> 5)] &= ~(1 << (u & 31));
+        deg[u] = popcountRow(bits, ru, alive, W);
       }
     }
     nodes.set(order, lo);
   }
+}
+
+/** Number of set bits of bits[row .. row+W) & mask (SWAR population count). */
+function popcountRow(bits: Uint32Array, row: number, mask: Uint32Array, W: number): number {
+  let c = 0;
+  for (let w = 0; w < W; w++) {
+    let x = bits[row + w] & mask[w];
+    x -= (x >>> 1) & 0x55555555;
+    x = (x & 0x33333333) + ((x >>> 2) & 0x33333333);
+    x = (x + (x >>> 4)) & 0x0f0f0f0f;
+    c += Math.imul(x, 0x01010101) >>> 24;
+  }
+  return c;
 }
 
 // ---------------------------------------------------------------------------
