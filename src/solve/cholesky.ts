@@ -26,6 +26,14 @@
  *    independently checkable reference): T. A. Davis, "Direct Methods for
  *    Sparse Linear Systems", SIAM 2006, section 4.7 (row k of L from a sparse
  *    triangular solve whose pattern is the reach in the elimination tree).
+ *
+ * Memory of the supernodal factor: 8 bytes per stored value (nnz(L) plus the
+ * explicit zeros of relaxed supernodes, 5-20 % here), 4 bytes per row index
+ * of a supernode (shared by its columns), and O(n) pointers: 9-11 bytes per
+ * nonzero of L on 2D stiffness matrices. The fronts and the update stack
+ * live in a WebAssembly memory reused by every factorisation of the process
+ * (wasm-kernel.ts); it grows to the largest front plus stack seen and is not
+ * returned to the system.
  */
 
 import {
@@ -622,11 +630,14 @@ export interface FactorOptions {
 /**
  * Numeric factorisation by the supernodal multifrontal method. For each
  * supernode, in postorder: its frontal matrix (dense, row-major lower) is
- * assembled from the columns of A(p, p) and the children's update matrices
- * (extend-add), its k pivot columns are factorised (dense.ts: panel-blocked
- * Cholesky of the k x k block with the triangular solve of the rows below),
- * and the Schur complement is formed by a register-blocked symmetric rank-k
- * update written straight onto the update stack.
+ * assembled from its bucket of A's entries and the children's update
+ * matrices (extend-add), its k pivot columns are factorised (dense.ts:
+ * panel-blocked Cholesky of the k x k block with the triangular solve of the
+ * rows below), its rows are copied to the factor, and the Schur complement
+ * is formed by a register-blocked symmetric rank-k update written straight
+ * onto the update stack. The first pivot d that is not above
+ * pivotTolerance * max diag(A), or not finite, throws SolverPivotError.
+ * The analysis can be reused for any matrix with the same pattern.
  */
 export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, options: FactorOptions = {}): CholeskyFactor {
   const { n, perm, nSuper, superStart, superParent, rowPtr, superRows, valuePtr, maxFront, stackPeak } = symbolic;

@@ -4,8 +4,13 @@
  * triangular solves, with timings and sizes of each phase.
  *
  * Ordering choice: nested dissection from node coordinates when coordinates
- * and the node adjacency are given (the better ordering for 2D meshes as
- * they grow), approximate minimum degree on the matrix graph otherwise.
+ * and the node adjacency are given, approximate minimum degree on the matrix
+ * graph otherwise. Measured on the plane-stress benchmark (src/bench/solve.ts):
+ * AMD needs about 18 % fewer flops than this nested dissection at 1e5 DOF,
+ * nested dissection 17 % fewer than AMD at 1e6 DOF and orders twice as fast
+ * there; `ordering` forces either.
+ *
+ *   const { x, stats } = solveSpd(K, f, { coords, nodeAdjacency, dofsPerNode: 2, fullDofOfRow });
  */
 
 import { performance } from 'node:perf_hooks';
