@@ -110,6 +110,13 @@ describe('raiser new', () => {
     expect(Math.abs(JSON.parse(s.stdout).kt.net / 2.519 - 1)).toBeLessThan(0.02);
   });
 
+  it('takes the long parameter names too: --width 50 --diameter 10 is --W 50 --d 10', () => {
+    const a = raiser(['new', 'plate-with-hole', '--width', '50', '--diameter', '10']);
+    const b = raiser(['new', 'plate-with-hole', '--W', '50', '--d', '10']);
+    expect(a.code).toBe(0);
+    expect(a.stdout).toBe(b.stdout);
+  });
+
   it('an unknown template or parameter exits with 2 and suggests the right name', () => {
     const r = raiser(['new', 'plate-with-hol']);
     expect(r.code).toBe(2);

@@ -48,7 +48,7 @@ function benchMesher(runs: number, log: (s: string) => void): void {
   log('\nMesher (graded constrained Delaunay refinement, minimum angle 25 deg, linear triangles)');
   log('| triangles | vertices | boundary | triangulate | refine | finish + check | total | min angle | peak RSS MB |');
   log('|---|---|---|---|---|---|---|---|---|');
-  for (const k of [1, 0.4, 0.2, 0.1]) {
+  for (const k of [1, 0.4, 0.2, 0.1, 0.08]) {
     const model = benchModel(k);
     const domain = buildDomain(model.geometry);
     const opts = { order: 1 as const, size: model.mesh!.size, raiserSize: model.mesh!.raiserSize };

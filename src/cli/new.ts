@@ -11,7 +11,8 @@ function listTemplates(): string {
     for (const p of t.params) {
       const unit = p.unit ? ` ${p.unit}` : '';
       const choices = p.choices ? ` (${p.choices.join(' | ')})` : '';
-      out.push(`      --${p.name.padEnd(14)} ${p.meaning}${choices}; default ${p.default}${typeof p.default === 'number' ? unit : ''}`);
+      const also = p.aliases?.length ? ` (also --${p.aliases.join(', --')})` : '';
+      out.push(`      --${p.name.padEnd(14)} ${p.meaning}${also}${choices}; default ${p.default}${typeof p.default === 'number' ? unit : ''}`);
     }
     out.push('');
   }

@@ -32,6 +32,8 @@ export interface TemplateParam {
   /** the unit of the default, as printed: "mm", "MPa", "" */
   unit: string;
   choices?: readonly string[];
+  /** other names accepted for it on the command line (--width for --W) */
+  aliases?: readonly string[];
 }
 
 export interface TemplateInfo {
@@ -555,7 +557,7 @@ export function edgeNotchedBar(p: NotchedBarParams = {}): Model {
 // Registry.
 
 const STRESS = (meaning: string): TemplateParam => ({ name: 'stress', meaning, default: 100, quantity: 'stress', unit: 'MPa' });
-const LEN = (name: string, meaning: string, def: number | string): TemplateParam => ({ name, meaning, default: def, quantity: 'length', unit: 'mm' });
+const LEN = (name: string, meaning: string, def: number | string, aliases?: string[]): TemplateParam => ({ name, meaning, default: def, quantity: 'length', unit: 'mm', aliases });
 
 interface TemplateEntry extends TemplateInfo {
   build(values: Record<string, number | string>): Model;
@@ -576,9 +578,9 @@ const ENTRIES: readonly TemplateEntry[] = [
     name: 'plate-with-hole',
     description: 'central circular hole in a plate under uniaxial tension (quarter model)',
     params: [
-      LEN('W', 'plate width', 100),
-      LEN('d', 'hole diameter', 20),
-      LEN('L', 'plate length', '4 W'),
+      LEN('W', 'plate width', 100, ['width']),
+      LEN('d', 'hole diameter', 20, ['diameter']),
+      LEN('L', 'plate length', '4 W', ['length']),
       STRESS('remote tensile stress on the plate ends (gross, over the width W)'),
       ...COMMON_PARAMS,
     ],
@@ -588,10 +590,10 @@ const ENTRIES: readonly TemplateEntry[] = [
     name: 'plate-with-elliptical-hole',
     description: 'central elliptical hole in a plate under uniaxial tension (full model)',
     params: [
-      LEN('W', 'plate width', 100),
+      LEN('W', 'plate width', 100, ['width']),
       LEN('a', 'semi-axis of the hole across the load', 10),
       LEN('b', 'semi-axis of the hole along the load', 5),
-      LEN('L', 'plate length', '4 W'),
+      LEN('L', 'plate length', '4 W', ['length']),
       STRESS('remote tensile stress on the plate ends (gross, over the width W)'),
       ...COMMON_PARAMS,
     ],
@@ -601,9 +603,9 @@ const ENTRIES: readonly TemplateEntry[] = [
     name: 'stepped-bar',
     description: 'flat bar stepping from width D to d with shoulder fillets, in tension (half model) or in-plane bending (full model)',
     params: [
-      LEN('D', 'wide width', 60),
-      LEN('d', 'narrow width', 40),
-      LEN('r', 'shoulder fillet radius', 4),
+      LEN('D', 'wide width', 60, ['wide-width']),
+      LEN('d', 'narrow width', 40, ['narrow-width']),
+      LEN('r', 'shoulder fillet radius', 4, ['radius', 'fillet']),
       LEN('wide-length', 'length of the wide part, end to shoulder', '2 D'),
       LEN('narrow-length', 'length of the narrow part, shoulder to end', '2 d + r'),
       { name: 'loading', meaning: 'tension, or in-plane bending by an end moment', default: 'tension', quantity: 'choice', unit: '', choices: ['tension', 'bending'] },
@@ -626,10 +628,10 @@ const ENTRIES: readonly TemplateEntry[] = [
     name: 'u-notched-bar',
     description: 'flat bar with two opposite U-notches in tension (quarter model)',
     params: [
-      LEN('H', 'full width of the bar', 60),
-      LEN('t', 'depth of each notch', 10),
-      LEN('r', 'notch root radius', 2),
-      LEN('L', 'bar length', '4 H'),
+      LEN('H', 'full width of the bar', 60, ['width']),
+      LEN('t', 'depth of each notch', 10, ['depth']),
+      LEN('r', 'notch root radius', 2, ['radius']),
+      LEN('L', 'bar length', '4 H', ['length']),
       STRESS('remote tensile stress on the bar ends (gross, over the width H)'),
       ...COMMON_PARAMS,
     ],
@@ -639,10 +641,10 @@ const ENTRIES: readonly TemplateEntry[] = [
     name: 'edge-notched-bar',
     description: 'flat bar with one U-notch on one edge in tension (half model)',
     params: [
-      LEN('H', 'full width of the bar', 60),
-      LEN('t', 'notch depth', 10),
-      LEN('r', 'notch root radius', 2),
-      LEN('L', 'bar length', '4 H'),
+      LEN('H', 'full width of the bar', 60, ['width']),
+      LEN('t', 'notch depth', 10, ['depth']),
+      LEN('r', 'notch root radius', 2, ['radius']),
+      LEN('L', 'bar length', '4 H', ['length']),
       STRESS('remote tensile stress on the bar ends (gross, over the width H)'),
       ...COMMON_PARAMS,
     ],
@@ -666,8 +668,9 @@ export function expandTemplate(name: string, values: Readonly<Record<string, num
   }
   const parsed: Record<string, number | string> = {};
   const names = entry.params.map((p) => p.name);
-  for (const [key, raw] of Object.entries(values)) {
-    const param = entry.params.find((p) => p.name === key);
+  for (const [given, raw] of Object.entries(values)) {
+    const param = entry.params.find((p) => p.name === given || p.aliases?.includes(given));
+    const key = param ? param.name : given;
     if (!param) {
       throw new ModelError(key, `the template "${name}" has no parameter "${key}"${didYouMean(key, names)}`, `its parameters are ${quoteList(names, 'and')}`);
     }

@@ -202,18 +202,30 @@ export function sectionAlong(input: Omit<SectionInput, 'dx' | 'dy'>, px: number,
   const dx = ey;
   const dy = -ex;
   const full: SectionInput = { ...input, dx, dy };
-  const u = px * dx + py * dy;
+  const u0 = px * dx + py * dy;
   const v0 = -px * dy + py * dx;
   const v1 = -qx * dy + qy * dx;
   const lo = Math.min(v0, v1);
   const hi = Math.max(v0, v1);
-  const vs = intervalsAt(input.trace, dx, dy, u);
-  const clipped: number[] = [];
-  for (let k = 0; k + 1 < vs.length; k += 2) {
-    const a = Math.max(lo, vs[k]);
-    const b = Math.min(hi, vs[k + 1]);
-    if (b > a) clipped.push(a, b);
+  // A cut along a straight boundary (a symmetry edge, say) is taken just inside the material:
+  // of the two lines a hair to either side, the one that crosses more material.
+  const eps = 1e-9 * input.scale;
+  let best: { u: number; clipped: number[]; L: number } = { u: u0, clipped: [], L: 0 };
+  for (const u of [u0 + eps, u0 - eps]) {
+    const vs = intervalsAt(input.trace, dx, dy, u);
+    const clipped: number[] = [];
+    let L = 0;
+    for (let k = 0; k + 1 < vs.length; k += 2) {
+      const a = Math.max(lo, vs[k]);
+      const b = Math.min(hi, vs[k + 1]);
+      if (b > a) {
+        clipped.push(a, b);
+        L += b - a;
+      }
+    }
+    if (L > best.L * (1 + 1e-9)) best = { u, clipped, L };
   }
-  if (clipped.length === 0) return { ...makeCut(full, u, [lo, lo], prefix(full).at(u)), length: 0, area: 0, stress: NaN };
-  return makeCut(full, u, clipped, prefix(full).at(u));
+  const pre = prefix(full);
+  if (best.clipped.length === 0) return { ...makeCut(full, u0, [lo, lo], pre.at(u0)), length: 0, area: 0, stress: NaN };
+  return makeCut(full, best.u, best.clipped, pre.at(best.u));
 }
