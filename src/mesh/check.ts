@@ -120,23 +120,33 @@ export function checkMesh(mesh: Mesh, domain: Domain): MeshQuality {
   }
   for (let k = 0; k < nNodes; k++) if (!used[k]) throw new InternalError(`mesh check: node ${k} belongs to no element`);
 
-  // Edge use: directed element edges; a boundary edge appears once, in its own direction.
+  // Edge use: directed element edges, as sorted keys u * nv + w (exact in a double below 2^53);
+  // a boundary edge appears once, in its own direction.
   const nv = nNodes;
-  const count = new Map<number, number>();
+  const keys = new Float64Array(3 * nElements);
   for (let e = 0; e < nElements; e++) {
-    for (let i = 0; i < 3; i++) {
-      const u = elements[per * e + i];
-      const w = elements[per * e + ((i + 1) % 3)];
-      const key = u * nv + w;
-      if (count.has(key)) throw new InternalError(`mesh check: edge ${u}-${w} is used twice in the same direction`);
-      count.set(key, e);
-    }
+    for (let i = 0; i < 3; i++) keys[3 * e + i] = elements[per * e + i] * nv + elements[per * e + ((i + 1) % 3)];
   }
+  keys.sort();
+  const has = (key: number) => {
+    let lo = 0;
+    let hi = keys.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (keys[mid] < key) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo < keys.length && keys[lo] === key;
+  };
   let boundaryEdges = 0;
-  for (const key of count.keys()) {
-    const u = Math.floor(key / nv);
-    const w = key - u * nv;
-    if (!count.has(w * nv + u)) boundaryEdges++;
+  for (let k = 0; k < keys.length; k++) {
+    if (k > 0 && keys[k] === keys[k - 1]) {
+      const u = Math.floor(keys[k] / nv);
+      throw new InternalError(`mesh check: edge ${u}-${keys[k] - u * nv} is used twice in the same direction`);
+    }
+    const u = Math.floor(keys[k] / nv);
+    const w = keys[k] - u * nv;
+    if (!has(w * nv + u)) boundaryEdges++;
   }
   if (boundaryEdges !== mesh.nBEdges) {
     throw new InternalError(`mesh check: ${boundaryEdges} element edges lie on the boundary, but the mesh lists ${mesh.nBEdges} boundary edges`);
@@ -145,8 +155,8 @@ export function checkMesh(mesh: Mesh, domain: Domain): MeshQuality {
   for (let s = 0; s < mesh.nBEdges; s++) {
     const a = mesh.bEdges[3 * s];
     const b = mesh.bEdges[3 * s + 1];
-    if (!count.has(a * nv + b)) throw new InternalError(`mesh check: boundary edge ${a}-${b} is missing, or has the material on its right`);
-    if (count.has(b * nv + a)) throw new InternalError(`mesh check: boundary edge ${a}-${b} has elements on both sides`);
+    if (!has(a * nv + b)) throw new InternalError(`mesh check: boundary edge ${a}-${b} is missing, or has the material on its right`);
+    if (has(b * nv + a)) throw new InternalError(`mesh check: boundary edge ${a}-${b} has elements on both sides`);
     const ax = nodes[2 * a];
     const ay = nodes[2 * a + 1];
     const bx = nodes[2 * b];

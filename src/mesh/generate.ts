@@ -270,31 +270,54 @@ function extractLinear(tm: TriMesh): Mesh {
 export function upgradeToQuadratic(lin: Mesh, domain: Domain): Mesh {
   const nv = lin.nNodes;
   const ne = lin.nElements;
-  const edgeKey = (a: number, b: number) => (a < b ? a * nv + b : b * nv + a);
-  const mid = new Map<number, number>();
-  const elements = new Int32Array(6 * ne);
-  const extra: number[] = [];
-  let next = nv;
   const local = [
     [0, 1],
     [1, 2],
     [2, 0],
   ];
+  // Undirected edge keys min * nv + max, sorted and made unique: the k-th unique edge gets
+  // midside node nv + k.
+  const keys = new Float64Array(3 * ne);
   for (let e = 0; e < ne; e++) {
-    for (let i = 0; i < 3; i++) elements[6 * e + i] = lin.elements[3 * e + i];
     for (let k = 0; k < 3; k++) {
       const a = lin.elements[3 * e + local[k][0]];
       const b = lin.elements[3 * e + local[k][1]];
-      const key = edgeKey(a, b);
-      let m = mid.get(key);
-      if (m === undefined) {
-        m = next++;
-        mid.set(key, m);
-        extra.push((lin.nodes[2 * a] + lin.nodes[2 * b]) / 2, (lin.nodes[2 * a + 1] + lin.nodes[2 * b + 1]) / 2);
-      }
-      elements[6 * e + 3 + k] = m;
+      keys[3 * e + k] = a < b ? a * nv + b : b * nv + a;
     }
   }
+  const sorted = keys.slice().sort();
+  let nu = 0;
+  for (let k = 0; k < sorted.length; k++) if (k === 0 || sorted[k] !== sorted[k - 1]) sorted[nu++] = sorted[k];
+  const unique = sorted.subarray(0, nu);
+  const find = (key: number) => {
+    let lo = 0;
+    let hi = nu;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (unique[mid] < key) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo;
+  };
+  const elements = new Int32Array(6 * ne);
+  for (let e = 0; e < ne; e++) {
+    for (let i = 0; i < 3; i++) elements[6 * e + i] = lin.elements[3 * e + i];
+    for (let k = 0; k < 3; k++) elements[6 * e + 3 + k] = nv + find(keys[3 * e + k]);
+  }
+  const next = nv + nu;
+  const extra = new Float64Array(2 * nu);
+  for (let k = 0; k < nu; k++) {
+    const a = Math.floor(unique[k] / nv);
+    const b = unique[k] - a * nv;
+    extra[2 * k] = 0.5 * (lin.nodes[2 * a] + lin.nodes[2 * b]);
+    extra[2 * k + 1] = 0.5 * (lin.nodes[2 * a + 1] + lin.nodes[2 * b + 1]);
+  }
+  /** The midside node of edge a-b, or -1 when a-b is not an element edge. */
+  const midOf = (a: number, b: number) => {
+    const key = a < b ? a * nv + b : b * nv + a;
+    const i = find(key);
+    return i < nu && unique[i] === key ? nv + i : -1;
+  };
   const nodes = new Float64Array(2 * next);
   nodes.set(lin.nodes);
   nodes.set(extra, 2 * nv);
@@ -307,8 +330,8 @@ export function upgradeToQuadratic(lin: Mesh, domain: Domain): Mesh {
   for (let s = 0; s < lin.nBEdges; s++) {
     const a = bEdges[3 * s];
     const b = bEdges[3 * s + 1];
-    const m = mid.get(edgeKey(a, b));
-    if (m === undefined) throw new InternalError(`boundary edge ${a}-${b} is not an element edge`);
+    const m = midOf(a, b);
+    if (m < 0) throw new InternalError(`boundary edge ${a}-${b} is not an element edge`);
     bEdges[3 * s + 2] = m;
     const edge = domain.edges[lin.bEdgeDomain[s]];
     nodeEdge[m] = edge.id;
