@@ -12,6 +12,7 @@ import {
   DEFAULT_PIVOT_TOLERANCE,
 } from '../src/solve/cholesky.js';
 import { relativeResidual, solveSpd } from '../src/solve/index.js';
+import { chooseSplit } from '../src/solve/multifrontal.js';
 import {
   cantileverProblem,
   denseSymbolic,
@@ -198,6 +199,52 @@ describe('numeric factorisation against a dense Cholesky solve', () => {
       fullDofOfRow: p.fullDofOfRow,
     });
     expect(stats.bytesPerNnzL).toBeLessThan(16);
+  });
+});
+
+describe('two threads', () => {
+  it('a factorisation split with a worker thread gives bit-for-bit the single-thread result', () => {
+    const p = cantileverProblem(60, 30, 3);
+    const a = p.matrix;
+    const b = randomVector(a.n, 5);
+    const ord = orderNestedDissection(p.adjacency, p.mesh.coords, 2);
+    const sym = analyzeCholesky(a, restrictOrdering(ord.perm, p.rowOfFullDof));
+    for (const kernel of ['js', 'simd'] as const) {
+      const one = factorCholesky(a, sym, { threads: 1, kernel });
+      const two = factorCholesky(a, sym, { threads: 2, parallelMinFlops: 0, kernel });
+      expect(one.threads).toBe(1);
+      expect(two.threads).toBe(2);
+      expect(Array.from(two.values)).toEqual(Array.from(one.values));
+      expect(relativeResidual(a, solveCholesky(two, b), b)).toBeLessThan(1e-12);
+    }
+  });
+
+  it('a pivot failure inside the worker subtree is reported with the same column as on one thread', () => {
+    // a negative diagonal entry planted in a column of the worker's subtree
+    const p = cantileverProblem(40, 20, 2);
+    const a = p.matrix;
+    const sym = analyzeCholesky(a, restrictOrdering(orderNestedDissection(p.adjacency, p.mesh.coords, 2).perm, p.rowOfFullDof));
+    const split = chooseSplit(sym.superStart, sym.superParent, sym.rowPtr);
+    expect(split).not.toBeNull();
+    const inWorker = sym.superStart[(split!.first + split!.c) >> 1];
+    const bad = { ...a, values: a.values.slice() };
+    const col = sym.perm[inWorker];
+    bad.values[bad.colPtr[col]] = -1; // diagonal entry of that DOF
+    const errors: SolverPivotError[] = [];
+    for (const threads of [1, 2] as const) {
+      try {
+        factorCholesky(bad, sym, { threads, parallelMinFlops: 0 });
+      } catch (e) {
+        errors.push(e as SolverPivotError);
+      }
+    }
+    expect(errors).toHaveLength(2);
+    expect(errors[0]).toBeInstanceOf(SolverPivotError);
+    expect(errors[1]).toBeInstanceOf(SolverPivotError);
+    expect(errors[1].permutedIndex).toBe(errors[0].permutedIndex);
+    expect(errors[0].permutedIndex).toBeGreaterThanOrEqual(sym.superStart[split!.first]);
+    expect(errors[0].permutedIndex).toBeLessThan(sym.superStart[split!.c + 1]);
+    expect(errors[1].pivot).toBe(errors[0].pivot);
   });
 });
 

@@ -45,8 +45,9 @@ import {
   upperPattern,
 } from './sparse.js';
 import { type Ordering, invertPermutation } from './ordering.js';
-import { PANEL, factorFrontPivots, failedPivotValue, rankUpdate, type SimdKernel } from './dense.js';
+import { PANEL, type SimdKernel } from './dense.js';
 import { sharedWasmHeap } from './wasm-kernel.js';
+import { chooseSplit, childLists, factorRange, mainThreadKernels, startSubtreeWorker, type RangeContext } from './multifrontal.js';
 
 /**
  * Thrown when a pivot is not safely positive: pivot <= tol * max diag(A), or
@@ -612,6 +613,8 @@ export interface CholeskyFactor {
   readonly values: Float64Array;
   /** bytes held by the factor: values, row indices and pointers */
   readonly bytes: number;
+  /** threads that factorised it (1, or 2 when a subtree went to a worker) */
+  readonly threads: number;
 }
 
 export interface FactorOptions {
@@ -625,7 +628,19 @@ export interface FactorOptions {
    * to rounding.
    */
   readonly kernel?: 'auto' | 'simd' | 'js';
+  /**
+   * 1, or 2 (default): let a worker thread factorise one subtree of the
+   * supernodal tree when the factorisation has at least PARALLEL_MIN_FLOPS
+   * flops. Results are identical either way (same operations in the same order
+   * within each front).
+   */
+  readonly threads?: 1 | 2;
+  /** lower the flop limit for the second thread (tests use it on small matrices) */
+  readonly parallelMinFlops?: number;
 }
+
+/** Factorisations with fewer flops stay on one thread (measured start-up of a worker: about 30 ms). */
+export const PARALLEL_MIN_FLOPS = 5e8;
 
 /**
  * Numeric factorisation by the supernodal multifrontal method. For each
@@ -647,7 +662,13 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
   const { entryPtr, entryOrder, entryOffset } = symbolic;
   const av = a.values;
 
-  const L = new Float64Array(symbolic.storedValues);
+  // A second thread takes one subtree when the work is large enough to pay
+  // for starting it (about 30 ms) and a balanced split exists.
+  const threads = options.threads ?? 2;
+  const split = threads >= 2 && symbolic.flops >= (options.parallelMinFlops ?? PARALLEL_MIN_FLOPS) ? chooseSplit(superStart, superParent, rowPtr) : null;
+  const lBuffer = split !== null ? new SharedArrayBuffer(symbolic.storedValues * 8) : null;
+  const L = lBuffer !== null ? new Float64Array(lBuffer) : new Float64Array(symbolic.storedValues);
+  let threadsUsed = 1;
   const frontLen = maxFront * maxFront;
   const stackLen = Math.max(1, stackPeak);
   let front: Float64Array;
@@ -674,79 +695,92 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
     stack = new Float64Array(stackLen);
     rel = new Int32Array(maxFront);
   }
-  const map = new Int32Array(n);
-  const panelScratch = new Float64Array(PANEL);
-  // Children of each supernode, in order; their updates lie on top of the
-  // stack in the same order when the parent is reached (postorder).
-  const sHead = new Int32Array(nSuper).fill(-1);
-  const sNext = new Int32Array(nSuper).fill(-1);
-  for (let s = nSuper - 1; s >= 0; s--) {
-    const p = superParent[s];
-    if (p !== -1) {
-      sNext[s] = sHead[p];
-      sHead[p] = s;
-    }
-  }
+  // values of A in entry order
+  const entryValues = new Float64Array(entryOrder.length);
+  for (let q = 0; q < entryOrder.length; q++) entryValues[q] = av[entryOrder[q]];
+  const { sHead, sNext } = childLists(superParent);
+  const ctxFor = (s0: number, s1: number, updStart: Float64Array): RangeContext => ({
+    s0,
+    s1,
+    superStart,
+    superParent,
+    rowPtr,
+    superRows,
+    rowBase: 0,
+    valuePtr,
+    entryPtr,
+    entryValues,
+    entryOffset,
+    entryBase: 0,
+    L,
+    front,
+    stack,
+    rel,
+    map: new Int32Array(n),
+    sHead,
+    sNext,
+    updStart,
+    threshold,
+    panelScratch: new Float64Array(PANEL),
+    zeroLower: useHeap ? heap.zeroLower : null,
+    extendAdd: useHeap ? heap.extendAdd : null,
+    relByte,
+    stackByte: frontLen * 8,
+    simdFront,
+    simdStack,
+  });
+  const kern = mainThreadKernels();
   const updStart = new Float64Array(nSuper);
-  let top = 0;
+  const fail = (col: number, pivot: number): SolverPivotError => new SolverPivotError(col, perm[col], pivot, threshold);
 
-  for (let s = 0; s < nSuper; s++) {
-    const f = superStart[s];
-    const k = superStart[s + 1] - f;
-    const r0 = rowPtr[s];
-    const m = rowPtr[s + 1] - r0;
-    for (let t = 0; t < m; t++) map[superRows[r0 + t]] = t;
-    // zero the lower triangle of the front
-    if (useHeap) heap.zeroLower(0, m * 8);
-    else for (let t = 0; t < m; t++) front.fill(0, t * m, t * m + t + 1);
-    // assemble the entries of A(p,p) in columns f .. f+k-1
-    for (let q = entryPtr[s]; q < entryPtr[s + 1]; q++) front[entryOffset[q]] += av[entryOrder[q]];
-    // extend-add the children's update matrices
-    let firstChildStart = -1;
-    for (let ch = sHead[s]; ch !== -1; ch = sNext[ch]) {
-      const kc = superStart[ch + 1] - superStart[ch];
-      const rc = rowPtr[ch] + kc;
-      const mc = rowPtr[ch + 1] - rc;
-      for (let t = 0; t < mc; t++) rel[t] = map[superRows[rc + t]];
-      const base = updStart[ch];
-      if (firstChildStart < 0) firstChildStart = base;
-      if (useHeap) heap.extendAdd(0, m * 8, (frontLen + base) * 8, relByte, mc);
-      else extendAdd(front, m, stack, base, rel, mc);
+  if (split !== null && lBuffer !== null) {
+    // main: [0, first); worker: [first, c]; then main: (c, nSuper)
+    const worker = startSubtreeWorker({
+      n,
+      first: split.first,
+      c: split.c,
+      superStart,
+      superParent,
+      rowPtr,
+      superRows,
+      valuePtr,
+      entryPtr,
+      entryValues,
+      entryOffset,
+      threshold,
+      lBuffer,
+      useWasm: useHeap,
+      panel: PANEL,
+    });
+    const r1 = factorRange(ctxFor(0, split.first, updStart), kern, 0);
+    if (r1.failedColumn >= 0) {
+      worker.terminate();
+      throw fail(r1.failedColumn, r1.pivot);
     }
-    if (firstChildStart >= 0) top = firstChildStart; // pop all children
-
-    // partial factorisation of the k pivot columns
-    const bad = factorFrontPivots(front, m, k, threshold, panelScratch, simdFront);
-    if (bad >= 0) throw new SolverPivotError(f + bad, perm[f + bad], failedPivotValue, threshold);
-    // copy the factor rows out
-    {
-      let dst = valuePtr[s];
-      for (let aa = 0; aa < m; aa++) {
-        const cnt = aa < k ? aa + 1 : k;
-        const src = aa * m;
-        for (let t = 0; t < cnt; t++) L[dst + t] = front[src + t];
-        dst += cnt;
-      }
+    // generous: a stuck worker falls back to this thread after this long
+    const j = worker.join(60_000 + symbolic.flops / 1e5);
+    let top = r1.top;
+    if (j.state === 'pivot') throw fail(j.failedColumn, j.pivot);
+    if (j.state === 'done') {
+      updStart[split.c] = top;
+      stack.set(worker.handoff, top);
+      top += worker.handoff.length;
+    } else {
+      // the worker could not finish: factorise its subtree here instead
+      worker.terminate();
+      const r2 = factorRange(ctxFor(split.first, split.c + 1, updStart), kern, top);
+      if (r2.failedColumn >= 0) throw fail(r2.failedColumn, r2.pivot);
+      top = r2.top;
     }
-    // Schur complement into the stack (packed lower, row-major)
-    const u = m - k;
-    if (u > 0 && superParent[s] !== -1) {
-      updStart[s] = top;
-      rankUpdate(front, m, k, m, k, m, 0, k, stack, top, simdStack);
-      top += (u * (u + 1)) / 2;
-    }
+    const r3 = factorRange(ctxFor(split.c + 1, nSuper, updStart), kern, top);
+    if (r3.failedColumn >= 0) throw fail(r3.failedColumn, r3.pivot);
+    threadsUsed = j.state === 'done' ? 2 : 1;
+  } else {
+    const r = factorRange(ctxFor(0, nSuper, updStart), kern, 0);
+    if (r.failedColumn >= 0) throw fail(r.failedColumn, r.pivot);
   }
   const bytes = L.byteLength + symbolic.superRows.byteLength + symbolic.rowPtr.byteLength + symbolic.valuePtr.byteLength + symbolic.superStart.byteLength + symbolic.perm.byteLength + symbolic.invPerm.byteLength;
-  return { symbolic, values: L, bytes };
-}
-
-/** F[rel[a], rel[b]] += U(a, b) for the packed lower mc x mc update U at stack[base]. */
-function extendAdd(F: Float64Array, m: number, stack: Float64Array, base: number, rel: Int32Array, mc: number): void {
-  let u = base;
-  for (let aa = 0; aa < mc; aa++) {
-    const row = rel[aa] * m;
-    for (let bb = 0; bb <= aa; bb++) F[row + rel[bb]] += stack[u++];
-  }
+  return { symbolic, values: L, bytes, threads: threadsUsed };
 }
 
 /**

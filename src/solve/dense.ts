@@ -30,6 +30,20 @@ export interface SimdKernel {
   readonly outByte: number;
 }
 
+/**
+ * Source text of the kernels below, for a worker thread (multifrontal.ts):
+ * their bodies refer only to each other and to PANEL and failedPivotValue.
+ */
+export function denseKernelSource(): string {
+  return [
+    `const PANEL = ${PANEL};`,
+    'let failedPivotValue = 0;',
+    factorFrontPivots.toString(),
+    factorPanel.toString(),
+    rankUpdate.toString(),
+  ].join('\n');
+}
+
 /** Width of a panel of pivot columns. */
 export const PANEL = 8;
 

@@ -328,7 +328,8 @@ function zeroLowerBody(): number[] {
   return body;
 }
 
-function moduleBytes(): Uint8Array {
+/** The binary module (rowBlock4, extendAdd, zeroLower; memory imported as env.mem). */
+export function wasmModuleBytes(): Uint8Array {
   const out: number[] = [0x00, 0x61, 0x73, 0x6d, 0x01, 0x00, 0x00, 0x00];
   // type section: 0 = (i32 x 10) -> (), 1 = (i32 x 5) -> (), 2 = (i32 x 2) -> ()
   const types: number[] = [3];
@@ -411,7 +412,7 @@ export class WasmHeap {
   /** Returns a heap, or null when this JavaScript engine lacks WebAssembly SIMD. */
   static create(): WasmHeap | null {
     if (wasmApi === undefined) return null;
-    const bytes = moduleBytes();
+    const bytes = wasmModuleBytes();
     if (!wasmApi.validate(bytes)) return null;
     const memory = new wasmApi.Memory({ initial: 1 });
     const instance = new wasmApi.Instance(new wasmApi.Module(bytes), { env: { mem: memory } });
