@@ -33,6 +33,8 @@ export interface SolveBenchRow {
   readonly assemblySeconds: number;
   /** total seconds of the first (cold) solve of this case */
   readonly coldSeconds: number;
+  /** threads of the numeric factorisation */
+  readonly threads: number;
 }
 
 export interface SolveBenchOptions {
@@ -111,12 +113,13 @@ export function runSolveBench(options: SolveBenchOptions = {}): SolveBenchRow[] 
         relativeResidual: Math.max(...samples.map((s) => s.relativeResidual)),
         assemblySeconds,
         coldSeconds,
+        threads: s0.threads,
       };
       out.push(row);
       const e = (x: number): string => x.toExponential(2);
       const f = (x: number): string => x.toFixed(3);
       log(
-        `| ${n} | ${ordering} | ${e(row.nnzA)} | ${e(row.nnzL)} | ${e(row.flops)} | ${f(sec.ordering)} | ${f(sec.symbolic)} | ${f(sec.numeric)} | ${f(sec.solve)} | ${f(sec.total)} | ${f(coldSeconds)} | ${row.gflops.toFixed(2)} | ${row.bytesPerNnzL.toFixed(1)} | ${(row.peakRssBytes / 2 ** 30).toFixed(2)} GB | ${e(row.relativeResidual)} |`,
+        `| ${n} | ${ordering}${s0.threads > 1 ? ` (${s0.threads} threads)` : ''} | ${e(row.nnzA)} | ${e(row.nnzL)} | ${e(row.flops)} | ${f(sec.ordering)} | ${f(sec.symbolic)} | ${f(sec.numeric)} | ${f(sec.solve)} | ${f(sec.total)} | ${f(coldSeconds)} | ${row.gflops.toFixed(2)} | ${row.bytesPerNnzL.toFixed(1)} | ${(row.peakRssBytes / 2 ** 30).toFixed(2)} GB | ${e(row.relativeResidual)} |`,
       );
     }
   }

@@ -27,6 +27,9 @@
  *    Sparse Linear Systems", SIAM 2006, section 4.7 (row k of L from a sparse
  *    triangular solve whose pattern is the reach in the elimination tree).
  *
+ * The numeric loop itself is in multifrontal.ts, which also runs one
+ * subtree of the supernodal tree on a worker thread for large problems.
+ *
  * Memory of the supernodal factor: 8 bytes per stored value (nnz(L) plus the
  * explicit zeros of relaxed supernodes, 5-20 % here), 4 bytes per row index
  * of a supernode (shared by its columns), and O(n) pointers: 9-11 bytes per

@@ -48,6 +48,8 @@ export interface SolveOptions {
   readonly ordering?: OrderingMethod;
   /** relative pivot tolerance (see factorCholesky) */
   readonly pivotTolerance?: number;
+  /** 1 keeps the numeric factorisation on this thread (default 2, see factorCholesky) */
+  readonly threads?: 1 | 2;
   /** relaxed supernode rules (see analyzeCholesky) */
   readonly relax?: RelaxOptions;
   /** leaf size of nested dissection in nodes */
@@ -69,8 +71,10 @@ export interface SolveStats {
   /** bytes held by the factor (values, indices, pointers, permutation) */
   readonly factorBytes: number;
   readonly bytesPerNnzL: number;
-  /** peak bytes of the multifrontal update stack plus the largest front (freed after the factorisation) */
+  /** peak bytes of the multifrontal update stack plus the largest front (reused by later factorisations) */
   readonly workspaceBytes: number;
+  /** threads of the numeric factorisation (2 when a subtree went to a worker) */
+  readonly threads: number;
   readonly seconds: { readonly ordering: number; readonly symbolic: number; readonly numeric: number; readonly solve: number };
   /** max over right-hand sides of ||A x - b|| / ||b|| (2-norms; 0 when b = 0 and x = 0) */
   readonly relativeResidual: number;
@@ -139,7 +143,7 @@ export function solveSpd(a: SymmetricCsc, b: Float64Array, options: SolveOptions
   const t1 = performance.now();
   const symbolic = analyzeCholesky(a, ordering, options.relax);
   const t2 = performance.now();
-  const factor = factorCholesky(a, symbolic, { pivotTolerance: options.pivotTolerance });
+  const factor = factorCholesky(a, symbolic, { pivotTolerance: options.pivotTolerance, threads: options.threads });
   const t3 = performance.now();
   const x = solveCholesky(factor, b, nrhs);
   const t4 = performance.now();
@@ -154,6 +158,7 @@ export function solveSpd(a: SymmetricCsc, b: Float64Array, options: SolveOptions
     factorBytes: factor.bytes,
     bytesPerNnzL: symbolic.nnzL > 0 ? factor.bytes / symbolic.nnzL : 0,
     workspaceBytes: 8 * (symbolic.stackPeak + symbolic.maxFront * symbolic.maxFront),
+    threads: factor.threads,
     seconds: { ordering: (t1 - t0) / 1e3, symbolic: (t2 - t1) / 1e3, numeric: (t3 - t2) / 1e3, solve: (t4 - t3) / 1e3 },
     relativeResidual: relativeResidual(a, x, b, nrhs),
   };
