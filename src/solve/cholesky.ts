@@ -753,7 +753,6 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
       threshold,
       lBuffer,
       useWasm: useHeap,
-      panel: PANEL,
     });
     const r1 = factorRange(ctxFor(0, split.first, updStart), kern, 0);
     if (r1.failedColumn >= 0) {

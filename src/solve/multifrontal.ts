@@ -205,9 +205,8 @@ export function chooseSplit(
   return { c: best, first: first[best] };
 }
 
-/** What the worker gets (structured-cloned; the SharedArrayBuffers are shared). */
-interface WorkerInput {
-  readonly wasmBytes: Uint8Array | null;
+/** One job for the worker (structured-cloned; the SharedArrayBuffers are shared). */
+interface WorkerJob {
   readonly n: number;
   readonly s0: number;
   readonly s1: number;
@@ -224,7 +223,7 @@ interface WorkerInput {
   readonly maxFront: number;
   readonly stackPeak: number;
   readonly threshold: number;
-  readonly panel: number;
+  readonly useWasm: boolean;
   /** shared: factor values */
   readonly lBuffer: SharedArrayBuffer;
   /** shared: the update matrix of the subtree root, packed */
@@ -235,77 +234,102 @@ interface WorkerInput {
   readonly pivot: SharedArrayBuffer;
 }
 
-/** Body of the worker (CommonJS, eval mode); the kernels' source is prepended. */
+/**
+ * Body of the worker (CommonJS, eval mode; the kernels' source is prepended).
+ * It stays alive between factorisations, so its compiled code and its
+ * WebAssembly memory are reused; each job arrives as a message and is
+ * answered through the job's shared status word.
+ */
 const WORKER_MAIN = `
-const { workerData: d } = require('node:worker_threads');
-const status = new Int32Array(d.status);
-try {
-  const superParent = d.superParent;
-  const nSuper = superParent.length;
-  const sHead = new Int32Array(nSuper).fill(-1);
-  const sNext = new Int32Array(nSuper).fill(-1);
-  for (let s = nSuper - 1; s >= 0; s--) {
-    const p = superParent[s];
-    if (p !== -1) { sNext[s] = sHead[p]; sHead[p] = s; }
-  }
-  const frontLen = d.maxFront * d.maxFront;
-  const stackLen = Math.max(1, d.stackPeak);
-  const relDoubles = Math.ceil(d.maxFront / 2) + 1;
-  let front, stack, rel, zeroLower = null, extendAdd = null, simdFront = null, simdStack = null;
-  const relByte = (frontLen + stackLen) * 8;
-  if (d.wasmBytes !== null) {
-    const bytes = (frontLen + stackLen + relDoubles) * 8;
-    const memory = new WebAssembly.Memory({ initial: Math.ceil(bytes / 65536) + 1 });
-    const ex = new WebAssembly.Instance(new WebAssembly.Module(d.wasmBytes), { env: { mem: memory } }).exports;
-    const view = new Float64Array(memory.buffer);
-    front = view.subarray(0, frontLen);
-    stack = view.subarray(frontLen, frontLen + stackLen);
-    rel = new Int32Array(memory.buffer, relByte, d.maxFront);
-    zeroLower = ex.zeroLower;
-    extendAdd = ex.extendAdd;
-    simdFront = { rowBlock4: ex.rowBlock4, fByte: 0, outByte: 0 };
-    simdStack = { rowBlock4: ex.rowBlock4, fByte: 0, outByte: frontLen * 8 };
-  } else {
-    front = new Float64Array(frontLen);
-    stack = new Float64Array(stackLen);
-    rel = new Int32Array(d.maxFront);
-  }
-  const ctx = {
-    s0: d.s0, s1: d.s1, superStart: d.superStart, superParent, rowPtr: d.rowPtr,
-    superRows: d.superRows, rowBase: d.rowBase, valuePtr: d.valuePtr, entryPtr: d.entryPtr,
-    entryValues: d.entryValues, entryOffset: d.entryOffset, entryBase: d.entryBase,
-    L: new Float64Array(d.lBuffer), front, stack, rel, map: new Int32Array(d.n), sHead, sNext,
-    updStart: new Float64Array(nSuper), threshold: d.threshold, panelScratch: new Float64Array(d.panel),
-    zeroLower, extendAdd, relByte, stackByte: frontLen * 8, simdFront, simdStack,
-  };
-  const kern = { factorFrontPivots, rankUpdate, lastPivot: () => failedPivotValue };
-  const r = factorRange(ctx, kern, 0);
-  if (r.failedColumn >= 0) {
-    status[1] = r.failedColumn;
-    new Float64Array(d.pivot)[0] = r.pivot;
-    Atomics.store(status, 0, 2);
-  } else {
-    const c = d.s1 - 1;
-    const u = (d.rowPtr[c + 1] - d.rowPtr[c]) - (d.superStart[c + 1] - d.superStart[c]);
-    const size = (u * (u + 1)) / 2;
-    new Float64Array(d.handoff).set(stack.subarray(ctx.updStart[c], ctx.updStart[c] + size));
-    Atomics.store(status, 0, 1);
-  }
-} catch (e) {
-  Atomics.store(status, 0, 3);
+const { parentPort, workerData } = require('node:worker_threads');
+let memory = null, ex = null;
+if (workerData.wasmBytes !== null) {
+  memory = new WebAssembly.Memory({ initial: 1 });
+  ex = new WebAssembly.Instance(new WebAssembly.Module(workerData.wasmBytes), { env: { mem: memory } }).exports;
 }
-Atomics.notify(status, 0);
+function runJob(d) {
+  const status = new Int32Array(d.status);
+  try {
+    const superParent = d.superParent;
+    const nSuper = superParent.length;
+    const sHead = new Int32Array(nSuper).fill(-1);
+    const sNext = new Int32Array(nSuper).fill(-1);
+    for (let s = nSuper - 1; s >= 0; s--) {
+      const p = superParent[s];
+      if (p !== -1) { sNext[s] = sHead[p]; sHead[p] = s; }
+    }
+    const frontLen = d.maxFront * d.maxFront;
+    const stackLen = Math.max(1, d.stackPeak);
+    const relDoubles = Math.ceil(d.maxFront / 2) + 1;
+    let front, stack, rel, zeroLower = null, extendAdd = null, simdFront = null, simdStack = null;
+    const relByte = (frontLen + stackLen) * 8;
+    if (d.useWasm && ex !== null) {
+      const bytes = (frontLen + stackLen + relDoubles) * 8;
+      if (bytes > memory.buffer.byteLength) memory.grow(Math.ceil((bytes - memory.buffer.byteLength) / 65536));
+      const view = new Float64Array(memory.buffer);
+      front = view.subarray(0, frontLen);
+      stack = view.subarray(frontLen, frontLen + stackLen);
+      rel = new Int32Array(memory.buffer, relByte, d.maxFront);
+      zeroLower = ex.zeroLower;
+      extendAdd = ex.extendAdd;
+      simdFront = { rowBlock4: ex.rowBlock4, fByte: 0, outByte: 0 };
+      simdStack = { rowBlock4: ex.rowBlock4, fByte: 0, outByte: frontLen * 8 };
+    } else {
+      front = new Float64Array(frontLen);
+      stack = new Float64Array(stackLen);
+      rel = new Int32Array(d.maxFront);
+    }
+    const ctx = {
+      s0: d.s0, s1: d.s1, superStart: d.superStart, superParent, rowPtr: d.rowPtr,
+      superRows: d.superRows, rowBase: d.rowBase, valuePtr: d.valuePtr, entryPtr: d.entryPtr,
+      entryValues: d.entryValues, entryOffset: d.entryOffset, entryBase: d.entryBase,
+      L: new Float64Array(d.lBuffer), front, stack, rel, map: new Int32Array(d.n), sHead, sNext,
+      updStart: new Float64Array(nSuper), threshold: d.threshold, panelScratch: new Float64Array(PANEL),
+      zeroLower, extendAdd, relByte, stackByte: frontLen * 8, simdFront, simdStack,
+    };
+    const kern = { factorFrontPivots, rankUpdate, lastPivot: () => failedPivotValue };
+    const r = factorRange(ctx, kern, 0);
+    if (r.failedColumn >= 0) {
+      status[1] = r.failedColumn;
+      new Float64Array(d.pivot)[0] = r.pivot;
+      Atomics.store(status, 0, 2);
+    } else {
+      const c = d.s1 - 1;
+      const u = (d.rowPtr[c + 1] - d.rowPtr[c]) - (d.superStart[c + 1] - d.superStart[c]);
+      const size = (u * (u + 1)) / 2;
+      new Float64Array(d.handoff).set(stack.subarray(ctx.updStart[c], ctx.updStart[c] + size));
+      Atomics.store(status, 0, 1);
+    }
+  } catch (e) {
+    Atomics.store(status, 0, 3);
+  }
+  Atomics.notify(status, 0);
+}
+parentPort.on('message', runJob);
 `;
 
-/** A running worker factorising one subtree. */
+/** A subtree factorisation under way on the worker. */
 export interface SubtreeWorker {
-  /** blocks until the worker is done; returns the failed column or -1, and the pivot */
+  /** blocks until the worker is done (or timeoutMs passed) */
   join(timeoutMs: number): { state: 'done' | 'pivot' | 'error' | 'timeout'; failedColumn: number; pivot: number };
   readonly handoff: Float64Array;
+  /** stops the worker (after a failure elsewhere or a time-out); a later job starts a new one */
   terminate(): void;
 }
 
-/** Starts a worker on subtree [first, c] of the supernodal tree. */
+let persistent: { worker: Worker; wasm: boolean } | null = null;
+
+function workerFor(useWasm: boolean): Worker {
+  if (persistent !== null && persistent.wasm === useWasm) return persistent.worker;
+  if (persistent !== null) void persistent.worker.terminate();
+  const code = `${denseKernelSource()}\n${factorRange.toString()}\n${WORKER_MAIN}`;
+  const worker = new Worker(code, { eval: true, workerData: { wasmBytes: useWasm ? wasmModuleBytes() : null } });
+  worker.unref(); // never keeps the process alive
+  persistent = { worker, wasm: useWasm };
+  return worker;
+}
+
+/** Sends subtree [first, c] of the supernodal tree to the worker thread. */
 export function startSubtreeWorker(args: {
   n: number;
   first: number;
@@ -321,7 +345,6 @@ export function startSubtreeWorker(args: {
   threshold: number;
   lBuffer: SharedArrayBuffer;
   useWasm: boolean;
-  panel: number;
 }): SubtreeWorker {
   const { first, c, superStart, rowPtr, entryPtr } = args;
   const s0 = first;
@@ -347,8 +370,7 @@ export function startSubtreeWorker(args: {
   const handoff = new SharedArrayBuffer(Math.max(8, upd[c] * 8));
   const rowBase = rowPtr[s0];
   const entryBase = entryPtr[s0];
-  const input: WorkerInput = {
-    wasmBytes: args.useWasm ? wasmModuleBytes() : null,
+  const job: WorkerJob = {
     n: args.n,
     s0,
     s1,
@@ -365,15 +387,14 @@ export function startSubtreeWorker(args: {
     maxFront,
     stackPeak,
     threshold: args.threshold,
-    panel: args.panel,
+    useWasm: args.useWasm,
     lBuffer: args.lBuffer,
     handoff,
     status,
     pivot,
   };
-  const code = `${denseKernelSource()}\n${factorRange.toString()}\n${WORKER_MAIN}`;
-  const worker = new Worker(code, { eval: true, workerData: input });
-  worker.unref();
+  const worker = workerFor(args.useWasm);
+  worker.postMessage(job);
   const st = new Int32Array(status);
   return {
     handoff: new Float64Array(handoff, 0, upd[c]),
@@ -390,6 +411,7 @@ export function startSubtreeWorker(args: {
       return { state: 'error', failedColumn: -1, pivot: 0 };
     },
     terminate() {
+      if (persistent !== null && persistent.worker === worker) persistent = null;
       void worker.terminate();
     },
   };
