@@ -365,6 +365,13 @@ describe('solveSpd', () => {
     for (const t of Object.values(s.seconds)) expect(t).toBeGreaterThanOrEqual(0);
   });
 
+  it('a 1 x 1 system and an empty one are solved', () => {
+    const one = assembleSymmetric(1, Int32Array.of(0), Int32Array.of(0), Float64Array.of(4), 'full');
+    expect(Array.from(solveSpd(one, Float64Array.of(2)).x)).toEqual([0.5]);
+    const none = assembleSymmetric(0, new Int32Array(0), new Int32Array(0), new Float64Array(0), 'full');
+    expect(solveSpd(none, new Float64Array(0)).x.length).toBe(0);
+  });
+
   it('a reduced matrix without fullDofOfRow is refused for nested dissection rather than silently misordered', () => {
     const p = cantileverProblem(6, 3, 9);
     expect(() => solveSpd(p.matrix, new Float64Array(p.matrix.n).fill(1), { coords: p.mesh.coords, nodeAdjacency: p.adjacency })).toThrow(RangeError);
