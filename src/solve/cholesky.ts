@@ -736,31 +736,35 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
   const updStart = new Float64Array(nSuper);
   const fail = (col: number, pivot: number): SolverPivotError => new SolverPivotError(col, perm[col], pivot, threshold);
 
-  if (split !== null && lBuffer !== null) {
-    // main: [0, first); worker: [first, c]; then main: (c, nSuper)
-    const worker = startSubtreeWorker({
-      n,
-      first: split.first,
-      c: split.c,
-      superStart,
-      superParent,
-      rowPtr,
-      superRows,
-      valuePtr,
-      entryPtr,
-      entryValues,
-      entryOffset,
-      threshold,
-      lBuffer,
-      useWasm: useHeap,
-    });
+  // main: [0, first); worker: [first, c]; then main: (c, nSuper)
+  const worker =
+    split !== null && lBuffer !== null
+      ? startSubtreeWorker({
+          n,
+          first: split.first,
+          c: split.c,
+          superStart,
+          superParent,
+          rowPtr,
+          superRows,
+          valuePtr,
+          entryPtr,
+          entryValues,
+          entryOffset,
+          threshold,
+          lBuffer,
+          useWasm: useHeap,
+        })
+      : null;
+  if (split !== null && worker !== null) {
     const r1 = factorRange(ctxFor(0, split.first, updStart), kern, 0);
     if (r1.failedColumn >= 0) {
       worker.terminate();
       throw fail(r1.failedColumn, r1.pivot);
     }
-    // generous: a stuck worker falls back to this thread after this long
-    const j = worker.join(60_000 + symbolic.flops / 1e5);
+    // generous (the worker's part at 1 GFLOP/s plus a minute): a stuck
+    // worker is stopped and its part done on this thread
+    const j = worker.join(60_000 + symbolic.flops / 1e6);
     let top = r1.top;
     if (j.state === 'pivot') throw fail(j.failedColumn, j.pivot);
     if (j.state === 'done') {
@@ -768,7 +772,6 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
       stack.set(worker.handoff, top);
       top += worker.handoff.length;
     } else {
-      // the worker could not finish: factorise its subtree here instead
       worker.terminate();
       const r2 = factorRange(ctxFor(split.first, split.c + 1, updStart), kern, top);
       if (r2.failedColumn >= 0) throw fail(r2.failedColumn, r2.pivot);

@@ -11,11 +11,12 @@
  * columns in one rank update with long inner products, then factorised)
  * and Crout (dot-product form) inside a panel: a block Cholesky as in G. H.
  * Golub and C. F. Van Loan, "Matrix Computations", 4th ed., Johns Hopkins
- * 2013, section 4.2.9. The symmetric rank-w updates
- * are register-blocked, 4 rows x 2 columns of the output per pass over the
- * inner index, so each pair of loads feeds more than one multiply-add (the
- * register-blocking idea of K. Goto and R. van de Geijn, "Anatomy of
- * high-performance matrix multiplication", ACM TOMS 34, 2008, in scalar form).
+ * 2013, section 4.2.9. The symmetric rank-w updates are register-blocked,
+ * 4 rows x 2 columns of the output per pass over the inner index, so each
+ * pair of loads feeds more than one multiply-add (the register-blocking idea
+ * of K. Goto and R. van de Geijn, "Anatomy of high-performance matrix
+ * multiplication", ACM TOMS 34, 2008): in scalar JavaScript here, and with
+ * two-lane SIMD for the full 4 x 2 blocks in wasm-kernel.ts.
  */
 
 import type { RowBlock4 } from './wasm-kernel.js';

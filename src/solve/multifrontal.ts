@@ -242,6 +242,11 @@ interface WorkerJob {
  */
 const WORKER_MAIN = `
 const { parentPort, workerData } = require('node:worker_threads');
+{
+  const ready = new Int32Array(workerData.ready);
+  Atomics.store(ready, 0, 1);
+  Atomics.notify(ready, 0);
+}
 let memory = null, ex = null;
 if (workerData.wasmBytes !== null) {
   memory = new WebAssembly.Memory({ initial: 1 });
@@ -318,18 +323,42 @@ export interface SubtreeWorker {
 }
 
 let persistent: { worker: Worker; wasm: boolean } | null = null;
+let workersUnavailable = false;
 
-function workerFor(useWasm: boolean): Worker {
+/**
+ * The worker, started on first use. Its code signals readiness through a
+ * shared word; a worker that cannot start (no threads here, or its code
+ * does not compile in this environment) is reported as null once and the
+ * factorisation stays on one thread.
+ */
+function workerFor(useWasm: boolean): Worker | null {
+  if (workersUnavailable) return null;
   if (persistent !== null && persistent.wasm === useWasm) return persistent.worker;
   if (persistent !== null) void persistent.worker.terminate();
+  persistent = null;
   const code = `${denseKernelSource()}\n${factorRange.toString()}\n${WORKER_MAIN}`;
-  const worker = new Worker(code, { eval: true, workerData: { wasmBytes: useWasm ? wasmModuleBytes() : null } });
+  const ready = new SharedArrayBuffer(4);
+  let worker: Worker;
+  try {
+    worker = new Worker(code, { eval: true, workerData: { wasmBytes: useWasm ? wasmModuleBytes() : null, ready } });
+  } catch {
+    workersUnavailable = true;
+    return null;
+  }
   worker.unref(); // never keeps the process alive
+  if (Atomics.wait(new Int32Array(ready), 0, 0, WORKER_START_TIMEOUT_MS) === 'timed-out') {
+    void worker.terminate();
+    workersUnavailable = true;
+    return null;
+  }
   persistent = { worker, wasm: useWasm };
   return worker;
 }
 
-/** Sends subtree [first, c] of the supernodal tree to the worker thread. */
+/** How long a new worker may take to start before the second thread is given up. */
+const WORKER_START_TIMEOUT_MS = 10_000;
+
+/** Sends subtree [first, c] of the supernodal tree to the worker thread; null when no worker can run. */
 export function startSubtreeWorker(args: {
   n: number;
   first: number;
@@ -345,7 +374,9 @@ export function startSubtreeWorker(args: {
   threshold: number;
   lBuffer: SharedArrayBuffer;
   useWasm: boolean;
-}): SubtreeWorker {
+}): SubtreeWorker | null {
+  const worker = workerFor(args.useWasm);
+  if (worker === null) return null;
   const { first, c, superStart, rowPtr, entryPtr } = args;
   const s0 = first;
   const s1 = c + 1;
@@ -393,7 +424,6 @@ export function startSubtreeWorker(args: {
     status,
     pivot,
   };
-  const worker = workerFor(args.useWasm);
   worker.postMessage(job);
   const st = new Int32Array(status);
   return {
