@@ -15,31 +15,15 @@ import { addEdgeTraction } from '../src/fem/boundary-conditions.js';
 import { constitutiveMatrix } from '../src/fem/material.js';
 import { generateMesh } from '../src/mesh/generate.js';
 import { findPeak } from '../src/post/peak.js';
-import { FieldProbe } from '../src/post/probe.js';
+import { FieldProbe } from '../src/mesh/probe.js';
 import { averageNodalStress, recoverNodalStress, type KnownTraction } from '../src/post/recover.js';
 import { elementStressAt, sampleElementStresses, StressWorkspace } from '../src/post/stress.js';
 import { solveLinear } from './support/fe.js';
+import { kirsch } from './support/kirsch.js';
 
 const A = 1;
 const L = 6;
 const S = 100;
-
-/** Kirsch stresses for remote sxx = S (REFERENCES.md section 1, Cartesian form). */
-export function kirsch(x: number, y: number): [number, number, number] {
-  const r2 = x * x + y * y;
-  const th = Math.atan2(y, x);
-  const a2 = (A * A) / r2;
-  const a4 = a2 * a2;
-  const c2 = Math.cos(2 * th);
-  const c4 = Math.cos(4 * th);
-  const s2 = Math.sin(2 * th);
-  const s4 = Math.sin(4 * th);
-  return [
-    S * (1 - a2 * (1.5 * c2 + c4) + 1.5 * a4 * c4),
-    S * (-a2 * (0.5 * c2 - c4) - 1.5 * a4 * c4),
-    S * (-a2 * (0.5 * s2 + s4) + 1.5 * a4 * s4),
-  ];
-}
 
 function solveKirsch(order: 1 | 2, sizeFactor = 1) {
   const domain = buildDomain({

@@ -18,7 +18,7 @@
 import { describe, expect, it } from 'vitest';
 import type { Model } from '../src/model/schema.js';
 import { analyseModel } from '../src/pipeline/analyse.js';
-import { FieldProbe } from '../src/post/probe.js';
+import { FieldProbe } from '../src/mesh/probe.js';
 
 const A_IN = 10;
 const B_OUT = 30;

@@ -7,6 +7,7 @@ import { STRESS_MEASURES, type StressMeasure } from '../model/schema.js';
 import { AnalysisError, ModelError } from '../model/errors.js';
 import { loadModelFile } from '../model/load.js';
 import { analyseModel } from '../pipeline/analyse.js';
+import { certifyModel } from '../pipeline/certify.js';
 import { buildResult, TOOL_VERSION } from '../report/result.js';
 import { formatSummary } from '../report/summary.js';
 import { writeResultFiles } from '../report/files.js';
@@ -15,6 +16,8 @@ import { newCommand } from './new.js';
 export const EXIT = { ok: 0, internal: 1, badInput: 2, cannotAnalyse: 3 } as const;
 
 interface SolveFlags {
+  accuracy?: string;
+  singleMesh?: boolean;
   json?: boolean;
   out?: string;
   force?: boolean;
@@ -23,11 +26,32 @@ interface SolveFlags {
   debug?: boolean;
 }
 
+/** "0.5%" or "0.005" -> 0.005; a ModelError for anything else. */
+export function parseAccuracy(text: string): number {
+  const m = /^\s*(\d*\.?\d+(?:e-?\d+)?)\s*(%?)\s*$/i.exec(text);
+  const v = m ? Number(m[1]) / (m[2] ? 100 : 1) : NaN;
+  if (!(v > 0 && v < 0.5)) {
+    throw new ModelError('--accuracy', `"${text}" is not an accuracy raiser can aim for`, 'give a relative error such as 1% or 0.005 (more than 0, less than 50%)');
+  }
+  return v;
+}
+
 function runSolve(file: string, flags: SolveFlags): number {
   const { model, warnings } = loadModelFile(file);
-  const analysis = analyseModel(model, { measure: flags.measure, element: flags.element });
+  const opts = { measure: flags.measure, element: flags.element };
+  let analysis;
+  let cert = null;
+  if (flags.singleMesh) {
+    analysis = analyseModel(model, opts);
+  } else {
+    cert = certifyModel(model, { ...opts, target: parseAccuracy(flags.accuracy ?? '1%') });
+    analysis = cert.analysis;
+    if (cert.status === 'not-converged') {
+      analysis.warnings.push(`the accuracy target ${(100 * cert.target).toPrecision(2)}% was not met; the error band shown is what the meshes support`);
+    }
+  }
   analysis.warnings.unshift(...warnings.map((w) => w.describe()));
-  const result = buildResult(analysis, file);
+  const result = buildResult(analysis, file, cert);
   let written: string[] = [];
   if (flags.out) written = writeResultFiles(flags.out, analysis, result, flags.force ?? false);
   if (flags.json) {
@@ -55,6 +79,8 @@ export function main(argv: string[]): number {
     .command('solve')
     .description('mesh, solve and report the peak stress, nominal stress and Kt of a model file')
     .argument('<model>', 'model file (JSON)')
+    .option('--accuracy <target>', 'refine until the estimated error of the peak (and Kt) is below this, e.g. 0.5% (default 1%)')
+    .option('--single-mesh', 'solve on one mesh only, without the convergence study (no error estimate)')
     .option('--json', 'print the result as one JSON object on stdout, nothing else')
     .option('-o, --out <dir>', 'write result files (result.json, nodes.csv) into this folder')
     .option('--force', 'replace result files that already exist in the output folder')

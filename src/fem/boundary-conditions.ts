@@ -123,7 +123,13 @@ export function outerEdges(domain: Domain): number[] {
   });
 }
 
-export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports: CompiledSupports, warnings: string[]): CompiledLoads {
+/** A traction field on domain edges given in code rather than in the model (verification cases). */
+export interface ExtraTraction {
+  edges: number[];
+  q: TractionField;
+}
+
+export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports: CompiledSupports, warnings: string[], extra: readonly ExtraTraction[] = []): CompiledLoads {
   const t = model.thickness;
   const f = new Float64Array(2 * mesh.nNodes);
   const loaded = new Uint8Array(domain.edges.length);
@@ -205,6 +211,12 @@ export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports:
     for (const e of edges) loaded[e] = 1;
     items.push({ index, type: load.type, fx, fy, edges });
   });
+  for (const x of extra) {
+    const mask = edgeMask(domain, x.edges);
+    apply(mask, x.q);
+    for (const e of x.edges) loaded[e] = 1;
+    items.push({ index: -1, type: 'traction', fx: NaN, fy: NaN, edges: x.edges });
+  }
   let any = false;
   for (let i = 0; i < f.length; i++) if (f[i] !== 0) any = true;
   if (!any) throw new ModelError('loads', 'no load acts on the model: every load is zero or matched no edge', 'check the load values and the edges they name');

@@ -5,7 +5,7 @@
  * the field interpolated with the element's shape functions.
  */
 import { shapeP2 } from '../fem/elements.js';
-import type { Mesh } from '../mesh/types.js';
+import type { Mesh } from './types.js';
 
 export class FieldProbe {
   private readonly cells: Map<number, number[]> = new Map();

@@ -14,6 +14,7 @@
  */
 import { curvatureRadius, curveConcavity, curveDerivative, curveLength, evaluateCurve } from '../geometry/curve.js';
 import type { Domain } from '../geometry/domain.js';
+import type { SizeLimit } from './background.js';
 
 export interface SizeOptions {
   order: 1 | 2;
@@ -25,6 +26,8 @@ export interface SizeOptions {
   grading?: number;
   /** multiplies every size (1 = as given or as defaulted); used to build series of meshes */
   sizeFactor?: number;
+  /** a further limit on the size, from an error estimate on an earlier mesh (already scaled) */
+  limit?: SizeLimit;
 }
 
 export interface SizeSource {
@@ -66,7 +69,10 @@ export class SizeField {
   private cellStart = new Int32Array(1);
   private cellList = new Int32Array(0);
 
-  constructor(hGlobal: number, grading: number, sources: { meta: SizeSource; geom: number[] }[], bbox?: readonly [number, number, number, number]) {
+  private readonly limit?: SizeLimit;
+
+  constructor(hGlobal: number, grading: number, sources: { meta: SizeSource; geom: number[] }[], bbox?: readonly [number, number, number, number], limit?: SizeLimit) {
+    this.limit = limit;
     this.hGlobal = hGlobal;
     this.grading = grading;
     this.count = sources.length;
@@ -166,6 +172,12 @@ export class SizeField {
 
   /** Target edge length at (x, y). */
   at(x: number, y: number): number {
+    const h = this.atSources(x, y);
+    if (!this.limit) return h;
+    return Math.min(h, this.limit.at(x, y));
+  }
+
+  private atSources(x: number, y: number): number {
     let h = this.hGlobal;
     if (this.nx > 0) {
       const i = Math.floor((x - this.gx0) / this.cell);
@@ -246,7 +258,7 @@ export function buildSizeField(domain: Domain, opts: SizeOptions): SizeField {
     sources.push({ meta: { kind: 'point', edge: -1, h }, geom: [POINT, h, corner.x, corner.y] });
   }
   addLigamentSources(domain, hGlobal, ELEMENTS_ACROSS[opts.order] / k, sources);
-  return new SizeField(hGlobal, grading, sources, domain.bbox);
+  return new SizeField(hGlobal, grading, sources, domain.bbox, opts.limit);
 }
 
 /** Elements across a narrow ligament or strip, by element order (common practice). */

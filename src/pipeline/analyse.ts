@@ -7,10 +7,12 @@ import { buildDomain, type Domain } from '../geometry/domain.js';
 import { traceLoops } from '../geometry/validate.js';
 import { validateDomain } from '../geometry/validate.js';
 import { assembleSystem, internalForces, meshNodeGraph } from '../fem/assemble.js';
-import { compileLoads, compileSupports, type CompiledLoads } from '../fem/boundary-conditions.js';
+import { compileLoads, compileSupports, type CompiledLoads, type ExtraTraction } from '../fem/boundary-conditions.js';
 import { constitutiveMatrix, type PlaneState } from '../fem/material.js';
 import { checkRigidMotion } from '../fem/rigid.js';
 import { generateMesh } from '../mesh/generate.js';
+import type { HardPoint } from '../mesh/boundary.js';
+import type { SizeLimit } from '../mesh/background.js';
 import type { Mesh, MeshStats } from '../mesh/types.js';
 import { AnalysisError, ModelError } from '../model/errors.js';
 import { nearestBoundaryPoint } from '../geometry/project.js';
@@ -53,6 +55,8 @@ export interface Analysis {
   /** nodal forces K u */
   nodalForce: Float64Array;
   szzFactor: number;
+  /** the constitutive matrix used */
+  D: Float64Array;
   peak: Peak;
   direction: [number, number];
   net: NominalInfo;
@@ -66,15 +70,25 @@ export interface Analysis {
   warnings: string[];
 }
 
-export function analyseModel(model: Model, opts: AnalyseOptions = {}): Analysis {
-  const t0 = performance.now();
-  const warnings: string[] = [];
+/** What every mesh of one model shares: the model checked, its domain, units and options. */
+export interface PreparedModel {
+  model: Model;
+  units: ResolvedUnits;
+  state: PlaneState;
+  measure: StressMeasure;
+  domain: Domain;
+  order: 1 | 2;
+  hardPoints: HardPoint[];
+  /** traction fields given in code, beside the model's loads (closed-form verification cases) */
+  extraTractions?: ExtraTraction[];
+}
+
+export function prepareModel(model: Model, opts: AnalyseOptions = {}): PreparedModel {
   const units = resolveUnits(model.units);
   const state: PlaneState = model.state ?? 'plane-stress';
   const measure: StressMeasure = opts.measure ?? model.results?.measure ?? 'max-principal';
   const domain = buildDomain(model.geometry);
   validateDomain(domain);
-
   const order = (opts.element ?? model.mesh?.element ?? 'quadratic') === 'linear' ? 1 : 2;
   // Pins must sit on a node: they become hard points of the boundary discretisation.
   const hardPoints = model.supports.flatMap((s, i) => {
@@ -85,7 +99,19 @@ export function analyseModel(model: Model, opts: AnalyseOptions = {}): Analysis 
     }
     return [{ edge: b.edge, t: b.t }];
   });
-  const k = opts.sizeFactor ?? 1;
+  return { model, units, state, measure, domain, order, hardPoints };
+}
+
+/** One analysis on the model's own mesh (scaled by opts.sizeFactor). */
+export function analyseModel(model: Model, opts: AnalyseOptions = {}): Analysis {
+  return analyseOnMesh(prepareModel(model, opts), { sizeFactor: opts.sizeFactor });
+}
+
+/** Meshes (with the given scaling and size limit), solves and evaluates. */
+export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: number; limit?: SizeLimit } = {}): Analysis {
+  const t0 = performance.now();
+  const warnings: string[] = [];
+  const { model, units, state, measure, domain, order, hardPoints } = prep;
   const ms = model.mesh ?? {};
   const { mesh, stats: meshStats } = generateMesh(domain, {
     order,
@@ -93,13 +119,14 @@ export function analyseModel(model: Model, opts: AnalyseOptions = {}): Analysis 
     raiserSize: ms.raiserSize,
     grading: ms.grading,
     minAngleDeg: ms.minAngle,
-    sizeFactor: k,
+    sizeFactor: meshing.sizeFactor ?? 1,
+    limit: meshing.limit,
     hardPoints,
   });
   const t1 = performance.now();
 
   const supports = compileSupports(model, domain, mesh, warnings);
-  const loads = compileLoads(model, domain, mesh, supports, warnings);
+  const loads = compileLoads(model, domain, mesh, supports, warnings, prep.extraTractions);
   checkRigidMotion(mesh, supports.constraints.fixed, domain.scale);
   const D = constitutiveMatrix(model.material.E, model.material.nu, state);
   const system = assembleSystem(mesh, D, model.thickness, loads.f, supports.constraints);
@@ -149,7 +176,7 @@ export function analyseModel(model: Model, opts: AnalyseOptions = {}): Analysis 
   const peak = findPeak(mesh, domain, stress, measure, szzFactor);
 
   // Load direction and kind of nominal stress.
-  const bendingOnly = model.loads.every((l) => l.type === 'moment');
+  const bendingOnly = model.loads.length > 0 && !prep.extraTractions?.length && model.loads.every((l) => l.type === 'moment');
   let dir: [number, number];
   if (model.results?.direction) {
     const [a, b] = model.results.direction;
@@ -219,6 +246,7 @@ export function analyseModel(model: Model, opts: AnalyseOptions = {}): Analysis 
     stress,
     nodalForce: r,
     szzFactor,
+    D,
     peak,
     direction: dir,
     net,

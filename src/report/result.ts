@@ -4,6 +4,7 @@
  * keep the two in step.
  */
 import type { Analysis } from '../pipeline/analyse.js';
+import type { Certified } from '../pipeline/certify.js';
 import type { Cut } from '../post/section.js';
 
 export const TOOL_VERSION = '0.1.0';
@@ -34,18 +35,79 @@ function cut(c: Cut, scale: number) {
   };
 }
 
-export function buildResult(a: Analysis, file?: string) {
+/** The convergence record: the mesh series, the band and how it was found. */
+function convergence(c: Certified | null, scale: number) {
+  if (!c) {
+    return {
+      status: 'single-mesh' as const,
+      target: null,
+      estimatedError: null,
+      observedOrder: null,
+      theoreticalOrder: null,
+      orderUsed: null,
+      safetyFactor: null,
+      behaviour: null,
+      asymptoticRatio: null,
+      extrapolatedPeak: null,
+      meshes: [],
+      adaptation: null,
+      notes: ['one mesh only: the discretisation error is not estimated'],
+      timeMs: null,
+    };
+  }
+  const g = c.gci;
+  const num = (v: number | undefined) => (v === undefined || !Number.isFinite(v) ? null : v);
+  return {
+    status: c.status,
+    target: c.target,
+    estimatedError: num(g?.gci),
+    observedOrder: num(g?.observedOrder),
+    theoreticalOrder: c.theoreticalOrder,
+    orderUsed: num(g?.orderUsed),
+    safetyFactor: num(g?.safetyFactor),
+    behaviour: g?.behaviour ?? null,
+    asymptoticRatio: num(g?.asymptoticRatio),
+    extrapolatedPeak: num(g?.extrapolated) === null ? null : Math.sign(c.analysis.peak.stress) * g!.extrapolated,
+    meshes: c.meshes.map((r) => ({
+      elements: r.elements,
+      nodes: r.nodes,
+      dofs: r.dofs,
+      relativeSize: r.relativeSize,
+      peak: r.peak,
+      peakX: snap(r.peakX, scale),
+      peakY: snap(r.peakY, scale),
+      ktNet: r.ktNet,
+      ktGross: r.ktGross,
+      timeMs: r.timeMs,
+    })),
+    adaptation: c.adapted,
+    notes: [...(g?.notes ?? []), ...c.notes],
+    timeMs: c.totalTimeMs,
+  };
+}
+
+export function buildResult(a: Analysis, file?: string, cert: Certified | null = null) {
   const m = a.model;
   const y = m.material.yield;
   const scale = a.domain.scale;
+  const conv = convergence(cert, scale);
+  const singular = cert?.status === 'singular';
+  const err = conv.estimatedError;
+  const band = (v: number) => (err === null || singular ? null : ([v * (1 - err), v * (1 + err)] as [number, number]));
+  const extrapolated = (v: number) => (conv.extrapolatedPeak === null || singular ? null : (v * conv.extrapolatedPeak) / a.peak.stress);
   return {
     tool: { name: 'raiser', version: TOOL_VERSION },
     model: { title: m.title ?? null, file: file ?? null, chart: m.chart ?? null },
     units: { length: a.units.length, force: a.units.force, stress: a.units.stress, moment: a.units.moment },
     analysis: { state: a.state, measure: a.peak.measure, thickness: m.thickness, E: m.material.E, nu: m.material.nu },
     kt: {
-      net: a.kt.net,
-      gross: a.kt.gross,
+      net: singular ? null : a.kt.net,
+      gross: singular ? null : a.kt.gross,
+      error: singular ? null : err,
+      netBand: band(a.kt.net),
+      grossBand: band(a.kt.gross),
+      netExtrapolated: extrapolated(a.kt.net),
+      grossExtrapolated: extrapolated(a.kt.gross),
       netDefinition: `peak ${a.peak.measure} stress / net nominal stress (${a.net.definition})`,
       grossDefinition: `peak ${a.peak.measure} stress / gross nominal stress (${a.gross.definition})`,
     },
@@ -91,6 +153,7 @@ export function buildResult(a: Analysis, file?: string) {
       relativeResidual: a.solveStats.relativeResidual,
     },
     timeMs: a.timeMs,
+    convergence: conv,
     safety: {
       yield: y ?? null,
       ultimate: m.material.ultimate ?? null,

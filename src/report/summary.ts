@@ -33,8 +33,40 @@ export function formatSummary(r: ResultJson): string {
   out.push(`  gross nominal stress  ${fmt(n.gross.stress)} ${u.stress}`);
   out.push(`      ${n.gross.definition}`);
   out.push('');
-  out.push(`  Kt net    ${fmt(r.kt.net, 4)}   = peak / net nominal stress`);
-  out.push(`  Kt gross  ${fmt(r.kt.gross, 4)}   = peak / gross nominal stress`);
+  const c = r.convergence;
+  const pct = (v: number) => `${fmt(100 * v, 2)}%`;
+  if (r.kt.net === null || r.kt.gross === null) {
+    out.push(`  Kt        none: the peak does not converge`);
+    out.push(`      the peak at ${pt([r.peak.x, r.peak.y])} (${r.peak.feature}) grows as the mesh is refined; the elastic stress at a sharp`);
+    out.push(`      re-entrant corner is infinite, so no Kt exists there. Model the real corner radius and solve again.`);
+  } else {
+    const pm = r.kt.error === null ? '' : ` +- ${pct(r.kt.error)}`;
+    out.push(`  Kt net    ${fmt(r.kt.net, 4)}${pm}   = peak / net nominal stress`);
+    out.push(`  Kt gross  ${fmt(r.kt.gross, 4)}${pm}   = peak / gross nominal stress`);
+    if (r.kt.netExtrapolated !== null && r.kt.grossExtrapolated !== null) {
+      out.push(`      extrapolated to a zero mesh size: Kt net ${fmt(r.kt.netExtrapolated, 5)}, Kt gross ${fmt(r.kt.grossExtrapolated, 5)}`);
+    }
+  }
+  out.push('');
+  if (c.status === 'single-mesh') {
+    out.push('  accuracy  one mesh only: the discretisation error is not estimated');
+  } else {
+    const head =
+      c.status === 'converged'
+        ? `target ${pct(c.target!)} met: estimated error ${pct(c.estimatedError!)}`
+        : c.status === 'singular'
+          ? 'the peak diverges under refinement'
+          : `target ${pct(c.target!)} NOT met: estimated error ${c.estimatedError === null ? 'unknown' : pct(c.estimatedError)}`;
+    const order = c.observedOrder === null ? 'no observed order' : `observed order ${fmt(c.observedOrder, 3)} (theory ${c.theoreticalOrder})`;
+    out.push(`  accuracy  ${head}; ${order}, safety factor ${c.safetyFactor ?? '-'} (grid convergence index over the last three meshes)`);
+    out.push('      DOF        elements   peak          Kt net     Kt gross   time');
+    for (const m of c.meshes) {
+      out.push(
+        `      ${String(m.dofs).padEnd(10)} ${String(m.elements).padEnd(10)} ${fmt(m.peak, 6).padEnd(13)} ${fmt(m.ktNet, 5).padEnd(10)} ${fmt(m.ktGross, 5).padEnd(10)} ${fmt(m.timeMs, 3)} ms`,
+      );
+    }
+    for (const note of c.notes) out.push(`      ${note}`);
+  }
   out.push('');
   out.push(
     `  mesh   ${r.mesh.nodes} nodes, ${r.mesh.elements} ${r.mesh.elementType} triangles (${r.mesh.nodesPerElement}-node), ${r.mesh.dofs} DOF, smallest angle ${fmt(r.mesh.minAngleDeg, 3)} deg`,
