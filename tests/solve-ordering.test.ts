@@ -126,7 +126,7 @@ describe('fill reduction', () => {
     const amd = analyzeCholesky(g, orderAmd(adjacencyGraph(g))).nnzL;
     const nd = analyzeCholesky(g, orderNestedDissectionNodes(geo.adjacency, geo.coords, { leafSize: 32 })).nnzL;
     expect(amd / nat).toBeLessThan(0.4); // measured 0.32
-    expect(nd / nat).toBeLessThan(0.5); // measured 0.44
+    expect(nd / nat).toBeLessThan(0.5); // measured 0.42
   });
 
   it('on a 40 x 20 cantilever stiffness, AMD and nested dissection give < 0.35 of the natural nnz(L)', () => {
@@ -137,6 +137,6 @@ describe('fill reduction', () => {
     const ndFull = orderNestedDissection(p.adjacency, p.mesh.coords, 2);
     const nd = analyzeCholesky(a, restrictOrdering(ndFull.perm, p.rowOfFullDof)).nnzL;
     expect(amd / nat).toBeLessThan(0.35); // measured 0.26
-    expect(nd / nat).toBeLessThan(0.35); // measured 0.32
+    expect(nd / nat).toBeLessThan(0.35); // measured 0.29
   });
 });
