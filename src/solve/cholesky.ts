@@ -8,7 +8,7 @@
  *    role of elimination trees in sparse factorization", SIAM J. Matrix Anal.
  *    Appl. 11, 1990 (path-compressed ancestor algorithm);
  *  - postorder of the tree: an equivalent reordering with the same fill
- *    (Liu 1990, section 3), which makes supernodes contiguous;
+ *    (Liu 1990), which makes supernodes contiguous;
  *  - column counts of L: J. R. Gilbert, E. G. Ng and B. W. Peyton, "An
  *    efficient algorithm to compute row and column counts for sparse Cholesky
  *    factorization", SIAM J. Matrix Anal. Appl. 15, 1994 (row subtrees, their
@@ -24,7 +24,7 @@
  *    sparse matrix solution: theory and practice", SIAM Review 34, 1992;
  *  - numeric factorisation, simplicial up-looking (kept as the simple,
  *    independently checkable reference): T. A. Davis, "Direct Methods for
- *    Sparse Linear Systems", SIAM 2006, section 4.7 (row k of L from a sparse
+ *    Sparse Linear Systems", SIAM 2006, chapter 4 (row k of L from a sparse
  *    triangular solve whose pattern is the reach in the elimination tree).
  *
  * The numeric loop itself is in multifrontal.ts, which also runs one
@@ -911,7 +911,7 @@ export interface SimplicialFactor {
 }
 
 /**
- * Up-looking Cholesky (Davis 2006, section 4.7): row k of L solves
+ * Up-looking Cholesky (Davis 2006, chapter 4): row k of L solves
  * L(0:k-1, 0:k-1) l = A(0:k-1, k), whose nonzero pattern is the set of nodes
  * reached from the entries of A(0:k-1, k) by climbing the elimination tree
  * up to k. Simple and slow (scalar sparse operations); used as a reference.

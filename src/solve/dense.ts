@@ -11,7 +11,7 @@
  * columns in one rank update with long inner products, then factorised)
  * and Crout (dot-product form) inside a panel: a block Cholesky as in G. H.
  * Golub and C. F. Van Loan, "Matrix Computations", 4th ed., Johns Hopkins
- * 2013, section 4.2.9. The symmetric rank-w updates are register-blocked,
+ * 2013, section 4.2. The symmetric rank-w updates are register-blocked,
  * 4 rows x 2 columns of the output per pass over the inner index, so each
  * pair of loads feeds more than one multiply-add (the register-blocking idea
  * of K. Goto and R. van de Geijn, "Anatomy of high-performance matrix

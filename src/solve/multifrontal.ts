@@ -6,7 +6,7 @@
  *
  * Independent subtrees of the elimination tree can be factorised in any
  * order or at the same time (J. W. H. Liu, "The role of elimination trees in
- * sparse factorization", SIAM J. Matrix Anal. Appl. 11, 1990, section 6;
+ * sparse factorization", SIAM J. Matrix Anal. Appl. 11, 1990;
  * "subtree-to-subcube" mapping of A. George, J. W. H. Liu and E. Ng,
  * "Communication results for parallel sparse Cholesky factorization on a
  * hypercube", Parallel Computing 10, 1989). With a postordered tree a

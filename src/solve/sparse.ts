@@ -248,7 +248,7 @@ export function extractPrincipal(a: SymmetricCsc, keep: Uint8Array): PrincipalSu
 /**
  * C = A(perm, perm) as a lower triangle: C(k, l) = A(perm[k], perm[l]).
  * perm maps new -> old and invPerm old -> new. Rows of each column of C come
- * out sorted (two-pass transpose construction, Davis 2006 section 2.5 idea).
+ * out sorted (two-pass transpose construction, as in Davis 2006, chapter 2).
  */
 export function permuteSymmetric(a: SymmetricCsc, perm: Int32Array, invPerm: Int32Array): SymmetricCsc {
   const { n, colPtr, rowIndex, values } = a;
