@@ -360,6 +360,17 @@ describe('edge-notch estimate (Creager & Paris with the edge-crack K): arithmeti
     expect(r.ktGross).toBeCloseTo(11.71822, 4);
   });
 
+  it('on the Inglis ellipse (K = p sqrt(pi a), rho = b^2/a) Creager-Paris gives 2 p a/b, the exact peak minus p: low by 1/Kt', () => {
+    const p = 80;
+    for (const [a, b] of [[10, 1], [5, 1], [20, 1]]) {
+      const rho = (b * b) / a;
+      const cp = creagerParisPeakStress(p * Math.sqrt(Math.PI * a), rho);
+      const exact = inglisField(a, b, p, Math.PI / 2)(a, 0)[1];
+      expect(cp).toBeCloseTo((2 * p * a) / b, 10);
+      expect(exact - cp).toBeCloseTo(p, 9);
+    }
+  });
+
   it('refuses a blunt notch (rho >= depth), a crack beyond the fit, and a compressive load', () => {
     expect(() => edgeNotchPeakStress(100, 1, 1, 20)).toThrow(/slender notch/);
     expect(() => edgeNotchPeakStress(100, 15, 0.2, 20)).toThrow(/0 <= a\/W <= 0.6/);
