@@ -12,6 +12,7 @@ import {
   ktNeuberDeepTension,
   ktNeuberOppositeNotchesTension,
   ktOppositeUNotchesTension,
+  ktSteppedBarBending,
   ktSteppedBarTension,
 } from '../src/charts/formulas.js';
 
@@ -45,6 +46,14 @@ describe('chart formulas reproduce their published evaluations', () => {
       [3, 0.05, 3.433], [3, 0.1, 2.731], [3, 0.2, 2.152], [3, 0.4, 1.703],
     ];
     for (const [Dd, rd, kt] of table) expect(ktSteppedBarTension(Dd * 20, 20, rd * 20)).toBeCloseTo(kt, 2);
+  });
+
+  it('stepped bar in bending: the chart 3.4 fit tends to 1 as the step vanishes and is below the tension fit', () => {
+    // No tabulated evaluation of the bending fit is at hand (coefficients recalled); these are
+    // properties any correct fit has: Kt -> C1(t/r -> 0) = 1.006 for D = d, and bending
+    // concentrates less than tension at the same shoulder (chart readings, common practice).
+    expect(ktSteppedBarBending(20.0001, 20, 2)).toBeCloseTo(1.006, 2);
+    for (const [D, r] of [[30, 2], [40, 2], [40, 4], [60, 4]]) expect(ktSteppedBarBending(D, 20, r)).toBeLessThan(ktSteppedBarTension(D, 20, r));
   });
 
   it('Neuber deep-notch factor in tension at a/r = 1, 4, 9, 25, 100 (REFERENCES.md section 5)', () => {

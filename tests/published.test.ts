@@ -7,7 +7,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { ktHoleInStripGross, ktHoleInStripNet, ktInglis, ktOppositeUNotchesTension, ktSteppedBarTension } from '../src/charts/formulas.js';
+import { ktHoleInStripGross, ktHoleInStripNet, ktInglis, ktOppositeUNotchesTension, ktSteppedBarBending, ktSteppedBarTension } from '../src/charts/formulas.js';
 import { parseModelText } from '../src/model/load.js';
 import { expandTemplate } from '../src/model/templates.js';
 import { analyseModel } from '../src/pipeline/analyse.js';
@@ -57,6 +57,17 @@ describe('stepped bar with shoulder fillets in tension against the Peterson-Pilk
       const a = analyseModel(model);
       expect(a.net.section.length).toBeCloseTo(d / 2, 6);
       expect(Math.abs(a.kt.net / ktSteppedBarTension(D, d, r) - 1)).toBeLessThan(0.05);
+      expect(a.peak.feature).toContain('fillet');
+    });
+  }
+});
+
+describe('stepped bar with shoulder fillets in in-plane bending against the Peterson-Pilkey chart 3.4 fit (coefficients recalled)', () => {
+  for (const [D, d, r] of [[40, 20, 2], [30, 20, 2]]) {
+    it(`D/d = ${D / d}, r/d = ${r / d}: Kt on 6M/(t d^2) within 5%, peak on a fillet`, () => {
+      const a = analyseModel(expandTemplate('stepped-bar', { D, d, r, loading: 'bending' }));
+      expect(a.net.kind).toBe('bending');
+      expect(Math.abs(a.kt.net / ktSteppedBarBending(D, d, r) - 1)).toBeLessThan(0.05);
       expect(a.peak.feature).toContain('fillet');
     });
   }

@@ -79,6 +79,29 @@ export function ktSteppedBarTension(D: number, d: number, r: number): number {
 }
 
 /**
+ * Flat bar with shoulder fillets in in-plane bending: nominal stress 6M / (t d^2) on the narrow
+ * width d. Pilkey & Pilkey, Peterson's Stress Concentration Factors, chart 3.4 fit [M:
+ * coefficients recalled, not checked against the book; the FE results of tests/charts-fe
+ * agree within 2% at four points]. Range 0.1 <= t/r <= 20, t = (D - d)/2.
+ */
+export function ktSteppedBarBending(D: number, d: number, r: number): number {
+  const h = (D - d) / 2 / r;
+  const low = [
+    [1.006, 0.967, 0.013],
+    [-0.27, -2.372, 0.708],
+    [0.662, 1.157, -0.908],
+    [-0.405, 0.249, -0.2],
+  ];
+  const high = [
+    [1.058, 1.002, -0.038],
+    [-3.652, 1.639, -0.436],
+    [6.17, -5.687, 1.175],
+    [-2.558, 3.046, -0.701],
+  ];
+  return fitStepped(h <= 2 ? low : high, D, d, r);
+}
+
+/**
  * Opposite U-notches in a strip of full width H, notch depth t, root radius r, tension; nominal
  * stress P / ((H - 2t) thickness). Pilkey & Pilkey, chart 2.4 fit [M+: agrees with Neuber's
  * combination formula within about 1%]. Range 0.1 <= t/r <= 50.

@@ -10,7 +10,10 @@ import { analyseModel } from '../pipeline/analyse.js';
 import { certifyModel } from '../pipeline/certify.js';
 import { buildResult, TOOL_VERSION } from '../report/result.js';
 import { formatSummary } from '../report/summary.js';
-import { writeResultFiles } from '../report/files.js';
+import { prepareOutputDir, writeAtomic, writeResultFiles } from '../report/files.js';
+import { environment, formatVerifyLine, formatVerifySummary, verifyReportMarkdown } from '../report/verify-report.js';
+import { runVerify, verifyCases } from '../verify/suite.js';
+import { join } from 'node:path';
 import { newCommand } from './new.js';
 
 export const EXIT = { ok: 0, internal: 1, badInput: 2, cannotAnalyse: 3 } as const;
@@ -63,6 +66,26 @@ function runSolve(file: string, flags: SolveFlags): number {
   return EXIT.ok;
 }
 
+function runVerifyCommand(flags: { json?: boolean; out?: string; force?: boolean; only?: string }): number {
+  const only = flags.only ? flags.only.split(',').map((x) => x.trim()).filter(Boolean) : undefined;
+  if (flags.out) prepareOutputDir(flags.out, ['verify-report.md', 'verify.json'], flags.force ?? false);
+  if (!flags.json) process.stdout.write(`raiser ${TOOL_VERSION} verification suite\n`);
+  const rows = runVerify(only, flags.json ? undefined : (r) => process.stdout.write(formatVerifyLine(r) + '\n'));
+  if (rows.length === 0) throw new ModelError('--only', `no verification case starts with ${flags.only}`, `the cases are ${verifyCases().map((c) => c.id).join(', ')}`);
+  const summary = { environment: environment(), pass: rows.every((r) => r.pass), rows };
+  if (flags.out) {
+    writeAtomic(join(flags.out, 'verify-report.md'), verifyReportMarkdown(rows));
+    writeAtomic(join(flags.out, 'verify.json'), JSON.stringify(summary, null, 2) + '\n');
+  }
+  if (flags.json) process.stdout.write(JSON.stringify(summary, null, 2) + '\n');
+  else {
+    process.stdout.write(formatVerifySummary(rows) + '\n');
+    if (flags.out) process.stdout.write(`  wrote ${join(flags.out, 'verify-report.md')} and ${join(flags.out, 'verify.json')}\n`);
+  }
+  // A failed case means this installation does not reproduce a published value: a fault.
+  return summary.pass ? EXIT.ok : EXIT.internal;
+}
+
 /** Runs the program; returns the exit code (the process is not exited here, so tests can call it). */
 export function main(argv: string[]): number {
   let code: number = EXIT.ok;
@@ -93,6 +116,17 @@ export function main(argv: string[]): number {
     });
 
   newCommand(program, (c) => (code = c));
+
+  program
+    .command('verify')
+    .description('run the verification suite: published and closed-form cases, with sources and tolerances')
+    .option('--json', 'print the rows as one JSON object on stdout, nothing else')
+    .option('-o, --out <dir>', 'write verify-report.md and verify.json into this folder')
+    .option('--force', 'replace report files that already exist')
+    .option('--only <ids>', 'run only the cases whose id starts with one of these (comma separated)')
+    .action((flags: { json?: boolean; out?: string; force?: boolean; only?: string }) => {
+      code = runVerifyCommand(flags);
+    });
 
   try {
     program.parse(argv, { from: 'user' });
