@@ -219,6 +219,26 @@ describe('two threads', () => {
     }
   });
 
+  it('triangular solves split over two threads agree with one thread to rounding, for several right-hand sides', () => {
+    const p = cantileverProblem(60, 30, 8);
+    const a = p.matrix;
+    const b = randomVector(3 * a.n, 6);
+    const sym = analyzeCholesky(a, restrictOrdering(orderNestedDissection(p.adjacency, p.mesh.coords, 2).perm, p.rowOfFullDof));
+    const f = factorCholesky(a, sym, { threads: 2, parallelMinFlops: 0 });
+    expect(f.split).not.toBeNull();
+    const r1 = { threads: 0 };
+    const r2 = { threads: 0 };
+    const x1 = solveCholesky(f, b, 3, { threads: 1, report: r1 });
+    const x2 = solveCholesky(f, b, 3, { parallelMinValues: 0, report: r2 });
+    expect(r1.threads).toBe(1);
+    expect(r2.threads).toBe(2);
+    expect(relativeMaxDifference(x2, x1)).toBeLessThan(1e-13);
+    for (let r = 0; r < 3; r++) {
+      const sl = (v: Float64Array): Float64Array => v.subarray(r * a.n, (r + 1) * a.n);
+      expect(relativeResidual(a, sl(x2), sl(b))).toBeLessThan(1e-12);
+    }
+  });
+
   it('a pivot failure inside the worker subtree is reported with the same column as on one thread', () => {
     // a negative diagonal entry planted in a column of the worker's subtree
     const p = cantileverProblem(40, 20, 2);

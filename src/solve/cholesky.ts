@@ -50,7 +50,17 @@ import {
 import { type Ordering, invertPermutation } from './ordering.js';
 import { PANEL, type SimdKernel } from './dense.js';
 import { sharedWasmHeap } from './wasm-kernel.js';
-import { chooseSplit, childLists, factorRange, mainThreadKernels, startSubtreeWorker, type RangeContext } from './multifrontal.js';
+import {
+  backwardRange,
+  chooseSplit,
+  childLists,
+  factorRange,
+  forwardRange,
+  mainThreadKernels,
+  startSolveJob,
+  startSubtreeWorker,
+  type RangeContext,
+} from './multifrontal.js';
 
 /**
  * Thrown when a pivot is not safely positive: pivot <= tol * max diag(A), or
@@ -540,7 +550,9 @@ export function analyzeCholesky(a: SymmetricCsc, ordering: Ordering, relax: Rela
     }
     for (let t = rowPtr[s]; t < nr; t++) marker[rows[t]] = s;
   }
-  const superRows = rows.slice(0, nr);
+  // shared memory, so a worker thread reads the row structure without a copy
+  const superRows = new Int32Array(new SharedArrayBuffer(4 * Math.max(1, nr)), 0, nr);
+  superRows.set(rows.subarray(0, nr));
 
   const valuePtr = new Float64Array(nSuper + 1);
   let maxFront = 0;
@@ -618,6 +630,8 @@ export interface CholeskyFactor {
   readonly bytes: number;
   /** threads that factorised it (1, or 2 when a subtree went to a worker) */
   readonly threads: number;
+  /** for the triangular solves of a factor made on two threads: the worker's subtree [first, c] */
+  readonly split: { readonly first: number; readonly c: number } | null;
 }
 
 export interface FactorOptions {
@@ -785,7 +799,8 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
     if (r.failedColumn >= 0) throw fail(r.failedColumn, r.pivot);
   }
   const bytes = L.byteLength + symbolic.superRows.byteLength + symbolic.rowPtr.byteLength + symbolic.valuePtr.byteLength + symbolic.superStart.byteLength + symbolic.perm.byteLength + symbolic.invPerm.byteLength;
-  return { symbolic, values: L, bytes, threads: threadsUsed };
+  const solveSplit = threadsUsed === 2 ? chooseSplit(superStart, superParent, rowPtr, 'values') : null;
+  return { symbolic, values: L, bytes, threads: threadsUsed, split: solveSplit };
 }
 
 /**
@@ -793,108 +808,91 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
  * b holds nrhs right-hand sides of length n one after another; the result
  * has the same layout. b is not modified.
  */
-export function solveCholesky(factor: CholeskyFactor, b: Float64Array, nrhs = 1): Float64Array {
+export function solveCholesky(factor: CholeskyFactor, b: Float64Array, nrhs = 1, options: SolveCholeskyOptions = {}): Float64Array {
   const sym = factor.symbolic;
   const { n, perm } = sym;
   if (b.length !== n * nrhs) throw new RangeError(`solveCholesky: right-hand side length ${b.length}, expected ${n * nrhs}`);
   const x = new Float64Array(n * nrhs);
-  const y = new Float64Array(n);
+  const { nSuper, superStart, rowPtr, superRows, valuePtr } = sym;
+  const L = factor.values;
   const t = new Float64Array(Math.max(1, sym.maxFront));
+  // With a factor split over two threads, the worker's subtree is solved
+  // on the worker: forward [0, first) here and [first, c] there, the
+  // worker's updates of the shared ancestors kept apart and added after;
+  // backward the ancestors here first, then both halves at once.
+  const split = factor.split;
+  const par =
+    split !== null && options.threads !== 1 && L.buffer instanceof SharedArrayBuffer && sym.storedValues >= (options.parallelMinValues ?? PARALLEL_MIN_SOLVE_VALUES)
+      ? split
+      : null;
+  const y = par !== null ? new Float64Array(new SharedArrayBuffer(8 * Math.max(1, n))) : new Float64Array(n);
+  let threadsUsed = par !== null && nrhs > 0 ? 2 : 1;
   for (let r = 0; r < nrhs; r++) {
     const off = r * n;
     for (let k = 0; k < n; k++) y[k] = b[off + perm[k]];
-    forwardSupernodal(factor, y);
-    backwardSupernodal(factor, y, t);
+    let done = false;
+    if (par !== null) {
+      const ancestorsFrom = superStart[par.c + 1];
+      const delta = new Float64Array(new SharedArrayBuffer(8 * Math.max(1, n)));
+      const job = {
+        L: L.buffer as SharedArrayBuffer,
+        superStart,
+        rowPtr,
+        superRows,
+        valuePtr,
+        y: y.buffer as SharedArrayBuffer,
+        delta: delta.buffer as SharedArrayBuffer,
+        s0: par.first,
+        s1: par.c + 1,
+        maxFront: sym.maxFront,
+      };
+      const timeout = 60_000 + sym.storedValues / 1e4;
+      const fw = startSolveJob('forward', job);
+      if (fw !== null) {
+        forwardRange(L, superStart, rowPtr, superRows, valuePtr, y, 0, par.first, y, n);
+        if (fw.join(timeout) === 'done') {
+          for (let i = ancestorsFrom; i < n; i++) y[i] += delta[i];
+          forwardRange(L, superStart, rowPtr, superRows, valuePtr, y, par.c + 1, nSuper, y, n);
+          backwardRange(L, superStart, rowPtr, superRows, valuePtr, y, par.c + 1, nSuper, t);
+          const bw = startSolveJob('backward', job);
+          if (bw === null) {
+            backwardRange(L, superStart, rowPtr, superRows, valuePtr, y, 0, par.c + 1, t);
+            done = true;
+          } else {
+            backwardRange(L, superStart, rowPtr, superRows, valuePtr, y, 0, par.first, t);
+            if (bw.join(timeout) === 'done') done = true;
+            else bw.terminate();
+          }
+        } else {
+          fw.terminate();
+        }
+      }
+      // a worker that failed part-way: this right-hand side again, on one thread
+      if (!done) {
+        threadsUsed = 1;
+        for (let k = 0; k < n; k++) y[k] = b[off + perm[k]];
+      }
+    }
+    if (!done) {
+      forwardRange(L, superStart, rowPtr, superRows, valuePtr, y, 0, nSuper, y, n);
+      backwardRange(L, superStart, rowPtr, superRows, valuePtr, y, 0, nSuper, t);
+    }
     for (let k = 0; k < n; k++) x[off + perm[k]] = y[k];
   }
+  if (options.report !== undefined) options.report.threads = threadsUsed;
   return x;
 }
 
-/** y := L^-1 y in the permuted numbering. */
-function forwardSupernodal(factor: CholeskyFactor, y: Float64Array): void {
-  const { nSuper, superStart, rowPtr, superRows, valuePtr } = factor.symbolic;
-  const L = factor.values;
-  for (let s = 0; s < nSuper; s++) {
-    const f = superStart[s];
-    const k = superStart[s + 1] - f;
-    const r0 = rowPtr[s];
-    const m = rowPtr[s + 1] - r0;
-    let o = valuePtr[s];
-    for (let a = 0; a < k; a++) {
-      let sum = y[f + a];
-      for (let j = 0; j < a; j++) sum -= L[o + j] * y[f + j];
-      y[f + a] = sum / L[o + a];
-      o += a + 1;
-    }
-    // rows below the diagonal block, four at a time (independent sums)
-    let a = k;
-    for (; a + 3 < m; a += 4) {
-      const o1 = o + k;
-      const o2 = o1 + k;
-      const o3 = o2 + k;
-      let s0 = 0;
-      let s1 = 0;
-      let s2 = 0;
-      let s3 = 0;
-      for (let j = 0; j < k; j++) {
-        const yj = y[f + j];
-        s0 += L[o + j] * yj;
-        s1 += L[o1 + j] * yj;
-        s2 += L[o2 + j] * yj;
-        s3 += L[o3 + j] * yj;
-      }
-      y[superRows[r0 + a]] -= s0;
-      y[superRows[r0 + a + 1]] -= s1;
-      y[superRows[r0 + a + 2]] -= s2;
-      y[superRows[r0 + a + 3]] -= s3;
-      o += 4 * k;
-    }
-    for (; a < m; a++) {
-      let s0 = 0;
-      for (let j = 0; j < k; j++) s0 += L[o + j] * y[f + j];
-      y[superRows[r0 + a]] -= s0;
-      o += k;
-    }
-  }
-}
+/** Factors with fewer stored values are solved on one thread. */
+export const PARALLEL_MIN_SOLVE_VALUES = 4e6;
 
-/** y := L^-T y in the permuted numbering; t is scratch of length >= max supernode columns. */
-function backwardSupernodal(factor: CholeskyFactor, y: Float64Array, t: Float64Array): void {
-  const { nSuper, superStart, rowPtr, superRows, valuePtr } = factor.symbolic;
-  const L = factor.values;
-  for (let s = nSuper - 1; s >= 0; s--) {
-    const f = superStart[s];
-    const k = superStart[s + 1] - f;
-    const r0 = rowPtr[s];
-    const m = rowPtr[s + 1] - r0;
-    for (let j = 0; j < k; j++) t[j] = y[f + j];
-    const tri = (k * (k + 1)) / 2;
-    let o = valuePtr[s] + tri;
-    // rows below, four at a time: t -= sum_r L(a+r, :) x_{a+r}
-    let a = k;
-    for (; a + 3 < m; a += 4) {
-      const x0 = y[superRows[r0 + a]];
-      const x1 = y[superRows[r0 + a + 1]];
-      const x2 = y[superRows[r0 + a + 2]];
-      const x3 = y[superRows[r0 + a + 3]];
-      const o1 = o + k;
-      const o2 = o1 + k;
-      const o3 = o2 + k;
-      for (let j = 0; j < k; j++) t[j] -= L[o + j] * x0 + L[o1 + j] * x1 + L[o2 + j] * x2 + L[o3 + j] * x3;
-      o += 4 * k;
-    }
-    for (; a < m; a++) {
-      const x0 = y[superRows[r0 + a]];
-      for (let j = 0; j < k; j++) t[j] -= L[o + j] * x0;
-      o += k;
-    }
-    for (let a2 = k - 1; a2 >= 0; a2--) {
-      const ro = valuePtr[s] + (a2 * (a2 + 1)) / 2;
-      const xa = t[a2] / L[ro + a2];
-      y[f + a2] = xa;
-      for (let j = 0; j < a2; j++) t[j] -= L[ro + j] * xa;
-    }
-  }
+export interface SolveCholeskyOptions {
+  /** 1 keeps the solves on this thread; otherwise a factor made on two threads is solved on two */
+  readonly threads?: 1 | 2;
+  /** lower the size limit for the second thread (tests use it on small factors) */
+  readonly parallelMinValues?: number;
+  /** when given, receives the number of threads the solves used */
+  readonly report?: { threads: number };
 }
 
 // ---------------------------------------------------------------------------

@@ -75,6 +75,8 @@ export interface SolveStats {
   readonly workspaceBytes: number;
   /** threads of the numeric factorisation (2 when a subtree went to a worker) */
   readonly threads: number;
+  /** threads of the triangular solves */
+  readonly solveThreads: number;
   readonly seconds: { readonly ordering: number; readonly symbolic: number; readonly numeric: number; readonly solve: number };
   /** max over right-hand sides of ||A x - b|| / ||b|| (2-norms; 0 when b = 0 and x = 0) */
   readonly relativeResidual: number;
@@ -145,7 +147,8 @@ export function solveSpd(a: SymmetricCsc, b: Float64Array, options: SolveOptions
   const t2 = performance.now();
   const factor = factorCholesky(a, symbolic, { pivotTolerance: options.pivotTolerance, threads: options.threads });
   const t3 = performance.now();
-  const x = solveCholesky(factor, b, nrhs);
+  const solveReport = { threads: 1 };
+  const x = solveCholesky(factor, b, nrhs, { threads: options.threads, report: solveReport });
   const t4 = performance.now();
   const stats: SolveStats = {
     n,
@@ -159,6 +162,7 @@ export function solveSpd(a: SymmetricCsc, b: Float64Array, options: SolveOptions
     bytesPerNnzL: symbolic.nnzL > 0 ? factor.bytes / symbolic.nnzL : 0,
     workspaceBytes: 8 * (symbolic.stackPeak + symbolic.maxFront * symbolic.maxFront),
     threads: factor.threads,
+    solveThreads: solveReport.threads,
     seconds: { ordering: (t1 - t0) / 1e3, symbolic: (t2 - t1) / 1e3, numeric: (t3 - t2) / 1e3, solve: (t4 - t3) / 1e3 },
     relativeResidual: relativeResidual(a, x, b, nrhs),
   };

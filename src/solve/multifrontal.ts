@@ -138,6 +138,126 @@ export function factorRange(ctx: RangeContext, kern: RangeKernels, top: number):
   return { top, failedColumn: -1, pivot: 0 };
 }
 
+/**
+ * Forward substitution y := L^-1 y over supernodes s0 .. s1-1 (permuted
+ * numbering). Updates of rows >= deltaFrom go to delta instead of y (the
+ * rows a worker shares with the other thread); pass delta = y and
+ * deltaFrom = n for a plain pass. Rows below a supernode's diagonal block
+ * are taken four at a time.
+ */
+export function forwardRange(
+  L: Float64Array,
+  superStart: Int32Array,
+  rowPtr: Int32Array,
+  superRows: Int32Array,
+  valuePtr: Float64Array,
+  y: Float64Array,
+  s0: number,
+  s1: number,
+  delta: Float64Array,
+  deltaFrom: number,
+): void {
+  for (let s = s0; s < s1; s++) {
+    const f = superStart[s];
+    const k = superStart[s + 1] - f;
+    const r0 = rowPtr[s];
+    const m = rowPtr[s + 1] - r0;
+    let o = valuePtr[s];
+    for (let a = 0; a < k; a++) {
+      let sum = y[f + a];
+      for (let j = 0; j < a; j++) sum -= L[o + j] * y[f + j];
+      y[f + a] = sum / L[o + a];
+      o += a + 1;
+    }
+    let a = k;
+    for (; a + 3 < m; a += 4) {
+      const o1 = o + k;
+      const o2 = o1 + k;
+      const o3 = o2 + k;
+      let t0 = 0;
+      let t1 = 0;
+      let t2 = 0;
+      let t3 = 0;
+      for (let j = 0; j < k; j++) {
+        const yj = y[f + j];
+        t0 += L[o + j] * yj;
+        t1 += L[o1 + j] * yj;
+        t2 += L[o2 + j] * yj;
+        t3 += L[o3 + j] * yj;
+      }
+      const i0 = superRows[r0 + a];
+      const i1 = superRows[r0 + a + 1];
+      const i2 = superRows[r0 + a + 2];
+      const i3 = superRows[r0 + a + 3];
+      if (i0 < deltaFrom) y[i0] -= t0;
+      else delta[i0] -= t0;
+      if (i1 < deltaFrom) y[i1] -= t1;
+      else delta[i1] -= t1;
+      if (i2 < deltaFrom) y[i2] -= t2;
+      else delta[i2] -= t2;
+      if (i3 < deltaFrom) y[i3] -= t3;
+      else delta[i3] -= t3;
+      o += 4 * k;
+    }
+    for (; a < m; a++) {
+      let t0 = 0;
+      for (let j = 0; j < k; j++) t0 += L[o + j] * y[f + j];
+      const i0 = superRows[r0 + a];
+      if (i0 < deltaFrom) y[i0] -= t0;
+      else delta[i0] -= t0;
+      o += k;
+    }
+  }
+}
+
+/**
+ * Back substitution y := L^-T y over supernodes s1-1 down to s0; t is
+ * scratch of at least the largest supernode's column count.
+ */
+export function backwardRange(
+  L: Float64Array,
+  superStart: Int32Array,
+  rowPtr: Int32Array,
+  superRows: Int32Array,
+  valuePtr: Float64Array,
+  y: Float64Array,
+  s0: number,
+  s1: number,
+  t: Float64Array,
+): void {
+  for (let s = s1 - 1; s >= s0; s--) {
+    const f = superStart[s];
+    const k = superStart[s + 1] - f;
+    const r0 = rowPtr[s];
+    const m = rowPtr[s + 1] - r0;
+    for (let j = 0; j < k; j++) t[j] = y[f + j];
+    let o = valuePtr[s] + (k * (k + 1)) / 2;
+    let a = k;
+    for (; a + 3 < m; a += 4) {
+      const x0 = y[superRows[r0 + a]];
+      const x1 = y[superRows[r0 + a + 1]];
+      const x2 = y[superRows[r0 + a + 2]];
+      const x3 = y[superRows[r0 + a + 3]];
+      const o1 = o + k;
+      const o2 = o1 + k;
+      const o3 = o2 + k;
+      for (let j = 0; j < k; j++) t[j] -= L[o + j] * x0 + L[o1 + j] * x1 + L[o2 + j] * x2 + L[o3 + j] * x3;
+      o += 4 * k;
+    }
+    for (; a < m; a++) {
+      const x0 = y[superRows[r0 + a]];
+      for (let j = 0; j < k; j++) t[j] -= L[o + j] * x0;
+      o += k;
+    }
+    for (let a2 = k - 1; a2 >= 0; a2--) {
+      const ro = valuePtr[s] + (a2 * (a2 + 1)) / 2;
+      const xa = t[a2] / L[ro + a2];
+      y[f + a2] = xa;
+      for (let j = 0; j < a2; j++) t[j] -= L[ro + j] * xa;
+    }
+  }
+}
+
 /** The kernels of this thread. */
 export function mainThreadKernels(): RangeKernels {
   return { factorFrontPivots, rankUpdate, lastPivot: () => failedPivotValue };
@@ -161,13 +281,15 @@ export function childLists(superParent: Int32Array): { sHead: Int32Array; sNext:
 /**
  * The subtree to give the worker: the supernode c (not a root) maximising
  * min(work of subtree(c), work of the supernodes numbered before it), so
- * both threads are busy as long as possible. Returns c and first(c), or
+ * both threads are busy as long as possible. Work is the factorisation's
+ * (dense operations per front) or the solves' (values and rows). Returns c and first(c), or
  * null when no split leaves each thread at least a fifth of the work.
  */
 export function chooseSplit(
   superStart: Int32Array,
   superParent: Int32Array,
   rowPtr: Int32Array,
+  measure: 'flops' | 'values' = 'flops',
 ): { c: number; first: number } | null {
   const nSuper = superParent.length;
   const work = new Float64Array(nSuper);
@@ -178,7 +300,7 @@ export function chooseSplit(
   for (let s = 0; s < nSuper; s++) {
     const k = superStart[s + 1] - superStart[s];
     const m = rowPtr[s + 1] - rowPtr[s];
-    work[s] = (k * k * k) / 3 + (m - k) * k * k + (m - k) * (m - k) * k + m * m;
+    work[s] = measure === 'flops' ? (k * k * k) / 3 + (m - k) * k * k + (m - k) * (m - k) * k + m * m : m * k + m;
     total += work[s];
   }
   for (let s = 0; s < nSuper; s++) {
@@ -310,7 +432,24 @@ function runJob(d) {
   }
   Atomics.notify(status, 0);
 }
-parentPort.on('message', runJob);
+function runSolve(d) {
+  const status = new Int32Array(d.status);
+  try {
+    const L = new Float64Array(d.L);
+    const y = new Float64Array(d.y);
+    if (d.kind === 'forward') {
+      const delta = new Float64Array(d.delta);
+      forwardRange(L, d.superStart, d.rowPtr, d.superRows, d.valuePtr, y, d.s0, d.s1, delta, d.superStart[d.s1]);
+    } else {
+      backwardRange(L, d.superStart, d.rowPtr, d.superRows, d.valuePtr, y, d.s0, d.s1, new Float64Array(Math.max(1, d.maxFront)));
+    }
+    Atomics.store(status, 0, 1);
+  } catch (e) {
+    Atomics.store(status, 0, 3);
+  }
+  Atomics.notify(status, 0);
+}
+parentPort.on('message', (d) => (d.kind === undefined ? runJob(d) : runSolve(d)));
 `;
 
 /** A subtree factorisation under way on the worker. */
@@ -336,7 +475,7 @@ function workerFor(useWasm: boolean): Worker | null {
   if (persistent !== null && persistent.wasm === useWasm) return persistent.worker;
   if (persistent !== null) void persistent.worker.terminate();
   persistent = null;
-  const code = `${denseKernelSource()}\n${factorRange.toString()}\n${WORKER_MAIN}`;
+  const code = [denseKernelSource(), factorRange.toString(), forwardRange.toString(), backwardRange.toString(), WORKER_MAIN].join('\n');
   const ready = new SharedArrayBuffer(4);
   let worker: Worker;
   try {
@@ -408,8 +547,9 @@ export function startSubtreeWorker(args: {
     superStart,
     superParent: args.superParent,
     rowPtr,
-    superRows: args.superRows.slice(rowBase, rowPtr[s1]),
-    rowBase,
+    // the row structure is shared memory (analyzeCholesky): sent without a copy
+    superRows: args.superRows.buffer instanceof SharedArrayBuffer ? args.superRows : args.superRows.slice(rowBase, rowPtr[s1]),
+    rowBase: args.superRows.buffer instanceof SharedArrayBuffer ? 0 : rowBase,
     valuePtr: args.valuePtr,
     entryPtr,
     entryValues: args.entryValues.slice(entryBase, entryPtr[s1]),
@@ -439,6 +579,56 @@ export function startSubtreeWorker(args: {
       if (state === 1) return { state: 'done', failedColumn: -1, pivot: 0 };
       if (state === 2) return { state: 'pivot', failedColumn: st[1], pivot: new Float64Array(pivot)[0] };
       return { state: 'error', failedColumn: -1, pivot: 0 };
+    },
+    terminate() {
+      if (persistent !== null && persistent.worker === worker) persistent = null;
+      void worker.terminate();
+    },
+  };
+}
+
+/** A triangular-solve job under way on the worker. */
+export interface SolveJob {
+  join(timeoutMs: number): 'done' | 'error' | 'timeout';
+  terminate(): void;
+}
+
+/**
+ * Sends the worker's half of a forward or backward pass over subtree
+ * [s0, s1) (shared factor, shared y; forward updates of rows from
+ * superStart[s1] on go to the shared delta). Null when no worker can run.
+ * The index arrays are cloned into the message unless they are shared
+ * memory (superRows is, from analyzeCholesky).
+ */
+export function startSolveJob(
+  kind: 'forward' | 'backward',
+  job: {
+    L: SharedArrayBuffer;
+    superStart: Int32Array;
+    rowPtr: Int32Array;
+    superRows: Int32Array;
+    valuePtr: Float64Array;
+    y: SharedArrayBuffer;
+    delta: SharedArrayBuffer;
+    s0: number;
+    s1: number;
+    maxFront: number;
+  },
+): SolveJob | null {
+  const worker = persistent !== null ? persistent.worker : workerFor(true);
+  if (worker === null) return null;
+  const status = new SharedArrayBuffer(8);
+  worker.postMessage({ ...job, kind, status });
+  const st = new Int32Array(status);
+  return {
+    join(timeoutMs: number) {
+      const deadline = Date.now() + timeoutMs;
+      while (Atomics.load(st, 0) === 0) {
+        const left = deadline - Date.now();
+        if (left <= 0) return 'timeout';
+        Atomics.wait(st, 0, 0, Math.min(left, 1000));
+      }
+      return Atomics.load(st, 0) === 1 ? 'done' : 'error';
     },
     terminate() {
       if (persistent !== null && persistent.worker === worker) persistent = null;
