@@ -12,6 +12,7 @@ import type { Model } from '../model/schema.js';
 import { analyseModel, type Analysis } from '../pipeline/analyse.js';
 import type { MeshStats } from '../mesh/types.js';
 import { runSolveBench } from './solve.js';
+import { runAdaptiveBench } from './adaptive.js';
 
 function median(xs: number[]): number {
   const s = xs.slice().sort((a, b) => a - b);
@@ -87,6 +88,8 @@ export function runBench(args: string[], log: (s: string) => void = console.log)
   log('command: npm run bench' + (args.includes('--large') ? ' -- --large' : ''));
   benchMesher(runs, log);
   benchAnalysis(runs, log);
+  log('\nCertified Kt: adaptive series against uniform refinement (same accuracy, true error against the reference)');
+  runAdaptiveBench(log);
   log('\nSparse Cholesky on plane-stress stiffness matrices of a jittered rectangle, left edge fixed');
   runSolveBench({ sizes: args.includes('--large') ? [1e4, 1e5, 5e5, 1e6] : [1e4, 1e5], runs, log });
   log(`\nbench finished in ${((performance.now() - t0) / 1e3).toFixed(1)} s`);

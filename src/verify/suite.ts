@@ -111,7 +111,7 @@ function bendingFieldError(): number {
 // Closed-form fields applied as exact tractions.
 
 /** A model whose outer edges (tag "far") carry the tractions of an exact field. */
-function exactTractionPrepared(model: Model, field: StressAt): PreparedModel {
+export function exactTractionPrepared(model: Model, field: StressAt): PreparedModel {
   const prep = prepareModel(model);
   const domain = buildDomain(model.geometry);
   const q: TractionField = (x, y, nx, ny, out) => {
@@ -125,7 +125,7 @@ function exactTractionPrepared(model: Model, field: StressAt): PreparedModel {
 
 const STEEL = { E: 210000, nu: 0.3 };
 
-function quarterHolePlate(): Model {
+export function quarterHolePlate(): Model {
   const L = 6;
   return {
     material: STEEL,
