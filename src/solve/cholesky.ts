@@ -460,7 +460,9 @@ export function analyzeCholesky(a: SymmetricCsc, ordering: Ordering, relax: Rela
   const nzA = a.colPtr[n];
   const entryPtr = new Int32Array(nSuper + 1);
   const entryOrder = new Int32Array(nzA);
-  const entryOffset = new Int32Array(nzA); // first the new row, later the offset in the front
+  // first the new row, later the offset in the front; shared memory, so a
+  // worker thread reads it without a copy
+  const entryOffset = new Int32Array(new SharedArrayBuffer(4 * Math.max(1, nzA)), 0, nzA);
   const entryCol = new Int32Array(nzA);
   {
     // A's columns are visited in the new order, so the entries that fall
@@ -713,7 +715,7 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
     rel = new Int32Array(maxFront);
   }
   // values of A in entry order
-  const entryValues = new Float64Array(entryOrder.length);
+  const entryValues = split !== null ? new Float64Array(new SharedArrayBuffer(8 * Math.max(1, entryOrder.length)), 0, entryOrder.length) : new Float64Array(entryOrder.length);
   for (let q = 0; q < entryOrder.length; q++) entryValues[q] = av[entryOrder[q]];
   const { sHead, sNext } = childLists(superParent);
   const ctxFor = (s0: number, s1: number, updStart: Float64Array): RangeContext => ({

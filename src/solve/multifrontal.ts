@@ -552,9 +552,14 @@ export function startSubtreeWorker(args: {
     rowBase: args.superRows.buffer instanceof SharedArrayBuffer ? 0 : rowBase,
     valuePtr: args.valuePtr,
     entryPtr,
-    entryValues: args.entryValues.slice(entryBase, entryPtr[s1]),
-    entryOffset: args.entryOffset.slice(entryBase, entryPtr[s1]),
-    entryBase,
+    // shared memory (the factorisation allocates them so): no copies
+    ...(args.entryValues.buffer instanceof SharedArrayBuffer && args.entryOffset.buffer instanceof SharedArrayBuffer
+      ? { entryValues: args.entryValues, entryOffset: args.entryOffset, entryBase: 0 }
+      : {
+          entryValues: args.entryValues.slice(entryBase, entryPtr[s1]),
+          entryOffset: args.entryOffset.slice(entryBase, entryPtr[s1]),
+          entryBase,
+        }),
     maxFront,
     stackPeak,
     threshold: args.threshold,
