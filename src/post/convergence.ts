@@ -12,9 +12,11 @@
  *   r21 = h2/h1, r32 = h3/h2, e21 = f2 - f1, e32 = f3 - f2, s = sign(e32/e21),
  *   p = |ln|e32/e21| + q(p)| / ln r21, q(p) = ln((r21^p - s)/(r32^p - s)),
  *   f_ext = (r21^p f1 - f2)/(r21^p - 1), e_a = |(f1 - f2)/f1|, GCI = Fs e_a/(r21^p - 1).
- * Fs = 1.25 with three or more meshes and an observed order that can be trusted; otherwise the
+ * Fs = 1.25 with three or more meshes in the asymptotic range (observed order within
+ * [p_th/2, 2 p_th], capped at p_th, and GCI32 within a factor 2 of r^p GCI21); otherwise the
  * theoretical order is used with Fs = 3 (Roache 2011, J. Fluids Eng. 133, 115501: "if pRE is
- * unreasonable one at least reverts to using pth and FS = 3").
+ * unreasonable one at least reverts to using pth and FS = 3"). Because remeshed (non-nested)
+ * meshes scatter, the finest difference e21 is not taken smaller than e32 / r32^p.
  */
 
 export interface GciResult {
@@ -81,25 +83,34 @@ export function gridConvergence(h: readonly number[], f: readonly number[], theo
   const e32 = f3 - f2;
   if (e32 === 0 || e21 / e32 < 0) {
     notes.push('the results oscillate between the last three meshes: no order can be observed, so the theoretical order is used with the safety factor 3');
-    return { value: f1, extrapolated: extrap(theoreticalOrder), observedOrder: NaN, orderUsed: theoreticalOrder, safetyFactor: 3, gci: band(theoreticalOrder, 3), asymptoticRatio: NaN, behaviour: 'oscillating', notes };
+    // The swing of the coarser pair, scaled down by the order, bounds the error too.
+    const eEff = Math.max(Math.abs(e21), Math.abs(e32) / Math.pow(r32, theoreticalOrder));
+    const gci = (3 * eEff) / Math.abs(f1) / (Math.pow(r21, theoreticalOrder) - 1);
+    return { value: f1, extrapolated: extrap(theoreticalOrder), observedOrder: NaN, orderUsed: theoreticalOrder, safetyFactor: 3, gci, asymptoticRatio: NaN, behaviour: 'oscillating', notes };
   }
   if (Math.abs(e21) >= Math.abs(e32)) {
     notes.push(`the change between meshes does not shrink (${(100 * Math.abs(e32 / f2)).toPrecision(2)}% then ${(100 * Math.abs(e21 / f1)).toPrecision(2)}%): the result is not converging`);
     return { value: f1, extrapolated: NaN, observedOrder: NaN, orderUsed: NaN, safetyFactor: NaN, gci: Infinity, asymptoticRatio: NaN, behaviour: 'diverging', notes };
   }
   const p = observedOrder(r21, r32, e21, e32);
-  let pUsed = p;
+  // The asymptotic range: the observed order within [p_th/2, 2 p_th] and the two pairs telling
+  // the same story (GCI32 ~ r^p GCI21 within a factor of 2, Roache's check).
+  const pClamped = Math.min(p, theoreticalOrder);
+  const asym = Math.abs(e32) / (Math.pow(r32, pClamped) * Math.abs(e21));
+  let pUsed = pClamped;
   let fs = 1.25;
-  if (!(p >= 0.5 * theoreticalOrder)) {
-    notes.push(`observed order ${p.toFixed(2)} is far below the theoretical ${theoreticalOrder}: the meshes are not yet in the asymptotic range, so the theoretical order is used with the safety factor 3`);
+  if (!(p >= 0.5 * theoreticalOrder && p <= 2 * theoreticalOrder) || !(asym >= 0.5 && asym <= 2)) {
+    notes.push(
+      `not in the asymptotic range (observed order ${p.toFixed(2)} against the theoretical ${theoreticalOrder}; the coarser pair changes ${asym.toFixed(2)} times as much as expected): the theoretical order is used with the safety factor 3`,
+    );
     pUsed = theoreticalOrder;
     fs = 3;
   } else if (p > theoreticalOrder) {
     notes.push(`observed order ${p.toFixed(2)} exceeds the theoretical ${theoreticalOrder}: the band uses the theoretical order, the more cautious choice`);
-    pUsed = theoreticalOrder;
   }
-  const gci = band(pUsed, fs);
-  const gci32 = (fs * Math.abs((f2 - f3) / f2)) / (Math.pow(r32, pUsed) - 1);
-  const asym = gci32 / (Math.pow(r21, pUsed) * gci);
+  // Non-nested meshes scatter: the finest difference may be small by chance, so it is not
+  // taken smaller than the coarser difference scaled down by the order in use.
+  const eEff = Math.max(Math.abs(e21), Math.abs(e32) / Math.pow(r32, pUsed));
+  const gci = (fs * eEff) / Math.abs(f1) / (Math.pow(r21, pUsed) - 1);
   return { value: f1, extrapolated: extrap(pUsed), observedOrder: p, orderUsed: pUsed, safetyFactor: fs, gci, asymptoticRatio: asym, behaviour: 'monotone', notes };
 }

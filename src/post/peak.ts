@@ -39,6 +39,60 @@ export function measureField(stress: Float64Array, measure: StressMeasure, szzFa
   return v;
 }
 
+/**
+ * The largest value of the measure along the boundary edges at a node, with the stress
+ * components interpolated along each edge by its shape functions (quadratic on 6-node meshes),
+ * found by golden-section search: the peak on a curved edge between two nodes is not missed.
+ */
+function refineAlongBoundary(mesh: Mesh, stress: Float64Array, node: number, measure: StressMeasure, szzFactor: number, sign: number): { value: number; x: number; y: number } | null {
+  if (mesh.order !== 2) return null;
+  let best: { value: number; x: number; y: number } | null = null;
+  const n = mesh.nodes;
+  for (let s = 0; s < mesh.nBEdges; s++) {
+    const a = mesh.bEdges[3 * s];
+    const b = mesh.bEdges[3 * s + 1];
+    const m = mesh.bEdges[3 * s + 2];
+    if (m < 0 || (a !== node && b !== node && m !== node)) continue;
+    const at = (u: number) => {
+      const na = (1 - u) * (1 - 2 * u);
+      const nm = 4 * u * (1 - u);
+      const nb = u * (2 * u - 1);
+      const sxx = na * stress[3 * a] + nm * stress[3 * m] + nb * stress[3 * b];
+      const syy = na * stress[3 * a + 1] + nm * stress[3 * m + 1] + nb * stress[3 * b + 1];
+      const sxy = na * stress[3 * a + 2] + nm * stress[3 * m + 2] + nb * stress[3 * b + 2];
+      return { v: stressMeasure(measure, sxx, syy, sxy, szzFactor * (sxx + syy)), x: na * n[2 * a] + nm * n[2 * m] + nb * n[2 * b], y: na * n[2 * a + 1] + nm * n[2 * m + 1] + nb * n[2 * b + 1] };
+    };
+    // Golden-section search for the largest sign * value on [0, 1], then compare with the ends.
+    let lo = 0;
+    let hi = 1;
+    const g = (Math.sqrt(5) - 1) / 2;
+    let x1 = hi - g * (hi - lo);
+    let x2 = lo + g * (hi - lo);
+    let f1 = sign * at(x1).v;
+    let f2 = sign * at(x2).v;
+    for (let it = 0; it < 40; it++) {
+      if (f1 < f2) {
+        lo = x1;
+        x1 = x2;
+        f1 = f2;
+        x2 = lo + g * (hi - lo);
+        f2 = sign * at(x2).v;
+      } else {
+        hi = x2;
+        x2 = x1;
+        f2 = f1;
+        x1 = hi - g * (hi - lo);
+        f1 = sign * at(x1).v;
+      }
+    }
+    for (const u of [0, 0.5 * (lo + hi), 1]) {
+      const r = at(u);
+      if (!best || sign * r.v > sign * best.value) best = { value: r.v, x: r.x, y: r.y };
+    }
+  }
+  return best;
+}
+
 export function findPeak(mesh: Mesh, domain: Domain, stress: Float64Array, measure: StressMeasure, szzFactor: number): Peak {
   const field = measureField(stress, measure, szzFactor);
   const sign = measure === 'min-principal' ? -1 : 1;
@@ -87,11 +141,23 @@ export function findPeak(mesh: Mesh, domain: Domain, stress: Float64Array, measu
       }
     }
   }
+  // On the boundary the peak may lie between nodes; at a sharp corner the nodal value stands.
+  let value = field[best];
+  let px = mesh.nodes[2 * best];
+  let py = mesh.nodes[2 * best + 1];
+  if (!atSharp && (e >= 0 || corner >= 0)) {
+    const r = refineAlongBoundary(mesh, stress, best, measure, szzFactor, sign);
+    if (r && sign * r.value > sign * value) {
+      value = r.value;
+      px = r.x;
+      py = r.y;
+    }
+  }
   return {
     measure,
-    stress: field[best],
-    x: mesh.nodes[2 * best],
-    y: mesh.nodes[2 * best + 1],
+    stress: value,
+    x: px,
+    y: py,
     node: best,
     feature,
     onBoundary: e >= 0 || corner >= 0,
