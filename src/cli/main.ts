@@ -15,6 +15,7 @@ import { environment, formatVerifyLine, formatVerifySummary, verifyReportMarkdow
 import { runVerify, verifyCases } from '../verify/suite.js';
 import { join } from 'node:path';
 import { newCommand } from './new.js';
+import { chartsCommand } from './charts.js';
 
 export const EXIT = { ok: 0, internal: 1, badInput: 2, cannotAnalyse: 3 } as const;
 
@@ -116,6 +117,7 @@ export function main(argv: string[]): number {
     });
 
   newCommand(program, (c) => (code = c));
+  chartsCommand(program, (c) => (code = c));
 
   program
     .command('verify')

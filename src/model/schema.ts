@@ -145,6 +145,21 @@ export const Material = z.strictObject({
   nu: z.number().min(0).lt(0.5).describe("Poisson's ratio, 0 <= nu < 0.5"),
   yield: positive().optional().describe('yield strength, for the safety summary'),
   ultimate: positive().optional().describe('ultimate tensile strength, for the safety summary and notch sensitivity'),
+  notchSensitivity: z
+    .strictObject({
+      neuberSqrtA: z.number().nonnegative().optional().describe("square root of Neuber's material length, in sqrt(length unit)"),
+      petersonA: z.number().nonnegative().optional().describe("Peterson's material length, in length units"),
+    })
+    .optional()
+    .describe('material constants for the notch sensitivity q; without them q is estimated from the ultimate strength by the fits for steels'),
+  stressStrain: z
+    .strictObject({
+      law: z.literal('ramberg-osgood').describe('strain = stress / E + (stress / K)^(1/n)'),
+      K: positive().describe('strength coefficient, stress units'),
+      n: positive().describe('strain hardening exponent'),
+    })
+    .optional()
+    .describe("a stress-strain law for the Neuber-rule estimate of the local stress and strain at the peak"),
 });
 export type Material = z.infer<typeof Material>;
 

@@ -6,6 +6,8 @@
 import type { Analysis } from '../pipeline/analyse.js';
 import type { Certified } from '../pipeline/certify.js';
 import type { Cut } from '../post/section.js';
+import { compareWithChart } from '../charts/library.js';
+import { estimateFatigue, neuberLocal, notchRadiusAt } from '../post/design.js';
 
 export const TOOL_VERSION = '0.1.0';
 
@@ -95,6 +97,11 @@ export function buildResult(a: Analysis, file?: string, cert: Certified | null =
   const err = conv.estimatedError;
   const band = (v: number) => (err === null || singular ? null : ([v * (1 - err), v * (1 + err)] as [number, number]));
   const extrapolated = (v: number) => (conv.extrapolatedPeak === null || singular ? null : (v * conv.extrapolatedPeak) / a.peak.stress);
+  const chart = m.chart && !singular ? compareWithChart(m.chart.family, m.chart.dims, a.kt) : null;
+  const radius = notchRadiusAt(a.domain, a.peak.x, a.peak.y);
+  const fatigue = singular ? null : estimateFatigue(a.kt.net, radius, m.material, a.units);
+  const ss = m.material.stressStrain;
+  const local = ss && !singular ? neuberLocal(Math.abs(a.peak.stress), m.material.E, ss.K, ss.n) : null;
   return {
     tool: { name: 'raiser', version: TOOL_VERSION },
     model: { title: m.title ?? null, file: file ?? null, chart: m.chart ?? null },
@@ -154,6 +161,13 @@ export function buildResult(a: Analysis, file?: string, cert: Certified | null =
     },
     timeMs: a.timeMs,
     convergence: conv,
+    chart: chart
+      ? { ...chart, value: Number.isFinite(chart.value) ? chart.value : null, difference: Number.isFinite(chart.difference) ? chart.difference : null }
+      : null,
+    fatigue: fatigue ? { radius: fatigue.radius, kt: 'net', methods: fatigue.methods, notes: fatigue.notes } : null,
+    plasticity: local
+      ? { elasticPeak: Math.abs(a.peak.stress), localStress: local.stress, localStrain: local.strain, elasticStrain: local.elasticStrain, source: local.source }
+      : null,
     safety: {
       yield: y ?? null,
       ultimate: m.material.ultimate ?? null,

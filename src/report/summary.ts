@@ -75,6 +75,22 @@ export function formatSummary(r: ResultJson): string {
   out.push(
     `  loads  resultant (${fmt(r.load.resultant.fx)}, ${fmt(r.load.resultant.fy)}) ${u.force}; reactions balance them to ${r.load.equilibriumError.toExponential(1)} of the load`,
   );
+  if (r.chart) {
+    const ch = r.chart;
+    const diff = ch.difference === null ? 'not comparable' : `computed differs by ${ch.difference >= 0 ? '+' : ''}${fmt(100 * ch.difference, 2)}%`;
+    out.push(`  chart  ${ch.id} [${ch.provenance}]: Kt ${ch.nominal} ${ch.value === null ? 'n/a' : fmt(ch.value, 4)}; ${diff} (the chart is good to about ${fmt(100 * ch.spread, 2)}%)`);
+    out.push(`      ${ch.source}`);
+    for (const o of ch.outside) out.push(`      outside the chart's range: ${o}`);
+  }
+  if (r.fatigue) {
+    const f = r.fatigue;
+    out.push(`  fatigue  at the notch radius ${fmt(f.radius, 4)} ${u.length}: ${f.methods.map((x) => `${x.name}: q ${fmt(x.q, 3)}, Kf ${fmt(x.kf, 4)}`).join('; ')}`);
+    for (const n of f.notes) out.push(`      ${n}`);
+  }
+  if (r.plasticity) {
+    const p = r.plasticity;
+    out.push(`  plasticity  Neuber's rule with the given stress-strain law: local stress ${fmt(p.localStress)} ${u.stress}, strain ${fmt(100 * p.localStrain, 3)}% (elastic ${fmt(100 * p.elasticStrain, 3)}%)`);
+  }
   if (r.safety.yield !== null) {
     out.push(
       `  yield  peak is ${fmt(100 * (r.safety.peakOverYield ?? 0), 3)}% of the yield strength ${fmt(r.safety.yield)} ${u.stress}${r.safety.localPlasticity ? ': LOCAL PLASTICITY EXPECTED' : ''}`,

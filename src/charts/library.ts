@@ -1,0 +1,282 @@
+/**
+ * The chart library: published Kt formulas with their source, provenance, nominal-stress
+ * definition, parameters and validity range, for `raiser charts` and for the cross-check of a
+ * model built from a template. The formulas themselves live in formulas.ts.
+ */
+import {
+  ktHoleInStripGross,
+  ktHoleInStripHeywood,
+  ktHoleInStripNet,
+  ktInglis,
+  ktKirsch,
+  ktNeuberOppositeNotchesTension,
+  ktOppositeUNotchesTension,
+  ktSteppedBarBending,
+  ktSteppedBarTension,
+} from './formulas.js';
+import { edgeNotchPeakStress } from '../verify/exact.js';
+
+export interface ChartParam {
+  name: string;
+  meaning: string;
+}
+
+export interface Chart {
+  id: string;
+  title: string;
+  source: string;
+  /** [V], [D], [M], [M+]: see ../shared/REFERENCES.md */
+  provenance: string;
+  nominal: 'net' | 'gross';
+  nominalDefinition: string;
+  params: ChartParam[];
+  /** the range in words */
+  range: string;
+  /** problems with the given dimensions against the range, in words; empty when inside */
+  outside(p: Record<string, number>): string[];
+  evaluate(p: Record<string, number>): number;
+  /** how far to trust it, as a relative spread (what REFERENCES.md allows for it) */
+  spread: number;
+}
+
+const between = (v: number, lo: number, hi: number, what: string): string[] => (v >= lo - 1e-12 && v <= hi + 1e-12 ? [] : [`${what} = ${Number(v.toPrecision(4))} is outside ${lo} ... ${hi}`]);
+
+export const CHARTS: Chart[] = [
+  {
+    id: 'kirsch',
+    title: 'circular hole in an infinite plate, uniaxial remote tension',
+    source: 'G. Kirsch, Z. VDI 42 (1898) 797-807',
+    provenance: 'D',
+    nominal: 'gross',
+    nominalDefinition: 'the remote stress',
+    params: [],
+    range: 'a hole far from every edge (d/W -> 0)',
+    outside: () => [],
+    evaluate: () => ktKirsch('uniaxial'),
+    spread: 0,
+  },
+  {
+    id: 'inglis',
+    title: 'elliptical hole in an infinite plate, remote tension across the semi-axis a',
+    source: 'C. E. Inglis, Trans. Inst. Naval Architects 55 (1913) 219-241',
+    provenance: 'V',
+    nominal: 'gross',
+    nominalDefinition: 'the remote stress',
+    params: [
+      { name: 'a', meaning: 'semi-axis across the load' },
+      { name: 'b', meaning: 'semi-axis along the load' },
+    ],
+    range: 'a hole far from every edge',
+    outside: () => [],
+    evaluate: (p) => ktInglis(p.a, p.b),
+    spread: 0,
+  },
+  {
+    id: 'hole-in-strip',
+    title: 'central circular hole in a strip, tension',
+    source: 'Howland, Phil. Trans. R. Soc. A 229 (1930); Pilkey & Pilkey, Peterson\'s Stress Concentration Factors (2008) chart 4.1 fit',
+    provenance: 'M+',
+    nominal: 'net',
+    nominalDefinition: 'P / ((W - d) t)',
+    params: [
+      { name: 'W', meaning: 'strip width' },
+      { name: 'd', meaning: 'hole diameter' },
+    ],
+    range: '0 <= d/W <= 0.5 (Howland\'s data)',
+    outside: (p) => between(p.d / p.W, 0, 0.5, 'd/W'),
+    evaluate: (p) => ktHoleInStripNet(p.d / p.W),
+    spread: 0.02,
+  },
+  {
+    id: 'hole-in-strip-gross',
+    title: 'central circular hole in a strip, tension, on the gross section',
+    source: 'as hole-in-strip, Ktg = Ktn / (1 - d/W)',
+    provenance: 'M+',
+    nominal: 'gross',
+    nominalDefinition: 'P / (W t)',
+    params: [
+      { name: 'W', meaning: 'strip width' },
+      { name: 'd', meaning: 'hole diameter' },
+    ],
+    range: '0 <= d/W <= 0.5',
+    outside: (p) => between(p.d / p.W, 0, 0.5, 'd/W'),
+    evaluate: (p) => ktHoleInStripGross(p.d / p.W),
+    spread: 0.02,
+  },
+  {
+    id: 'hole-in-strip-heywood',
+    title: 'central circular hole in a strip, tension (Heywood\'s formula)',
+    source: 'R. B. Heywood, Designing by Photoelasticity (1952): Ktn = 2 + (1 - d/W)^3',
+    provenance: 'M',
+    nominal: 'net',
+    nominalDefinition: 'P / ((W - d) t)',
+    params: [
+      { name: 'W', meaning: 'strip width' },
+      { name: 'd', meaning: 'hole diameter' },
+    ],
+    range: '0 <= d/W <= 0.5',
+    outside: (p) => between(p.d / p.W, 0, 0.5, 'd/W'),
+    evaluate: (p) => ktHoleInStripHeywood(p.d / p.W),
+    spread: 0.02,
+  },
+  {
+    id: 'fillet-tension',
+    title: 'flat bar with shoulder fillets, tension',
+    source: 'Pilkey & Pilkey (2008) chart 3.1 fit',
+    provenance: 'M',
+    nominal: 'net',
+    nominalDefinition: 'P / (d t)',
+    params: [
+      { name: 'D', meaning: 'wide width' },
+      { name: 'd', meaning: 'narrow width' },
+      { name: 'r', meaning: 'fillet radius' },
+    ],
+    range: '0.1 <= t/r <= 20 with t = (D - d)/2; wide part long',
+    outside: (p) => between((p.D - p.d) / 2 / p.r, 0.1, 20, 't/r'),
+    evaluate: (p) => ktSteppedBarTension(p.D, p.d, p.r),
+    spread: 0.05,
+  },
+  {
+    id: 'fillet-bending',
+    title: 'flat bar with shoulder fillets, in-plane bending',
+    source: 'Pilkey & Pilkey (2008) chart 3.4 fit',
+    provenance: 'M',
+    nominal: 'net',
+    nominalDefinition: '6 M / (t d^2)',
+    params: [
+      { name: 'D', meaning: 'wide width' },
+      { name: 'd', meaning: 'narrow width' },
+      { name: 'r', meaning: 'fillet radius' },
+    ],
+    range: '0.1 <= t/r <= 20 with t = (D - d)/2',
+    outside: (p) => between((p.D - p.d) / 2 / p.r, 0.1, 20, 't/r'),
+    evaluate: (p) => ktSteppedBarBending(p.D, p.d, p.r),
+    spread: 0.05,
+  },
+  {
+    id: 'u-notches-tension',
+    title: 'flat bar with opposite U-notches, tension',
+    source: 'Pilkey & Pilkey (2008) chart 2.4 fit; it agrees with Neuber\'s combination rule, which is known to run low for deep narrow notches',
+    provenance: 'M+',
+    nominal: 'net',
+    nominalDefinition: 'P / ((H - 2t) thickness)',
+    params: [
+      { name: 'H', meaning: 'full width' },
+      { name: 't', meaning: 'notch depth' },
+      { name: 'r', meaning: 'notch root radius' },
+    ],
+    range: '0.1 <= t/r <= 50',
+    outside: (p) => between(p.t / p.r, 0.1, 50, 't/r'),
+    evaluate: (p) => ktOppositeUNotchesTension(p.H, p.t, p.r),
+    spread: 0.08,
+  },
+  {
+    id: 'u-notches-neuber',
+    title: 'opposite notches in tension by Neuber\'s combination rule',
+    source: 'H. Neuber, Kerbspannungslehre (1958)',
+    provenance: 'M',
+    nominal: 'net',
+    nominalDefinition: 'P / ((H - 2t) thickness)',
+    params: [
+      { name: 'H', meaning: 'full width' },
+      { name: 't', meaning: 'notch depth' },
+      { name: 'r', meaning: 'notch root radius' },
+    ],
+    range: 'any depth; an approximation between the shallow and deep limits',
+    outside: () => [],
+    evaluate: (p) => ktNeuberOppositeNotchesTension(p.H, p.t, p.r),
+    spread: 0.1,
+  },
+  {
+    id: 'edge-notch-semicircular',
+    title: 'semicircular edge notch in a semi-infinite plate, tension',
+    source: 'C.-B. Ling, J. Math. Phys. 26 (1948) 284-289: Kt = 3.065',
+    provenance: 'M',
+    nominal: 'gross',
+    nominalDefinition: 'the remote stress',
+    params: [
+      { name: 'H', meaning: 'bar width' },
+      { name: 'r', meaning: 'notch radius (= depth)' },
+    ],
+    range: 'a shallow notch, r/H small (below about 0.02)',
+    outside: (p) => between(p.r / p.H, 0, 0.02, 'r/H'),
+    evaluate: () => 3.065,
+    spread: 0.02,
+  },
+  {
+    id: 'edge-notch-slender',
+    title: 'slender single edge U-notch in a strip, tension, ends free to rotate (an estimate)',
+    source: 'derived here from Creager & Paris, IJFM 3 (1967) and the edge-crack factor of Tada, Paris & Irwin (2000); low by about 1/Kt and more',
+    provenance: 'D from M',
+    nominal: 'gross',
+    nominalDefinition: 'the remote stress',
+    params: [
+      { name: 'H', meaning: 'strip width' },
+      { name: 't', meaning: 'notch depth' },
+      { name: 'r', meaning: 'notch root radius' },
+    ],
+    range: 't/r >= 10 and t/H <= 0.6',
+    outside: (p) => [...(p.t / p.r >= 10 ? [] : [`t/r = ${Number((p.t / p.r).toPrecision(3))} is below 10`]), ...between(p.t / p.H, 0, 0.6, 't/H')],
+    evaluate: (p) => edgeNotchPeakStress(1, p.t, p.r, p.H).ktGross,
+    spread: 0.12,
+  },
+];
+
+export function findChart(id: string): Chart | undefined {
+  return CHARTS.find((c) => c.id === id);
+}
+
+/**
+ * The chart a model built from a template belongs to, with the dimensions it needs, and which
+ * Kt (net or gross) of the model to compare with it.
+ */
+export function chartForFamily(family: string, dims: Record<string, number>): { chart: Chart; params: Record<string, number> } | null {
+  switch (family) {
+    case 'plate-with-hole-tension':
+      return { chart: findChart('hole-in-strip')!, params: { W: dims.W, d: dims.d } };
+    case 'plate-with-elliptical-hole-tension':
+      return { chart: findChart('inglis')!, params: { a: dims.a, b: dims.b } };
+    case 'stepped-bar-tension':
+      return { chart: findChart('fillet-tension')!, params: { D: dims.D, d: dims.d, r: dims.r } };
+    case 'stepped-bar-bending':
+      return { chart: findChart('fillet-bending')!, params: { D: dims.D, d: dims.d, r: dims.r } };
+    case 'u-notched-bar-tension':
+      return { chart: findChart('u-notches-tension')!, params: { H: dims.H, t: dims.t, r: dims.r } };
+    case 'edge-notched-bar-tension': {
+      const shallow = dims.t === dims.r && dims.r / dims.H <= 0.02;
+      return shallow ? { chart: findChart('edge-notch-semicircular')!, params: { H: dims.H, r: dims.r } } : { chart: findChart('edge-notch-slender')!, params: { H: dims.H, t: dims.t, r: dims.r } };
+    }
+  }
+  return null;
+}
+
+export interface ChartComparison {
+  id: string;
+  title: string;
+  source: string;
+  provenance: string;
+  nominal: 'net' | 'gross';
+  value: number;
+  computed: number;
+  /** computed / chart - 1 */
+  difference: number;
+  spread: number;
+  outside: string[];
+}
+
+/** The chart value beside a computed Kt (net and gross given; the chart says which it uses). */
+export function compareWithChart(family: string, dims: Record<string, number>, kt: { net: number; gross: number }): ChartComparison | null {
+  const found = chartForFamily(family, dims);
+  if (!found) return null;
+  const { chart, params } = found;
+  const outside = chart.outside(params);
+  let value: number;
+  try {
+    value = chart.evaluate(params);
+  } catch (err) {
+    outside.push((err as Error).message);
+    value = NaN;
+  }
+  const computed = chart.nominal === 'net' ? kt.net : kt.gross;
+  return { id: chart.id, title: chart.title, source: chart.source, provenance: chart.provenance, nominal: chart.nominal, value, computed, difference: computed / value - 1, spread: chart.spread, outside };
+}
