@@ -16,6 +16,7 @@ import { excerptAt, lineColumn, scanJson, type JsonScan } from './json-text.js';
 import { Model } from './schema.js';
 import { closest, quoteList } from './suggest.js';
 import { resolveUnits } from './units.js';
+import { substituteParameters } from './params.js';
 
 export interface LoadedModel {
   model: Model;
@@ -36,8 +37,8 @@ export function readModelFile(path: string): Model {
   return loadModelFile(path).model;
 }
 
-/** As parseModelText, also returning the warnings. */
-export function loadModelText(text: string, file?: string): LoadedModel {
+/** As parseModelText, also returning the warnings. `parameters` override declared parameter values. */
+export function loadModelText(text: string, file?: string, options: { parameters?: Readonly<Record<string, number>> } = {}): LoadedModel {
   // A byte-order mark is not part of the JSON; editors do not count it as a column.
   const src = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
   let data: unknown;
@@ -64,6 +65,16 @@ export function loadModelText(text: string, file?: string): LoadedModel {
 
   notAModel(data, src, file);
 
+  // Parameters: "=expression" strings become numbers before the schema sees them.
+  const sub = substituteParameters(data, options.parameters);
+  for (const pr of sub.problems) {
+    const e = new ModelError(pr.path, pr.message, pr.hint, file);
+    const off = offsetOf(pr.path, scan);
+    problems.push(off !== undefined ? place(e, src, off) : e);
+  }
+  throwAll(problems, file);
+  data = sub.data;
+
   const parsed = Model.safeParse(data);
   if (!parsed.success) {
     const units = unitsOf(data);
@@ -86,7 +97,7 @@ export function loadModelText(text: string, file?: string): LoadedModel {
 }
 
 /** As readModelFile, also returning the warnings. */
-export function loadModelFile(path: string): LoadedModel {
+export function loadModelFile(path: string, options: { parameters?: Readonly<Record<string, number>> } = {}): LoadedModel {
   let st;
   try {
     st = statSync(path);
@@ -113,7 +124,7 @@ export function loadModelFile(path: string): LoadedModel {
   } catch (e) {
     throw fileError(path, e);
   }
-  return loadModelText(decodeText(bytes, path), path);
+  return loadModelText(decodeText(bytes, path), path, options);
 }
 
 // ---------------------------------------------------------------------------------------------

@@ -256,6 +256,10 @@ export const ChartLink = z.strictObject({
 export const Model = z.strictObject({
   $schema: z.string().optional().describe('path or address of the JSON Schema, for editors; ignored by raiser'),
   title: z.string().optional().describe('shown in results and reports'),
+  parameters: z
+    .record(z.string().regex(/^[A-Za-z_][A-Za-z0-9_]*$/), z.number())
+    .optional()
+    .describe('named numbers; any number in the file may be written as an expression of them, "=W/2 - r"'),
   note: z.string().optional().describe('free text: where the model comes from, what it is for'),
   units: Units.optional(),
   material: Material.describe('isotropic linear elastic material'),
@@ -285,9 +289,26 @@ for (const [schema, id] of [
   z.globalRegistry.add(schema, { ...z.globalRegistry.get(schema), id });
 }
 
+/** Every number may also be written as an "=expression" of the parameters (src/model/params.ts). */
+function allowExpressions(node: unknown): unknown {
+  if (Array.isArray(node)) return node.map(allowExpressions);
+  if (!node || typeof node !== 'object') return node;
+  const o = node as Record<string, unknown>;
+  const out: Record<string, unknown> = {};
+  for (const [k, v] of Object.entries(o)) out[k] = allowExpressions(v);
+  if (o.type === 'number' || o.type === 'integer') {
+    const { description, ...rest } = out;
+    return {
+      ...(description !== undefined ? { description } : {}),
+      anyOf: [rest, { type: 'string', pattern: '^=', description: 'an expression of the model parameters, such as "=W/2 - r"' }],
+    };
+  }
+  return out;
+}
+
 /** The JSON Schema for editors, generated from the schema above. */
 export function modelJsonSchema(): object {
-  const schema = z.toJSONSchema(Model, { target: 'draft-2020-12' }) as Record<string, unknown>;
+  const schema = allowExpressions(z.toJSONSchema(Model, { target: 'draft-2020-12' })) as Record<string, unknown>;
   return {
     ...schema,
     $id: 'https://raiser.invalid/schema/raiser-model.schema.json',
