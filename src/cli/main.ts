@@ -16,6 +16,8 @@ import { runVerify, verifyCases } from '../verify/suite.js';
 import { join } from 'node:path';
 import { newCommand } from './new.js';
 import { chartsCommand } from './charts.js';
+import { sweepCommands } from './sweep.js';
+import { parseAccuracy } from './accuracy.js';
 
 export const EXIT = { ok: 0, internal: 1, badInput: 2, cannotAnalyse: 3 } as const;
 
@@ -28,16 +30,6 @@ interface SolveFlags {
   measure?: StressMeasure;
   element?: 'linear' | 'quadratic';
   debug?: boolean;
-}
-
-/** "0.5%" or "0.005" -> 0.005; a ModelError for anything else. */
-export function parseAccuracy(text: string): number {
-  const m = /^\s*(\d*\.?\d+(?:e-?\d+)?)\s*(%?)\s*$/i.exec(text);
-  const v = m ? Number(m[1]) / (m[2] ? 100 : 1) : NaN;
-  if (!(v > 0 && v < 0.5)) {
-    throw new ModelError('--accuracy', `"${text}" is not an accuracy raiser can aim for`, 'give a relative error such as 1% or 0.005 (more than 0, less than 50%)');
-  }
-  return v;
 }
 
 function runSolve(file: string, flags: SolveFlags): number {
@@ -88,7 +80,7 @@ function runVerifyCommand(flags: { json?: boolean; out?: string; force?: boolean
 }
 
 /** Runs the program; returns the exit code (the process is not exited here, so tests can call it). */
-export function main(argv: string[]): number {
+export async function main(argv: string[]): Promise<number> {
   let code: number = EXIT.ok;
   let debug = argv.includes('--debug');
   const program = new Command();
@@ -118,6 +110,7 @@ export function main(argv: string[]): number {
 
   newCommand(program, (c) => (code = c));
   chartsCommand(program, (c) => (code = c));
+  sweepCommands(program, (c) => (code = c));
 
   program
     .command('verify')
@@ -131,7 +124,7 @@ export function main(argv: string[]): number {
     });
 
   try {
-    program.parse(argv, { from: 'user' });
+    await program.parseAsync(argv, { from: 'user' });
   } catch (err) {
     return reportError(err, debug);
   }

@@ -2,4 +2,6 @@
 /** Executable entry: runs the command line and sets the exit code. */
 import { main } from './main.js';
 
-process.exitCode = main(process.argv.slice(2));
+main(process.argv.slice(2)).then((code) => {
+  process.exitCode = code;
+});

@@ -1,0 +1,156 @@
+/**
+ * A sweep: every case of the --vary specification solved (certified by default), in parallel
+ * on worker threads, each finished case kept at once in DIR/cases/ so an interrupted sweep
+ * resumes where it stopped, then the Kt chart written: DIR/sweep.csv, DIR/sweep.json and a
+ * plot of Kt against the dimensionless parameter with the published curve where one exists.
+ */
+import { existsSync, mkdirSync, readdirSync, readFileSync } from 'node:fs';
+import { cpus } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { Worker } from 'node:worker_threads';
+import { evaluateExpression } from '../model/params.js';
+import { ModelError } from '../model/errors.js';
+import { writeAtomic } from '../report/files.js';
+import { allCases, caseKey, readSweepSource, type SweepSource, type Vary } from './cases.js';
+import { solveCase, type CaseOptions, type CaseRow } from './solve-case.js';
+import { sweepSvg } from './plot.js';
+
+export interface SweepOptions extends CaseOptions {
+  vary: Vary[];
+  outDir: string;
+  jobs?: number;
+  /** expression of the varied names (and model parameters) for the plot's x axis */
+  x?: string;
+  onProgress?: (row: CaseRow | { key: string; failed: string }, done: number, total: number) => void;
+}
+
+export interface SweepResult {
+  rows: CaseRow[];
+  failed: { key: string; message: string }[];
+  reused: number;
+  files: string[];
+  xLabel: string;
+}
+
+/** The dimensionless parameter of a template family, when the sweep does not name one. */
+const FAMILY_X: Record<string, string> = {
+  'plate-with-hole-tension': 'd/W',
+  'plate-with-elliptical-hole-tension': 'a/b',
+  'stepped-bar-tension': 'r/d',
+  'stepped-bar-bending': 'r/d',
+  'u-notched-bar-tension': 'r/t',
+  'edge-notched-bar-tension': 'r/t',
+};
+
+function fileName(key: string): string {
+  return key.replace(/[^A-Za-z0-9=.,_-]/g, '_') + '.json';
+}
+
+function optionsSignature(src: SweepSource, opts: CaseOptions): string {
+  return JSON.stringify({ model: src.signature, target: opts.target ?? 0.01, single: !!opts.singleMesh, element: opts.element ?? null, measure: opts.measure ?? null });
+}
+
+export async function runSweep(file: string, opts: SweepOptions): Promise<SweepResult> {
+  const src = readSweepSource(file, opts.vary);
+  const cases = allCases(opts.vary).map((values) => ({ key: caseKey(values), values }));
+  const dir = join(opts.outDir, 'cases');
+  mkdirSync(dir, { recursive: true });
+  const sig = optionsSignature(src, opts);
+  const rows = new Map<string, CaseRow>();
+  // Resume: a case file of the same model and options counts as done.
+  for (const name of existsSync(dir) ? readdirSync(dir) : []) {
+    if (!name.endsWith('.json')) continue;
+    try {
+      const saved = JSON.parse(readFileSync(join(dir, name), 'utf8')) as { signature: string; row: CaseRow };
+      if (saved.signature === sig && cases.some((c) => c.key === saved.row.key)) rows.set(saved.row.key, saved.row);
+    } catch {
+      // A damaged file (it cannot be: files are renamed into place) is solved again.
+    }
+  }
+  const reused = rows.size;
+  const todo = cases.filter((c) => !rows.has(c.key));
+  const failed: { key: string; message: string }[] = [];
+  let done = reused;
+  const keep = (row: CaseRow) => {
+    rows.set(row.key, row);
+    writeAtomic(join(dir, fileName(row.key)), JSON.stringify({ signature: sig, row }, null, 2) + '\n');
+    done++;
+    opts.onProgress?.(row, done, cases.length);
+  };
+  const workerFile = fileURLToPath(new URL('./worker.js', import.meta.url));
+  const jobs = Math.max(1, Math.min(opts.jobs ?? Math.min(2, cpus().length), todo.length));
+  const caseOpts: CaseOptions = { target: opts.target, singleMesh: opts.singleMesh, element: opts.element, measure: opts.measure };
+  if (jobs === 1 || !existsSync(workerFile)) {
+    for (const c of todo) {
+      try {
+        keep(solveCase(src, c.key, c.values, caseOpts));
+      } catch (err) {
+        failed.push({ key: c.key, message: (err as Error).message });
+        done++;
+        opts.onProgress?.({ key: c.key, failed: (err as Error).message }, done, cases.length);
+      }
+    }
+  } else {
+    await new Promise<void>((resolve, reject) => {
+      let next = 0;
+      let active = 0;
+      const start = () => {
+        const w = new Worker(workerFile, { workerData: { file, vary: opts.vary, options: caseOpts } });
+        active++;
+        const feed = () => {
+          if (next < todo.length) w.postMessage(todo[next++]);
+          else w.postMessage(null);
+        };
+        w.on('message', (msg: { ok: true; row: CaseRow } | { ok: false; key: string; message: string }) => {
+          if (msg.ok) keep(msg.row);
+          else {
+            failed.push({ key: msg.key, message: msg.message });
+            done++;
+            opts.onProgress?.({ key: msg.key, failed: msg.message }, done, cases.length);
+          }
+          feed();
+        });
+        w.on('error', reject);
+        w.on('exit', () => {
+          active--;
+          if (active === 0) resolve();
+        });
+        feed();
+      };
+      for (let k = 0; k < jobs; k++) start();
+    });
+  }
+  const ordered = cases.map((c) => rows.get(c.key)).filter((r): r is CaseRow => !!r);
+  const xExpr = opts.x ?? (src.kind === 'template' && src.model.chart ? FAMILY_X[src.model.chart.family] : undefined) ?? opts.vary[0].name;
+  const files = writeSweepFiles(opts.outDir, src, ordered, opts.vary, xExpr);
+  return { rows: ordered, failed, reused, files, xLabel: xExpr };
+}
+
+/** x of a case: the expression evaluated with the case's values and the model's parameters or dimensions. */
+export function caseX(src: SweepSource, row: CaseRow, xExpr: string): number {
+  const base = src.kind === 'parameters' ? (src.model.parameters ?? {}) : (src.model.chart?.dims ?? {});
+  try {
+    return evaluateExpression(xExpr, { ...base, ...row.values });
+  } catch (e) {
+    throw new ModelError('--x', `the x axis "${xExpr}" cannot be evaluated: ${(e as Error).message}`, 'give --x an expression of the varied names and the model parameters');
+  }
+}
+
+function writeSweepFiles(outDir: string, src: SweepSource, rows: CaseRow[], vary: Vary[], xExpr: string): string[] {
+  const names = vary.map((v) => v.name);
+  const num = (v: number | null) => (v === null || !Number.isFinite(v) ? '' : Number(v.toPrecision(8)).toString());
+  const lines = [[...names, 'x', 'kt_net', 'kt_gross', 'kt_error', 'chart_kt', 'status', 'peak', 'peak_x', 'peak_y', 'feature', 'dofs', 'meshes', 'time_ms'].join(',')];
+  for (const r of rows) {
+    lines.push(
+      [...names.map((n) => num(r.values[n])), num(caseX(src, r, xExpr)), num(r.ktNet), num(r.ktGross), num(r.error), num(r.chartKt), r.status, num(r.peak), num(r.peakX), num(r.peakY), `"${r.feature.replace(/"/g, '""')}"`, String(r.dofs), String(r.meshes), num(r.timeMs)].join(','),
+    );
+  }
+  const csv = join(outDir, 'sweep.csv');
+  writeAtomic(csv, lines.join('\n') + '\n');
+  const json = join(outDir, 'sweep.json');
+  writeAtomic(json, JSON.stringify({ model: src.file, vary, x: xExpr, rows: rows.map((r) => ({ ...r, x: caseX(src, r, xExpr) })) }, null, 2) + '\n');
+  const svg = join(outDir, 'sweep.svg');
+  writeAtomic(svg, sweepSvg(rows.map((r) => ({ ...r, x: caseX(src, r, xExpr) })), vary, xExpr, src.model.title ?? src.file));
+  return [csv, json, svg];
+}

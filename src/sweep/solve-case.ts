@@ -1,0 +1,69 @@
+/** One sweep case, solved: shared by the worker threads and the single-thread path. */
+import { compareWithChart } from '../charts/library.js';
+import type { StressMeasure } from '../model/schema.js';
+import { analyseModel } from '../pipeline/analyse.js';
+import { certifyModel } from '../pipeline/certify.js';
+import { caseModel, type SweepSource } from './cases.js';
+
+export interface CaseOptions {
+  target?: number;
+  singleMesh?: boolean;
+  element?: 'linear' | 'quadratic';
+  measure?: StressMeasure;
+}
+
+export interface CaseRow {
+  key: string;
+  values: Record<string, number>;
+  status: string;
+  ktNet: number | null;
+  ktGross: number | null;
+  /** relative error band (null for one mesh) */
+  error: number | null;
+  peak: number;
+  peakX: number;
+  peakY: number;
+  feature: string;
+  dofs: number;
+  meshes: number;
+  /** the published chart value for this case, when the model comes from a template */
+  chartKt: number | null;
+  chartId: string | null;
+  timeMs: number;
+}
+
+export function solveCase(src: SweepSource, key: string, values: Record<string, number>, opts: CaseOptions): CaseRow {
+  const t0 = performance.now();
+  const model = caseModel(src, values);
+  let status = 'single-mesh';
+  let error: number | null = null;
+  let meshes = 1;
+  let a;
+  if (opts.singleMesh) a = analyseModel(model, opts);
+  else {
+    const c = certifyModel(model, { ...opts, target: opts.target ?? 0.01 });
+    a = c.analysis;
+    status = c.status;
+    error = c.gci && Number.isFinite(c.gci.gci) ? c.gci.gci : null;
+    meshes = c.meshes.length;
+  }
+  const singular = status === 'singular';
+  const cmp = model.chart ? compareWithChart(model.chart.family, model.chart.dims, a.kt) : null;
+  return {
+    key,
+    values,
+    status,
+    ktNet: singular ? null : a.kt.net,
+    ktGross: singular ? null : a.kt.gross,
+    error,
+    peak: a.peak.stress,
+    peakX: a.peak.x,
+    peakY: a.peak.y,
+    feature: a.peak.feature,
+    dofs: 2 * a.mesh.nNodes,
+    meshes,
+    chartKt: cmp && Number.isFinite(cmp.value) ? cmp.value : null,
+    chartId: cmp ? cmp.id : null,
+    timeMs: performance.now() - t0,
+  };
+}
