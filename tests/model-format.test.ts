@@ -10,6 +10,7 @@ import { buildDomain } from '../src/geometry/domain.js';
 import { ModelError } from '../src/model/errors.js';
 import { parseModelText } from '../src/model/load.js';
 import { Load, Loop, Model, Support, Target } from '../src/model/schema.js';
+import { substituteParameters } from '../src/model/params.js';
 
 const readme = readFileSync(new URL('../README.md', import.meta.url), 'utf8');
 // The model format section runs from its heading to the result fields.
@@ -40,7 +41,8 @@ describe('README model format', () => {
     const field: Record<string, z.ZodType> = { ...(Model.shape as Record<string, z.ZodType>), on: Target };
     for (const f of fragments) {
       if (f.trimStart().startsWith('"')) {
-        const o = JSON.parse(`{${f}}`) as Record<string, unknown>;
+        // Expressions in a fragment are evaluated with its own parameters first, as a file's are.
+        const o = substituteParameters(JSON.parse(`{${f}}`)).data as Record<string, unknown>;
         for (const [k, v] of Object.entries(o)) {
           expect(field[k], `a fragment shows the unknown field "${k}"`).toBeDefined();
           const r = field[k].safeParse(v);
