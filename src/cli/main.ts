@@ -23,6 +23,7 @@ export const EXIT = { ok: 0, internal: 1, badInput: 2, cannotAnalyse: 3 } as con
 
 interface SolveFlags {
   accuracy?: string;
+  maxMemory?: string;
   singleMesh?: boolean;
   json?: boolean;
   out?: string;
@@ -32,9 +33,17 @@ interface SolveFlags {
   debug?: boolean;
 }
 
+/** "8", "8GB", "512MB" -> bytes. */
+function parseMemory(text: string): number {
+  const m = /^\s*(\d*\.?\d+)\s*(GB|G|MB|M)?\s*$/i.exec(text);
+  const v = m ? Number(m[1]) * (m[2] && /^m/i.test(m[2]) ? 2 ** 20 : 2 ** 30) : NaN;
+  if (!(v > 0)) throw new ModelError('--max-memory', `"${text}" is not an amount of memory`, 'write --max-memory 8 (gigabytes) or 512MB');
+  return v;
+}
+
 function runSolve(file: string, flags: SolveFlags): number {
   const { model, warnings } = loadModelFile(file);
-  const opts = { measure: flags.measure, element: flags.element };
+  const opts = { measure: flags.measure, element: flags.element, maxMemoryBytes: flags.maxMemory ? parseMemory(flags.maxMemory) : undefined };
   let analysis;
   let cert = null;
   if (flags.singleMesh) {
@@ -97,6 +106,7 @@ export async function main(argv: string[]): Promise<number> {
     .argument('<model>', 'model file (JSON)')
     .option('--accuracy <target>', 'refine until the estimated error of the peak (and Kt) is below this, e.g. 0.5% (default 1%)')
     .option('--single-mesh', 'solve on one mesh only, without the convergence study (no error estimate)')
+    .option('--max-memory <GB>', 'refuse models estimated to need more memory than this (default 60% of this machine)')
     .option('--json', 'print the result as one JSON object on stdout, nothing else')
     .option('-o, --out <dir>', 'write result files (result.json, nodes.csv) into this folder')
     .option('--force', 'replace result files that already exist in the output folder')

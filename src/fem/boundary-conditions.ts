@@ -88,6 +88,8 @@ export interface CompiledSupports {
   supported: Uint8Array;
   /** per domain edge: 1 when the support is a symmetry plane */
   symmetry: Uint8Array;
+  /** per domain edge: the index of a fixed support holding it, or -1 */
+  fixedBy: Int32Array;
 }
 
 function edgeMask(domain: Domain, edges: number[]): Uint8Array {
@@ -148,6 +150,13 @@ export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports:
       edges = load.on ? resolve(domain, load.on, `${path}.on`, warnings) : outerEdges(domain).filter((e) => !supports.supported[e]);
     } else {
       edges = resolve(domain, load.on, `${path}.on`, warnings);
+    }
+    if (edges.length > 0 && edges.every((e) => supports.fixedBy[e] >= 0)) {
+      throw new ModelError(
+        `${path}.on`,
+        `the load acts only on edges that supports[${supports.fixedBy[edges[0]]}] holds fixed: it would go straight into the support and never load the part`,
+        'apply the load to an edge that is free to move, or hold the part elsewhere',
+      );
     }
     const mask = edgeMask(domain, edges);
     const before = Float64Array.from(f);
@@ -285,6 +294,7 @@ export function compileSupports(model: Model, domain: Domain, mesh: Mesh, warnin
   const value = new Float64Array(nDof);
   const supported = new Uint8Array(domain.edges.length);
   const symmetry = new Uint8Array(domain.edges.length);
+  const fixedBy = new Int32Array(domain.edges.length).fill(-1);
   const nodesOf = (mask: Uint8Array) => {
     const set = new Set<number>();
     for (let s = 0; s < mesh.nBEdges; s++) {
@@ -307,6 +317,7 @@ export function compileSupports(model: Model, domain: Domain, mesh: Mesh, warnin
     const edges = resolve(domain, sup.on, `${path}.on`, warnings);
     const mask = edgeMask(domain, edges);
     for (const e of edges) supported[e] = 1;
+    if (sup.type === 'fixed') for (const e of edges) fixedBy[e] = i;
     if (sup.type === 'fixed' || sup.type === 'roller') {
       const comps = sup.type === 'fixed' ? [0, 1] : [sup.fix === 'x' ? 0 : 1];
       for (const n of nodesOf(mask)) for (const c of comps) fixed[2 * n + c] = 1;
@@ -332,7 +343,7 @@ export function compileSupports(model: Model, domain: Domain, mesh: Mesh, warnin
       for (const n of nodesOf(one)) fixed[2 * n + comp] = 1;
     }
   });
-  return { constraints: { fixed, value }, supported, symmetry };
+  return { constraints: { fixed, value }, supported, symmetry, fixedBy };
 }
 
 export function nearestBoundaryNode(mesh: Mesh, x: number, y: number): number {

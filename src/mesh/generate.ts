@@ -6,7 +6,8 @@
 import { evaluateCurve } from '../geometry/curve.js';
 import type { Domain } from '../geometry/domain.js';
 import { findContacts } from '../geometry/intersect.js';
-import { AnalysisError, InternalError } from '../model/errors.js';
+import { AnalysisError, InternalError, ModelError } from '../model/errors.js';
+import { estimateAnalysisBytes, estimateTriangles } from './estimate.js';
 import { discretiseBoundary, type BoundaryPoints, type HardPoint } from './boundary.js';
 import { checkMesh } from './check.js';
 import { refineMesh, SharpCorners } from './refine.js';
@@ -19,6 +20,8 @@ export interface MeshOptions extends SizeOptions {
   maxVertices?: number;
   /** boundary points that must be nodes (pins, point supports) */
   hardPoints?: readonly HardPoint[];
+  /** refuse, before meshing, a model whose analysis is estimated to need more memory than this (bytes) */
+  maxBytes?: number;
 }
 
 export interface MeshResult {
@@ -30,6 +33,17 @@ export interface MeshResult {
 export function generateMesh(domain: Domain, opts: MeshOptions): MeshResult {
   const t0 = performance.now();
   const size = buildSizeField(domain, opts);
+  const estimated = estimateTriangles(domain, size);
+  if (opts.maxBytes !== undefined) {
+    const bytes = estimateAnalysisBytes(estimated, opts.order);
+    if (bytes > opts.maxBytes) {
+      throw new ModelError(
+        'mesh',
+        `the mesh would have about ${estimated.toExponential(1)} triangles and the analysis would need about ${(bytes / 2 ** 30).toFixed(1)} GB, more than the limit of ${(opts.maxBytes / 2 ** 30).toFixed(1)} GB`,
+        'raise mesh.size or mesh.raiserSize (or mesh.grading), or raise the limit with --max-memory <GB>',
+      );
+    }
+  }
   const boundary = discretiseBoundary(domain, size, opts.hardPoints);
   checkBoundary(domain, boundary);
   const t1 = performance.now();
@@ -59,6 +73,7 @@ export function generateMesh(domain: Domain, opts: MeshOptions): MeshResult {
       vertices: mesh.nVertices,
       timeMs: { boundary: t1 - t0, triangulate: t2 - t1, refine: t3 - t2, finish: t4 - t3, total: t4 - t0 },
       refine: refineStats,
+      estimatedTriangles: estimated,
     },
   };
 }

@@ -40,6 +40,8 @@ export interface MeshStats {
   minAngleUnforcedDeg: number;
   triangles: number;
   vertices: number;
+  /** the count the size field asked for, estimated before meshing */
+  estimatedTriangles: number;
   timeMs: { boundary: number; triangulate: number; refine: number; finish: number; total: number };
   refine: {
     insertedInterior: number;

@@ -3,6 +3,7 @@
  * sparse Cholesky -> recovered stresses -> peak, nominal section, Kt. This file only wires the
  * stages together; each stage lives in its own module and knows nothing of the ones after it.
  */
+import { totalmem } from 'node:os';
 import { buildDomain, type Domain } from '../geometry/domain.js';
 import { traceLoops } from '../geometry/validate.js';
 import { validateDomain } from '../geometry/validate.js';
@@ -10,7 +11,8 @@ import { assembleSystem, internalForces, meshNodeGraph } from '../fem/assemble.j
 import { compileLoads, compileSupports, type CompiledLoads, type ExtraTraction } from '../fem/boundary-conditions.js';
 import { constitutiveMatrix, type PlaneState } from '../fem/material.js';
 import { checkRigidMotion } from '../fem/rigid.js';
-import { generateMesh } from '../mesh/generate.js';
+import { generateMesh, triangleMinAngle } from '../mesh/generate.js';
+import type { SizeField } from '../mesh/sizefield.js';
 import type { HardPoint } from '../mesh/boundary.js';
 import type { SizeLimit } from '../mesh/background.js';
 import type { Mesh, MeshStats } from '../mesh/types.js';
@@ -31,6 +33,8 @@ export interface AnalyseOptions {
   measure?: StressMeasure;
   /** multiplies every mesh size (global and at raisers); 1 = the model's own */
   sizeFactor?: number;
+  /** refuse a model whose analysis is estimated to need more memory (bytes; default 60% of the machine's) */
+  maxMemoryBytes?: number;
 }
 
 export interface NominalInfo {
@@ -81,6 +85,7 @@ export interface PreparedModel {
   hardPoints: HardPoint[];
   /** traction fields given in code, beside the model's loads (closed-form verification cases) */
   extraTractions?: ExtraTraction[];
+  maxMemoryBytes: number;
 }
 
 export function prepareModel(model: Model, opts: AnalyseOptions = {}): PreparedModel {
@@ -99,7 +104,15 @@ export function prepareModel(model: Model, opts: AnalyseOptions = {}): PreparedM
     }
     return [{ edge: b.edge, t: b.t }];
   });
-  return { model, units, state, measure, domain, order, hardPoints };
+  // Sizes below the geometric tolerance cannot be meshed (points would merge).
+  for (const key of ['size', 'raiserSize'] as const) {
+    const v = model.mesh?.[key];
+    if (v !== undefined && v < 1e-6 * domain.scale) {
+      throw new ModelError(`mesh.${key}`, `mesh.${key} = ${v} is below a millionth of the part size (${domain.scale.toPrecision(4)}): it cannot be meshed`, `use a size of at least ${(1e-4 * domain.scale).toPrecision(2)}`);
+    }
+  }
+  const maxMemoryBytes = opts.maxMemoryBytes ?? 0.6 * totalmem();
+  return { model, units, state, measure, domain, order, hardPoints, maxMemoryBytes };
 }
 
 /** One analysis on the model's own mesh (scaled by opts.sizeFactor). */
@@ -113,7 +126,7 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
   const warnings: string[] = [];
   const { model, units, state, measure, domain, order, hardPoints } = prep;
   const ms = model.mesh ?? {};
-  const { mesh, stats: meshStats } = generateMesh(domain, {
+  const meshGen = generateMesh(domain, {
     order,
     size: ms.size,
     raiserSize: ms.raiserSize,
@@ -122,7 +135,9 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
     sizeFactor: meshing.sizeFactor ?? 1,
     limit: meshing.limit,
     hardPoints,
+    maxBytes: prep.maxMemoryBytes,
   });
+  const { mesh, stats: meshStats } = meshGen;
   const t1 = performance.now();
 
   const supports = compileSupports(model, domain, mesh, warnings);
@@ -232,6 +247,13 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
   if (y !== undefined && Math.abs(peak.stress) > y) {
     warnings.push(`the elastic peak stress ${peak.stress.toPrecision(4)} ${units.stress} exceeds the yield strength ${y} ${units.stress}: local plastic flow is expected there and the linear result overstates the real peak stress`);
   }
+  warnings.push(...checkResolution(mesh, meshGen.size, netCut, peak));
+  if (model.supports.length > 0 && model.supports.every((s) => s.type === 'pin')) {
+    const carried = Math.hypot(reaction.fx, reaction.fy);
+    if (carried > 1e-6 * fAbs) {
+      warnings.push(`the loads do not balance: the pins, meant only to stop rigid motion, carry ${carried.toPrecision(3)} ${units.force}; check the loads or hold the part with real supports`);
+    }
+  }
   if (equilibriumError > 1e-6) warnings.push(`applied loads and reactions balance only to ${equilibriumError.toExponential(2)} of the load`);
   const t4 = performance.now();
   return {
@@ -258,6 +280,30 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
     timeMs: { mesh: t1 - t0, assemble: t2 - t1, solve: t3 - t2, recover: t4 - t3, total: t4 - t0 },
     warnings,
   };
+}
+
+/**
+ * Warnings about the mesh where it matters: a net-section ligament under two elements wide (the
+ * stress across it is then poorly resolved), and badly shaped elements at the peak.
+ */
+function checkResolution(mesh: Mesh, size: SizeField, net: Cut, peak: Peak): string[] {
+  const out: string[] = [];
+  for (const [x0, y0, x1, y1] of net.intervals) {
+    const L = Math.hypot(x1 - x0, y1 - y0);
+    const h = size.at(0.5 * (x0 + x1), 0.5 * (y0 + y1));
+    if (L > 0 && L / h < 2) {
+      out.push(`the ligament from (${x0.toPrecision(4)}, ${y0.toPrecision(4)}) to (${x1.toPrecision(4)}, ${y1.toPrecision(4)}) is only about ${(L / h).toFixed(1)} elements wide; give mesh.size or mesh.raiserSize a smaller value`);
+    }
+  }
+  const per = mesh.order === 2 ? 6 : 3;
+  let worst = 180;
+  for (let e = 0; e < mesh.nElements; e++) {
+    let has = false;
+    for (let i = 0; i < per; i++) if (mesh.elements[per * e + i] === peak.node) has = true;
+    if (has) worst = Math.min(worst, triangleMinAngle(mesh, per, e));
+  }
+  if (worst < 20 && !peak.atSharpCorner) out.push(`an element at the peak has an angle of only ${worst.toFixed(1)} degrees; the peak stress there is less reliable`);
+  return out;
 }
 
 function principalMax(sxx: number, syy: number, sxy: number): number {

@@ -20,6 +20,7 @@ import { gridConvergence, type GciResult } from '../post/convergence.js';
 import { estimateErrors } from '../post/estimate.js';
 import { analyseOnMesh, prepareModel, type AnalyseOptions, type Analysis, type PreparedModel } from './analyse.js';
 import type { Model } from '../model/schema.js';
+import { ModelError } from '../model/errors.js';
 
 export interface CertifyOptions extends AnalyseOptions {
   /** relative error target for the peak stress and Kt (default 0.01) */
@@ -140,7 +141,17 @@ export function certifyPrepared(prep: PreparedModel, opts: CertifyOptions = {}):
   let status: CertifyStatus = 'not-converged';
   for (let k = 0; k < maxMeshes; k++) {
     const f = Math.pow(RATIO, -k);
-    const a = k === 0 && !limit ? first : analyseOnMesh(prep, { sizeFactor: s0 * f, limit: scaled(limit, f) });
+    let a: Analysis;
+    try {
+      a = k === 0 && !limit ? first : analyseOnMesh(prep, { sizeFactor: s0 * f, limit: scaled(limit, f) });
+    } catch (err) {
+      // The next mesh would not fit in memory: stop with what the series has.
+      if (err instanceof ModelError && err.path === 'mesh' && runs.length > 0) {
+        notes.push(`stopped: ${err.message}`);
+        break;
+      }
+      throw err;
+    }
     runs.push(a);
     meshes.push(record(a, f));
     if (runs.length >= 2) {

@@ -3,9 +3,9 @@
  * so an interrupted run never leaves a half-written file under the final name; existing
  * results are not replaced unless the caller says so.
  */
-import { existsSync, mkdirSync, renameSync, writeFileSync, rmSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, renameSync, writeFileSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
-import { ModelError } from '../model/errors.js';
+import { InternalError, ModelError } from '../model/errors.js';
 import type { Analysis } from '../pipeline/analyse.js';
 import { measureField } from '../post/peak.js';
 import type { ResultJson } from './result.js';
@@ -24,6 +24,8 @@ export function writeAtomic(path: string, data: string | Uint8Array): void {
 /** Refuses to overwrite unless `force`; creates the folder. */
 export function prepareOutputDir(dir: string, names: string[], force: boolean): void {
   mkdirSync(dir, { recursive: true });
+  // Temporary files left by an interrupted run are never results: remove them.
+  for (const f of readdirSync(dir)) if (f.includes('.raiser-tmp-')) rmSync(join(dir, f), { force: true });
   if (force) return;
   const taken = names.filter((n) => existsSync(join(dir, n)));
   if (taken.length > 0) {
@@ -39,7 +41,10 @@ export function nodalCsv(a: Analysis): string {
   const vm = measureField(a.stress, 'von-mises', a.szzFactor);
   const tr = measureField(a.stress, 'tresca', a.szzFactor);
   const lines = ['node,x,y,ux,uy,sxx,syy,sxy,s1,s2,von_mises,tresca'];
-  const num = (v: number) => (Number.isFinite(v) ? Number(v.toPrecision(10)).toString() : '');
+  const num = (v: number) => {
+    if (!Number.isFinite(v)) throw new InternalError(`a nodal result is ${v}: the results are not written`);
+    return Number(v.toPrecision(10)).toString();
+  };
   for (let i = 0; i < n; i++) {
     lines.push(
       [i, a.mesh.nodes[2 * i], a.mesh.nodes[2 * i + 1], a.u[2 * i], a.u[2 * i + 1], a.stress[3 * i], a.stress[3 * i + 1], a.stress[3 * i + 2], s1[i], s2[i], vm[i], tr[i]]

@@ -4,6 +4,7 @@
  * keep the two in step.
  */
 import type { Analysis } from '../pipeline/analyse.js';
+import { InternalError } from '../model/errors.js';
 import type { Certified } from '../pipeline/certify.js';
 import type { Cut } from '../post/section.js';
 import { compareWithChart } from '../charts/library.js';
@@ -88,7 +89,23 @@ function convergence(c: Certified | null, scale: number) {
   };
 }
 
+/** NaN never reaches a result: every number must be finite (null stands for "none"). */
+export function assertFiniteResult(value: unknown, path = 'result'): void {
+  if (typeof value === 'number') {
+    if (!Number.isFinite(value)) throw new InternalError(`the result field ${path} is ${value}: a computation failed; the result is not written`);
+    return;
+  }
+  if (Array.isArray(value)) value.forEach((v, i) => assertFiniteResult(v, `${path}[${i}]`));
+  else if (value && typeof value === 'object') for (const [k, v] of Object.entries(value)) assertFiniteResult(v, `${path}.${k}`);
+}
+
 export function buildResult(a: Analysis, file?: string, cert: Certified | null = null) {
+  const r = buildResultUnchecked(a, file, cert);
+  assertFiniteResult(r);
+  return r;
+}
+
+function buildResultUnchecked(a: Analysis, file?: string, cert: Certified | null = null) {
   const m = a.model;
   const y = m.material.yield;
   const scale = a.domain.scale;
@@ -179,4 +196,4 @@ export function buildResult(a: Analysis, file?: string, cert: Certified | null =
   };
 }
 
-export type ResultJson = ReturnType<typeof buildResult>;
+export type ResultJson = ReturnType<typeof buildResultUnchecked>;
