@@ -5,8 +5,9 @@
  * expanded here; nothing downstream knows about them.
  */
 import { ModelError, formatPath } from '../model/errors.js';
-import type { ArcSpec, Geometry, Loop, Vertex } from '../model/schema.js';
-import { type Curve, curveAreaTerm, curveDerivative, evaluateCurve, reverseCurve } from './curve.js';
+import type { ArcSpec, DrawingGeometry, Geometry, Loop, Vertex } from '../model/schema.js';
+import { attachedDrawing } from './import/index.js';
+import { type Curve, curveAreaTerm, curveTangent, evaluateCurve, reverseCurve } from './curve.js';
 
 export interface DomainEdge {
   id: number;
@@ -69,15 +70,43 @@ const DEG = Math.PI / 180;
 
 /** Builds the domain; throws ModelError naming the field when a loop cannot be built. */
 export function buildDomain(geometry: Geometry, basePath = 'geometry'): Domain {
+  const built: { raw: RawEdge[]; path: string; name?: string; label: string }[] = [];
+  if ('from' in geometry) built.push(...drawingLoops(geometry, basePath));
+  else {
+    const all: Loop[] = [geometry.outline, ...(geometry.holes ?? [])];
+    all.forEach((loop, li) => {
+      const path = li === 0 ? `${basePath}.outline` : formatPath([basePath, 'holes', li - 1]);
+      const name = loop.name;
+      const label = li === 0 ? 'outline' : name ? `hole ${li} "${name}"` : `hole ${li}`;
+      built.push({ raw: buildLoop(loop, path, label, li === 0), path, name, label });
+    });
+  }
+  return assembleDomain(built);
+}
+
+/** The loops of a drawing the loader has read (src/geometry/import), as raw edges. */
+function drawingLoops(geometry: DrawingGeometry, basePath: string): { raw: RawEdge[]; path: string; name?: string; label: string }[] {
+  const d = attachedDrawing(geometry);
+  const path = `${basePath}.from`;
+  if (!d) throw new ModelError(path, `the drawing "${geometry.from}" has not been read`, 'load the model through loadModelFile or parseModelText, which read the drawing it names');
+  const edgeWord = (c: Curve) => (c.kind === 'line' ? 'line' : c.kind === 'arc' ? 'arc' : c.kind === 'ellipse' ? 'elliptical arc' : 'curve');
+  const loops = [d.outline, ...d.holes];
+  return loops.map((loop, li) => {
+    const label = li === 0 ? 'outline' : loop.name ? `hole ${li} "${loop.name}"` : `hole ${li}`;
+    const raw = loop.edges.map((e): RawEdge => {
+      const what = `${edgeWord(e.curve)}${e.tags.length ? ` "${e.tags[e.tags.length - 1]}"` : ''} (${e.origin})`;
+      return { curve: e.curve, tags: e.tags, label: li === 0 ? `${what} of the outline` : `${what} of ${label}`, feature: li === 0 ? what : label, source: path };
+    });
+    return { raw, path, name: loop.name, label };
+  });
+}
+
+/** Orients the loops (outline counter-clockwise, holes clockwise), numbers the edges, finds corners and the bounding box. */
+function assembleDomain(built: { raw: RawEdge[]; path: string; name?: string; label: string }[]): Domain {
   const loops: DomainLoop[] = [];
   const edges: DomainEdge[] = [];
-  const all: Loop[] = [geometry.outline, ...(geometry.holes ?? [])];
-  all.forEach((loop, li) => {
+  built.forEach(({ raw, path, name, label }, li) => {
     const hole = li;
-    const path = li === 0 ? `${basePath}.outline` : formatPath([basePath, 'holes', li - 1]);
-    const name = loop.name;
-    const label = li === 0 ? 'outline' : name ? `hole ${hole} "${name}"` : `hole ${hole}`;
-    const raw = buildLoop(loop, path, label, li === 0);
     if (raw.length === 0) throw new ModelError(path, `${label}: the loop has no edges`);
     let signed = 0;
     for (const e of raw) signed += curveAreaTerm(e.curve);
@@ -128,8 +157,8 @@ function findCorners(loops: DomainLoop[], edges: DomainEdge[]): DomainCorner[] {
     for (let k = 0; k < n; k++) {
       const ein = edges[loop.edges[k]];
       const eout = edges[loop.edges[(k + 1) % n]];
-      curveDerivative(ein.curve, 1, d0);
-      curveDerivative(eout.curve, 0, d1);
+      curveTangent(ein.curve, 1, d0);
+      curveTangent(eout.curve, 0, d1);
       const turn = Math.atan2(d0[0] * d1[1] - d0[1] * d1[0], d0[0] * d1[0] + d0[1] * d1[1]);
       if (Math.abs(turn) < 1e-6) continue; // tangent-continuous: no corner
       evaluateCurve(eout.curve, 0, p);

@@ -6,7 +6,7 @@
  * tangent to an edge is found to touch it.
  */
 import { ModelError } from '../model/errors.js';
-import { evaluateCurve } from './curve.js';
+import { curveBendBound, curveTurn, evaluateCurve } from './curve.js';
 import type { Domain } from './domain.js';
 import { findContacts, pointInLoop, type Polylines } from './intersect.js';
 
@@ -25,7 +25,11 @@ export function traceLoops(domain: Domain): Polylines {
       const c = domain.edges[eid].curve;
       let n = 1;
       let sag = 0;
-      if (c.kind !== 'line') {
+      if (c.kind === 'bezier') {
+        n = Math.max(4, Math.ceil(curveTurn(c) / CHORD_TURN));
+        // Chord error <= max|p''| dt^2 / 8, with dt = 1 / n.
+        sag = curveBendBound(c) / (8 * n * n);
+      } else if (c.kind !== 'line') {
         n = Math.max(4, Math.ceil(Math.abs(c.sweep) / CHORD_TURN));
         // Chord error <= max|p''| dt^2 / 8: r for an arc, max(a, b) for an ellipse in its eccentric angle.
         const bend = c.kind === 'arc' ? c.r : Math.max(c.a, c.b);

@@ -7,7 +7,7 @@
  * G = k G(1) / n and n = round(G(1)) (at least enough to follow a curve), so each segment is about
  * one local size long.
  */
-import { curveDerivative, evaluateCurve } from '../geometry/curve.js';
+import { curveDerivative, curveTurn, evaluateCurve, subCurve } from '../geometry/curve.js';
 import type { Domain } from '../geometry/domain.js';
 import type { SizeField } from './sizefield.js';
 
@@ -61,7 +61,7 @@ export function discretiseBoundary(domain: Domain, size: SizeField, hard: readon
       const at = hard.filter((h) => h.edge === edgeId).map((h) => h.t);
       // A whole circle or ellipse gets nodes at its four axis ends, where peaks of symmetric
       // loadings sit (t = 0 is the start point already).
-      if (e.curve.kind !== 'line' && Math.abs(Math.abs(e.curve.sweep) - 2 * Math.PI) < 1e-9) at.push(0.25, 0.5, 0.75);
+      if ((e.curve.kind === 'arc' || e.curve.kind === 'ellipse') && Math.abs(Math.abs(e.curve.sweep) - 2 * Math.PI) < 1e-9) at.push(0.25, 0.5, 0.75);
       const ts = placeWithHardPoints(e.curve, size, at);
       // Junction at t = 0 (the end of the previous edge), then interior points.
       const start = xs.length / 2;
@@ -117,21 +117,11 @@ function placeWithHardPoints(curve: Parameters<typeof evaluateCurve>[0], size: S
   return Float64Array.from(out);
 }
 
-/** The part of a curve between parameters a and b, reparametrised over [0, 1]. */
-function subCurve(c: Parameters<typeof evaluateCurve>[0], a: number, b: number): Parameters<typeof evaluateCurve>[0] {
-  switch (c.kind) {
-    case 'line':
-      return { kind: 'line', x0: c.x0 + (c.x1 - c.x0) * a, y0: c.y0 + (c.y1 - c.y0) * a, x1: c.x0 + (c.x1 - c.x0) * b, y1: c.y0 + (c.y1 - c.y0) * b };
-    case 'arc':
-      return { ...c, a0: c.a0 + c.sweep * a, sweep: c.sweep * (b - a) };
-    case 'ellipse':
-      return { ...c, t0: c.t0 + c.sweep * a, sweep: c.sweep * (b - a) };
-  }
-}
-
 /** Parameters 0 = t0 < t1 < ... < tn = 1 of the points on one curve. */
 export function placeOnCurve(curve: Parameters<typeof evaluateCurve>[0], size: SizeField): Float64Array {
-  const minSegments = curve.kind === 'line' ? 1 : Math.max(curve.sweep === 2 * Math.PI || curve.sweep === -2 * Math.PI ? 8 : 1, Math.ceil(Math.abs(curve.sweep) / MAX_CHORD_TURN));
+  const turn = curveTurn(curve);
+  const whole = (curve.kind === 'arc' || curve.kind === 'ellipse') && (curve.sweep === 2 * Math.PI || curve.sweep === -2 * Math.PI);
+  const minSegments = curve.kind === 'line' ? 1 : Math.max(whole ? 8 : 1, Math.ceil(turn / MAX_CHORD_TURN));
   let samples = 64;
   for (let pass = 0; pass < 4; pass++) {
     const g = integrateDensity(curve, size, samples);

@@ -3,7 +3,7 @@
  * triangulation (cdt2d, once) -> Delaunay refinement in place -> compact linear mesh ->
  * optional quadratic upgrade with midside nodes on the true curves -> mesh check.
  */
-import { evaluateCurve } from '../geometry/curve.js';
+import { curveTurn, evaluateCurve } from '../geometry/curve.js';
 import type { Domain } from '../geometry/domain.js';
 import { findContacts } from '../geometry/intersect.js';
 import { AnalysisError, InternalError, ModelError } from '../model/errors.js';
@@ -99,7 +99,7 @@ function triangulateBoundary(domain: Domain, b: BoundaryPoints): TriMesh {
     while (e < ns && b.segEdge[e] === edge) e++;
     const n = e - s;
     const c = domain.edges[edge].curve;
-    const minPieces = c.kind === 'line' ? 1 : Math.ceil(Math.abs(c.sweep) / (Math.PI / 4));
+    const minPieces = c.kind === 'line' ? 1 : Math.ceil(curveTurn(c) / (Math.PI / 4));
     const pieces = Math.min(n, Math.max(minPieces, Math.ceil(n / COARSE_STRIDE), c.kind === 'line' ? 1 : 3));
     for (let k = 0; k <= pieces; k++) {
       const j = s + Math.round((k * n) / pieces);

@@ -7,6 +7,7 @@
  * Errors stop the run. Warnings are things that are legal but probably not meant; they do not
  * change the result and are for the command line to print.
  */
+import { attachedDrawing } from '../geometry/import/index.js';
 import { ModelError, formatPath } from './errors.js';
 import type { Load, Loop, Model, Selector, Target } from './schema.js';
 import { didYouMean, quoteList } from './suggest.js';
@@ -24,6 +25,10 @@ interface Declared {
   tags: Map<string, string>;
   holeNames: string[];
   holeCount: number;
+  /** the geometry comes from a drawing that has not been read: names cannot be checked */
+  unknown?: boolean;
+  /** the geometry comes from this drawing file */
+  drawing?: string;
 }
 
 function declaredNames(model: Model): Declared {
@@ -31,8 +36,16 @@ function declaredNames(model: Model): Declared {
   const add = (tag: string | undefined, where: string) => {
     if (tag !== undefined && !tags.has(tag)) tags.set(tag, where);
   };
-  const loops: [Loop, Part[]][] = [[model.geometry.outline, ['geometry', 'outline']]];
-  (model.geometry.holes ?? []).forEach((h, i) => loops.push([h, ['geometry', 'holes', i]]));
+  const g = model.geometry;
+  if ('from' in g) {
+    // Tags and hole names come from the drawing, which the loader has read.
+    const d = attachedDrawing(g);
+    if (!d) return { tags, holeNames: [], holeCount: 0, unknown: true };
+    for (const t of d.tags) add(t, 'geometry.from');
+    return { tags, holeNames: d.holes.map((h) => h.name).filter((n): n is string => n !== undefined), holeCount: d.holes.length, drawing: g.from };
+  }
+  const loops: [Loop, Part[]][] = [[g.outline, ['geometry', 'outline']]];
+  (g.holes ?? []).forEach((h, i) => loops.push([h, ['geometry', 'holes', i]]));
   for (const [loop, parts] of loops) {
     add(loop.tag, formatPath([...parts, 'tag']));
     if (loop.shape === 'path') {
@@ -41,7 +54,7 @@ function declaredNames(model: Model): Declared {
       });
     }
   }
-  const holes = model.geometry.holes ?? [];
+  const holes = g.holes ?? [];
   return { tags, holeNames: holes.map((h) => h.name).filter((n): n is string => n !== undefined), holeCount: holes.length };
 }
 
@@ -53,6 +66,7 @@ function selectorsOf(target: Target, parts: Part[]): [Selector, Part[]][] {
 
 function checkSelector(sel: Selector, parts: Part[], names: Declared, errors: ModelError[]): void {
   const path = formatPath(parts);
+  if (names.unknown) return;
   if (typeof sel === 'string') {
     if (names.tags.has(sel)) return;
     const tags = [...names.tags.keys()];
@@ -60,8 +74,11 @@ function checkSelector(sel: Selector, parts: Part[], names: Declared, errors: Mo
       errors.push(new ModelError(path, `no edge or loop has the tag "${sel}"; "${sel}" is the name of a hole`, `to select that hole write {"hole": "${sel}"}`));
       return;
     }
-    const hint =
-      tags.length === 0
+    const hint = names.drawing
+      ? tags.length === 0
+        ? `the edges of ${names.drawing} carry no tags: put them on layers (DXF) or give them ids or classes (SVG)`
+        : `the tags of ${names.drawing} (its layers, ids and classes) are ${quoteList(tags, 'and')}`
+      : tags.length === 0
         ? 'no tags are declared: tag an edge with "edge": "name" on the vertex where the edge starts, or a whole loop with "tag": "name"'
         : `the tags declared are ${quoteList(tags, 'and')}`;
     errors.push(new ModelError(path, `no edge or loop has the tag "${sel}"${didYouMean(sel, tags)}`, hint));
@@ -140,8 +157,12 @@ export function checkModel(model: Model): ModelCheck {
   const names = declaredNames(model);
 
   // Circles: exactly one size. (Both given and equal is accepted.)
-  const loops: [Loop, Part[]][] = [[model.geometry.outline, ['geometry', 'outline']]];
-  (model.geometry.holes ?? []).forEach((h, i) => loops.push([h, ['geometry', 'holes', i]]));
+  const loops: [Loop, Part[]][] = [];
+  const geo = model.geometry;
+  if (!('from' in geo)) {
+    loops.push([geo.outline, ['geometry', 'outline']]);
+    (geo.holes ?? []).forEach((h, i) => loops.push([h, ['geometry', 'holes', i]]));
+  }
   for (const [loop, parts] of loops) {
     if (loop.shape !== 'circle') continue;
     if (loop.radius === undefined && loop.diameter === undefined) {

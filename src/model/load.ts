@@ -17,6 +17,7 @@ import { Model } from './schema.js';
 import { closest, quoteList } from './suggest.js';
 import { resolveUnits } from './units.js';
 import { substituteParameters } from './params.js';
+import { DrawingError, attachDrawing, importDrawing } from '../geometry/import/index.js';
 
 export interface LoadedModel {
   model: Model;
@@ -74,6 +75,7 @@ export function loadModelText(text: string, file?: string, options: { parameters
   }
   throwAll(problems, file);
   data = sub.data;
+  mixedGeometry(data, src, scan, file);
 
   const parsed = Model.safeParse(data);
   if (!parsed.success) {
@@ -86,7 +88,20 @@ export function loadModelText(text: string, file?: string, options: { parameters
   }
   throwAll(problems, file);
   const model = parsed.data!;
+  // A drawing named by geometry.from is read now, so its problems are placed in the file and
+  // its tags are known to the checks.
+  let drawingWarnings: ModelError[];
+  try {
+    drawingWarnings = readDrawing(model, file);
+  } catch (e) {
+    if (e instanceof ModelError) {
+      const off = offsetOf(e.path, scan);
+      if (off !== undefined) place(e, src, off);
+    }
+    throw e;
+  }
   const { errors, warnings } = checkModel(model);
+  warnings.unshift(...drawingWarnings);
   for (const e of [...errors, ...warnings]) {
     e.file = file;
     const off = offsetOf(e.path, scan);
@@ -128,6 +143,37 @@ export function loadModelFile(path: string, options: { parameters?: Readonly<Rec
 }
 
 // ---------------------------------------------------------------------------------------------
+
+/** A geometry that gives both a drawing and loops written out: said plainly, before the schema would call "from" unknown. */
+function mixedGeometry(data: unknown, src: string, scan: JsonScan, file: string | undefined): void {
+  const g = (data as { geometry?: unknown })?.geometry as Record<string, unknown> | undefined;
+  if (!g || typeof g !== 'object' || Array.isArray(g) || !('from' in g)) return;
+  const written = ['outline', 'holes'].filter((k) => k in g && (k === 'holes' || typeof g[k] === 'object'));
+  if (written.length === 0) return;
+  const e = new ModelError(
+    'geometry.from',
+    `the geometry names a drawing ("from") and also writes out ${written.map((k) => `"${k}"`).join(' and ')}`,
+    'give one of them: the outline and holes come from the drawing, or from the file (with "from", "outline" is the layer, id or class of the drawing\'s outline)',
+    file,
+  );
+  const off = offsetOf('geometry.from', scan, 'key');
+  throw off !== undefined ? place(e, src, off) : e;
+}
+
+/** Reads the drawing of a `"geometry": { "from": ... }` model (relative to the model file) and attaches it; returns its warnings. */
+function readDrawing(model: Model, file: string | undefined): ModelError[] {
+  const g = model.geometry;
+  if (!('from' in g)) return [];
+  const units = resolveUnits(model.units);
+  try {
+    const d = importDrawing(g, { baseDir: file ? dirname(file) : process.cwd(), modelUnitMetres: units.toSI.length, modelUnitName: units.length });
+    attachDrawing(g, d);
+    return d.warnings.map((w) => new ModelError('geometry.from', w, undefined, file));
+  } catch (e) {
+    if (e instanceof DrawingError) throw new ModelError('geometry.from', `${g.from}: ${e.message}`, e.hint, file);
+    throw e;
+  }
+}
 
 function throwAll(problems: ModelError[], file?: string): void {
   if (problems.length === 0) return;

@@ -120,11 +120,48 @@ export const Loop = z
 export type Loop = z.infer<typeof Loop>;
 export type PathLoop = z.infer<typeof PathLoop>;
 
-export const Geometry = z.strictObject({
+export const TypedGeometry = z.strictObject({
   outline: Loop.describe('the outer boundary of the plate'),
   holes: z.array(Loop).optional().describe('holes and cutouts, each wholly inside the outline and apart from the others'),
 });
-export type Geometry = z.infer<typeof Geometry>;
+export type TypedGeometry = z.infer<typeof TypedGeometry>;
+
+/** The length units a drawing may be in (src/geometry/import/types.ts gives their sizes). */
+export const DRAWING_UNIT_NAMES = ['mm', 'cm', 'm', 'in', 'ft', 'px', 'pt'] as const;
+
+export const DrawingGeometry = z.strictObject({
+  from: z
+    .string()
+    .min(1)
+    .describe('the drawing of the plate, an SVG or DXF file, relative to the folder of the model file; its closed loops become the outline and the holes'),
+  unit: z
+    .enum(DRAWING_UNIT_NAMES)
+    .optional()
+    .describe(
+      'the length of one drawing unit (px = 1/96 in, pt = 1/72 in); default: what the drawing declares (SVG width and height over its viewBox, DXF $INSUNITS), else px for SVG and the model length unit for DXF',
+    ),
+  scale: positive().optional().describe('factor applied to the drawing after the unit conversion (default 1; 2 for a drawing at 1:2)'),
+  outline: z
+    .string()
+    .min(1)
+    .optional()
+    .describe('the DXF layer, or the SVG element id, class or layer label, of the outline loop (default: the largest closed loop); the closed loops inside it become holes'),
+  ignore: z.array(z.string().min(1)).optional().describe('DXF layers, or SVG ids, classes or layer labels, to leave out (title blocks, dimensions, centre lines)'),
+  join: positive()
+    .optional()
+    .describe('loose ends closer than this are joined, model length unit (default a millionth of the diagonal of the drawing)'),
+});
+export type DrawingGeometry = z.infer<typeof DrawingGeometry>;
+
+export const Geometry = z
+  .union([TypedGeometry, DrawingGeometry])
+  .describe('the plate: an outline and holes written in the file, or a drawing to read them from');
+/**
+ * Either form. The drawing form is typed with `holes?: undefined` so that code reading
+ * `geometry.holes` of a typed model needs no narrowing; the loader resolves the drawing itself
+ * (src/geometry/import).
+ */
+export type Geometry = TypedGeometry | (DrawingGeometry & { holes?: undefined });
 
 // ---------------------------------------------------------------------------------------------
 // Material, units, supports, loads.
@@ -265,14 +302,14 @@ export const Model = z.strictObject({
   material: Material.describe('isotropic linear elastic material'),
   thickness: positive().describe('plate thickness, length units'),
   state: z.enum(['plane-stress', 'plane-strain']).optional().describe('plane-stress (thin plates; the default) or plane-strain (thick parts, no strain through the thickness)'),
-  geometry: Geometry.describe('the plate: its outline and holes'),
+  geometry: Geometry,
   supports: z.array(Support).min(1).describe('at least enough to stop rigid motion'),
   loads: z.array(Load).min(1).describe('the loads; at least one'),
   mesh: MeshSettings.optional().describe('mesh settings; all optional'),
   results: ResultSettings.optional().describe('how the peak stress and the nominal stress for Kt are taken'),
   chart: ChartLink.optional().describe('the published chart family and dimensions a generated model was built for'),
 });
-export type Model = z.infer<typeof Model>;
+export type Model = Omit<z.infer<typeof Model>, 'geometry'> & { geometry: Geometry };
 
 // Names for the pieces used in several places, so the JSON Schema refers to one definition
 // ($defs) instead of repeating it: about a fifth of the size, and readable. Registering an

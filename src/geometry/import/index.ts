@@ -1,0 +1,367 @@
+/**
+ * Plate geometry from a drawing: `"geometry": { "from": "part.svg" }` or `"part.dxf"`.
+ *
+ * The reader of the format (svg.ts, dxf.ts) turns the drawing into pieces of exact curves in
+ * model coordinates; join.ts closes loose pieces into loops; here the loops are checked and
+ * sorted: the outline is the largest closed loop (or the largest of those with the layer, id or
+ * class named by `outline`), the loops inside it are the holes, loops outside it are left out
+ * (and said so), a loop inside a hole, loops that cross and loops that cross themselves are
+ * errors. Bezier curves are split where they change their direction of bending, so each piece
+ * is convex or concave throughout, as the mesher's size field assumes.
+ *
+ * The result is plain data (ImportedDrawing). The model loader attaches it to the geometry
+ * object (under the symbol DRAWING) so that buildDomain, which turns it into an ordinary
+ * Domain, does not read the file again.
+ */
+import { readFileSync } from 'node:fs';
+import { extname, resolve } from 'node:path';
+import type { DrawingGeometry } from '../../model/schema.js';
+import { type Curve, curveAreaTerm, curveLength, curveTangent, evaluateCurve, splitBezier } from '../curve.js';
+import { findContacts, pointInLoop, type Polylines } from '../intersect.js';
+import { readDxf } from './dxf.js';
+import { joinPieces, type DrawnLoop, type OpenEnd } from './join.js';
+import { readSvg } from './svg.js';
+import { DrawingError, type DrawnCurve, type ReadDrawing, type ReadOptions } from './types.js';
+
+export { DrawingError } from './types.js';
+
+export interface ImportedLoop {
+  edges: DrawnCurve[];
+  /** the name of a hole, when the drawing gives one (an SVG id) */
+  name?: string;
+  /** where in the drawing the loop comes from, for messages */
+  origin: string;
+  /** enclosed area, model length unit squared */
+  area: number;
+}
+
+export interface ImportedDrawing {
+  /** the file as written in the model, and as found */
+  file: string;
+  path: string;
+  format: 'svg' | 'dxf';
+  /** the drawing unit, in words */
+  unit: string;
+  outline: ImportedLoop;
+  holes: ImportedLoop[];
+  /** every tag carried by an edge of the outline or a hole */
+  tags: string[];
+  /** closed loops outside the outline, left out */
+  leftOut: ImportedLoop[];
+  /** what was skipped or assumed */
+  notes: string[];
+  /** the part of the notes a person should see as a warning */
+  warnings: string[];
+  /** the end-point matching tolerance used, model length unit */
+  joinTolerance: number;
+}
+
+/** Where the loader puts the imported drawing on the geometry object. */
+export const DRAWING = Symbol.for('raiser.drawing');
+
+/** The drawing attached to a geometry object by the loader, if any. */
+export function attachedDrawing(geometry: DrawingGeometry): ImportedDrawing | undefined {
+  return (geometry as unknown as Record<symbol, ImportedDrawing | undefined>)[DRAWING];
+}
+
+export function attachDrawing(geometry: DrawingGeometry, drawing: ImportedDrawing): void {
+  (geometry as unknown as Record<symbol, ImportedDrawing>)[DRAWING] = drawing;
+}
+
+/** Default end-point matching tolerance, relative to the drawing size (the diagonal of its bounding box). */
+export const JOIN_TOLERANCE = 1e-6;
+
+export interface ImportContext {
+  /** the folder `from` is relative to (the model file's folder) */
+  baseDir: string;
+  /** metres per model length unit, and its name */
+  modelUnitMetres: number;
+  modelUnitName: string;
+}
+
+function fmt(v: number): string {
+  if (Math.abs(v) < 1e-12) return '0';
+  return Number(v.toPrecision(5)).toString();
+}
+
+/** Reads and sorts the drawing; throws DrawingError for a drawing that does not make a plate. */
+export function importDrawing(g: DrawingGeometry, ctx: ImportContext): ImportedDrawing {
+  const path = resolve(ctx.baseDir, g.from);
+  const ext = extname(g.from).toLowerCase();
+  if (ext !== '.svg' && ext !== '.dxf') {
+    throw new DrawingError(`"${g.from}" is neither an SVG nor a DXF drawing (by its name)`, 'give a file ending in .svg or .dxf');
+  }
+  let text: string;
+  try {
+    text = readFileSync(path, 'utf8');
+  } catch (e) {
+    const code = (e as { code?: string }).code;
+    throw new DrawingError(code === 'ENOENT' ? `no such drawing: "${g.from}" (looked for ${path})` : `the drawing "${g.from}" cannot be read (${(e as Error).message})`, '"from" is relative to the folder of the model file');
+  }
+  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
+  const opts: ReadOptions = {
+    unit: g.unit,
+    modelUnitMetres: ctx.modelUnitMetres,
+    modelUnitName: ctx.modelUnitName,
+    scale: g.scale ?? 1,
+    ignore: g.ignore ?? [],
+    file: g.from,
+  };
+  const format = ext === '.svg' ? 'svg' : 'dxf';
+  const read = format === 'svg' ? readSvg(text, opts) : readDxf(text, opts);
+  return sortLoops(read, g, path, format);
+}
+
+function bbox(curves: Iterable<Curve>): [number, number, number, number] {
+  let x0 = Infinity;
+  let y0 = Infinity;
+  let x1 = -Infinity;
+  let y1 = -Infinity;
+  const p = [0, 0];
+  for (const c of curves) {
+    for (let k = 0; k <= 16; k++) {
+      evaluateCurve(c, k / 16, p);
+      x0 = Math.min(x0, p[0]);
+      y0 = Math.min(y0, p[1]);
+      x1 = Math.max(x1, p[0]);
+      y1 = Math.max(y1, p[1]);
+    }
+  }
+  return [x0, y0, x1, y1];
+}
+
+function sortLoops(read: ReadDrawing, g: DrawingGeometry, path: string, format: 'svg' | 'dxf'): ImportedDrawing {
+  const all = read.pieces.flatMap((p) => p.curves.map((c) => c.curve));
+  const skippedNote = read.notes.length ? ` (${read.notes.join('; ')})` : '';
+  if (all.length === 0) {
+    throw new DrawingError(`the drawing has no lines, arcs or curves to make a plate of${skippedNote}`, g.ignore?.length ? 'check "ignore": it may leave out the profile' : 'draw the profile with lines, arcs, circles and curves');
+  }
+  const [bx0, by0, bx1, by1] = bbox(all);
+  const size = Math.hypot(bx1 - bx0, by1 - by0);
+  const tol = g.join ?? JOIN_TOLERANCE * size;
+  const joined = joinPieces(read.pieces, tol);
+  if (joined.openEnds.length || joined.branches.length) throw joinError(joined.openEnds, joined.branches, tol, g);
+  const notes = [...read.notes];
+  if (joined.duplicates.length) notes.push(`${joined.duplicates.length} duplicate entit${joined.duplicates.length === 1 ? 'y' : 'ies'} (the same curve drawn twice) left out: ${joined.duplicates.slice(0, 3).map((d) => d.origin).join('; ')}`);
+  const loops = joined.loops.map((l) => ({ ...l, curves: splitInflections(l.curves, size) }));
+  if (loops.length === 0) throw new DrawingError('the drawing has no closed loop', 'a plate needs a closed outline');
+
+  // Polylines of every loop, for crossings and containment.
+  const pl = tracePolylines(loops.map((l) => l.curves.map((c) => c.curve)));
+  const areas = loops.map((l) => Math.abs(l.curves.reduce((s, c) => s + curveAreaTerm(c.curve), 0)));
+  const names = loops.map((l) => loopName(l));
+  const contacts = findContacts(pl, 1e-9 * size, 4);
+  for (const c of contacts) {
+    if (c.loop1 === c.loop2) {
+      throw new DrawingError(`the closed loop ${names[c.loop1]} ${c.kind === 'cross' ? 'crosses' : 'touches'} itself near (${fmt(c.x)}, ${fmt(c.y)})`, 'a loop of the profile must not cross or touch itself; correct the drawing there');
+    }
+    throw new DrawingError(
+      `the closed loops ${names[c.loop1]} and ${names[c.loop2]} ${c.kind === 'cross' ? 'cross' : 'touch'} near (${fmt(c.x)}, ${fmt(c.y)}): overlapping outlines`,
+      'a plate has one outline and holes that lie apart inside it: unite overlapping shapes into one outline in the drawing, or leave one out with "ignore"',
+    );
+  }
+  // The outline.
+  let candidates = loops.map((_, i) => i);
+  if (g.outline !== undefined) {
+    candidates = candidates.filter((i) => loops[i].pieces.some((p) => p.keys.includes(g.outline!)));
+    if (candidates.length === 0) {
+      const known = read.keys.filter((k) => k.trim());
+      throw new DrawingError(
+        `no closed loop of the drawing has the ${format === 'dxf' ? 'layer' : 'id, class or layer label'} "${g.outline}"`,
+        known.length ? `the drawing has ${format === 'dxf' ? 'the layers' : 'the ids, classes and labels'} ${known.slice(0, 12).map((k) => `"${k}"`).join(', ')}${known.length > 12 ? ', ...' : ''}` : 'leave "outline" out to take the largest closed loop',
+      );
+    }
+  }
+  let outline = candidates[0];
+  for (const i of candidates) if (areas[i] > areas[outline]) outline = i;
+  const holes: number[] = [];
+  const outside: number[] = [];
+  const firstPoint = (i: number) => {
+    const p = [0, 0];
+    evaluateCurve(loops[i].curves[0].curve, 0, p);
+    return p;
+  };
+  for (let i = 0; i < loops.length; i++) {
+    if (i === outline) continue;
+    const [x, y] = firstPoint(i);
+    if (pointInLoop(pl, outline, x, y)) holes.push(i);
+    else outside.push(i);
+  }
+  for (const h of holes) {
+    const [x, y] = firstPoint(h);
+    for (const o of holes) {
+      if (o !== h && pointInLoop(pl, o, x, y)) {
+        throw new DrawingError(`the closed loop ${names[h]} lies inside ${names[o]}, which is a hole of the plate: an island in a hole is not a plate`, 'remove one of them, or leave one out with "ignore"');
+      }
+    }
+  }
+  const asLoop = (i: number): ImportedLoop => {
+    const l = loops[i];
+    const single = l.pieces.length === 1 ? l.pieces[0] : undefined;
+    return { edges: l.curves, name: single?.name, origin: names[i], area: areas[i] };
+  };
+  const leftOut = outside.map(asLoop);
+  if (leftOut.length) notes.push(`${leftOut.length} closed loop${leftOut.length === 1 ? '' : 's'} outside the outline left out: ${leftOut.slice(0, 3).map((l) => l.origin).join('; ')}${leftOut.length > 3 ? '; ...' : ''}`);
+  const warnings = [...read.warnings];
+  if (leftOut.length) warnings.push(`${g.from}: ${notes[notes.length - 1]}`);
+  const holeLoops = holes.map(asLoop);
+  const tags = new Set<string>();
+  for (const l of [asLoop(outline), ...holeLoops]) for (const e of l.edges) for (const t of e.tags) tags.add(t);
+  return {
+    file: g.from,
+    path,
+    format,
+    unit: read.unit,
+    outline: asLoop(outline),
+    holes: holeLoops,
+    tags: [...tags],
+    leftOut,
+    notes,
+    warnings,
+    joinTolerance: tol,
+  };
+}
+
+function loopName(l: DrawnLoop): string {
+  const origins = [...new Set(l.pieces.map((p) => p.origin))];
+  return origins.length === 1 ? `of ${origins[0]}` : `made of ${origins.slice(0, 2).join(', ')}${origins.length > 2 ? ` and ${origins.length - 2} more` : ''}`;
+}
+
+function joinError(openEnds: OpenEnd[], branches: { x: number; y: number; pieces: { origin: string }[] }[], tol: number, g: DrawingGeometry): DrawingError {
+  const lines: string[] = [];
+  let widest = 0;
+  for (const o of openEnds.slice(0, 8)) {
+    let text = `an open end at (${fmt(o.x)}, ${fmt(o.y)}) of ${o.piece.origin}`;
+    if (o.nearest) {
+      text += o.nearest.sameJunctionOtherEnd && o.nearest.piece === o.piece ? `; the nearest end is its own other end, ${fmt(o.nearest.gap)} away` : `; the nearest end, ${fmt(o.nearest.gap)} away, is at (${fmt(o.nearest.x)}, ${fmt(o.nearest.y)}) of ${o.nearest.piece.origin}`;
+      widest = Math.max(widest, o.nearest.gap);
+    }
+    lines.push(text);
+  }
+  if (openEnds.length > 8) lines.push(`and ${openEnds.length - 8} more open ends`);
+  for (const b of branches.slice(0, 4)) lines.push(`${b.pieces.length > 2 ? 'three or more' : 'more than two'} ends meet at (${fmt(b.x)}, ${fmt(b.y)}): ${b.pieces.map((p) => p.origin).join('; ')}`);
+  const contours = Math.ceil(openEnds.length / 2);
+  const head = openEnds.length
+    ? `the drawing has ${contours === 1 ? 'an open contour' : `${contours} open contours`}: ${openEnds.length} end${openEnds.length === 1 ? '' : 's'} match${openEnds.length === 1 ? 'es' : ''} no other end within ${fmt(tol)}`
+    : 'the drawing branches: a plate boundary is made of separate closed loops';
+  const hint = openEnds.length
+    ? `close the gaps in the drawing${widest > 0 && widest < 1e3 * tol ? `, or join ends up to ${fmt(widest * 1.01)} apart with "join": ${fmt(widest * 1.01)}` : ''}; a line that is not part of the plate (a centre line, a dimension) can be left out with "ignore"${g.ignore?.length ? '' : ' and its layer, id or class'}`
+    : 'remove the duplicate or overlapping entity, or leave it out with "ignore"';
+  return new DrawingError(`${head}:\n  ${lines.join('\n  ')}`, hint);
+}
+
+/** Splits Bezier curves where the sign of p' x p'' changes (their inflections). */
+function splitInflections(curves: DrawnCurve[], size: number): DrawnCurve[] {
+  const out: DrawnCurve[] = [];
+  for (const dc of curves) {
+    const c = dc.curve;
+    if (c.kind !== 'bezier' || c.p.length <= 4) {
+      out.push(dc);
+      continue;
+    }
+    const f = (t: number) => bendSign(c, t);
+    const N = 128;
+    const vals: number[] = [];
+    let fmax = 0;
+    for (let k = 0; k <= N; k++) {
+      const v = f(k / N);
+      vals.push(v);
+      fmax = Math.max(fmax, Math.abs(v));
+    }
+    const cuts: number[] = [];
+    const floor = 1e-9 * fmax;
+    let lastSign = 0;
+    let lastK = 0;
+    for (let k = 0; k <= N; k++) {
+      const s = Math.abs(vals[k]) <= floor ? 0 : Math.sign(vals[k]);
+      if (s === 0) continue;
+      if (lastSign !== 0 && s !== lastSign) {
+        let a = lastK / N;
+        let b = k / N;
+        for (let it = 0; it < 60; it++) {
+          const m = 0.5 * (a + b);
+          if (Math.sign(f(m)) === lastSign) a = m;
+          else b = m;
+        }
+        cuts.push(0.5 * (a + b));
+      }
+      lastSign = s;
+      lastK = k;
+    }
+    if (cuts.length === 0) {
+      out.push(dc);
+      continue;
+    }
+    let rest: Curve = c;
+    let done = 0;
+    for (const t of cuts) {
+      const local = (t - done) / (1 - done);
+      if (local <= 1e-9 || local >= 1 - 1e-9) continue;
+      const [l, r] = splitBezier(rest as Extract<Curve, { kind: 'bezier' }>, local);
+      if (curveLength(l) > 1e-9 * size) out.push({ ...dc, curve: l });
+      rest = r;
+      done = t;
+    }
+    out.push({ ...dc, curve: rest });
+  }
+  return out;
+}
+
+/** p'(t) x p''(t) by finite differences of the tangent, scale-free sign of bending. */
+function bendSign(c: Curve, t: number): number {
+  const h = 1e-5;
+  const a = [0, 0];
+  const b = [0, 0];
+  curveTangent(c, Math.max(0, t - h), a);
+  curveTangent(c, Math.min(1, t + h), b);
+  return a[0] * b[1] - a[1] * b[0];
+}
+
+/** Fine polylines of loops of curves (no chord turns more than 2 degrees), with the chord error as slack. */
+function tracePolylines(loops: Curve[][]): Polylines {
+  const xy: number[] = [];
+  const segs: number[] = [];
+  const segLoop: number[] = [];
+  const slack: number[] = [];
+  const curved: boolean[] = [];
+  const p = [0, 0];
+  const d = [0, 0];
+  const step = (2 * Math.PI) / 180;
+  loops.forEach((curves, li) => {
+    const first = xy.length / 2;
+    curves.forEach((c, k) => {
+      let n = 1;
+      if (c.kind !== 'line') {
+        // Turning by sampled tangents.
+        let turn = 0;
+        let px = 0;
+        let py = 0;
+        for (let j = 0; j <= 64; j++) {
+          curveTangent(c, j / 64, d);
+          if (j > 0) turn += Math.abs(Math.atan2(px * d[1] - py * d[0], px * d[0] + py * d[1]));
+          px = d[0];
+          py = d[1];
+        }
+        n = Math.max(4, Math.ceil(turn / step));
+      }
+      for (let j = 0; j < n; j++) {
+        evaluateCurve(c, j / n, p);
+        const idx = xy.length / 2;
+        xy.push(p[0], p[1]);
+        const last = k === curves.length - 1 && j === n - 1;
+        segs.push(idx, last ? first : idx + 1);
+        segLoop.push(li);
+        curved.push(c.kind !== 'line');
+        slack.push(0);
+      }
+    });
+  });
+  // Slack: the sagitta of a chord turning by at most `step`, below chord * step / 8 (2e-4 of its length).
+  for (let s = 0; s < segLoop.length; s++) {
+    if (!curved[s]) continue;
+    const a = segs[2 * s];
+    const b = segs[2 * s + 1];
+    slack[s] = (Math.hypot(xy[2 * b] - xy[2 * a], xy[2 * b + 1] - xy[2 * a + 1]) * step) / 8;
+  }
+  return { xy: Float64Array.from(xy), segs: Int32Array.from(segs), segLoop: Int32Array.from(segLoop), segSlack: Float64Array.from(slack) };
+}
