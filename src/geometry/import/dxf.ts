@@ -168,7 +168,7 @@ export function readDxf(text: string, opts: ReadOptions): ReadDrawing {
   const unsupported: string[] = [];
   const blocks = (dxf.blocks ?? {}) as unknown as Record<string, { entities?: Entity[]; position?: Point }>;
 
-  const describe = (e: Entity, layer: string, via: string) => `${e.type} on layer "${layer}"${e.handle ? ` (handle ${e.handle})` : ''}${via}`;
+  const describe = (e: Entity, layer: string, via: string) => `${e.type} on layer "${layer}"${e.handle !== undefined ? `, handle ${e.handle}` : ''}${via}`;
 
   const visit = (e: Entity, map: Affine, parentLayer: string | undefined, via: string, depth: number) => {
     if (e.inPaperSpace) {

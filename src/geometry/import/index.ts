@@ -134,13 +134,13 @@ function sortLoops(read: ReadDrawing, g: DrawingGeometry, path: string, format: 
   const all = read.pieces.flatMap((p) => p.curves.map((c) => c.curve));
   const skippedNote = read.notes.length ? ` (${read.notes.join('; ')})` : '';
   if (all.length === 0) {
-    throw new DrawingError(`the drawing has no lines, arcs or curves to make a plate of${skippedNote}`, g.ignore?.length ? 'check "ignore": it may leave out the profile' : 'draw the profile with lines, arcs, circles and curves');
+    throw new DrawingError(`the drawing has no closed loop: it has no lines, arcs or curves at all${skippedNote}`, g.ignore?.length ? 'check "ignore": it may leave out the profile' : 'draw the profile with lines, arcs, circles and curves');
   }
   const [bx0, by0, bx1, by1] = bbox(all);
   const size = Math.hypot(bx1 - bx0, by1 - by0);
   const tol = g.join ?? JOIN_TOLERANCE * size;
   const joined = joinPieces(read.pieces, tol);
-  if (joined.openEnds.length || joined.branches.length) throw joinError(joined.openEnds, joined.branches, tol, g);
+  if (joined.openEnds.length || joined.branches.length) throw joinError(joined.openEnds, joined.branches, tol, size, g);
   const notes = [...read.notes];
   if (joined.duplicates.length) notes.push(`${joined.duplicates.length} duplicate entit${joined.duplicates.length === 1 ? 'y' : 'ies'} (the same curve drawn twice) left out: ${joined.duplicates.slice(0, 3).map((d) => d.origin).join('; ')}`);
   const loops = joined.loops.map((l) => ({ ...l, curves: splitInflections(l.curves, size) }));
@@ -153,10 +153,10 @@ function sortLoops(read: ReadDrawing, g: DrawingGeometry, path: string, format: 
   const contacts = findContacts(pl, 1e-9 * size, 4);
   for (const c of contacts) {
     if (c.loop1 === c.loop2) {
-      throw new DrawingError(`the closed loop ${names[c.loop1]} ${c.kind === 'cross' ? 'crosses' : 'touches'} itself near (${fmt(c.x)}, ${fmt(c.y)})`, 'a loop of the profile must not cross or touch itself; correct the drawing there');
+      throw new DrawingError(`${names[c.loop1]} ${c.kind === 'cross' ? 'crosses' : 'touches'} itself near (${fmt(c.x)}, ${fmt(c.y)})`, 'a loop of the profile must not cross or touch itself; correct the drawing there');
     }
     throw new DrawingError(
-      `the closed loops ${names[c.loop1]} and ${names[c.loop2]} ${c.kind === 'cross' ? 'cross' : 'touch'} near (${fmt(c.x)}, ${fmt(c.y)}): overlapping outlines`,
+      `${names[c.loop1]} and ${names[c.loop2]} ${c.kind === 'cross' ? 'cross' : 'touch'} near (${fmt(c.x)}, ${fmt(c.y)}): overlapping outlines`,
       'a plate has one outline and holes that lie apart inside it: unite overlapping shapes into one outline in the drawing, or leave one out with "ignore"',
     );
   }
@@ -191,7 +191,10 @@ function sortLoops(read: ReadDrawing, g: DrawingGeometry, path: string, format: 
     const [x, y] = firstPoint(h);
     for (const o of holes) {
       if (o !== h && pointInLoop(pl, o, x, y)) {
-        throw new DrawingError(`the closed loop ${names[h]} lies inside ${names[o]}, which is a hole of the plate: an island in a hole is not a plate`, 'remove one of them, or leave one out with "ignore"');
+        throw new DrawingError(
+          `${names[h]} lies inside ${names[o]}, which lies inside the outline (${names[outline]}, the largest closed loop${g.outline !== undefined ? ` with "${g.outline}"` : ''}) and so is a hole: a loop inside a hole is not a plate`,
+          'if the outline is a frame or a title block, leave it out with "ignore" or name the real outline with "outline"; otherwise remove the loop inside the hole',
+        );
       }
     }
   }
@@ -224,30 +227,45 @@ function sortLoops(read: ReadDrawing, g: DrawingGeometry, path: string, format: 
 
 function loopName(l: DrawnLoop): string {
   const origins = [...new Set(l.pieces.map((p) => p.origin))];
-  return origins.length === 1 ? `of ${origins[0]}` : `made of ${origins.slice(0, 2).join(', ')}${origins.length > 2 ? ` and ${origins.length - 2} more` : ''}`;
+  return origins.length === 1 ? `the loop of ${origins[0]}` : `the loop made of ${origins.slice(0, 2).join(', ')}${origins.length > 2 ? ` and ${origins.length - 2} more` : ''}`;
 }
 
-function joinError(openEnds: OpenEnd[], branches: { x: number; y: number; pieces: { origin: string }[] }[], tol: number, g: DrawingGeometry): DrawingError {
+function joinError(openEnds: OpenEnd[], branches: { x: number; y: number; pieces: { origin: string }[] }[], tol: number, size: number, g: DrawingGeometry): DrawingError {
   const lines: string[] = [];
   let widest = 0;
-  for (const o of openEnds.slice(0, 8)) {
-    let text = `an open end at (${fmt(o.x)}, ${fmt(o.y)}) of ${o.piece.origin}`;
-    if (o.nearest) {
-      text += o.nearest.sameJunctionOtherEnd && o.nearest.piece === o.piece ? `; the nearest end is its own other end, ${fmt(o.nearest.gap)} away` : `; the nearest end, ${fmt(o.nearest.gap)} away, is at (${fmt(o.nearest.x)}, ${fmt(o.nearest.y)}) of ${o.nearest.piece.origin}`;
-      widest = Math.max(widest, o.nearest.gap);
+  // Two open ends that are each other's nearest make one gap, reported once.
+  const done = new Set<OpenEnd>();
+  const at = (x: number, y: number) => `(${fmt(x)}, ${fmt(y)})`;
+  for (const o of openEnds) {
+    if (done.has(o)) continue;
+    done.add(o);
+    const n = o.nearest;
+    const mate = n ? openEnds.find((q) => !done.has(q) && q.x === n.x && q.y === n.y && q.nearest && q.nearest.x === o.x && q.nearest.y === o.y) : undefined;
+    if (n && mate) {
+      done.add(mate);
+      widest = Math.max(widest, n.gap);
+      lines.push(
+        n.piece === o.piece
+          ? `a gap of ${fmt(n.gap)} between the ends of ${o.piece.origin}, at ${at(o.x, o.y)} and ${at(n.x, n.y)}`
+          : `a gap of ${fmt(n.gap)} between ${at(o.x, o.y)}, the end of ${o.piece.origin}, and ${at(n.x, n.y)}, the end of ${n.piece.origin}`,
+      );
+    } else {
+      lines.push(`an open end at ${at(o.x, o.y)} of ${o.piece.origin}${n ? `; the nearest end, ${fmt(n.gap)} away, is at ${at(n.x, n.y)} of ${n.piece.origin}` : ''}`);
+      if (n) widest = Math.max(widest, n.gap);
     }
-    lines.push(text);
   }
-  if (openEnds.length > 8) lines.push(`and ${openEnds.length - 8} more open ends`);
-  for (const b of branches.slice(0, 4)) lines.push(`${b.pieces.length > 2 ? 'three or more' : 'more than two'} ends meet at (${fmt(b.x)}, ${fmt(b.y)}): ${b.pieces.map((p) => p.origin).join('; ')}`);
+  const shown = lines.slice(0, 8);
+  if (lines.length > 8) shown.push(`and ${lines.length - 8} more`);
+  for (const b of branches.slice(0, 4)) shown.push(`${b.pieces.length} pieces meet at ${at(b.x, b.y)}, where only two may: ${b.pieces.map((p) => p.origin).join('; ')}`);
   const contours = Math.ceil(openEnds.length / 2);
   const head = openEnds.length
-    ? `the drawing has ${contours === 1 ? 'an open contour' : `${contours} open contours`}: ${openEnds.length} end${openEnds.length === 1 ? '' : 's'} match${openEnds.length === 1 ? 'es' : ''} no other end within ${fmt(tol)}`
+    ? `the drawing has ${contours === 1 ? 'an open contour' : `${contours} open contours`} (ends that meet no other end within ${fmt(tol)})`
     : 'the drawing branches: a plate boundary is made of separate closed loops';
+  const canJoin = widest > 0 && widest <= 0.01 * size;
   const hint = openEnds.length
-    ? `close the gaps in the drawing${widest > 0 && widest < 1e3 * tol ? `, or join ends up to ${fmt(widest * 1.01)} apart with "join": ${fmt(widest * 1.01)}` : ''}; a line that is not part of the plate (a centre line, a dimension) can be left out with "ignore"${g.ignore?.length ? '' : ' and its layer, id or class'}`
+    ? `close the gap${lines.length === 1 ? '' : 's'} in the drawing${canJoin ? `, or join ends up to ${fmt(widest * 1.01)} apart with "join": ${fmt(widest * 1.01)}` : ''}; a line that is not part of the plate (a centre line, a dimension) can be left out with "ignore" and its ${g.from.toLowerCase().endsWith('.dxf') ? 'layer' : 'id or class'}`
     : 'remove the duplicate or overlapping entity, or leave it out with "ignore"';
-  return new DrawingError(`${head}:\n  ${lines.join('\n  ')}`, hint);
+  return new DrawingError(`${head}:\n  ${shown.join('\n  ')}`, hint);
 }
 
 /** Splits Bezier curves where the sign of p' x p'' changes (their inflections). */

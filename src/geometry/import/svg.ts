@@ -167,7 +167,7 @@ function rootMap(root: XmlElement, opts: ReadOptions): { map: Affine; unit: stri
       if (!Number.isFinite(l.value) || (l.unit !== '' && !(l.unit in ABSOLUTE_CSS) && l.unit !== '%' && l.unit !== 'em' && l.unit !== 'ex')) {
         throw new DrawingError(
           `the SVG ${name} "${root.attrs.get(name)}" has a unit raiser does not know`,
-          `the units of an SVG length are ${Object.keys(ABSOLUTE_CSS).join(', ')}; or say what one drawing unit is with "unit" in the model (for example "unit": "mm")`,
+          `the units of an SVG length are px, pt, pc, mm, cm, in and Q; or say what one drawing unit is with "unit" in the model (for example "unit": "mm")`,
         );
       }
       if (l.unit === '%' || l.unit === 'em' || l.unit === 'ex') {

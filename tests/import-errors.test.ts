@@ -1,0 +1,106 @@
+/**
+ * Bad drawings give clear errors, placed at geometry.from in the model file: where the problem
+ * is in the drawing, how big, and what to do. Each drawing is an invented test file in meshes/.
+ */
+import { describe, expect, it } from 'vitest';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { buildDomain } from '../src/geometry/domain.js';
+import { ModelError } from '../src/model/errors.js';
+import { loadModelText, parseModelText } from '../src/model/load.js';
+
+const MESHES = join(import.meta.dirname, '..', 'meshes');
+
+function load(geometry: Record<string, unknown>, dir = MESHES, loads: unknown[] = [{ type: 'pressure', on: { outline: true }, p: 1 }]) {
+  const m = { material: { E: 210000, nu: 0.3 }, thickness: 5, geometry, supports: [{ type: 'fixed', on: { outline: true } }], loads };
+  return loadModelText(JSON.stringify(m, null, 2), join(dir, 'test-model.json'));
+}
+
+function errorOf(geometry: Record<string, unknown>, dir?: string): ModelError {
+  try {
+    load(geometry, dir);
+  } catch (e) {
+    if (e instanceof ModelError) return e;
+    throw e;
+  }
+  throw new Error('no error');
+}
+
+describe('bad drawings', () => {
+  it('an open contour names the gap, where it is and how wide, and offers "join"', () => {
+    const e = errorOf({ from: 'import-bad-gap.dxf' });
+    expect(e.path).toBe('geometry.from');
+    expect(e.line).toBeGreaterThan(0);
+    expect(e.message).toMatch(/open contour/);
+    expect(e.message).toMatch(/a gap of 0\.5 between \(0, 0\), the end of LINE on layer "0", handle \w+, and \(0, 0\.5\)/);
+    expect(e.hint).toMatch(/"join": 0\.505/);
+  });
+  it('the offered "join" closes the gap', () => {
+    const { model } = load({ from: 'import-bad-gap.dxf', join: 0.505 });
+    const d = buildDomain(model.geometry);
+    expect(d.loops.length).toBe(1);
+    // The two line ends meet half way: the rectangle loses a sliver of 0.5 x 100 / 2 / 2 at most.
+    expect(Math.abs(Math.abs(d.area) - 4000)).toBeLessThan(0.5 * 100);
+  });
+  it('an SVG path that stops short of its start is an open contour between its own ends', () => {
+    const e = errorOf({ from: 'import-bad-open.svg' });
+    expect(e.message).toMatch(/a gap of 2 between the ends of <path id="profile"> \(line 5\), at \(0, 40\) and \(0, 38\)/);
+  });
+  it('overlapping outlines name both shapes and where they cross', () => {
+    const e = errorOf({ from: 'import-bad-overlap.svg' });
+    expect(e.message).toMatch(/<rect id="left-part"> \(line 5\) and the loop of <rect id="right-part"> \(line 6\) cross near \(60, 30\): overlapping outlines/);
+  });
+  it('a drawing with no closed loop says so, and what was skipped', () => {
+    const e = errorOf({ from: 'import-bad-noloop.dxf' });
+    expect(e.message).toMatch(/no closed loop/);
+    expect(e.message).toMatch(/1 TEXT \(annotation\) skipped/);
+  });
+  it('unknown units: an SVG width in furlongs, a DXF in astronomical units', () => {
+    expect(errorOf({ from: 'import-bad-units.svg' }).message).toMatch(/width "100furlong" has a unit raiser does not know/);
+    const d = errorOf({ from: 'import-bad-units.dxf' });
+    expect(d.message).toMatch(/\$INSUNITS 18, astronomical units/);
+    expect(d.hint).toMatch(/"unit"/);
+    // Saying the unit in the model reads it.
+    expect(buildDomain(load({ from: 'import-bad-units.dxf', unit: 'mm' }).model.geometry).loops.length).toBe(1);
+  });
+  it('unsupported entities are named with their layer and handle, and "ignore" leaves their layer out', () => {
+    const e = errorOf({ from: 'import-bad-entities.dxf' });
+    expect(e.message).toMatch(/cannot import: 1 XLINE \(on layer "CONSTRUCTION", handle \w+\), 1 RAY \(on layer "CONSTRUCTION", handle \w+\)/);
+    const { model } = load({ from: 'import-bad-entities.dxf', ignore: ['CONSTRUCTION'] });
+    expect(Math.abs(buildDomain(model.geometry).area)).toBeCloseTo(1000, 9);
+  });
+  it('an outline name the drawing does not have lists the names it has', () => {
+    const e = errorOf({ from: 'import-plate-hole.dxf', outline: 'PLATE' });
+    expect(e.message).toMatch(/no closed loop of the drawing has the layer "PLATE"/);
+    expect(e.hint).toMatch(/"EDGE"/);
+  });
+  it('a tag for a load that the drawing does not have suggests the drawing\'s own', () => {
+    const m = { material: { E: 210000, nu: 0.3 }, thickness: 5, geometry: { from: 'import-plate-hole.dxf' }, supports: [{ type: 'fixed', on: 'EDGE' }], loads: [{ type: 'traction', on: 'pull', normal: 1 }] };
+    expect(() => parseModelText(JSON.stringify(m), join(MESHES, 'm.json'))).toThrow(/no edge or loop has the tag "pull": did you mean "PULL"\?/);
+  });
+  it('a missing drawing, a file that is not a drawing, and a mix of "from" with written loops', () => {
+    expect(errorOf({ from: 'no-such-part.svg' }).message).toMatch(/no such drawing: "no-such-part.svg"/);
+    expect(errorOf({ from: 'part.step' }).message).toMatch(/neither an SVG nor a DXF drawing/);
+    expect(errorOf({ from: 'import-plate-hole.svg', outline: { shape: 'circle', center: [0, 0], radius: 1 } }).message).toMatch(/names a drawing \("from"\) and also writes out "outline"/);
+  });
+  it('broken files: XML that is not well-formed, path data that cannot be read, an unsupported SVG element', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'raiser-import-'));
+    const svg = (body: string) => `<?xml version="1.0"?>\n<!-- invented test drawing -->\n<svg xmlns="http://www.w3.org/2000/svg" width="10mm" height="10mm" viewBox="0 0 10 10">\n${body}\n</svg>\n`;
+    writeFileSync(join(dir, 'a.svg'), svg('<rect x="0" y="0" width="5" height="5">'));
+    writeFileSync(join(dir, 'b.svg'), svg('<path id="p" d="M 0 0 L 5 x Z"/>'));
+    writeFileSync(join(dir, 'c.svg'), svg('<rect x="0" y="0" width="5" height="5"/><textPath id="t"/>'));
+    writeFileSync(join(dir, 'd.svg'), svg('<rect x="0" y="0" width="5" height="5"/>').replace('width="10mm" height="10mm"', 'width="100%" height="100%"'));
+    expect(errorOf({ from: 'a.svg' }, dir).message).toMatch(/not well-formed XML/);
+    expect(errorOf({ from: 'b.svg' }, dir).message).toMatch(/<path id="p"> \(line 4\): its path data cannot be read/);
+    expect(errorOf({ from: 'c.svg' }, dir).message).toMatch(/<textPath id="t"> \(line 4\): <textPath> elements are not supported/);
+    expect(errorOf({ from: 'd.svg' }, dir).message).toMatch(/relative \(%\), so the drawing has no physical size/);
+  });
+  it('a drawing that declares no physical size is read by the SVG rules (1 px = 1/96 in), with a warning', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'raiser-import-'));
+    writeFileSync(join(dir, 'px.svg'), '<svg xmlns="http://www.w3.org/2000/svg"><!-- invented test drawing --><rect width="96" height="48"/></svg>');
+    const { model, warnings } = load({ from: 'px.svg' }, dir);
+    expect(warnings.map((w) => w.message).join('\n')).toMatch(/no physical size.*1\/96 in/);
+    expect(Math.abs(buildDomain(model.geometry).area)).toBeCloseTo(25.4 * 12.7, 9);
+  });
+});
