@@ -1,0 +1,401 @@
+/**
+ * Drawing a nodal field on a triangle mesh, per pixel.
+ *
+ * Each element is subdivided in its local coordinates (xi, eta) into n^2 sub-triangles whose
+ * corners are mapped through the element's own isoparametric map, so a curved 6-node element
+ * keeps its curved sides (n grows with the element's size on screen; a straight-sided element
+ * needs no subdivision). Inside a sub-triangle the local coordinates of each pixel centre come
+ * from its barycentric coordinates, and the field's components are interpolated there with the
+ * element's shape functions (exact quadratic interpolation on straight-sided elements), then
+ * combined into the plotted value (a stress measure of the interpolated components, for
+ * instance) and coloured. Iso-lines come from the same subdivision by linear interpolation
+ * along the sub-triangle edges (marching triangles).
+ */
+import type { ColourMap } from './colormap.js';
+import { colourLut } from './colormap.js';
+import type { Raster } from './raster.js';
+
+/** The geometry to draw: node positions (2 per node) and 3- or 6-node elements, counter-clockwise. */
+export interface DrawMesh {
+  order: 1 | 2;
+  nNodes: number;
+  nodes: Float64Array;
+  nElements: number;
+  elements: Int32Array;
+}
+
+/** Model (y up) to pixel (y down): px = ox + s x, py = oy - s y. */
+export interface View {
+  s: number;
+  ox: number;
+  oy: number;
+}
+
+/** The view that fits the model box [x0, y0, x1, y1] into the pixel box, centred, aspect kept. */
+export function fitView(model: readonly number[], px: readonly number[]): View {
+  const [x0, y0, x1, y1] = model;
+  const w = Math.max(x1 - x0, 1e-300);
+  const h = Math.max(y1 - y0, 1e-300);
+  const s = Math.min((px[2] - px[0]) / w, (px[3] - px[1]) / h);
+  const ox = 0.5 * (px[0] + px[2]) - s * 0.5 * (x0 + x1);
+  const oy = 0.5 * (px[1] + px[3]) + s * 0.5 * (y0 + y1);
+  return { s, ox, oy };
+}
+
+export function toPixel(v: View, x: number, y: number): [number, number] {
+  return [v.ox + v.s * x, v.oy - v.s * y];
+}
+
+export function toModel(v: View, px: number, py: number): [number, number] {
+  return [(px - v.ox) / v.s, (v.oy - py) / v.s];
+}
+
+/** The values of a field: `stride` components per node, combined by `value` into the plotted number. */
+export interface FieldSpec {
+  data: Float64Array;
+  stride: number;
+  /** the plotted value from the components (c[0 .. stride-1]) */
+  value: (c: Float64Array) => number;
+}
+
+export interface ColourScale {
+  lo: number;
+  hi: number;
+  map: ColourMap;
+}
+
+/** 6-node shape functions (corner 0, 1, 2; mid 0-1, 1-2, 2-0) at (xi, eta). */
+function shape6(xi: number, eta: number, N: Float64Array): void {
+  const l0 = 1 - xi - eta;
+  N[0] = l0 * (2 * l0 - 1);
+  N[1] = xi * (2 * xi - 1);
+  N[2] = eta * (2 * eta - 1);
+  N[3] = 4 * l0 * xi;
+  N[4] = 4 * xi * eta;
+  N[5] = 4 * eta * l0;
+}
+
+function shape(order: 1 | 2, xi: number, eta: number, N: Float64Array): void {
+  if (order === 2) shape6(xi, eta, N);
+  else {
+    N[0] = 1 - xi - eta;
+    N[1] = xi;
+    N[2] = eta;
+  }
+}
+
+/** Whether a 6-node element's midside nodes sit at the midpoints of its sides (to 1e-9 of its size). */
+function isStraight(nodes: Float64Array, el: Int32Array, e: number): boolean {
+  const v = (k: number) => el[6 * e + k];
+  let size = 0;
+  let off = 0;
+  const pairs = [
+    [0, 1, 3],
+    [1, 2, 4],
+    [2, 0, 5],
+  ];
+  for (const [a, b, m] of pairs) {
+    const ax = nodes[2 * v(a)];
+    const ay = nodes[2 * v(a) + 1];
+    const bx = nodes[2 * v(b)];
+    const by = nodes[2 * v(b) + 1];
+    size = Math.max(size, Math.hypot(bx - ax, by - ay));
+    off = Math.max(off, Math.hypot(nodes[2 * v(m)] - 0.5 * (ax + bx), nodes[2 * v(m) + 1] - 0.5 * (ay + by)));
+  }
+  return off <= 1e-9 * size;
+}
+
+/**
+ * Subdivisions per side for element e drawn at the view scale (pixels): 1 for straight sides,
+ * otherwise enough that a sub-triangle side is at most about 6 pixels (2 to 16).
+ */
+export function subdivisions(mesh: DrawMesh, e: number, view: View, k = 1, forIso = false): number {
+  if (mesh.order === 1) return 1;
+  const el = mesh.elements;
+  const straight = isStraight(mesh.nodes, el, e);
+  if (straight && !forIso) return 1;
+  let size = 0;
+  for (let i = 0; i < 3; i++) {
+    const a = el[6 * e + i];
+    const b = el[6 * e + ((i + 1) % 3)];
+    size = Math.max(size, Math.hypot(mesh.nodes[2 * a] - mesh.nodes[2 * b], mesh.nodes[2 * a + 1] - mesh.nodes[2 * b + 1]));
+  }
+  const px = size * view.s * k;
+  const n = Math.ceil(px / 6);
+  return Math.max(forIso ? 3 : 2, Math.min(16, n));
+}
+
+/**
+ * Paints the field onto the raster at k times the view's scale (the raster being k times the
+ * picture). Pixels whose centre lies in no element are left as they are.
+ */
+export function paintField(r: Raster, mesh: DrawMesh, view: View, field: FieldSpec, scale: ColourScale, k = 1): void {
+  const per = mesh.order === 2 ? 6 : 3;
+  const lut = colourLut(scale.map, 1024);
+  const span = scale.hi - scale.lo;
+  const inv = span > 0 ? 1023 / span : 0;
+  const N = new Float64Array(6);
+  const comp = new Float64Array(field.stride);
+  const local = new Float64Array(per * field.stride);
+  const el = mesh.elements;
+  const nodes = mesh.nodes;
+  const s = view.s * k;
+  const ox = view.ox * k;
+  const oy = view.oy * k;
+  const clip = r.clip;
+  const data = r.data;
+  const W = r.width;
+  // Sub-triangle corner storage: local coordinates and pixel positions on an (n+1)^2 grid.
+  let gridXi = new Float64Array(0);
+  let gridEta = new Float64Array(0);
+  let gridPx = new Float64Array(0);
+  let gridPy = new Float64Array(0);
+  for (let e = 0; e < mesh.nElements; e++) {
+    for (let a = 0; a < per; a++) {
+      const v = el[per * e + a];
+      for (let c = 0; c < field.stride; c++) local[a * field.stride + c] = field.data[field.stride * v + c];
+    }
+    // Cull elements wholly outside the clip box.
+    let ex0 = Infinity;
+    let ex1 = -Infinity;
+    let ey0 = Infinity;
+    let ey1 = -Infinity;
+    for (let a = 0; a < per; a++) {
+      const v = el[per * e + a];
+      const px = ox + s * nodes[2 * v];
+      const py = oy - s * nodes[2 * v + 1];
+      if (px < ex0) ex0 = px;
+      if (px > ex1) ex1 = px;
+      if (py < ey0) ey0 = py;
+      if (py > ey1) ey1 = py;
+    }
+    const pad = 0.5 * Math.max(ex1 - ex0, ey1 - ey0);
+    if (ex1 + pad < clip[0] || ex0 - pad > clip[2] || ey1 + pad < clip[1] || ey0 - pad > clip[3]) continue;
+    const n = subdivisions(mesh, e, view, k);
+    const g = (n + 1) * (n + 1);
+    if (gridXi.length < g) {
+      gridXi = new Float64Array(g);
+      gridEta = new Float64Array(g);
+      gridPx = new Float64Array(g);
+      gridPy = new Float64Array(g);
+    }
+    for (let i = 0; i <= n; i++) {
+      for (let j = 0; j <= n - i; j++) {
+        const id = i * (n + 1) + j;
+        const xi = j / n;
+        const eta = i / n;
+        gridXi[id] = xi;
+        gridEta[id] = eta;
+        shape(mesh.order, xi, eta, N);
+        let x = 0;
+        let y = 0;
+        for (let a = 0; a < per; a++) {
+          const v = el[per * e + a];
+          x += N[a] * nodes[2 * v];
+          y += N[a] * nodes[2 * v + 1];
+        }
+        gridPx[id] = ox + s * x;
+        gridPy[id] = oy - s * y;
+      }
+    }
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j < n - i; j++) {
+        const a = i * (n + 1) + j;
+        const b = a + 1;
+        const c = a + n + 1;
+        sub(a, b, c);
+        if (j < n - i - 1) sub(b, c + 1, c);
+      }
+    }
+  }
+
+  function sub(a: number, b: number, c: number): void {
+    const x0 = gridPx[a];
+    const y0 = gridPy[a];
+    const x1 = gridPx[b];
+    const y1 = gridPy[b];
+    const x2 = gridPx[c];
+    const y2 = gridPy[c];
+    const det = (x1 - x0) * (y2 - y0) - (x2 - x0) * (y1 - y0);
+    if (det === 0 || !Number.isFinite(det)) return;
+    const minX = Math.max(clip[0], Math.floor(Math.min(x0, x1, x2)));
+    const maxX = Math.min(clip[2] - 1, Math.ceil(Math.max(x0, x1, x2)));
+    const minY = Math.max(clip[1], Math.floor(Math.min(y0, y1, y2)));
+    const maxY = Math.min(clip[3] - 1, Math.ceil(Math.max(y0, y1, y2)));
+    const xa = gridXi[a];
+    const xb = gridXi[b];
+    const xc = gridXi[c];
+    const ea = gridEta[a];
+    const eb = gridEta[b];
+    const ec = gridEta[c];
+    const stride = field.stride;
+    for (let py = minY; py <= maxY; py++) {
+      const cy = py + 0.5;
+      for (let px = minX; px <= maxX; px++) {
+        const cx = px + 0.5;
+        const b1 = ((cx - x0) * (y2 - y0) - (x2 - x0) * (cy - y0)) / det;
+        const b2 = ((x1 - x0) * (cy - y0) - (cx - x0) * (y1 - y0)) / det;
+        const b0 = 1 - b1 - b2;
+        if (b0 < -1e-9 || b1 < -1e-9 || b2 < -1e-9) continue;
+        const xi = b0 * xa + b1 * xb + b2 * xc;
+        const eta = b0 * ea + b1 * eb + b2 * ec;
+        shape(mesh.order, xi, eta, N);
+        for (let q = 0; q < stride; q++) {
+          let v = 0;
+          for (let m = 0; m < per; m++) v += N[m] * local[m * stride + q];
+          comp[q] = v;
+        }
+        const val = field.value(comp);
+        let t = Math.round((val - scale.lo) * inv);
+        if (!(t >= 0)) t = 0;
+        else if (t > 1023) t = 1023;
+        const o = 4 * (py * W + px);
+        data[o] = lut[3 * t];
+        data[o + 1] = lut[3 * t + 1];
+        data[o + 2] = lut[3 * t + 2];
+        data[o + 3] = 255;
+      }
+    }
+  }
+}
+
+/** The plotted value at local coordinates of element e (for tests and probes). */
+export function fieldValueAt(mesh: DrawMesh, field: FieldSpec, e: number, xi: number, eta: number): number {
+  const per = mesh.order === 2 ? 6 : 3;
+  const N = new Float64Array(6);
+  shape(mesh.order, xi, eta, N);
+  const comp = new Float64Array(field.stride);
+  for (let q = 0; q < field.stride; q++) {
+    let v = 0;
+    for (let m = 0; m < per; m++) v += N[m] * field.data[field.stride * mesh.elements[per * e + m] + q];
+    comp[q] = v;
+  }
+  return field.value(comp);
+}
+
+/** The range of the plotted value over the nodes and the element mid-points of the sub-grids. */
+export function fieldRange(mesh: DrawMesh, field: FieldSpec): [number, number] {
+  let lo = Infinity;
+  let hi = -Infinity;
+  const comp = new Float64Array(field.stride);
+  for (let i = 0; i < mesh.nNodes; i++) {
+    for (let q = 0; q < field.stride; q++) comp[q] = field.data[field.stride * i + q];
+    const v = field.value(comp);
+    if (v < lo) lo = v;
+    if (v > hi) hi = v;
+  }
+  return [lo, hi];
+}
+
+/**
+ * Iso-lines of the plotted value at the given levels, as pixel segments (x0, y0, x1, y1 per
+ * segment, one list per level), from the subdivided elements by marching triangles.
+ */
+export function isoSegments(mesh: DrawMesh, view: View, field: FieldSpec, levels: readonly number[], k = 1): number[][] {
+  const out = levels.map(() => [] as number[]);
+  if (levels.length === 0) return out;
+  const per = mesh.order === 2 ? 6 : 3;
+  const N = new Float64Array(6);
+  const comp = new Float64Array(field.stride);
+  const el = mesh.elements;
+  for (let e = 0; e < mesh.nElements; e++) {
+    const n = subdivisions(mesh, e, view, k, true);
+    const g = (n + 1) * (n + 1);
+    const vx = new Float64Array(g);
+    const vy = new Float64Array(g);
+    const vv = new Float64Array(g);
+    let lo = Infinity;
+    let hi = -Infinity;
+    for (let i = 0; i <= n; i++) {
+      for (let j = 0; j <= n - i; j++) {
+        const id = i * (n + 1) + j;
+        shape(mesh.order, j / n, i / n, N);
+        let x = 0;
+        let y = 0;
+        for (let q = 0; q < field.stride; q++) comp[q] = 0;
+        for (let a = 0; a < per; a++) {
+          const v = el[per * e + a];
+          x += N[a] * mesh.nodes[2 * v];
+          y += N[a] * mesh.nodes[2 * v + 1];
+          for (let q = 0; q < field.stride; q++) comp[q] += N[a] * field.data[field.stride * v + q];
+        }
+        vx[id] = (view.ox + view.s * x) * k;
+        vy[id] = (view.oy - view.s * y) * k;
+        const val = field.value(comp);
+        vv[id] = val;
+        if (val < lo) lo = val;
+        if (val > hi) hi = val;
+      }
+    }
+    levels.forEach((lev, li) => {
+      if (lev < lo || lev > hi) return;
+      const seg = out[li];
+      const tri = (a: number, b: number, c: number) => {
+        const pts: number[] = [];
+        const edge = (p: number, q: number) => {
+          const fp = vv[p] - lev;
+          const fq = vv[q] - lev;
+          if ((fp < 0 && fq >= 0) || (fp >= 0 && fq < 0)) {
+            const t = fp / (fp - fq);
+            pts.push(vx[p] + (vx[q] - vx[p]) * t, vy[p] + (vy[q] - vy[p]) * t);
+          }
+        };
+        edge(a, b);
+        edge(b, c);
+        edge(c, a);
+        if (pts.length === 4) seg.push(pts[0], pts[1], pts[2], pts[3]);
+      };
+      for (let i = 0; i < n; i++) {
+        for (let j = 0; j < n - i; j++) {
+          const a = i * (n + 1) + j;
+          tri(a, a + 1, a + n + 1);
+          if (j < n - i - 1) tri(a + 1, a + n + 2, a + n + 1);
+        }
+      }
+    });
+  }
+  return out;
+}
+
+/** Every element side once, as pixel polylines (curved sides of 6-node elements in 4 pieces). */
+export function meshEdgeLines(mesh: DrawMesh, view: View): number[][] {
+  const per = mesh.order === 2 ? 6 : 3;
+  const seen = new Set<number>();
+  const lines: number[][] = [];
+  const el = mesh.elements;
+  const mids = [3, 4, 5];
+  for (let e = 0; e < mesh.nElements; e++) {
+    for (let i = 0; i < 3; i++) {
+      const a = el[per * e + i];
+      const b = el[per * e + ((i + 1) % 3)];
+      const key = Math.min(a, b) * mesh.nNodes + Math.max(a, b);
+      if (seen.has(key)) continue;
+      seen.add(key);
+      const m = per === 6 ? el[per * e + mids[i]] : -1;
+      lines.push(edgePolyline(mesh.nodes, a, b, m, view));
+    }
+  }
+  return lines;
+}
+
+/** A side from node a to b through midside node m (or straight when m < 0), in pixels. */
+export function edgePolyline(nodes: Float64Array, a: number, b: number, m: number, view: View): number[] {
+  const ax = nodes[2 * a];
+  const ay = nodes[2 * a + 1];
+  const bx = nodes[2 * b];
+  const by = nodes[2 * b + 1];
+  if (m < 0) return [view.ox + view.s * ax, view.oy - view.s * ay, view.ox + view.s * bx, view.oy - view.s * by];
+  const mx = nodes[2 * m];
+  const my = nodes[2 * m + 1];
+  const off = Math.hypot(mx - 0.5 * (ax + bx), my - 0.5 * (ay + by)) * view.s;
+  const pieces = off < 0.05 ? 1 : Math.min(16, Math.max(4, Math.ceil(Math.sqrt(off) * 4)));
+  const out: number[] = [];
+  for (let k = 0; k <= pieces; k++) {
+    const u = k / pieces;
+    const na = (1 - u) * (1 - 2 * u);
+    const nm = 4 * u * (1 - u);
+    const nb = u * (2 * u - 1);
+    out.push(view.ox + view.s * (na * ax + nm * mx + nb * bx), view.oy - view.s * (na * ay + nm * my + nb * by));
+  }
+  return out;
+}

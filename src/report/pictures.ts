@@ -1,0 +1,463 @@
+/**
+ * The pictures of a solution, as scenes for the PNG and SVG back ends: the stress contour, the
+ * mesh, the deformed shape, a close-up of the peak, the geometry with the nominal sections, the
+ * convergence of Kt against the degrees of freedom and the stress along a line across the part.
+ * Every picture of the part carries its title, what is shown and in which unit, the model and
+ * the date, and the caution line.
+ */
+import { join } from 'node:path';
+import type { StressMeasure } from '../model/schema.js';
+import { FieldProbe } from '../mesh/probe.js';
+import { stressMeasure } from '../post/stress.js';
+import { drawLabel, drawLegend, drawMarker, drawScaleBar, INK, SOFT } from '../render/annotate.js';
+import { drawChart, type Series } from '../render/chart.js';
+import { DEFAULT_MAP } from '../render/colormap.js';
+import { capHeight, textWidth } from '../render/font.js';
+import { edgePolyline, fitView, fieldRange, isoSegments, meshEdgeLines, paintField, toPixel, type DrawMesh, type FieldSpec, type View } from '../render/field.js';
+import type { Rgb } from '../render/raster.js';
+import { addText, newScene, renderPng, renderSvg, type Box, type Scene } from '../render/scene.js';
+import { formatValue } from '../render/ticks.js';
+import { writeAtomic } from './files.js';
+import type { PlotSource } from './saved.js';
+
+export interface PictureOptions {
+  /** picture size in pixels (default 1600 x 1000) */
+  width?: number;
+  height?: number;
+  /** the stress measure to draw (default: the analysis's) */
+  measure?: StressMeasure;
+  /** the value range the colours span (default: the field's range) */
+  range?: [number, number] | null;
+  /** the model region to show, [xmin, ymin, xmax, ymax] (default: the whole part) */
+  window?: [number, number, number, number] | null;
+  /** draw the element edges (default: off on the contour, on in the close-up) */
+  meshLines?: boolean;
+  /** iso-lines at the legend's round values (default on) */
+  iso?: boolean;
+  /** the line for the stress plot, [x0, y0, x1, y1] (default: the net section) */
+  line?: [number, number, number, number] | null;
+}
+
+export const CAUTION_LINE =
+  'Linear elastic, small-strain result. A peak above yield means local plastic flow; for fatigue use Kf, not Kt. Check by a qualified engineer under the applicable codes before use.';
+
+const MEASURE_NAMES: Record<StressMeasure, string> = {
+  'max-principal': 'max. principal stress',
+  'min-principal': 'min. principal stress',
+  'von-mises': 'von Mises stress',
+  tresca: 'Tresca stress (s1 - s3)',
+  sxx: 'normal stress sxx',
+  syy: 'normal stress syy',
+  sxy: 'shear stress sxy',
+};
+
+export function measureName(m: StressMeasure): string {
+  return MEASURE_NAMES[m];
+}
+
+const NET_COLOUR: Rgb = [196, 78, 22];
+const GROSS_COLOUR: Rgb = [38, 92, 160];
+const PLATE_FILL: Rgb = [228, 230, 224];
+
+/** The stress field of the source for a measure: components sxx, syy, sxy, combined per point. */
+export function stressField(src: PlotSource, measure: StressMeasure): FieldSpec {
+  const f = src.szzFactor;
+  return { data: src.stress, stride: 3, value: (c) => stressMeasure(measure, c[0], c[1], c[2], f * (c[0] + c[1])) };
+}
+
+function drawMesh(src: PlotSource, displaced = 0): DrawMesh {
+  const m = src.mesh;
+  if (displaced === 0) return m;
+  const nodes = new Float64Array(m.nodes.length);
+  for (let i = 0; i < nodes.length; i++) nodes[i] = m.nodes[i] + displaced * src.u[i];
+  return { order: m.order, nNodes: m.nNodes, nodes, nElements: m.nElements, elements: m.elements };
+}
+
+function bbox(nodes: Float64Array): [number, number, number, number] {
+  let x0 = Infinity;
+  let y0 = Infinity;
+  let x1 = -Infinity;
+  let y1 = -Infinity;
+  for (let i = 0; i < nodes.length; i += 2) {
+    x0 = Math.min(x0, nodes[i]);
+    x1 = Math.max(x1, nodes[i]);
+    y0 = Math.min(y0, nodes[i + 1]);
+    y1 = Math.max(y1, nodes[i + 1]);
+  }
+  return [x0, y0, x1, y1];
+}
+
+/** Closed boundary loops of the mesh as pixel polygons (for filling the plate). */
+function outlineLoops(src: PlotSource, nodes: Float64Array, view: View): number[][] {
+  const m = src.mesh;
+  const next = new Map<number, number>();
+  for (let s = 0; s < m.nBEdges; s++) next.set(m.bEdges[3 * s], s);
+  const used = new Uint8Array(m.nBEdges);
+  const loops: number[][] = [];
+  for (let s0 = 0; s0 < m.nBEdges; s0++) {
+    if (used[s0]) continue;
+    const loop: number[] = [];
+    let s = s0;
+    while (s !== undefined && !used[s]) {
+      used[s] = 1;
+      const pl = edgePolyline(nodes, m.bEdges[3 * s], m.bEdges[3 * s + 1], m.bEdges[3 * s + 2], view);
+      loop.push(...pl.slice(0, pl.length - 2));
+      s = next.get(m.bEdges[3 * s + 1])!;
+    }
+    loops.push(loop);
+  }
+  return loops;
+}
+
+interface Frame {
+  size: number;
+  draw: Box;
+  legend: Box | null;
+}
+
+/** Title, subtitle and footer (model, date, caution); returns the drawing area and legend column. */
+function frame(s: Scene, src: PlotSource | null, title: string, subtitle: string, withLegend: boolean): Frame {
+  const W = s.width;
+  const H = s.height;
+  const size = Math.max(11, Math.min(22, Math.min(W / 1.6, H) / 58));
+  const m = size * 1.1;
+  addText(s, title, m, m + capHeight(size * 1.35), size * 1.35, INK, { weight: 'bold', what: 'title' });
+  addText(s, subtitle, m, m + capHeight(size * 1.35) + size * 1.6, size, SOFT, { what: 'subtitle' });
+  const top = m + capHeight(size * 1.35) + size * 2.6;
+  const fs = size * 0.82;
+  const r = src?.result;
+  const model = r ? `${r.model.title ?? 'untitled model'}${r.model.file ? ` (${r.model.file})` : ''}` : '';
+  const date = src ? src.createdAt.slice(0, 10) : '';
+  const foot1 = [model, `raiser ${r?.tool.version ?? ''}`.trim(), date].filter(Boolean).join('  |  ');
+  const y2 = H - m * 0.8;
+  const y1 = y2 - fs * 1.45;
+  addText(s, fit(foot1, fs, W - 2 * m), m, y1, fs, SOFT, { what: 'footer' });
+  addText(s, fit(CAUTION_LINE, fs, W - 2 * m), m, y2, fs, [150, 40, 30], { what: 'caution' });
+  const bottom = y1 - fs * 1.6;
+  const legendW = withLegend ? Math.max(size * 9, Math.min(W * 0.2, size * 12)) : 0;
+  const draw: Box = [m, top, W - m - legendW - (withLegend ? size : 0), bottom];
+  const legend: Box | null = withLegend ? [W - m - legendW, top, W - m, bottom] : null;
+  return { size, draw, legend };
+}
+
+/** The text cut with an ellipsis to fit the width. */
+function fit(text: string, size: number, width: number): string {
+  if (textWidth(text, size) <= width) return text;
+  let t = text;
+  while (t.length > 4 && textWidth(t + '...', size) > width) t = t.slice(0, -1);
+  return t + '...';
+}
+
+function describeMesh(src: PlotSource): string {
+  const m = src.mesh;
+  return `${m.nNodes} nodes, ${m.nElements} ${m.order === 2 ? '6-node' : '3-node'} triangles`;
+}
+
+/** The place and value of the peak of a measure: the analysis's own peak, or the nodal extreme. */
+export function peakOf(src: PlotSource, measure: StressMeasure): { x: number; y: number; value: number } {
+  const r = src.result;
+  if (measure === r.peak.measure) return { x: r.peak.x, y: r.peak.y, value: r.peak.stress };
+  const f = stressField(src, measure);
+  const sign = measure === 'min-principal' ? -1 : 1;
+  const c = new Float64Array(3);
+  let best = 0;
+  let bv = -Infinity;
+  for (let i = 0; i < src.mesh.nNodes; i++) {
+    c[0] = src.stress[3 * i];
+    c[1] = src.stress[3 * i + 1];
+    c[2] = src.stress[3 * i + 2];
+    const v = sign * f.value(c);
+    if (v > bv) {
+      bv = v;
+      best = i;
+    }
+  }
+  return { x: src.mesh.nodes[2 * best], y: src.mesh.nodes[2 * best + 1], value: sign * bv };
+}
+
+function inflate(b: Box, d: number): Box {
+  return [b[0] + d, b[1] + d, b[2] - d, b[3] - d];
+}
+
+/** The stress contour of a measure with legend, peak, scale bar, iso-lines and (optionally) mesh lines. */
+export function contourScene(src: PlotSource, opts: PictureOptions = {}, title?: string): Scene {
+  const W = opts.width ?? 1600;
+  const H = opts.height ?? 1000;
+  const measure = opts.measure ?? src.result.peak.measure;
+  const unit = src.result.units.stress;
+  const s = newScene(W, H, title ?? `${measureName(measure)}: ${src.result.model.title ?? 'raiser'}`);
+  const fr = frame(s, src, title ?? src.result.model.title ?? 'Stress', `${measureName(measure)} (${unit}), recovered nodal stresses interpolated per pixel; ${describeMesh(src)}`, true);
+  const field = stressField(src, measure);
+  const dataRange = fieldRange(src.mesh, field);
+  const peak = peakOf(src, measure);
+  if (measure === 'min-principal') dataRange[0] = Math.min(dataRange[0], peak.value);
+  else dataRange[1] = Math.max(dataRange[1], peak.value);
+  let range: [number, number] = opts.range ? [opts.range[0], opts.range[1]] : [dataRange[0], dataRange[1]];
+  if (!(range[1] > range[0])) range = [range[0] - (Math.abs(range[0]) || 1) * 0.01, range[0] + (Math.abs(range[0]) || 1) * 0.01];
+  const win = opts.window ?? bbox(src.mesh.nodes);
+  const view = fitView(win, inflate(fr.draw, fr.size * 0.8));
+  const scale = { lo: range[0], hi: range[1], map: DEFAULT_MAP };
+  s.items.push({ kind: 'layer', paint: (r, k) => paintField(r, src.mesh, view, field, scale, k), clip: fr.draw });
+  const legend = drawLegend(s, fr.legend!, [measureName(measure), unit], DEFAULT_MAP, range, dataRange, fr.size);
+  if (opts.iso !== false) {
+    const levels = legend.ticks.map((t) => t.value).filter((v) => v > range[0] && v < range[1]);
+    const segs = isoSegments(src.mesh, view, field, levels);
+    const lines: number[][] = [];
+    for (const l of segs) for (let k = 0; k + 3 < l.length; k += 4) lines.push([l[k], l[k + 1], l[k + 2], l[k + 3]]);
+    s.items.push({ kind: 'stroke', lines, width: 0.9, colour: [20, 20, 28], alpha: 0.45, clip: fr.draw });
+  }
+  if (opts.meshLines) s.items.push({ kind: 'stroke', lines: meshEdgeLines(src.mesh, view), width: 0.7, colour: [20, 20, 28], alpha: 0.4, clip: fr.draw });
+  s.items.push({ kind: 'stroke', lines: outlineLoops(src, src.mesh.nodes, view), closed: true, width: 1.8, colour: INK, clip: fr.draw });
+  const [ppx, ppy] = toPixel(view, peak.x, peak.y);
+  const inside = ppx >= fr.draw[0] && ppx <= fr.draw[2] && ppy >= fr.draw[1] && ppy <= fr.draw[3];
+  if (inside) drawMarker(s, ppx, ppy, `peak ${formatValue(peak.value)} ${unit}`, fr.size, fr.draw, 'peak');
+  const sb = drawScaleBar(s, fr.draw[0] + fr.size * 0.6, fr.draw[3] - fr.size * 0.6, view.s, 0.22 * (fr.draw[2] - fr.draw[0]), src.result.units.length, fr.size * 0.9);
+  Object.assign(s.info, { view, draw: fr.draw, range, dataRange, ticks: legend.ticks, bar: legend.bar, peak: inside ? [ppx, ppy] : null, peakValue: peak.value, measure, scaleBar: sb.length });
+  return s;
+}
+
+/** The mesh: elements on a light plate, the outline, and the mesh figures. */
+export function meshScene(src: PlotSource, opts: PictureOptions = {}): Scene {
+  const W = opts.width ?? 1600;
+  const H = opts.height ?? 1000;
+  const r = src.result;
+  const s = newScene(W, H, `mesh: ${r.model.title ?? 'raiser'}`);
+  const fr = frame(s, src, `Mesh: ${r.model.title ?? ''}`.trim(), `${describeMesh(src)}, ${r.mesh.dofs} DOF, smallest angle ${formatValue(r.mesh.minAngleDeg, 3)} deg, largest ${formatValue(r.mesh.maxAngleDeg, 3)} deg`, false);
+  const view = fitView(opts.window ?? bbox(src.mesh.nodes), inflate(fr.draw, fr.size * 0.8));
+  s.items.push({ kind: 'fill', paths: outlineLoops(src, src.mesh.nodes, view), colour: PLATE_FILL, clip: fr.draw });
+  s.items.push({ kind: 'stroke', lines: meshEdgeLines(src.mesh, view), width: 0.7, colour: [40, 44, 56], alpha: 0.75, clip: fr.draw });
+  s.items.push({ kind: 'stroke', lines: outlineLoops(src, src.mesh.nodes, view), closed: true, width: 1.8, colour: INK, clip: fr.draw });
+  drawScaleBar(s, fr.draw[0] + fr.size * 0.6, fr.draw[3] - fr.size * 0.6, view.s, 0.22 * (fr.draw[2] - fr.draw[0]), r.units.length, fr.size * 0.9);
+  Object.assign(s.info, { view, draw: fr.draw });
+  return s;
+}
+
+/** The deformed shape, displacements magnified by a round factor, coloured by displacement magnitude. */
+export function deformedScene(src: PlotSource, opts: PictureOptions = {}): Scene {
+  const W = opts.width ?? 1600;
+  const H = opts.height ?? 1000;
+  const r = src.result;
+  let umax = 0;
+  for (let i = 0; i < src.mesh.nNodes; i++) umax = Math.max(umax, Math.hypot(src.u[2 * i], src.u[2 * i + 1]));
+  const box = bbox(src.mesh.nodes);
+  const size = Math.max(box[2] - box[0], box[3] - box[1]);
+  const factor = umax > 0 ? roundFactor((0.08 * size) / umax) : 1;
+  const unit = r.units.length;
+  const s = newScene(W, H, `deformed shape: ${r.model.title ?? 'raiser'}`);
+  const fr = frame(s, src, `Deformed shape: ${r.model.title ?? ''}`.trim(), `displacements drawn ${formatValue(factor, 3)} times magnified; largest displacement ${formatValue(umax)} ${unit}; undeformed outline dashed`, true);
+  const dm = drawMesh(src, factor);
+  const dbox = bbox(dm.nodes);
+  const all: [number, number, number, number] = opts.window ?? [Math.min(box[0], dbox[0]), Math.min(box[1], dbox[1]), Math.max(box[2], dbox[2]), Math.max(box[3], dbox[3])];
+  const view = fitView(all, inflate(fr.draw, fr.size * 0.8));
+  const field: FieldSpec = { data: src.u, stride: 2, value: (c) => Math.hypot(c[0], c[1]) };
+  const range: [number, number] = opts.range ?? [0, umax || 1];
+  s.items.push({ kind: 'stroke', lines: outlineLoops(src, src.mesh.nodes, view), closed: true, width: 1.2, colour: SOFT, dash: [6, 4], clip: fr.draw });
+  s.items.push({ kind: 'layer', paint: (rr, k) => paintField(rr, dm, view, field, { lo: range[0], hi: range[1], map: DEFAULT_MAP }, k), clip: fr.draw });
+  if (opts.meshLines) s.items.push({ kind: 'stroke', lines: meshEdgeLines(dm, view), width: 0.6, colour: [20, 20, 28], alpha: 0.35, clip: fr.draw });
+  s.items.push({ kind: 'stroke', lines: outlineLoops(src, dm.nodes, view), closed: true, width: 1.8, colour: INK, clip: fr.draw });
+  drawLegend(s, fr.legend!, ['displacement', `magnitude (${unit})`], DEFAULT_MAP, range, [0, umax], fr.size);
+  drawLabel(s, `displacements x ${formatValue(factor, 3)}`, fr.draw[2] - fr.size * 0.6, fr.draw[1] + fr.size * 1.6, fr.size, 'factor label', { anchor: 'end', weight: 'bold' });
+  drawScaleBar(s, fr.draw[0] + fr.size * 0.6, fr.draw[3] - fr.size * 0.6, view.s, 0.22 * (fr.draw[2] - fr.draw[0]), unit, fr.size * 0.9);
+  Object.assign(s.info, { view, draw: fr.draw, factor, umax });
+  return s;
+}
+
+/** 1, 2 or 5 times a power of ten, the largest not above f. */
+function roundFactor(f: number): number {
+  const p = Math.pow(10, Math.floor(Math.log10(f)));
+  for (const m of [5, 2, 1]) if (m * p <= f) return m * p;
+  return p;
+}
+
+/** The model window around the peak for the close-up: several elements and the notch radius. */
+export function peakWindow(src: PlotSource, measure?: StressMeasure): [number, number, number, number] {
+  const pk = peakOf(src, measure ?? src.result.peak.measure);
+  const m = src.mesh;
+  const per = m.order === 2 ? 6 : 3;
+  let near = 0;
+  let nd = Infinity;
+  for (let i = 0; i < m.nNodes; i++) {
+    const d = Math.hypot(m.nodes[2 * i] - pk.x, m.nodes[2 * i + 1] - pk.y);
+    if (d < nd) {
+      nd = d;
+      near = i;
+    }
+  }
+  let h = 0;
+  for (let e = 0; e < m.nElements; e++) {
+    let has = false;
+    for (let k = 0; k < per; k++) if (m.elements[per * e + k] === near) has = true;
+    if (!has) continue;
+    for (let k = 0; k < 3; k++) {
+      const a = m.elements[per * e + k];
+      const b = m.elements[per * e + ((k + 1) % 3)];
+      h = Math.max(h, Math.hypot(m.nodes[2 * a] - m.nodes[2 * b], m.nodes[2 * a + 1] - m.nodes[2 * b + 1]));
+    }
+  }
+  const box = bbox(m.nodes);
+  const scale = Math.hypot(box[2] - box[0], box[3] - box[1]);
+  const radius = src.result.fatigue?.radius;
+  const half = Math.min(0.3 * scale, Math.max(10 * h, Number.isFinite(radius) && radius ? 2.5 * radius : 0, 0.02 * scale));
+  return [pk.x - half, pk.y - half, pk.x + half, pk.y + half];
+}
+
+/** A close-up of the peak region with mesh lines. */
+export function closeupScene(src: PlotSource, opts: PictureOptions = {}): Scene {
+  const measure = opts.measure ?? src.result.peak.measure;
+  const win = opts.window ?? peakWindow(src, measure);
+  return contourScene(src, { ...opts, window: win, meshLines: opts.meshLines ?? true }, `Close-up of the peak: ${src.result.model.title ?? ''}`.trim());
+}
+
+/** The geometry with the net and gross sections and the peak. */
+export function geometryScene(src: PlotSource, opts: PictureOptions = {}): Scene {
+  const W = opts.width ?? 1600;
+  const H = opts.height ?? 1000;
+  const r = src.result;
+  const s = newScene(W, H, `geometry: ${r.model.title ?? 'raiser'}`);
+  const fr = frame(s, src, `Geometry and nominal sections: ${r.model.title ?? ''}`.trim(), `net section (least material across the load) solid, gross section dashed; lengths in ${r.units.length}`, false);
+  const view = fitView(opts.window ?? bbox(src.mesh.nodes), inflate(fr.draw, fr.size * 2.5));
+  s.items.push({ kind: 'fill', paths: outlineLoops(src, src.mesh.nodes, view), colour: PLATE_FILL, clip: fr.draw });
+  s.items.push({ kind: 'stroke', lines: outlineLoops(src, src.mesh.nodes, view), closed: true, width: 1.8, colour: INK, clip: fr.draw });
+  const sec = (c: typeof r.nominal.section, colour: Rgb, dash: number[] | undefined, label: string, below: boolean) => {
+    const lines = c.intervals.map((iv) => [...toPixel(view, iv.from[0], iv.from[1]), ...toPixel(view, iv.to[0], iv.to[1])]);
+    s.items.push({ kind: 'stroke', lines, width: 3, colour, dash });
+    const [ax, ay] = toPixel(view, c.from[0], c.from[1]);
+    const [bx, by] = toPixel(view, c.to[0], c.to[1]);
+    const end = below ? (ay > by ? [ax, ay] : [bx, by]) : ay < by ? [ax, ay] : [bx, by];
+    drawLabel(s, label, end[0], end[1] + (below ? fr.size * 1.6 : -fr.size * 0.6), fr.size * 0.9, `${label} label`, { anchor: 'middle', colour });
+  };
+  const n = r.nominal;
+  sec(n.gross.section, GROSS_COLOUR, [8, 5], `gross ${formatValue(n.gross.section.length)} ${r.units.length}`, true);
+  sec(n.section, NET_COLOUR, undefined, `net ${formatValue(n.section.length)} ${r.units.length}`, false);
+  const [px, py] = toPixel(view, r.peak.x, r.peak.y);
+  drawMarker(s, px, py, `peak, ${r.peak.feature}`, fr.size * 0.9, fr.draw, 'peak');
+  drawScaleBar(s, fr.draw[0] + fr.size * 0.6, fr.draw[3] - fr.size * 0.6, view.s, 0.22 * (fr.draw[2] - fr.draw[0]), r.units.length, fr.size * 0.9);
+  Object.assign(s.info, { view, draw: fr.draw });
+  return s;
+}
+
+/** Kt against degrees of freedom over the certified series, with the band and the extrapolated value. */
+export function convergenceScene(src: PlotSource, opts: PictureOptions = {}): Scene | null {
+  const r = src.result;
+  const c = r.convergence;
+  if (c.meshes.length < 2) return null;
+  const W = opts.width ?? 1200;
+  const H = opts.height ?? 800;
+  const s = newScene(W, H, `convergence: ${r.model.title ?? 'raiser'}`);
+  const fr = frame(s, src, `Convergence of Kt: ${r.model.title ?? ''}`.trim(), `Kt net and gross on each mesh of the series; error band ${c.estimatedError === null ? 'not available' : `+-${formatValue(100 * c.estimatedError, 2)}%`} on the finest (grid convergence index)`, false);
+  const series: Series[] = [
+    { name: 'Kt net', points: c.meshes.flatMap((m) => [m.dofs, m.ktNet]), colour: NET_COLOUR, markers: true },
+    { name: 'Kt gross', points: c.meshes.flatMap((m) => [m.dofs, m.ktGross]), colour: GROSS_COLOUR, markers: true },
+  ];
+  const last = c.meshes[c.meshes.length - 1];
+  const refLines = [];
+  if (r.kt.netExtrapolated !== null) refLines.push({ y: r.kt.netExtrapolated, label: `extrapolated Kt net ${formatValue(r.kt.netExtrapolated, 5)}`, colour: NET_COLOUR, dash: [3, 4] });
+  if (r.kt.grossExtrapolated !== null) refLines.push({ y: r.kt.grossExtrapolated, label: `extrapolated Kt gross ${formatValue(r.kt.grossExtrapolated, 5)}`, colour: GROSS_COLOUR, dash: [3, 4] });
+  if (r.chart && r.chart.value !== null) refLines.push({ y: r.chart.value, label: `chart ${r.chart.id} (${r.chart.nominal}) ${formatValue(r.chart.value, 4)}`, colour: SOFT, dash: [10, 4] });
+  const bands = [];
+  if (r.kt.netBand) bands.push({ x: last.dofs, lo: r.kt.netBand[0], hi: r.kt.netBand[1], colour: NET_COLOUR });
+  if (r.kt.grossBand) bands.push({ x: last.dofs, lo: r.kt.grossBand[0], hi: r.kt.grossBand[1], colour: GROSS_COLOUR });
+  const res = drawChart(s, fr.draw, { xLabel: 'degrees of freedom (log scale)', yLabel: 'Kt', xLog: true, series, refLines, bands }, fr.size);
+  Object.assign(s.info, { plot: res.plot, points: c.meshes.map((m) => [res.xToPx(m.dofs), res.yToPx(m.ktNet)]) });
+  return s;
+}
+
+/** Stress along a line across the part (the net section by default): the measure and the stress normal to the line. */
+export function lineScene(src: PlotSource, opts: PictureOptions = {}): Scene {
+  const r = src.result;
+  const W = opts.width ?? 1200;
+  const H = opts.height ?? 800;
+  const measure = opts.measure ?? r.peak.measure;
+  const unit = r.units.stress;
+  const line = opts.line ?? [r.nominal.section.from[0], r.nominal.section.from[1], r.nominal.section.to[0], r.nominal.section.to[1]];
+  const [x0, y0, x1, y1] = line;
+  const L = Math.hypot(x1 - x0, y1 - y0);
+  const isNet = !opts.line;
+  const s = newScene(W, H, `stress along a line: ${r.model.title ?? 'raiser'}`);
+  const fr = frame(
+    s,
+    src,
+    `Stress along ${isNet ? 'the net section' : 'a line'}: ${r.model.title ?? ''}`.trim(),
+    `from (${formatValue(x0, 5)}, ${formatValue(y0, 5)}) to (${formatValue(x1, 5)}, ${formatValue(y1, 5)}) ${r.units.length}; gaps where the line leaves the material`,
+    false,
+  );
+  const probe = new FieldProbe(src.mesh);
+  const [dx, dy] = r.load.direction;
+  const nS = 400;
+  const pm: number[] = [];
+  const pn: number[] = [];
+  for (let k = 0; k <= nS; k++) {
+    const t = k / nS;
+    // Stay a hair inside the ends, which lie on the boundary.
+    const tt = 1e-7 + t * (1 - 2e-7);
+    const x = x0 + (x1 - x0) * tt;
+    const y = y0 + (y1 - y0) * tt;
+    const sxx = probe.value(src.stress, 3, 0, x, y);
+    const syy = probe.value(src.stress, 3, 1, x, y);
+    const sxy = probe.value(src.stress, 3, 2, x, y);
+    const d = t * L;
+    if (!Number.isFinite(sxx)) {
+      pm.push(d, NaN);
+      pn.push(d, NaN);
+      continue;
+    }
+    pm.push(d, stressMeasure(measure, sxx, syy, sxy, src.szzFactor * (sxx + syy)));
+    pn.push(d, dx * dx * sxx + 2 * dx * dy * sxy + dy * dy * syy);
+  }
+  const series: Series[] = [
+    { name: measureName(measure), points: pm, colour: NET_COLOUR },
+    { name: 'stress along the load direction (normal to the section)', points: pn, colour: GROSS_COLOUR, dash: [8, 5] },
+  ];
+  const refLines = isNet ? [{ y: r.nominal.stress, label: `net nominal stress ${formatValue(r.nominal.stress)} ${unit}`, colour: SOFT }] : [];
+  const res = drawChart(s, fr.draw, { xLabel: `distance along the line (${r.units.length})`, yLabel: `stress (${unit})`, series, refLines, yInclude: [0] }, fr.size);
+  Object.assign(s.info, { plot: res.plot, samples: pm });
+  return s;
+}
+
+export interface PictureSet {
+  name: string;
+  scene: Scene;
+}
+
+/** The standard set drawn by `raiser solve -o` and `raiser plot`. */
+export function standardPictures(src: PlotSource, opts: PictureOptions = {}): PictureSet[] {
+  const out: PictureSet[] = [
+    { name: 'contour', scene: contourScene(src, opts) },
+    { name: 'peak', scene: closeupScene(src, { ...opts, window: null }) },
+    { name: 'mesh', scene: meshScene(src, opts) },
+    { name: 'deformed', scene: deformedScene(src, { ...opts, range: null }) },
+    { name: 'geometry', scene: geometryScene(src, { ...opts, window: null }) },
+    { name: 'section', scene: lineScene(src, { ...opts, width: opts.width ? Math.round(opts.width * 0.75) : undefined, height: opts.height ? Math.round(opts.height * 0.8) : undefined }) },
+  ];
+  const conv = convergenceScene(src, { ...opts, width: opts.width ? Math.round(opts.width * 0.75) : undefined, height: opts.height ? Math.round(opts.height * 0.8) : undefined });
+  if (conv) out.push({ name: 'convergence', scene: conv });
+  return out;
+}
+
+/** The file names the standard pictures take (PNG and SVG each). */
+export function pictureFileNames(withConvergence: boolean): string[] {
+  const names = ['contour', 'peak', 'mesh', 'deformed', 'geometry', 'section', ...(withConvergence ? ['convergence'] : [])];
+  return names.flatMap((n) => [`${n}.png`, `${n}.svg`]);
+}
+
+/** Renders and writes the pictures; returns the paths written and the PNG bytes by name. */
+export function writePictures(dir: string, pictures: PictureSet[], formats: ('png' | 'svg')[] = ['png', 'svg']): { written: string[]; png: Map<string, Buffer> } {
+  const written: string[] = [];
+  const png = new Map<string, Buffer>();
+  for (const p of pictures) {
+    const bytes = renderPng(p.scene).toPng();
+    png.set(p.name, bytes);
+    if (formats.includes('png')) {
+      const f = join(dir, `${p.name}.png`);
+      writeAtomic(f, bytes);
+      written.push(f);
+    }
+    if (formats.includes('svg')) {
+      const f = join(dir, `${p.name}.svg`);
+      writeAtomic(f, renderSvg(p.scene));
+      written.push(f);
+    }
+  }
+  return { written, png };
+}
+
