@@ -17,6 +17,7 @@ import { join } from 'node:path';
 import { newCommand } from './new.js';
 import { chartsCommand } from './charts.js';
 import { sweepCommands } from './sweep.js';
+import { meshCommand } from './mesh.js';
 import { parseAccuracy } from './accuracy.js';
 
 export const EXIT = { ok: 0, internal: 1, badInput: 2, cannotAnalyse: 3 } as const;
@@ -121,6 +122,7 @@ export async function main(argv: string[]): Promise<number> {
   newCommand(program, (c) => (code = c));
   chartsCommand(program, (c) => (code = c));
   sweepCommands(program, (c) => (code = c));
+  meshCommand(program, (c) => (code = c));
 
   program
     .command('verify')

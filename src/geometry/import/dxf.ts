@@ -246,7 +246,7 @@ export function readDxf(text: string, opts: ReadOptions): ReadDrawing {
       'raiser reads LINE, ARC, CIRCLE, ELLIPSE, LWPOLYLINE, POLYLINE, SPLINE and block INSERTs: explode the others into those in the CAD program, or leave their layers out with "ignore"',
     );
   }
-  for (const [what, n] of skipped) notes.push(`${n} ${what} skipped`);
+  for (const [what, n] of skipped) notes.push(`${what} skipped: ${n}`);
   return { pieces, unit, notes, warnings, keys: [...keysSeen] };
 }
 

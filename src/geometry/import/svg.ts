@@ -243,14 +243,14 @@ export function readSvg(text: string, opts: ReadOptions): ReadDrawing {
     if (depth > 64) throw new DrawingError(`${describe(el)}: elements nested more than 64 deep (a <use> that refers to itself?)`, 'remove the loop of references');
     if (SKIP.has(el.local)) return;
     if (hidden(el)) {
-      note(`hidden elements`);
+      note('hidden elements');
       return;
     }
     const own = isRoot ? [] : ownKeys(el);
     for (const k of own) keysSeen.add(k);
     const keys = [...inherited, ...own];
     if (keys.some((k) => ignore.has(k))) {
-      note(`elements left out by "ignore"`);
+      note('elements left out by "ignore"');
       return;
     }
     if (NOT_GEOMETRY.has(el.local)) {
@@ -296,7 +296,7 @@ export function readSvg(text: string, opts: ReadOptions): ReadDrawing {
     if (local.length === 0) note('empty shapes (zero size)');
   };
   walk(root, map, [], 0, true);
-  for (const [what, n] of skipped) notes.push(`${n} ${what} skipped`);
+  for (const [what, n] of skipped) notes.push(`${what} skipped: ${n}`);
   return { pieces, unit, notes, warnings, keys: [...keysSeen] };
 }
 

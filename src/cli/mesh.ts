@@ -1,0 +1,126 @@
+/**
+ * `raiser mesh <model> -o DIR`: the geometry (typed, or imported from a drawing) with its tags
+ * and the mesh, as a picture (mesh.png, mesh.svg) and a summary, before anything is solved.
+ * The mesh is the one `raiser solve --single-mesh` would use.
+ */
+import { Option, type Command } from 'commander';
+import { join } from 'node:path';
+import { curveLength } from '../geometry/curve.js';
+import { attachedDrawing } from '../geometry/import/index.js';
+import { selectTarget } from '../geometry/select.js';
+import { generateMesh } from '../mesh/generate.js';
+import { loadModelFile } from '../model/load.js';
+import { prepareModel } from '../pipeline/analyse.js';
+import { drawGeometryPicture } from '../render/geometry-picture.js';
+import { prepareOutputDir, writeAtomic } from '../report/files.js';
+
+interface MeshFlags {
+  out?: string;
+  force?: boolean;
+  element?: 'linear' | 'quadratic';
+  json?: boolean;
+}
+
+function fmt(v: number): string {
+  return Number(v.toPrecision(5)).toString();
+}
+
+export function runMesh(file: string, flags: MeshFlags): { text: string; json: object } {
+  const { model, warnings } = loadModelFile(file);
+  const prep = prepareModel(model, { element: flags.element });
+  const { domain, order, hardPoints } = prep;
+  const ms = model.mesh ?? {};
+  const { mesh, stats } = generateMesh(domain, {
+    order,
+    size: ms.size,
+    raiserSize: ms.raiserSize,
+    grading: ms.grading,
+    minAngleDeg: ms.minAngle,
+    hardPoints,
+    maxBytes: prep.maxMemoryBytes,
+  });
+  const u = prep.units.length;
+  const g = model.geometry;
+  const drawing = 'from' in g ? attachedDrawing(g) : undefined;
+  const lines: string[] = [];
+  lines.push(`raiser mesh: ${model.title ?? file} (${file})`);
+  if (drawing) {
+    lines.push(`  geometry from ${drawing.file} (${drawing.format.toUpperCase()}), drawing unit ${drawing.unit}; ends joined within ${fmt(drawing.joinTolerance)} ${u}`);
+    for (const n of drawing.notes) lines.push(`    ${n}`);
+  }
+  const kinds = new Map<string, number>();
+  for (const e of domain.edges) kinds.set(e.curve.kind, (kinds.get(e.curve.kind) ?? 0) + 1);
+  lines.push(`  ${domain.loops.length - 1} hole${domain.loops.length === 2 ? '' : 's'}, ${domain.edges.length} edges (${[...kinds].map(([k, n]) => `${n} ${k === 'bezier' ? 'Bezier curve' : k === 'ellipse' ? 'elliptical arc' : k}${n === 1 ? '' : 's'}`).join(', ')}), area ${fmt(domain.area)} ${u}^2, size ${fmt(domain.bbox[2] - domain.bbox[0])} x ${fmt(domain.bbox[3] - domain.bbox[1])} ${u}`);
+  for (const l of domain.loops) {
+    const len = l.edges.reduce((s, id) => s + curveLength(domain.edges[id].curve), 0);
+    lines.push(`    ${l.label}: ${l.edges.length} edge${l.edges.length === 1 ? '' : 's'}, area ${fmt(Math.abs(l.signedArea))} ${u}^2, perimeter ${fmt(len)} ${u}`);
+  }
+  const tags = new Map<string, number>();
+  for (const e of domain.edges) for (const t of e.tags) tags.set(t, (tags.get(t) ?? 0) + 1);
+  lines.push(`  tags: ${tags.size ? [...tags].map(([t, n]) => `"${t}" (${n} edge${n === 1 ? '' : 's'})`).join(', ') : 'none'}`);
+  const items: { what: string; edges: number; length: number }[] = [];
+  model.supports.forEach((s, i) => {
+    if (s.type === 'pin') {
+      items.push({ what: `support ${i + 1} (pin at (${s.at.join(', ')}))`, edges: 0, length: 0 });
+      return;
+    }
+    const { edges } = selectTarget(domain, s.on);
+    items.push({ what: `support ${i + 1} (${s.type})`, edges: edges.length, length: edges.reduce((a, id) => a + curveLength(domain.edges[id].curve), 0) });
+  });
+  model.loads.forEach((l, i) => {
+    if (!l.on) {
+      items.push({ what: `load ${i + 1} (${l.type}, on the outer edges)`, edges: 0, length: 0 });
+      return;
+    }
+    const { edges } = selectTarget(domain, l.on);
+    items.push({ what: `load ${i + 1} (${l.type})`, edges: edges.length, length: edges.reduce((a, id) => a + curveLength(domain.edges[id].curve), 0) });
+  });
+  for (const it of items) lines.push(`  ${it.what}${it.edges ? `: ${it.edges} edge${it.edges === 1 ? '' : 's'}, ${fmt(it.length)} ${u} long` : ''}`);
+  lines.push(`  mesh: ${mesh.nNodes} nodes, ${mesh.nElements} ${order === 2 ? 'quadratic triangles (6-node)' : 'linear triangles (3-node)'}, smallest angle ${stats.minAngleUnforcedDeg.toFixed(1)} deg`);
+  for (const w of warnings) lines.push(`  warning: ${w.message}`);
+  const written: string[] = [];
+  if (flags.out) {
+    prepareOutputDir(flags.out, ['mesh.png', 'mesh.svg'], flags.force ?? false);
+    const pic = drawGeometryPicture({
+      domain,
+      mesh,
+      title: model.title ?? file,
+      lines: [
+        `${drawing ? `from ${drawing.file}, ` : ''}${domain.loops.length - 1} holes, ${mesh.nElements} ${order === 2 ? '6-node' : '3-node'} triangles, ${mesh.nNodes} nodes; lengths in ${u}`,
+        'boundary coloured by tag (the names loads and supports select); not solved',
+      ],
+    });
+    writeAtomic(join(flags.out, 'mesh.png'), pic.png);
+    writeAtomic(join(flags.out, 'mesh.svg'), pic.svg);
+    written.push(join(flags.out, 'mesh.png'), join(flags.out, 'mesh.svg'));
+    lines.push('', `  wrote ${written.join(', ')}`);
+  }
+  const json = {
+    file,
+    drawing: drawing ? { file: drawing.file, format: drawing.format, unit: drawing.unit, joinTolerance: drawing.joinTolerance, notes: drawing.notes } : null,
+    loops: domain.loops.map((l) => ({ label: l.label, name: l.name ?? null, edges: l.edges.length, area: Math.abs(l.signedArea) })),
+    area: domain.area,
+    tags: Object.fromEntries(tags),
+    selections: items,
+    mesh: { nodes: mesh.nNodes, elements: mesh.nElements, order, minAngleDeg: stats.minAngleUnforcedDeg },
+    written,
+    warnings: warnings.map((w) => w.message),
+  };
+  return { text: lines.join('\n'), json };
+}
+
+export function meshCommand(program: Command, setCode: (c: number) => void): void {
+  program
+    .command('mesh')
+    .description('mesh a model without solving it: the geometry with its tags and the mesh, as a summary and (with -o) a picture')
+    .argument('<model>', 'model file (JSON)')
+    .option('-o, --out <dir>', 'write mesh.png and mesh.svg into this folder')
+    .option('--force', 'replace picture files that already exist in the output folder')
+    .addOption(new Option('--element <type>', 'element type, overriding the model file').choices(['linear', 'quadratic']))
+    .option('--json', 'print the summary as one JSON object on stdout, nothing else')
+    .action((file: string, flags: MeshFlags) => {
+      const r = runMesh(file, flags);
+      process.stdout.write((flags.json ? JSON.stringify(r.json, null, 2) : r.text) + '\n');
+      setCode(0);
+    });
+}
