@@ -50,7 +50,8 @@ describe('raiser solve', () => {
     expect(again.code).toBe(2);
     expect(again.stderr).toContain('--force');
     expect(raiser(['solve', 'examples/strap-bolt-hole.json', '-o', out, '--force']).code).toBe(0);
-    expect(readdirSync(out).sort()).toEqual(['nodes.csv', 'result.json']);
+    const pictures = ['contour', 'convergence', 'deformed', 'geometry', 'mesh', 'peak', 'section'].flatMap((n) => [`${n}.png`, `${n}.svg`]);
+    expect(readdirSync(out).sort()).toEqual([...pictures, 'nodes.csv', 'report.html', 'result.json', 'result.vtu', 'solution.raiser'].sort());
   });
 
   it('a missing file, malformed JSON and an invalid model exit with 2 and say where', () => {

@@ -19,6 +19,7 @@ import { chartsCommand } from './charts.js';
 import { sweepCommands } from './sweep.js';
 import { meshCommand } from './mesh.js';
 import { parseAccuracy } from './accuracy.js';
+import { addSolvePictureOptions, exportMatrixIfAsked, plotCommand, solveOutputOptions } from './plot.js';
 
 export const EXIT = { ok: 0, internal: 1, badInput: 2, cannotAnalyse: 3 } as const;
 
@@ -59,7 +60,8 @@ function runSolve(file: string, flags: SolveFlags): number {
   analysis.warnings.unshift(...warnings.map((w) => w.describe()));
   const result = buildResult(analysis, file, cert);
   let written: string[] = [];
-  if (flags.out) written = writeResultFiles(flags.out, analysis, result, flags.force ?? false);
+  if (flags.out) written = writeResultFiles(flags.out, analysis, result, flags.force ?? false, solveOutputOptions(flags));
+  written.push(...exportMatrixIfAsked(flags, analysis));
   if (flags.json) {
     process.stdout.write(JSON.stringify(result, null, 2) + '\n');
   } else {
@@ -109,7 +111,7 @@ export async function main(argv: string[]): Promise<number> {
     .option('--single-mesh', 'solve on one mesh only, without the convergence study (no error estimate)')
     .option('--max-memory <GB>', 'refuse models estimated to need more memory than this (default 60% of this machine)')
     .option('--json', 'print the result as one JSON object on stdout, nothing else')
-    .option('-o, --out <dir>', 'write result files (result.json, nodes.csv) into this folder')
+    .option('-o, --out <dir>', 'write result files (result.json, nodes.csv, the saved solution, VTU, pictures, report.html) into this folder')
     .option('--force', 'replace result files that already exist in the output folder')
     .addOption(new Option('--measure <measure>', 'stress measure for the peak and Kt').choices(STRESS_MEASURES as unknown as string[]))
     .addOption(new Option('--element <type>', 'element type, overriding the model file').choices(['linear', 'quadratic']))
@@ -122,6 +124,8 @@ export async function main(argv: string[]): Promise<number> {
   newCommand(program, (c) => (code = c));
   chartsCommand(program, (c) => (code = c));
   sweepCommands(program, (c) => (code = c));
+  addSolvePictureOptions(program.commands.find((c) => c.name() === 'solve')!);
+  plotCommand(program, (c) => (code = c));
   meshCommand(program, (c) => (code = c));
 
   program

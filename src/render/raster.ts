@@ -155,6 +155,26 @@ export class Raster {
     this.fillPath(paths, c, alpha);
   }
 
+  /** A thin antialiased line about one pixel wide (X. Wu, "An efficient antialiasing technique", SIGGRAPH 1991). */
+  line(x0: number, y0: number, x1: number, y1: number, c: readonly number[], alpha = 1): void {
+    const steep = Math.abs(y1 - y0) > Math.abs(x1 - x0);
+    if (steep) [x0, y0, x1, y1] = [y0, x0, y1, x1];
+    if (x0 > x1) [x0, y0, x1, y1] = [x1, y1, x0, y0];
+    const dx = x1 - x0;
+    const grad = dx === 0 ? 1 : (y1 - y0) / dx;
+    const plot = (x: number, y: number, a: number) => (steep ? this.blend(y, x, c, a * alpha) : this.blend(x, y, c, a * alpha));
+    const xs = Math.round(x0);
+    const xe = Math.round(x1);
+    let y = y0 + grad * (xs - x0);
+    for (let x = xs; x <= xe; x++) {
+      const fy = Math.floor(y);
+      const f = y - fy;
+      plot(x, fy, 1 - f);
+      plot(x, fy + 1, f);
+      y += grad;
+    }
+  }
+
   /**
    * Fills the triangle, calling colour(b0, b1, b2, out) with the barycentric coordinates of each
    * covered pixel centre; out receives r, g, b, and a coverage (0 skips the pixel).

@@ -9,6 +9,10 @@ import { InternalError, ModelError } from '../model/errors.js';
 import type { Analysis } from '../pipeline/analyse.js';
 import { measureField } from '../post/peak.js';
 import type { ResultJson } from './result.js';
+import { reportHtml } from './html.js';
+import { pictureFileNames, standardPictures, writePictures, type PictureOptions } from './pictures.js';
+import { encodeSaved, plotSource, SAVED_FILE, type PlotSource } from './saved.js';
+import { vtuText } from './vtu.js';
 
 export function writeAtomic(path: string, data: string | Uint8Array): void {
   const tmp = `${path}.raiser-tmp-${process.pid}`;
@@ -57,8 +61,28 @@ export function nodalCsv(a: Analysis): string {
 
 export const RESULT_FILES = ['result.json', 'nodes.csv'];
 
-export function writeResultFiles(dir: string, a: Analysis, result: ResultJson, force: boolean): string[] {
-  prepareOutputDir(dir, RESULT_FILES, force);
+export interface OutputOptions {
+  /** the pictures and the HTML report (default true) */
+  pictures?: boolean;
+  /** picture size, measure, range, window, mesh lines, iso-lines */
+  pictureOptions?: PictureOptions;
+  /** when the analysis ran (ISO 8601; default now) */
+  createdAt?: string;
+}
+
+/** Every file writeResultFiles writes with these options. */
+export function resultFileNames(result: ResultJson, opts: OutputOptions = {}): string[] {
+  const names = [...RESULT_FILES, SAVED_FILE, 'result.vtu'];
+  if (opts.pictures !== false) names.push(...pictureFileNames(result.convergence.meshes.length >= 2), 'report.html');
+  return names;
+}
+
+/**
+ * result.json, nodes.csv, the saved solution (for raiser plot), the VTU file, and unless
+ * opts.pictures is false the pictures (PNG and SVG) and the HTML report.
+ */
+export function writeResultFiles(dir: string, a: Analysis, result: ResultJson, force: boolean, opts: OutputOptions = {}): string[] {
+  prepareOutputDir(dir, resultFileNames(result, opts), force);
   const written: string[] = [];
   const json = join(dir, 'result.json');
   writeAtomic(json, JSON.stringify(result, null, 2) + '\n');
@@ -66,5 +90,24 @@ export function writeResultFiles(dir: string, a: Analysis, result: ResultJson, f
   const csv = join(dir, 'nodes.csv');
   writeAtomic(csv, nodalCsv(a));
   written.push(csv);
+  const src = plotSource(a, result, opts.createdAt);
+  const saved = join(dir, SAVED_FILE);
+  writeAtomic(saved, encodeSaved(src));
+  written.push(saved);
+  const vtu = join(dir, 'result.vtu');
+  writeAtomic(vtu, vtuText({ mesh: a.mesh, u: a.u, stress: a.stress, szzFactor: a.szzFactor, title: result.model.title ?? undefined }));
+  written.push(vtu);
+  if (opts.pictures !== false) written.push(...writePicturesAndReport(dir, src, opts.pictureOptions ?? {}));
+  return written;
+}
+
+/** The standard pictures and report.html from a solution (also what raiser plot redraws). */
+export function writePicturesAndReport(dir: string, src: PlotSource, pictureOptions: PictureOptions, report = true): string[] {
+  const { written, png } = writePictures(dir, standardPictures(src, pictureOptions));
+  if (report) {
+    const html = join(dir, 'report.html');
+    writeAtomic(html, reportHtml(src, png));
+    written.push(html);
+  }
   return written;
 }

@@ -1,0 +1,240 @@
+/**
+ * The report as one self-contained HTML file: every picture embedded as a data: URI, no
+ * scripts, no external style sheets or fonts, so it can be mailed, archived and printed as it
+ * is. The print style keeps figures and tables whole on a page and fits A4 and Letter alike
+ * (a text width of 180 mm fits both with 14 mm margins; no fixed page heights).
+ */
+import { describeSelector } from '../geometry/select.js';
+import type { Load, Selector, Support } from '../model/schema.js';
+import { formatValue } from '../render/ticks.js';
+import { measureName } from './pictures.js';
+import type { PlotSource } from './saved.js';
+
+function esc(t: unknown): string {
+  return String(t).replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
+}
+
+const f = (v: number | null | undefined, d = 4) => (v === null || v === undefined ? '-' : esc(formatValue(v, d)));
+const pct = (v: number | null | undefined, d = 2) => (v === null || v === undefined ? '-' : `${formatValue(100 * v, d)}%`);
+
+function target(on: Selector | Selector[] | undefined): string {
+  if (on === undefined) return 'the outer edges without a support';
+  return (Array.isArray(on) ? on : [on]).map(describeSelector).join(', ');
+}
+
+function describeLoad(l: Load, stress: string, force: string, moment: string): string {
+  switch (l.type) {
+    case 'traction':
+      return `traction on ${target(l.on)}: ${[l.normal !== undefined ? `normal ${f(l.normal)} ${stress}` : '', l.shear !== undefined ? `shear ${f(l.shear)} ${stress}` : ''].filter(Boolean).join(', ')}`;
+    case 'force':
+      return `force on ${target(l.on)}: ${[l.fx !== undefined ? `fx ${f(l.fx)} ${force}` : '', l.fy !== undefined ? `fy ${f(l.fy)} ${force}` : ''].filter(Boolean).join(', ')}`;
+    case 'moment':
+      return `moment on ${target(l.on)}: ${f(l.m)} ${moment}`;
+    case 'pressure':
+      return `pressure on ${target(l.on)}: ${f(l.p)} ${stress}`;
+    case 'remote':
+      return `remote stress on ${target(l.on)}: sxx ${f(l.sxx ?? 0)}, syy ${f(l.syy ?? 0)}, sxy ${f(l.sxy ?? 0)} ${stress}`;
+  }
+}
+
+function describeSupport(s: Support): string {
+  switch (s.type) {
+    case 'fixed':
+      return `fixed (both components held) on ${target(s.on)}`;
+    case 'roller':
+      return `roller holding ${s.fix} on ${target(s.on)}`;
+    case 'symmetry':
+      return `symmetry (normal displacement held) on ${target(s.on)}`;
+    case 'pin':
+      return `pin at (${s.at.join(', ')}) holding ${s.fix ?? 'xy'}`;
+  }
+}
+
+function figure(png: Map<string, Buffer>, name: string, caption: string): string {
+  const b = png.get(name);
+  if (!b) return '';
+  return `<figure id="fig-${name}"><img alt="${esc(caption)}" src="data:image/png;base64,${b.toString('base64')}"><figcaption>${esc(caption)}</figcaption></figure>`;
+}
+
+function rows(list: [string, string][]): string {
+  return list.map(([k, v]) => `<tr><th scope="row">${esc(k)}</th><td>${v}</td></tr>`).join('');
+}
+
+const STYLE = `
+:root { --ink: #1c1e26; --soft: #60646e; --rule: #d6d8dc; --accent: #c44e16; --band: #f3f1ec; --warn: #962819; }
+* { box-sizing: border-box; }
+body { margin: 0; color: var(--ink); font: 10.5pt/1.45 "DejaVu Sans", Verdana, sans-serif; background: #fff; }
+main { max-width: 180mm; margin: 0 auto; padding: 10mm 0 16mm; }
+header { border-bottom: 3px solid var(--ink); padding-bottom: 4mm; margin-bottom: 5mm; }
+header .kind { text-transform: uppercase; letter-spacing: 0.12em; font-size: 8.5pt; color: var(--soft); margin: 0; }
+h1 { font-size: 18pt; margin: 1mm 0 2mm; line-height: 1.2; }
+header p { margin: 0.5mm 0; color: var(--soft); }
+h2 { font-size: 12.5pt; margin: 8mm 0 2.5mm; padding-left: 3mm; border-left: 4px solid var(--accent); break-after: avoid; page-break-after: avoid; }
+.keys { display: grid; grid-template-columns: repeat(3, 1fr); gap: 3mm; margin: 4mm 0; }
+.key { background: var(--band); padding: 3mm 4mm; border-radius: 1.5mm; break-inside: avoid; }
+.key .label { font-size: 8.5pt; color: var(--soft); text-transform: uppercase; letter-spacing: 0.08em; }
+.key .value { font-size: 17pt; font-weight: bold; }
+.key .sub { font-size: 8.5pt; color: var(--soft); }
+.caution { border: 1.5px solid var(--warn); color: var(--warn); padding: 2.5mm 4mm; border-radius: 1.5mm; margin: 4mm 0; break-inside: avoid; }
+.caution ul { margin: 1mm 0 0; padding-left: 5mm; color: var(--ink); }
+table { border-collapse: collapse; width: 100%; margin: 2mm 0 3mm; break-inside: avoid; page-break-inside: avoid; font-size: 9.5pt; }
+th, td { text-align: left; padding: 1.2mm 2mm; border-bottom: 1px solid var(--rule); vertical-align: top; }
+thead th { border-bottom: 1.5px solid var(--ink); font-size: 8.5pt; text-transform: uppercase; letter-spacing: 0.05em; color: var(--soft); }
+tbody th { font-weight: normal; color: var(--soft); width: 38%; }
+td.num, th.num { text-align: right; font-variant-numeric: tabular-nums; }
+figure { margin: 3mm 0 5mm; break-inside: avoid; page-break-inside: avoid; }
+figure img { display: block; width: 100%; height: auto; border: 1px solid var(--rule); }
+figcaption { font-size: 8.5pt; color: var(--soft); margin-top: 1mm; }
+ul.plain { padding-left: 5mm; margin: 1mm 0; }
+footer { margin-top: 8mm; border-top: 1px solid var(--rule); padding-top: 2mm; font-size: 8.5pt; color: var(--soft); }
+@page { margin: 14mm; }
+@media print {
+  main { max-width: none; padding: 0; }
+  body { font-size: 9.5pt; }
+  h2 { margin-top: 6mm; }
+  .page { break-before: page; page-break-before: always; }
+}
+`;
+
+/** The report; `png` holds the pictures by name (contour, peak, mesh, deformed, geometry, section, convergence). */
+export function reportHtml(src: PlotSource, png: Map<string, Buffer>): string {
+  const r = src.result;
+  const m = src.model;
+  const u = r.units;
+  const title = r.model.title ?? 'Untitled model';
+  const date = src.createdAt.slice(0, 10);
+  const c = r.convergence;
+  const band = r.kt.error === null ? 'no error estimate (one mesh)' : `estimated error +-${pct(r.kt.error)}`;
+  const ktNet = r.kt.net === null ? 'none' : f(r.kt.net, 4);
+  const ktGross = r.kt.gross === null ? 'none' : f(r.kt.gross, 4);
+  const bandRange = (b: [number, number] | null) => (b ? `${f(b[0], 5)} to ${f(b[1], 5)}` : '-');
+  const parts: string[] = [];
+  parts.push(`<header><p class="kind">Stress concentration report</p><h1>${esc(title)}</h1>
+<p>Model file ${esc(r.model.file ?? '(not from a file)')}; analysed ${esc(date)} by raiser ${esc(r.tool.version)}.</p>
+${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
+  parts.push(`<section class="keys" aria-label="key results">
+<div class="key"><div class="label">Kt net</div><div class="value" id="kt-net">${ktNet}</div><div class="sub">${esc(band)}</div></div>
+<div class="key"><div class="label">Kt gross</div><div class="value" id="kt-gross">${ktGross}</div><div class="sub">${esc(band)}</div></div>
+<div class="key"><div class="label">Peak ${esc(measureName(r.peak.measure))}</div><div class="value">${f(r.peak.stress)} ${esc(u.stress)}</div><div class="sub">${esc(r.peak.feature)}</div></div>
+</section>`);
+  parts.push(`<div class="caution" role="note"><strong>Read before use.</strong> This is a linear elastic, small-strain analysis of the model as described. A peak above the yield strength means local plastic flow; Kt is not the fatigue factor Kf. The results must be checked by a qualified engineer under the applicable codes and standards before they are used for design. See the cautions at the end.</div>`);
+
+  parts.push('<h2>Inputs</h2>');
+  const mat = m.material;
+  parts.push(
+    `<table><tbody>${rows([
+      ['units', `${esc(u.length)}, ${esc(u.force)}; stress in ${esc(u.stress)}`],
+      ['state', esc(r.analysis.state.replace('-', ' '))],
+      ['thickness', `${f(r.analysis.thickness)} ${esc(u.length)}`],
+      ['material', esc(mat.name ?? 'unnamed')],
+      ["Young's modulus E", `${f(mat.E)} ${esc(u.stress)}`],
+      ["Poisson's ratio", f(mat.nu)],
+      ['yield strength', mat.yield === undefined ? 'not given' : `${f(mat.yield)} ${esc(u.stress)}`],
+      ['ultimate strength', mat.ultimate === undefined ? 'not given' : `${f(mat.ultimate)} ${esc(u.stress)}`],
+      ['stress measure', esc(measureName(r.analysis.measure))],
+      ['supports', `<ul class="plain">${m.supports.map((s) => `<li>${esc(describeSupport(s))}${s.note ? ` (${esc(s.note)})` : ''}</li>`).join('')}</ul>`],
+      ['loads', `<ul class="plain">${m.loads.map((l) => `<li>${esc(describeLoad(l, u.stress, u.force, u.moment))}${l.note ? ` (${esc(l.note)})` : ''}</li>`).join('')}</ul>`],
+    ])}</tbody></table>`,
+  );
+  parts.push(figure(png, 'geometry', 'Geometry with the net section (solid) and the gross section (dashed) on which the nominal stresses are taken, and the place of the peak.'));
+
+  parts.push('<h2>Mesh</h2>');
+  parts.push(
+    `<table><tbody>${rows([
+      ['elements', `${r.mesh.elements} ${r.mesh.elementType} triangles (${r.mesh.nodesPerElement}-node)`],
+      ['nodes', String(r.mesh.nodes)],
+      ['degrees of freedom', `${r.mesh.dofs} (${r.solver.equations} free)`],
+      ['smallest and largest angle', `${f(r.mesh.minAngleDeg, 3)} and ${f(r.mesh.maxAngleDeg, 3)} degrees`],
+      ['solver', `sparse Cholesky, ${esc(r.solver.ordering)} ordering, ${r.solver.factorNonzeros} nonzeros in the factor, relative residual ${esc(r.solver.relativeResidual.toExponential(1))}`],
+      ['equilibrium', `applied loads and reactions balance to ${esc(r.load.equilibriumError.toExponential(1))} of the load`],
+    ])}</tbody></table>`,
+  );
+  parts.push(figure(png, 'mesh', 'The final mesh of the series.'));
+
+  parts.push('<h2 class="page">Results</h2>');
+  const n = r.nominal;
+  parts.push(
+    `<table><thead><tr><th>quantity</th><th class="num">value</th><th>definition</th></tr></thead><tbody>
+<tr><td>peak ${esc(measureName(r.peak.measure))}</td><td class="num">${f(r.peak.stress)} ${esc(u.stress)}</td><td>at (${f(r.peak.x, 5)}, ${f(r.peak.y, 5)}) ${esc(u.length)}, ${esc(r.peak.feature)}; components sxx ${f(r.peak.sxx)}, syy ${f(r.peak.syy)}, sxy ${f(r.peak.sxy)}</td></tr>
+<tr><td>net nominal stress</td><td class="num">${f(n.stress)} ${esc(u.stress)}</td><td>${esc(n.definition)}; cut (${f(n.section.from[0], 5)}, ${f(n.section.from[1], 5)}) to (${f(n.section.to[0], 5)}, ${f(n.section.to[1], 5)}), material length ${f(n.section.length)} ${esc(u.length)}, ${n.kind === 'tension' ? `force ${f(n.section.force)} ${esc(u.force)}` : `moment ${f(n.section.moment)} ${esc(u.moment)}`}</td></tr>
+<tr><td>gross nominal stress</td><td class="num">${f(n.gross.stress)} ${esc(u.stress)}</td><td>${esc(n.gross.definition)}</td></tr>
+<tr><td><strong>Kt net</strong></td><td class="num"><strong>${ktNet}</strong></td><td>${esc(r.kt.netDefinition)}; band ${bandRange(r.kt.netBand)}; extrapolated ${f(r.kt.netExtrapolated, 5)}</td></tr>
+<tr><td><strong>Kt gross</strong></td><td class="num"><strong>${ktGross}</strong></td><td>${esc(r.kt.grossDefinition)}; band ${bandRange(r.kt.grossBand)}; extrapolated ${f(r.kt.grossExtrapolated, 5)}</td></tr>
+<tr><td>peak / yield</td><td class="num">${r.safety.peakOverYield === null ? '-' : pct(r.safety.peakOverYield, 3)}</td><td>${r.safety.localPlasticity ? '<strong>above yield: local plastic flow expected</strong>' : r.safety.yield === null ? 'no yield strength given' : 'below yield'}</td></tr>
+</tbody></table>`,
+  );
+  parts.push(figure(png, 'contour', `${measureName(r.peak.measure)} over the part, with iso-lines at the legend's values and the peak marked.`));
+  parts.push(figure(png, 'peak', 'Close-up of the peak region with the element edges.'));
+  parts.push(figure(png, 'section', 'Stress along the net section: the stress measure and the stress along the load direction, with the net nominal stress.'));
+  parts.push(figure(png, 'deformed', 'Deformed shape, displacements magnified by the factor printed on the picture.'));
+
+  parts.push('<h2 class="page">Convergence</h2>');
+  if (c.status === 'single-mesh') parts.push('<p>One mesh only: the discretisation error is not estimated. Solve without --single-mesh for a certified Kt.</p>');
+  else {
+    parts.push(
+      `<p>Status: <strong>${esc(c.status)}</strong>; target ${pct(c.target)}, estimated error ${pct(c.estimatedError)}; observed order ${f(c.observedOrder, 3)} (theory ${esc(c.theoreticalOrder)}), safety factor ${f(c.safetyFactor, 3)}; grid convergence index over the last three meshes.</p>`,
+    );
+    parts.push(
+      `<table id="convergence"><thead><tr><th class="num">DOF</th><th class="num">elements</th><th class="num">peak (${esc(u.stress)})</th><th class="num">Kt net</th><th class="num">Kt gross</th><th class="num">time (ms)</th></tr></thead><tbody>${c.meshes
+        .map((x) => `<tr><td class="num">${x.dofs}</td><td class="num">${x.elements}</td><td class="num">${f(x.peak, 6)}</td><td class="num">${f(x.ktNet, 5)}</td><td class="num">${f(x.ktGross, 5)}</td><td class="num">${f(x.timeMs, 3)}</td></tr>`)
+        .join('')}</tbody></table>`,
+    );
+    if (c.notes.length) parts.push(`<ul class="plain">${c.notes.map((x) => `<li>${esc(x)}</li>`).join('')}</ul>`);
+    parts.push(figure(png, 'convergence', 'Kt on each mesh of the series against the degrees of freedom, the error band on the finest mesh and the extrapolated values.'));
+  }
+
+  if (r.chart) {
+    const ch = r.chart;
+    parts.push('<h2>Comparison with a published chart</h2>');
+    parts.push(
+      `<table><tbody>${rows([
+        ['chart', `${esc(ch.title)} [${esc(ch.provenance)}]`],
+        ['source', esc(ch.source)],
+        [`chart Kt ${ch.nominal}`, f(ch.value, 4)],
+        [`computed Kt ${ch.nominal}`, f(ch.computed, 4)],
+        ['difference', ch.difference === null ? 'not comparable' : `${ch.difference >= 0 ? '+' : ''}${pct(ch.difference)} (the chart is good to about ${pct(ch.spread)})`],
+        ['range', ch.outside.length ? `outside the chart's range: ${esc(ch.outside.join('; '))}` : 'inside the chart\'s range'],
+      ])}</tbody></table>`,
+    );
+  }
+  if (r.fatigue) {
+    parts.push('<h2>Fatigue notch factor (estimate)</h2>');
+    parts.push(
+      `<table><thead><tr><th>method</th><th class="num">q</th><th class="num">Kf</th><th>source</th></tr></thead><tbody>${r.fatigue.methods
+        .map((x) => `<tr><td>${esc(x.name)}</td><td class="num">${f(x.q, 3)}</td><td class="num">${f(x.kf, 4)}</td><td>${esc(x.source)}</td></tr>`)
+        .join('')}</tbody></table><p>At the notch radius ${f(r.fatigue.radius, 4)} ${esc(u.length)}, from Kt net.</p>${r.fatigue.notes.length ? `<ul class="plain">${r.fatigue.notes.map((x) => `<li>${esc(x)}</li>`).join('')}</ul>` : ''}`,
+    );
+  }
+  if (r.warnings.length) {
+    parts.push('<h2>Warnings</h2>');
+    parts.push(`<ul class="plain" id="warnings">${r.warnings.map((w) => `<li>${esc(w)}</li>`).join('')}</ul>`);
+  }
+  parts.push('<h2>Cautions and assumptions</h2>');
+  parts.push(
+    `<div class="caution" id="cautions"><strong>Cautions</strong><ul>${r.cautions.map((x) => `<li>${esc(x)}</li>`).join('')}</ul></div>
+<ul class="plain">
+<li>Plane ${esc(r.analysis.state === 'plane-strain' ? 'strain' : 'stress')}, isotropic homogeneous material, one thickness; no through-thickness effects.</li>
+<li>Supports hold displacements at zero; loads act as described in the inputs. Contact at holes, friction and residual stresses are not modelled.</li>
+<li>Stresses are recovered nodal values (superconvergent patch recovery); the peak is searched on the boundary between nodes.</li>
+<li>The error band covers the discretisation only, not whether the model represents the real part.</li>
+<li>A peak at a sharp re-entrant corner has no converged value; model the real corner radius.</li>
+</ul>`,
+  );
+  parts.push(`<footer>Made by raiser ${esc(r.tool.version)} on ${esc(date)}. Colours: the batlow colour map (F. Crameri, Scientific colour maps, 2018). Text in the pictures: DejaVu Sans.</footer>`);
+  return `<!DOCTYPE html>
+<html lang="en">
+<head>
+<meta charset="utf-8">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<meta name="generator" content="raiser ${esc(r.tool.version)}">
+<title>${esc(title)}: stress concentration report</title>
+<style>${STYLE}</style>
+</head>
+<body>
+<main>
+${parts.filter(Boolean).join('\n')}
+</main>
+</body>
+</html>
+`;
+}
