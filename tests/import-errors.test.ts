@@ -7,6 +7,7 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { buildDomain } from '../src/geometry/domain.js';
+import { attachedDrawing } from '../src/geometry/import/index.js';
 import { ModelError } from '../src/model/errors.js';
 import { loadModelText, parseModelText } from '../src/model/load.js';
 
@@ -102,5 +103,52 @@ describe('bad drawings', () => {
     const { model, warnings } = load({ from: 'px.svg' }, dir);
     expect(warnings.map((w) => w.message).join('\n')).toMatch(/no physical size.*1\/96 in/);
     expect(Math.abs(buildDomain(model.geometry).area)).toBeCloseTo(25.4 * 12.7, 9);
+  });
+});
+
+describe('drawings with the usual flaws of real ones', () => {
+  const dxfOf = (entities: string[]) =>
+    ['999', 'invented test drawing', '0', 'SECTION', '2', 'HEADER', '9', '$INSUNITS', '70', '4', '0', 'ENDSEC', '0', 'SECTION', '2', 'ENTITIES', ...entities, '0', 'ENDSEC', '0', 'EOF', ''].join('\n');
+  const line = (layer: string, x0: number, y0: number, x1: number, y1: number) => ['0', 'LINE', '8', layer, '10', `${x0}`, '20', `${y0}`, '30', '0', '11', `${x1}`, '21', `${y1}`, '31', '0'];
+  const rect = [...line('A', 0, 0, 50, 0), ...line('A', 50, 0, 50, 20), ...line('A', 50, 20, 0, 20), ...line('A', 0, 20, 0, 0)];
+  it('a line drawn twice is left out once, and said so', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'raiser-import-'));
+    writeFileSync(join(dir, 'dup.dxf'), dxfOf([...rect, ...line('A', 50, 20, 50, 0)]));
+    const { model } = load({ from: 'dup.dxf' }, dir);
+    const d = buildDomain(model.geometry);
+    expect(Math.abs(d.area)).toBeCloseTo(1000, 9);
+    expect(d.edges.length).toBe(4);
+    const g = model.geometry;
+    expect('from' in g && attachedDrawing(g)!.notes.join('\n')).toMatch(/1 duplicate entity \(the same curve drawn twice\) left out: LINE on layer "A"/);
+  });
+  it('three ends at one point are a branch, named with the entities that meet there', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'raiser-import-'));
+    writeFileSync(join(dir, 't.dxf'), dxfOf([...rect, ...line('CENTRE', 25, 0, 25, -10)]));
+    const e = errorOf({ from: 't.dxf' }, dir);
+    expect(e.message).toMatch(/open contour/);
+    expect(e.message).toMatch(/LINE on layer "CENTRE", handle \w+, from \(25, 0\) to \(25, -10\), meets no other piece at either end/);
+    expect(e.hint).toMatch(/"ignore"/);
+    writeFileSync(join(dir, 'branch.dxf'), dxfOf([...rect, ...line('X', 50, 20, 70, 20), ...line('X', 70, 20, 50, 0)]));
+    const b = errorOf({ from: 'branch.dxf' }, dir);
+    expect(b.message).toMatch(/3 pieces meet at \(50, 20\), where only two may/);
+  });
+  it('a curve whose control point sits on its end still makes a corner there, and an S curve is split at its inflection', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'raiser-import-'));
+    writeFileSync(
+      join(dir, 's.svg'),
+      '<svg xmlns="http://www.w3.org/2000/svg" width="40mm" height="20mm" viewBox="0 0 40 20"><!-- invented test drawing -->' +
+        '<path d="M0 20 V10 C 10 0 30 20 40 10 C 40 10 45 15 40 20 Z"/></svg>',
+    );
+    const d = buildDomain(load({ from: 's.svg' }, dir).model.geometry);
+    const curves = d.edges.filter((e) => e.curve.kind === 'bezier');
+    // The S cubic is split at t = 1/2, where it turns the other way; each piece bends one way.
+    expect(curves.length).toBe(3);
+    const mid = curves.find((e) => {
+      const c = e.curve as { p: number[] };
+      return Math.abs(c.p[0] - 20) < 1e-9 || Math.abs(c.p[c.p.length - 2] - 20) < 1e-9;
+    });
+    expect(mid).toBeDefined();
+    // The corner at (40, 10) between the S curve and the next one is found, though dp/dt of the next is zero there.
+    expect(d.corners.some((c) => Math.hypot(c.x - 40, c.y - 10) < 1e-12)).toBe(true);
   });
 });

@@ -119,7 +119,7 @@ function fmt(v: number): string {
 /** Reads a DXF document into pieces in model coordinates. */
 export function readDxf(text: string, opts: ReadOptions): ReadDrawing {
   if (text.startsWith('AutoCAD Binary DXF')) throw new DrawingError('this is a binary DXF file', 'save the drawing as ASCII DXF');
-  const lines = text.split(/\r?\n/);
+  const lines = text.split(/\r\n|\r|\n/);
   const parser = new DxfParser();
   for (const name of zeroNames(lines)) {
     if (STRUCTURE.has(name) || LIBRARY.has(name) || !/^[A-Z0-9_]+$/i.test(name)) continue;

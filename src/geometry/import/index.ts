@@ -241,7 +241,12 @@ function joinError(openEnds: OpenEnd[], branches: { x: number; y: number; pieces
     done.add(o);
     const n = o.nearest;
     const mate = n ? openEnds.find((q) => !done.has(q) && q.x === n.x && q.y === n.y && q.nearest && q.nearest.x === o.x && q.nearest.y === o.y) : undefined;
-    if (n && mate) {
+    const pieceLength = o.piece.curves.reduce((s, c) => s + curveLength(c.curve), 0);
+    if (n && mate && n.piece === o.piece && n.gap > 0.1 * pieceLength) {
+      // Not a loop left open but a loose piece, a centre line say.
+      done.add(mate);
+      lines.push(`${o.piece.origin}, from ${at(o.x, o.y)} to ${at(n.x, n.y)}, meets no other piece at either end`);
+    } else if (n && mate) {
       done.add(mate);
       widest = Math.max(widest, n.gap);
       lines.push(

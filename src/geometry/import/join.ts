@@ -72,17 +72,31 @@ export function joinPieces(pieces: readonly Piece[], tol: number): JoinResult {
   };
   const sigs: ReturnType<typeof sig>[] = [];
   const near = (x0: number, y0: number, x1: number, y1: number) => Math.hypot(x1 - x0, y1 - y0) <= tol;
+  // Candidates are found by the grid cell of their midpoint (and the cells around it).
+  const midCell = (x: number, y: number) => [Math.floor(x / (tol || 1)), Math.floor(y / (tol || 1))];
+  const byMid = new Map<string, number[]>();
   for (const p of open) {
     const s = sig(p);
-    const dup = kept.findIndex((q, i) => {
-      if (q.curves.length !== p.curves.length) return false;
-      const t = sigs[i];
-      const same = near(s.a[0], s.a[1], t.a[0], t.a[1]) && near(s.b[0], s.b[1], t.b[0], t.b[1]);
-      const rev = near(s.a[0], s.a[1], t.b[0], t.b[1]) && near(s.b[0], s.b[1], t.a[0], t.a[1]);
-      return (same || rev) && near(s.m[0], s.m[1], t.m[0], t.m[1]);
-    });
-    if (dup >= 0) duplicates.push(p);
+    const [cx, cy] = midCell(s.m[0], s.m[1]);
+    let dup = false;
+    for (let dx = -1; dx <= 1 && !dup; dx++) {
+      for (let dy = -1; dy <= 1 && !dup; dy++) {
+        for (const i of byMid.get(`${cx + dx},${cy + dy}`) ?? []) {
+          if (kept[i].curves.length !== p.curves.length) continue;
+          const t = sigs[i];
+          const same = near(s.a[0], s.a[1], t.a[0], t.a[1]) && near(s.b[0], s.b[1], t.b[0], t.b[1]);
+          const rev = near(s.a[0], s.a[1], t.b[0], t.b[1]) && near(s.b[0], s.b[1], t.a[0], t.a[1]);
+          if ((same || rev) && near(s.m[0], s.m[1], t.m[0], t.m[1])) {
+            dup = true;
+            break;
+          }
+        }
+      }
+    }
+    if (dup) duplicates.push(p);
     else {
+      const key = `${cx},${cy}`;
+      byMid.set(key, [...(byMid.get(key) ?? []), kept.length]);
       kept.push(p);
       sigs.push(s);
     }
@@ -136,7 +150,8 @@ export function joinPieces(pieces: readonly Piece[], tol: number): JoinResult {
       const i = list[0];
       let best = -1;
       let bd = Infinity;
-      for (let j = 0; j < 2 * n; j++) {
+      // The nearest other end is looked for only for the ends that are reported.
+      for (let j = 0; j < 2 * n && openEnds.length < 64; j++) {
         if (j === i) continue;
         const d = Math.hypot(ex[i] - ex[j], ey[i] - ey[j]);
         if (d < bd) ((bd = d), (best = j));
