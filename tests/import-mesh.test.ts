@@ -24,7 +24,7 @@ function modelFile(dir: string, geometry: object, loads: object[]): string {
 }
 
 describe('raiser mesh', () => {
-  it('prints the drawing, its loops, tags and what each load selects, and writes mesh.png and mesh.svg', () => {
+  it('prints the drawing, its loops, tags and what each load selects, and writes mesh-preview.png and mesh-preview.svg', () => {
     const dir = mkdtempSync(join(tmpdir(), 'raiser-mesh-'));
     const file = modelFile(dir, { from: join(MESHES, 'import-plate-hole.dxf') }, [{ type: 'traction', on: 'PULL', normal: 100 }]);
     const r = raiser(['mesh', file, '-o', join(dir, 'out')]);
@@ -34,9 +34,9 @@ describe('raiser mesh', () => {
     expect(r.stdout).toMatch(/1 hole, 5 edges \(4 lines, 1 arc\), area 9921\.5 mm\^2/);
     expect(r.stdout).toMatch(/tags: "EDGE" \(2 edges\), "PULL" \(2 edges\), "HOLE" \(1 edge\)/);
     expect(r.stdout).toMatch(/load 1 \(traction\): 2 edges, 100 mm long/);
-    const png = PNG.sync.read(readFileSync(join(dir, 'out', 'mesh.png')));
+    const png = PNG.sync.read(readFileSync(join(dir, 'out', 'mesh-preview.png')));
     expect(png.width).toBe(1600);
-    const svg = readFileSync(join(dir, 'out', 'mesh.svg'), 'utf8');
+    const svg = readFileSync(join(dir, 'out', 'mesh-preview.svg'), 'utf8');
     expect(svg).toMatch(/aria-label="PULL \(2 edges\)"/);
     expect(svg).toMatch(/aria-label="HOLE \(1 edge\)"/);
     // A second run keeps the pictures unless --force.

@@ -1,6 +1,6 @@
 /**
  * `raiser mesh <model> -o DIR`: the geometry (typed, or imported from a drawing) with its tags
- * and the mesh, as a picture (mesh.png, mesh.svg) and a summary, before anything is solved.
+ * and the mesh, as a picture (mesh-preview.png, mesh-preview.svg; the solution's own mesh.png is written by solve -o) and a summary, before anything is solved.
  * The mesh is the one `raiser solve --single-mesh` would use.
  */
 import { Option, type Command } from 'commander';
@@ -80,7 +80,7 @@ export function runMesh(file: string, flags: MeshFlags): { text: string; json: o
   for (const w of warnings) lines.push(`  warning: ${w.message}`);
   const written: string[] = [];
   if (flags.out) {
-    prepareOutputDir(flags.out, ['mesh.png', 'mesh.svg'], flags.force ?? false);
+    prepareOutputDir(flags.out, ['mesh-preview.png', 'mesh-preview.svg'], flags.force ?? false);
     const pic = drawGeometryPicture({
       domain,
       mesh,
@@ -90,9 +90,9 @@ export function runMesh(file: string, flags: MeshFlags): { text: string; json: o
         'boundary coloured by tag (the names loads and supports select); not solved',
       ],
     });
-    writeAtomic(join(flags.out, 'mesh.png'), pic.png);
-    writeAtomic(join(flags.out, 'mesh.svg'), pic.svg);
-    written.push(join(flags.out, 'mesh.png'), join(flags.out, 'mesh.svg'));
+    writeAtomic(join(flags.out, 'mesh-preview.png'), pic.png);
+    writeAtomic(join(flags.out, 'mesh-preview.svg'), pic.svg);
+    written.push(join(flags.out, 'mesh-preview.png'), join(flags.out, 'mesh-preview.svg'));
     lines.push('', `  wrote ${written.join(', ')}`);
   }
   const json = {
@@ -114,7 +114,7 @@ export function meshCommand(program: Command, setCode: (c: number) => void): voi
     .command('mesh')
     .description('mesh a model without solving it: the geometry with its tags and the mesh, as a summary and (with -o) a picture')
     .argument('<model>', 'model file (JSON)')
-    .option('-o, --out <dir>', 'write mesh.png and mesh.svg into this folder')
+    .option('-o, --out <dir>', 'write mesh-preview.png and mesh-preview.svg into this folder')
     .option('--force', 'replace picture files that already exist in the output folder')
     .addOption(new Option('--element <type>', 'element type, overriding the model file').choices(['linear', 'quadratic']))
     .option('--json', 'print the summary as one JSON object on stdout, nothing else')
