@@ -151,4 +151,15 @@ describe('drawings with the usual flaws of real ones', () => {
     // The corner at (40, 10) between the S curve and the next one is found, though dp/dt of the next is zero there.
     expect(d.corners.some((c) => Math.hypot(c.x - 40, c.y - 10) < 1e-12)).toBe(true);
   });
+  it('an SVG whose namespace is declared as an entity of its internal DTD subset is read', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'raiser-import-'));
+    writeFileSync(
+      join(dir, 'dtd.svg'),
+      '<?xml version="1.0"?>\n<!-- invented test drawing -->\n<!DOCTYPE svg PUBLIC "-//W3C//DTD SVG 1.1//EN" "svg11.dtd" [\n<!ENTITY ns_svg "http://www.w3.org/2000/svg">\n]>\n' +
+        '<svg xmlns="&ns_svg;" width="100mm" height="40mm" viewBox="0 0 100 40"><rect width="100" height="40"/><circle cx="50" cy="20" r="5"/></svg>',
+    );
+    const d = buildDomain(load({ from: 'dtd.svg' }, dir).model.geometry);
+    expect(d.loops.length).toBe(2);
+    expect(Math.abs(d.area)).toBeCloseTo(4000 - 25 * Math.PI, 9);
+  });
 });

@@ -45,6 +45,12 @@ function parseXml(text: string): XmlElement {
   parser.on('error', (e) => {
     failure ??= e;
   });
+  // Entities declared in the document's internal DTD subset (some drawing programs declare
+  // their namespaces that way) are given to the parser, which does not read DTDs itself.
+  parser.on('doctype', (dt) => {
+    const entities = (parser as unknown as { ENTITIES: Record<string, string> }).ENTITIES;
+    for (const m of dt.matchAll(/<!ENTITY\s+([^\s%]+)\s+(["'])([\s\S]*?)\2\s*>/g)) entities[m[1]] = m[3];
+  });
   parser.on('opentag', (tag: SaxesTagNS) => {
     const attrs = new Map<string, string>();
     let inkscapeLabel: string | undefined;
