@@ -86,7 +86,7 @@ export function runMesh(file: string, flags: MeshFlags): { text: string; json: o
       mesh,
       title: model.title ?? file,
       lines: [
-        `${drawing ? `from ${drawing.file}, ` : ''}${domain.loops.length - 1} holes, ${mesh.nElements} ${order === 2 ? '6-node' : '3-node'} triangles, ${mesh.nNodes} nodes; lengths in ${u}`,
+        `${drawing ? `from ${drawing.file}, ` : ''}${domain.loops.length - 1} hole${domain.loops.length === 2 ? '' : 's'}, ${mesh.nElements} ${order === 2 ? '6-node' : '3-node'} triangles, ${mesh.nNodes} nodes; lengths in ${u}`,
         'boundary coloured by tag (the names loads and supports select); not solved',
       ],
     });
