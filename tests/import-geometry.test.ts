@@ -11,7 +11,9 @@ import { validateDomain } from '../src/geometry/validate.js';
 import { evaluateCurve, curveAreaTerm, curveLength, curvatureRadius, curveConcavity, reverseCurve, subCurve, type Curve } from '../src/geometry/curve.js';
 import { nearestBoundaryPoint } from '../src/geometry/project.js';
 import { generateMesh } from '../src/mesh/generate.js';
-import { parseModelText } from '../src/model/load.js';
+import { loadModelText, parseModelText } from '../src/model/load.js';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { conicArc, mapCurve } from '../src/geometry/import/affine.js';
 
 const MESHES = join(import.meta.dirname, '..', 'meshes');
@@ -267,5 +269,50 @@ describe('meshes/import-bracket.dxf', () => {
   it('meshes the bracket with 6-node triangles of positive Jacobian (the mesh checker runs in generateMesh)', () => {
     const { mesh } = generateMesh(d, { order: 2, size: 4 });
     expect(mesh.nElements).toBeGreaterThan(100);
+  });
+});
+
+describe('more of the formats', () => {
+  const dir = mkdtempSync(join(tmpdir(), 'raiser-import-'));
+  const load = (file: string, extra: Record<string, unknown> = {}) =>
+    parseModelText(
+      JSON.stringify({ material: { E: 1, nu: 0.3 }, thickness: 1, geometry: { from: file, ...extra }, supports: [{ type: 'fixed', on: { outline: true } }], loads: [{ type: 'pressure', on: { outline: true }, p: 1 }] }),
+      join(dir, 'm.json'),
+    );
+  it('SVG: rotate about a centre and skewY keep areas, and an arc path command under them stays an exact conic', () => {
+    // A 40 x 20 plate; a hole of two half-ellipse arcs (rx 6, ry 3: area 18 pi) under rotate(25 20 10) skewY(15).
+    writeFileSync(
+      join(dir, 'rot.svg'),
+      '<svg xmlns="http://www.w3.org/2000/svg" width="40mm" height="20mm" viewBox="0 0 40 20"><!-- invented test drawing -->' +
+        '<rect width="40" height="20"/><path id="h" transform="rotate(25 20 10) skewY(15)" d="M14 10 a6 3 0 0 1 12 0 a6 3 0 0 1 -12 0 z"/></svg>',
+    );
+    const d = buildDomain(load('rot.svg').geometry);
+    expect(d.loops.length).toBe(2);
+    const hole = d.loops[1];
+    expect(hole.edges.length).toBe(1); // the two half arcs are one whole ellipse
+    expect(d.edges[hole.edges[0]].curve.kind).toBe('ellipse');
+    expect(rel(Math.abs(hole.signedArea), 18 * PI)).toBeLessThan(1e-9); // rotation and skew have determinant 1
+  });
+  it('DXF: a partial ELLIPSE, an ARC in a mirrored coordinate system, and a drawing without a unit (taken in the model unit, with a warning)', () => {
+    const g = (...p: (string | number)[]) => p.join('\n');
+    const ents = [
+      // outline: a half ellipse (a 20, b 10) from parameter 0 to pi, closed by a line
+      g(0, 'ELLIPSE', 8, 'P', 10, 0, 20, 0, 30, 0, 11, 20, 21, 0, 31, 0, 210, 0, 220, 0, 230, 1, 40, 0.5, 41, 0, 42, Math.PI),
+      g(0, 'LINE', 8, 'P', 10, -20, 20, 0, 30, 0, 11, 20, 21, 0, 31, 0),
+      // a hole: two half circles of radius 2 about (5, 4); the lower one drawn mirrored, about OCS (-5, 4) from 180 to 360 degrees
+      g(0, 'ARC', 8, 'H', 10, 5, 20, 4, 30, 0, 40, 2, 50, 0, 51, 180, 210, 0, 220, 0, 230, 1),
+      g(0, 'ARC', 8, 'H', 10, -5, 20, 4, 30, 0, 40, 2, 50, 180, 51, 360, 210, 0, 220, 0, 230, -1),
+    ];
+    writeFileSync(join(dir, 'e.dxf'), g(999, 'invented test drawing', 0, 'SECTION', 2, 'ENTITIES', ...ents, 0, 'ENDSEC', 0, 'EOF', ''));
+    const { model, warnings } = loadModelText(
+      JSON.stringify({ units: { length: 'in', force: 'lbf' }, material: { E: 3e7, nu: 0.3 }, thickness: 1, geometry: { from: 'e.dxf' }, supports: [{ type: 'fixed', on: 'P' }], loads: [{ type: 'pressure', on: 'H', p: 1 }] }),
+      join(dir, 'm.json'),
+    );
+    expect(warnings.map((w) => w.message).join()).toMatch(/declares no unit .* taken in in, the model's length unit/);
+    const d = buildDomain(model.geometry);
+    expect(rel(Math.abs(d.loops[0].signedArea), 0.5 * PI * 20 * 10)).toBeLessThan(1e-9);
+    // Mirrored, the second arc is the lower half about (5, 4) (read without the mirror it would lie about (-5, 4) and leave both open).
+    expect(rel(Math.abs(d.loops[1].signedArea), PI * 4)).toBeLessThan(1e-9);
+    expect(d.loops[1].edges.length).toBe(1);
   });
 });
