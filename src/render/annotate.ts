@@ -34,10 +34,14 @@ export interface LegendResult {
  * one; values beyond it take the end colours, shown by arrow heads on the bar).
  */
 export function drawLegend(s: Scene, col: Box, heading: string[], map: ColourMap, range: [number, number], field: [number, number], size: number): LegendResult {
-  const [x0, y0, , y1] = col;
+  const [x0, y0, x1, y1] = col;
   let y = y0 + capHeight(size * 1.05);
   for (const [i, line] of heading.entries()) {
-    addText(s, line, x0, y, i === 0 ? size * 1.05 : size, i === 0 ? INK : SOFT, { weight: i === 0 ? 'bold' : 'normal' });
+    // A heading wider than the column is set smaller rather than run past the picture's edge.
+    const want = i === 0 ? size * 1.05 : size;
+    const w = textWidth(line, want, i === 0 ? 'bold' : 'normal');
+    const fitted = w > x1 - x0 ? (want * (x1 - x0)) / w : want;
+    addText(s, line, x0, y, fitted, i === 0 ? INK : SOFT, { weight: i === 0 ? 'bold' : 'normal' });
     y += size * 1.45;
   }
   const maxLabel = `max ${formatValue(field[1])}`;

@@ -175,6 +175,18 @@ export function peakOf(src: PlotSource, measure: StressMeasure): { x: number; y:
   return { x: src.mesh.nodes[2 * best], y: src.mesh.nodes[2 * best + 1], value: sign * bv };
 }
 
+/**
+ * The picture height that suits the part's shape at width W when none is asked for: the part
+ * drawn across the width plus the title and footer, between 0.45 W (room for the legend) and 0.8 W.
+ */
+function autoHeight(W: number, win: readonly number[], withLegend: boolean): number {
+  const size = Math.max(11, Math.min(22, W / 1.6 / 58));
+  const drawW = W - 2.2 * size - (withLegend ? Math.max(size * 9, Math.min(W * 0.2, size * 12)) + size : 0) - 1.6 * size;
+  const aspect = Math.max(1e-6, (win[2] - win[0]) / Math.max(1e-300, win[3] - win[1]));
+  const chrome = size * 9.5;
+  return Math.round(Math.min(0.8 * W, Math.max(0.45 * W, chrome + drawW / aspect)));
+}
+
 function inflate(b: Box, d: number): Box {
   return [b[0] + d, b[1] + d, b[2] - d, b[3] - d];
 }
@@ -182,7 +194,8 @@ function inflate(b: Box, d: number): Box {
 /** The stress contour of a measure with legend, peak, scale bar, iso-lines and (optionally) mesh lines. */
 export function contourScene(src: PlotSource, opts: PictureOptions = {}, title?: string): Scene {
   const W = opts.width ?? 1600;
-  const H = opts.height ?? 1000;
+  const win = opts.window ?? bbox(src.mesh.nodes);
+  const H = opts.height ?? (opts.window ? 1000 : autoHeight(W, win, true));
   const measure = opts.measure ?? src.result.peak.measure;
   const unit = src.result.units.stress;
   const s = newScene(W, H, title ?? `${measureName(measure)}: ${src.result.model.title ?? 'raiser'}`);
@@ -194,7 +207,6 @@ export function contourScene(src: PlotSource, opts: PictureOptions = {}, title?:
   else dataRange[1] = Math.max(dataRange[1], peak.value);
   let range: [number, number] = opts.range ? [opts.range[0], opts.range[1]] : [dataRange[0], dataRange[1]];
   if (!(range[1] > range[0])) range = [range[0] - (Math.abs(range[0]) || 1) * 0.01, range[0] + (Math.abs(range[0]) || 1) * 0.01];
-  const win = opts.window ?? bbox(src.mesh.nodes);
   const view = fitView(win, inflate(fr.draw, fr.size * 0.8));
   const scale = { lo: range[0], hi: range[1], map: DEFAULT_MAP };
   s.items.push({ kind: 'layer', paint: (r, k) => paintField(r, src.mesh, view, field, scale, k), clip: fr.draw });
@@ -219,7 +231,7 @@ export function contourScene(src: PlotSource, opts: PictureOptions = {}, title?:
 /** The mesh: elements on a light plate, the outline, and the mesh figures. */
 export function meshScene(src: PlotSource, opts: PictureOptions = {}): Scene {
   const W = opts.width ?? 1600;
-  const H = opts.height ?? 1000;
+  const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), false);
   const r = src.result;
   const s = newScene(W, H, `mesh: ${r.model.title ?? 'raiser'}`);
   const fr = frame(s, src, `Mesh: ${r.model.title ?? ''}`.trim(), `${describeMesh(src)}, ${r.mesh.dofs} DOF, smallest angle ${formatValue(r.mesh.minAngleDeg, 3)} deg, largest ${formatValue(r.mesh.maxAngleDeg, 3)} deg`, false);
@@ -235,7 +247,7 @@ export function meshScene(src: PlotSource, opts: PictureOptions = {}): Scene {
 /** The deformed shape, displacements magnified by a round factor, coloured by displacement magnitude. */
 export function deformedScene(src: PlotSource, opts: PictureOptions = {}): Scene {
   const W = opts.width ?? 1600;
-  const H = opts.height ?? 1000;
+  const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), true);
   const r = src.result;
   let umax = 0;
   for (let i = 0; i < src.mesh.nNodes; i++) umax = Math.max(umax, Math.hypot(src.u[2 * i], src.u[2 * i + 1]));
@@ -311,7 +323,7 @@ export function closeupScene(src: PlotSource, opts: PictureOptions = {}): Scene 
 /** The geometry with the net and gross sections and the peak. */
 export function geometryScene(src: PlotSource, opts: PictureOptions = {}): Scene {
   const W = opts.width ?? 1600;
-  const H = opts.height ?? 1000;
+  const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), false) + 60;
   const r = src.result;
   const s = newScene(W, H, `geometry: ${r.model.title ?? 'raiser'}`);
   const fr = frame(s, src, `Geometry and nominal sections: ${r.model.title ?? ''}`.trim(), `net section (least material across the load) solid, gross section dashed; lengths in ${r.units.length}`, false);
