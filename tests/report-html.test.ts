@@ -1,0 +1,122 @@
+/**
+ * The HTML report opened in a real browser: Debian's chromium, driven by playwright-core
+ * (no browser download). The set-up installs chromium with apt-get when /usr/bin/chromium is
+ * missing and the machine allows it; otherwise the test is skipped and says why.
+ */
+import { describe, expect, it, beforeAll, afterAll } from 'vitest';
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { PNG } from 'pngjs';
+import { loadModelFile } from '../src/model/load.js';
+import { certifyModel } from '../src/pipeline/certify.js';
+import { buildResult } from '../src/report/result.js';
+import { writeResultFiles } from '../src/report/files.js';
+
+const CHROMIUM = '/usr/bin/chromium';
+
+/** Installs Debian's chromium if it is missing; returns why it cannot be had, or null. */
+function ensureChromium(): string | null {
+  if (existsSync(CHROMIUM)) return null;
+  const apt = spawnSync('sh', ['-c', 'command -v apt-get'], { encoding: 'utf8' });
+  if (apt.status !== 0) return 'no apt-get on this machine to install chromium';
+  if (typeof process.getuid === 'function' && process.getuid() !== 0) return 'not root: cannot apt-get install chromium';
+  const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
+  spawnSync('apt-get', ['update'], { stdio: 'ignore', env, timeout: 300_000 });
+  const r = spawnSync('apt-get', ['install', '-y', '--no-install-recommends', 'chromium'], { stdio: 'ignore', env, timeout: 600_000 });
+  if (r.status !== 0 || !existsSync(CHROMIUM)) return `apt-get install -y chromium failed (exit ${r.status})`;
+  return null;
+}
+
+const missing = ensureChromium();
+if (missing) process.stderr.write(`report-html.test.ts: skipped, headless Chromium is not available: ${missing}\n`);
+
+describe.skipIf(missing !== null)('HTML report in headless Chromium', () => {
+  const dir = mkdtempSync(join(tmpdir(), 'raiser-html-'));
+  let ctx: import('playwright-core').BrowserContext;
+  let result: ReturnType<typeof buildResult>;
+
+  beforeAll(async () => {
+    const { model } = loadModelFile('examples/strap-bolt-hole.json');
+    const cert = certifyModel(model, { target: 0.02 });
+    result = buildResult(cert.analysis, 'examples/strap-bolt-hole.json', cert);
+    writeResultFiles(dir, cert.analysis, result, false, { createdAt: '2024-03-04T05:06:07Z', pictureOptions: { width: 1000, height: 640 } });
+    const { chromium } = await import('playwright-core');
+    ctx = await chromium.launchPersistentContext(mkdtempSync(join(tmpdir(), 'raiser-chromium-')), {
+      executablePath: CHROMIUM,
+      headless: true,
+      args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+      viewport: { width: 1000, height: 1400 },
+    });
+  });
+
+  afterAll(async () => {
+    await ctx?.close();
+  });
+
+  it('opens as one self-contained file: every picture an embedded image that loads, nothing fetched', async () => {
+    const page = await ctx.newPage();
+    const requests: string[] = [];
+    page.on('request', (r) => requests.push(r.url()));
+    await page.goto('file://' + join(dir, 'report.html'));
+    // Page expressions are strings: the test project is compiled without the DOM types.
+    const images = (await page.evaluate('Array.from(document.images).map((i) => ({ src: i.src.slice(0, 22), ok: i.complete && i.naturalWidth > 0, w: i.naturalWidth }))')) as { src: string; ok: boolean; w: number }[];
+    expect(images.length).toBe(7);
+    for (const im of images) {
+      expect(im.src).toBe('data:image/png;base64,');
+      expect(im.ok).toBe(true);
+    }
+    expect(requests.filter((u) => !u.startsWith('data:') && !u.startsWith('file:'))).toEqual([]);
+    const shot = PNG.sync.read(await page.screenshot({ fullPage: false }));
+    expect([shot.width, shot.height]).toEqual([1000, 1400]);
+    // Not a blank page: the screenshot has dark text pixels and the light result cards.
+    let dark = 0;
+    for (let i = 0; i < shot.width * shot.height; i++) if (shot.data[4 * i] < 80) dark++;
+    expect(dark).toBeGreaterThan(2000);
+    await page.close();
+  });
+
+  it('states the inputs, Kt net and gross with the band, the mesh, the convergence table and the cautions', async () => {
+    const page = await ctx.newPage();
+    await page.goto('file://' + join(dir, 'report.html'));
+    const text = (await page.evaluate('document.body.innerText')) as string;
+    expect(text).toContain('Lifting strap with an off-centre bolt hole');
+    expect(await page.textContent('#kt-net')).toBe(Number(result.kt.net!.toPrecision(4)).toString());
+    expect(await page.textContent('#kt-gross')).toBe(Number(result.kt.gross!.toPrecision(4)).toString());
+    expect(text).toMatch(/estimated error \+-\d/);
+    expect(text).toContain('210000 MPa');
+    expect(text).toContain('force on tag "pulled end": fx 40000 N');
+    expect(text).toContain(`${result.mesh.elements} quadratic triangles (6-node)`);
+    const convRows = await page.$$eval('#convergence tbody tr', (r) => r.length);
+    expect(convRows).toBe(result.convergence.meshes.length);
+    for (const c of result.cautions) expect(text).toContain(c);
+    expect(text).toContain('qualified engineer');
+    expect(text).toContain('Kf');
+    expect(text).toContain('2024-03-04');
+    await page.close();
+  });
+
+  it('prints to A4 and to Letter', async () => {
+    const page = await ctx.newPage();
+    await page.goto('file://' + join(dir, 'report.html'));
+    for (const format of ['A4', 'Letter'] as const) {
+      const pdf = await page.pdf({ format });
+      expect(pdf.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+      const pages = (pdf.toString('latin1').match(/\/Type\s*\/Page\b/g) ?? []).length;
+      expect(pages).toBeGreaterThanOrEqual(3);
+      expect(pages).toBeLessThan(15);
+    }
+    // Wide content never overflows the printed width: no element is wider than the page body.
+    await page.emulateMedia({ media: 'print' });
+    const overflow = (await page.evaluate('document.documentElement.scrollWidth - document.documentElement.clientWidth')) as number;
+    expect(overflow).toBeLessThanOrEqual(0);
+    await page.close();
+  });
+
+  it('is written beside the pictures it embeds', () => {
+    const html = readFileSync(join(dir, 'report.html'), 'utf8');
+    const contour = readFileSync(join(dir, 'contour.png')).toString('base64');
+    expect(html).toContain(contour);
+  });
+});
