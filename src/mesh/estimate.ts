@@ -7,18 +7,12 @@
  * that could not fit in memory up front, so it aims at a factor of two, not at a count.
  */
 import type { Domain } from '../geometry/domain.js';
-import { pointInLoop } from '../geometry/intersect.js';
 import { traceLoops } from '../geometry/validate.js';
 import type { SizeField } from './sizefield.js';
 
 export function estimateTriangles(domain: Domain, size: SizeField, maxCells = 200_000): number {
-  const trace = traceLoops(domain);
-  const inside = (x: number, y: number) => {
-    if (!pointInLoop(trace, 0, x, y)) return false;
-    for (let l = 1; l < domain.loops.length; l++) if (pointInLoop(trace, l, x, y)) return false;
-    return true;
-  };
   const [x0, y0, x1, y1] = domain.bbox;
+  const inside = insideGrid(domain, 256);
   const side = Math.max(x1 - x0, y1 - y0);
   const g = size.grading;
   const perArea = 4 / Math.sqrt(3);
@@ -50,6 +44,42 @@ export function estimateTriangles(domain: Domain, size: SizeField, maxCells = 20
     total += (frac * s * s * perArea) / (h * h);
   }
   return total;
+}
+
+/**
+ * Which cells of an n x n grid over the bounding box lie in the material, by scanlines through
+ * the cell centres (even-odd crossings of the traced boundary); returns a lookup by position.
+ */
+function insideGrid(domain: Domain, n: number): (x: number, y: number) => boolean {
+  const { xy, segs } = traceLoops(domain);
+  const [x0, y0, x1, y1] = domain.bbox;
+  const dx = (x1 - x0) / n || 1;
+  const dy = (y1 - y0) / n || 1;
+  const cell = new Uint8Array(n * n);
+  const xs: number[] = [];
+  for (let j = 0; j < n; j++) {
+    const y = y0 + (j + 0.5) * dy;
+    xs.length = 0;
+    for (let s = 0; s < segs.length / 2; s++) {
+      const a = segs[2 * s];
+      const b = segs[2 * s + 1];
+      const ay = xy[2 * a + 1];
+      const by = xy[2 * b + 1];
+      if (ay > y === by > y) continue;
+      xs.push(xy[2 * a] + ((y - ay) / (by - ay)) * (xy[2 * b] - xy[2 * a]));
+    }
+    xs.sort((p, q) => p - q);
+    for (let k = 0; k + 1 < xs.length; k += 2) {
+      const i0 = Math.max(0, Math.ceil((xs[k] - x0) / dx - 0.5));
+      const i1 = Math.min(n - 1, Math.floor((xs[k + 1] - x0) / dx - 0.5));
+      for (let i = i0; i <= i1; i++) cell[j * n + i] = 1;
+    }
+  }
+  return (x, y) => {
+    const i = Math.floor((x - x0) / dx);
+    const j = Math.floor((y - y0) / dy);
+    return i >= 0 && j >= 0 && i < n && j < n && cell[j * n + i] === 1;
+  };
 }
 
 /** Rough peak memory of a whole analysis (mesh, assembly, sparse Cholesky, recovery), bytes. */
