@@ -133,7 +133,7 @@ export function paintField(r: Raster, mesh: DrawMesh, view: View, field: FieldSp
   const per = mesh.order === 2 ? 6 : 3;
   const lut = colourLut(scale.map, 1024);
   const span = scale.hi - scale.lo;
-  const inv = span > 0 ? 1023 / span : 0;
+  const inv1023 = span > 0 ? 1023 / span : 0;
   const N = new Float64Array(6);
   const comp = new Float64Array(field.stride);
   const local = new Float64Array(per * field.stride);
@@ -229,14 +229,42 @@ export function paintField(r: Raster, mesh: DrawMesh, view: View, field: FieldSp
     const eb = gridEta[b];
     const ec = gridEta[c];
     const stride = field.stride;
+    const inv = 1 / det;
+    // b1 and b2 are affine in the pixel centre: b = k0 + kx cx + ky cy.
+    const b1x = (y2 - y0) * inv;
+    const b1y = -(x2 - x0) * inv;
+    const b1c = -(x0 * (y2 - y0) - (x2 - x0) * y0) * inv;
+    const b2x = -(y1 - y0) * inv;
+    const b2y = (x1 - x0) * inv;
+    const b2c = -((x1 - x0) * y0 - x0 * (y1 - y0)) * inv;
+    const eps = -1e-9;
     for (let py = minY; py <= maxY; py++) {
       const cy = py + 0.5;
-      for (let px = minX; px <= maxX; px++) {
+      // The span of pixel centres on this row with b0, b1, b2 >= eps (each affine in cx).
+      let lo = minX + 0.5;
+      let hi = maxX + 0.5;
+      const a1 = b1c + b1y * cy;
+      const a2 = b2c + b2y * cy;
+      const a0 = 1 - a1 - a2;
+      const b0x = -b1x - b2x;
+      for (const [a, k] of [
+        [a0, b0x],
+        [a1, b1x],
+        [a2, b2x],
+      ]) {
+        if (k > 0) lo = Math.max(lo, (eps - a) / k);
+        else if (k < 0) hi = Math.min(hi, (eps - a) / k);
+        else if (a < eps) hi = -Infinity;
+      }
+      const pxStart = Math.max(minX, Math.ceil(lo - 0.5));
+      const pxEnd = Math.min(maxX, Math.floor(hi - 0.5));
+      for (let px = pxStart; px <= pxEnd; px++) {
         const cx = px + 0.5;
-        const b1 = ((cx - x0) * (y2 - y0) - (x2 - x0) * (cy - y0)) / det;
-        const b2 = ((x1 - x0) * (cy - y0) - (cx - x0) * (y1 - y0)) / det;
+        let b1 = a1 + b1x * cx;
+        let b2 = a2 + b2x * cx;
+        if (b1 < 0) b1 = 0;
+        if (b2 < 0) b2 = 0;
         const b0 = 1 - b1 - b2;
-        if (b0 < -1e-9 || b1 < -1e-9 || b2 < -1e-9) continue;
         const xi = b0 * xa + b1 * xb + b2 * xc;
         const eta = b0 * ea + b1 * eb + b2 * ec;
         shape(mesh.order, xi, eta, N);
@@ -246,7 +274,7 @@ export function paintField(r: Raster, mesh: DrawMesh, view: View, field: FieldSp
           comp[q] = v;
         }
         const val = field.value(comp);
-        let t = Math.round((val - scale.lo) * inv);
+        let t = Math.round((val - scale.lo) * inv1023);
         if (!(t >= 0)) t = 0;
         else if (t > 1023) t = 1023;
         const o = 4 * (py * W + px);
