@@ -1,17 +1,14 @@
 /**
  * Draws the README's pictures from the bundled invented example (examples/strap-bolt-hole.json,
- * certified to 1%) into docs/pictures/ (PNG, 1200 pixels wide), with the report beside them:
+ * certified to 1%) into docs/pictures/ (PNG, 1200 pixels wide):
  *   npm run build && node dist/report/write-pictures.js [folder] [date YYYY-MM-DD]
  * The date printed on the pictures is the second argument (default today), so a rerun on
  * another day can reproduce the committed files exactly.
  */
 import { mkdirSync } from 'node:fs';
-import { join } from 'node:path';
 import { loadModelFile } from '../model/load.js';
 import { certifyModel } from '../pipeline/certify.js';
 import { buildResult } from './result.js';
-import { writeAtomic } from './files.js';
-import { reportHtml } from './html.js';
 import { standardPictures, writePictures } from './pictures.js';
 import { plotSource } from './saved.js';
 
@@ -22,7 +19,5 @@ const { model } = loadModelFile(file);
 const cert = certifyModel(model, { target: 0.01 });
 const src = plotSource(cert.analysis, buildResult(cert.analysis, file, cert), `${day}T00:00:00.000Z`);
 mkdirSync(dir, { recursive: true });
-const { written, png } = writePictures(dir, standardPictures(src, { width: 1200 }), ['png']);
-const html = join(dir, 'report.html');
-writeAtomic(html, reportHtml(src, png));
-process.stdout.write(`wrote ${[...written, html].join(', ')}\n`);
+const { written } = writePictures(dir, standardPictures(src, { width: 1200 }), ['png']);
+process.stdout.write(`wrote ${written.join(', ')}\n`);
