@@ -18,6 +18,7 @@ import { newCommand } from './new.js';
 import { chartsCommand } from './charts.js';
 import { sweepCommands } from './sweep.js';
 import { meshCommand } from './mesh.js';
+import { benchSolveCommand } from './bench-solve.js';
 import { parseAccuracy } from './accuracy.js';
 import { addSolvePictureOptions, exportMatrixIfAsked, plotCommand, solveOutputOptions } from './plot.js';
 
@@ -127,6 +128,7 @@ export async function main(argv: string[]): Promise<number> {
   addSolvePictureOptions(program.commands.find((c) => c.name() === 'solve')!);
   plotCommand(program, (c) => (code = c));
   meshCommand(program, (c) => (code = c));
+  benchSolveCommand(program, (c) => (code = c));
 
   program
     .command('verify')

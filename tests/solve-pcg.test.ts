@@ -1,0 +1,167 @@
+import { describe, it, expect } from 'vitest';
+import { adjacencyGraph, assembleSymmetric, multiplySymmetric } from '../src/solve/sparse.js';
+import { orderAmd, orderNatural } from '../src/solve/ordering.js';
+import { factorIncompleteCholesky, applyIncompleteCholesky, IncompleteCholeskyError } from '../src/solve/ic.js';
+import { solvePcg, PcgError } from '../src/solve/pcg.js';
+import { analyzeCholesky } from '../src/solve/cholesky.js';
+import { estimateFactorBytes, solveSpd } from '../src/solve/index.js';
+import { cantileverProblem, gridLaplacian, randomSpd, randomVector, relativeMaxDifference } from '../src/solve/testing.js';
+
+describe('incomplete Cholesky IC(p)', () => {
+  it('with an unlimited fill level equals the complete factor: PCG converges in one iteration', () => {
+    const p = cantileverProblem(8, 4, 2);
+    const ic = factorIncompleteCholesky(p.matrix, orderAmd(adjacencyGraph(p.matrix)), { fillLevel: 240 });
+    const b = randomVector(p.matrix.n, 5);
+    const r = solvePcg(ic, b);
+    expect(r.iterations).toBe(1);
+    expect(r.relativeResidual).toBeLessThan(1e-12);
+  });
+
+  it('IC(0) keeps exactly the pattern of A, and more fill levels keep more entries', () => {
+    const a = gridLaplacian(7, 6);
+    const ord = orderNatural(a.n);
+    const nnz = [0, 1, 2, 3].map((p) => factorIncompleteCholesky(a, ord, { fillLevel: p }).nnz);
+    expect(nnz[0]).toBe(a.colPtr[a.n]);
+    for (let k = 1; k < nnz.length; k++) expect(nnz[k]).toBeGreaterThan(nnz[k - 1]);
+  });
+
+  it('IC(0) of the 5-point Laplacian in natural order matches the recurrence of Meijerink and van der Vorst', () => {
+    // For the 5-point stencil IC(0) has no fill, and the pivots obey
+    // d_j = a_jj - (a_j,j-1)^2 / d_(j-1) - (a_j,j-nx)^2 / d_(j-nx) on the unit-diagonal matrix.
+    const nx = 5;
+    const a = gridLaplacian(nx, 4);
+    const ic = factorIncompleteCholesky(a, orderNatural(a.n), { fillLevel: 0 });
+    const d = new Float64Array(a.n);
+    for (let j = 0; j < a.n; j++) {
+      let v = 1;
+      if (j % nx > 0) v -= 0.0625 / d[j - 1];
+      if (j >= nx) v -= 0.0625 / d[j - nx];
+      d[j] = v;
+    }
+    for (let j = 0; j < a.n; j++) expect(ic.values[ic.colPtr[j]] ** 2).toBeCloseTo(d[j], 14);
+  });
+
+  it('applies (L L^T)^-1: L L^T z reproduces r on the complete factor', () => {
+    const a = randomSpd(30, 0.2, 4);
+    const ic = factorIncompleteCholesky(a, orderNatural(a.n), { fillLevel: 240 });
+    const r = randomVector(a.n, 9);
+    const z = new Float64Array(a.n);
+    applyIncompleteCholesky(ic, r, z);
+    const back = new Float64Array(a.n);
+    multiplySymmetric(ic.scaled, z, back);
+    expect(relativeMaxDifference(back, r)).toBeLessThan(1e-12);
+  });
+
+  it('refuses a matrix with a non-positive diagonal entry, naming it', () => {
+    const a = assembleSymmetric(2, Int32Array.of(0, 1), Int32Array.of(0, 1), Float64Array.of(1, -2), 'triangle');
+    expect(() => factorIncompleteCholesky(a, orderNatural(2))).toThrow(IncompleteCholeskyError);
+    expect(() => factorIncompleteCholesky(a, orderNatural(2))).toThrow(/not positive definite/);
+  });
+});
+
+describe('preconditioned conjugate gradient', () => {
+  it('agrees with the direct solve on a plane-stress stiffness matrix to the tolerance', () => {
+    const p = cantileverProblem(30, 15, 11);
+    const b = randomVector(p.matrix.n, 3);
+    const direct = solveSpd(p.matrix, b, { method: 'cholesky' });
+    const iter = solveSpd(p.matrix, b, { method: 'pcg' });
+    expect(direct.stats.method).toBe('cholesky');
+    expect(iter.stats.method).toBe('pcg');
+    expect(iter.factor).toBeNull();
+    expect(iter.stats.relativeResidual).toBeLessThanOrEqual(1e-10);
+    expect(iter.stats.iterations).toBeGreaterThan(1);
+    // ||x - x*|| <= cond(A) ||r|| / ||b|| ||x*||; the tolerance and this matrix's conditioning leave about 1e-6
+    expect(relativeMaxDifference(iter.x, direct.x)).toBeLessThan(1e-6);
+  });
+
+  it('solves several right-hand sides and sums their iterations', () => {
+    const p = cantileverProblem(10, 5, 1);
+    const n = p.matrix.n;
+    const b = new Float64Array(2 * n);
+    b.set(randomVector(n, 1));
+    b.set(randomVector(n, 2), n);
+    const one = solveSpd(p.matrix, b.subarray(0, n), { method: 'pcg' });
+    const two = solveSpd(p.matrix, b, { method: 'pcg' });
+    expect(two.stats.iterations).toBeGreaterThan(one.stats.iterations);
+    expect(two.stats.relativeResidual).toBeLessThanOrEqual(1e-10);
+    expect(Array.from(two.x.subarray(0, n))).toEqual(Array.from(one.x));
+  });
+
+  it('needs far fewer iterations with IC(5) than with IC(0)', () => {
+    const p = cantileverProblem(40, 20, 4);
+    const b = randomVector(p.matrix.n, 8);
+    const it0 = solveSpd(p.matrix, b, { method: 'pcg', pcg: { fillLevel: 0 } }).stats.iterations;
+    const it5 = solveSpd(p.matrix, b, { method: 'pcg', pcg: { fillLevel: 5 } }).stats.iterations;
+    expect(it5).toBeLessThan(0.6 * it0);
+  });
+
+  it('an indefinite matrix gives a clear error, not a result', () => {
+    // positive diagonal, but [[1, 2], [2, 1]] blocks have eigenvalue -1
+    const m = 20;
+    const rows: number[] = [];
+    const cols: number[] = [];
+    const vals: number[] = [];
+    for (let i = 0; i < m; i++) {
+      rows.push(i);
+      cols.push(i);
+      vals.push(1);
+      if (i % 2 === 1) {
+        rows.push(i);
+        cols.push(i - 1);
+        vals.push(2);
+      }
+    }
+    const a = assembleSymmetric(m, Int32Array.from(rows), Int32Array.from(cols), Float64Array.from(vals), 'triangle');
+    const b = randomVector(m, 1);
+    let err: unknown;
+    try {
+      solveSpd(a, b, { method: 'pcg', pcg: { fillLevel: 0 } });
+    } catch (e) {
+      err = e;
+    }
+    expect(err instanceof PcgError || err instanceof IncompleteCholeskyError).toBe(true);
+    expect((err as Error).message).toMatch(/not positive definite/);
+  });
+
+  it('the iteration limit gives a not-converged error with the residual reached', () => {
+    const p = cantileverProblem(20, 10, 2);
+    const b = randomVector(p.matrix.n, 4);
+    let err: unknown;
+    try {
+      solveSpd(p.matrix, b, { method: 'pcg', pcg: { fillLevel: 0, maxIterations: 3 } });
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(PcgError);
+    const pe = err as PcgError;
+    expect(pe.reason).toBe('not-converged');
+    expect(pe.iterations).toBe(3);
+    expect(pe.relativeResidual).toBeGreaterThan(1e-10);
+    expect(pe.message).toMatch(/did not reach/);
+  });
+});
+
+describe('automatic choice between Cholesky and PCG', () => {
+  it('switches to PCG exactly when the estimated factor memory exceeds maxFactorBytes', () => {
+    const p = cantileverProblem(16, 8, 6);
+    const a = p.matrix;
+    const est = estimateFactorBytes(analyzeCholesky(a, orderAmd(adjacencyGraph(a))));
+    const b = randomVector(a.n, 2);
+    const at = solveSpd(a, b, { maxFactorBytes: est });
+    const below = solveSpd(a, b, { maxFactorBytes: est - 1 });
+    expect(at.stats.estimatedFactorBytes).toBe(est);
+    expect(at.stats.method).toBe('cholesky');
+    expect(at.stats.iterations).toBe(0);
+    expect(below.stats.method).toBe('pcg');
+    expect(below.stats.iterations).toBeGreaterThan(0);
+    expect(below.stats.relativeResidual).toBeLessThanOrEqual(1e-10);
+    expect(relativeMaxDifference(below.x, at.x)).toBeLessThan(1e-6);
+  });
+
+  it('the estimate covers the factor the direct solve then holds', () => {
+    const p = cantileverProblem(30, 15, 2);
+    const { stats } = solveSpd(p.matrix, randomVector(p.matrix.n, 1), { method: 'cholesky' });
+    expect(stats.estimatedFactorBytes).toBeGreaterThanOrEqual(stats.factorBytes);
+    expect(stats.estimatedFactorBytes).toBeLessThan(3 * (stats.factorBytes + stats.workspaceBytes));
+  });
+});
