@@ -1,7 +1,7 @@
 /**
  * Result files. Each is written to a temporary name in the same folder and renamed into place,
  * so an interrupted run never leaves a half-written file under the final name; existing
- * results are not replaced unless the caller says so.
+ * results are not replaced unless the caller says so. A solution's result.json is written last.
  */
 import { existsSync, mkdirSync, readdirSync, renameSync, writeFileSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
@@ -83,10 +83,12 @@ export function resultFileNames(result: ResultJson, opts: OutputOptions = {}): s
  */
 export function writeResultFiles(dir: string, a: Analysis, result: ResultJson, force: boolean, opts: OutputOptions = {}): string[] {
   prepareOutputDir(dir, resultFileNames(result, opts), force);
-  const written: string[] = [];
+  // result.json is the mark of a finished set: an old one goes first and the new one comes last,
+  // so a run stopped part way leaves a folder without result.json, never a new summary beside
+  // old files.
   const json = join(dir, 'result.json');
-  writeAtomic(json, JSON.stringify(result, null, 2) + '\n');
-  written.push(json);
+  rmSync(json, { force: true });
+  const written: string[] = [];
   const csv = join(dir, 'nodes.csv');
   writeAtomic(csv, nodalCsv(a));
   written.push(csv);
@@ -98,6 +100,8 @@ export function writeResultFiles(dir: string, a: Analysis, result: ResultJson, f
   writeAtomic(vtu, vtuText({ mesh: a.mesh, u: a.u, stress: a.stress, szzFactor: a.szzFactor, title: result.model.title ?? undefined }));
   written.push(vtu);
   if (opts.pictures !== false) written.push(...writePicturesAndReport(dir, src, opts.pictureOptions ?? {}));
+  writeAtomic(json, JSON.stringify(result, null, 2) + '\n');
+  written.unshift(json);
   return written;
 }
 
