@@ -8,37 +8,18 @@
 import { performance } from 'node:perf_hooks';
 import { buildDomain } from '../geometry/domain.js';
 import { generateMesh } from '../mesh/generate.js';
-import type { Model } from '../model/schema.js';
+import { benchModel } from './model.js';
 import { analyseModel, type Analysis } from '../pipeline/analyse.js';
 import type { MeshStats } from '../mesh/types.js';
 import { runSolveBench } from './solve.js';
 import { runAdaptiveBench } from './adaptive.js';
 
+export { benchModel };
+
 function median(xs: number[]): number {
   const s = xs.slice().sort((a, b) => a - b);
   const m = s.length >> 1;
   return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
-
-/** An invented perforated strap: holes, a slot and fillets, so the size field has many raisers. */
-export function benchModel(sizeFactor: number): Model {
-  return {
-    title: 'bench strap (invented)',
-    material: { E: 210000, nu: 0.3 },
-    thickness: 5,
-    geometry: {
-      outline: { shape: 'path', path: [{ at: [0, 0], round: 4 }, { at: [240, 0], round: 4 }, { at: [240, 60], round: 4 }, { at: [0, 60], round: 4 }] },
-      holes: [
-        { shape: 'circle', center: [40, 30], radius: 8 },
-        { shape: 'circle', center: [90, 22], radius: 5 },
-        { shape: 'slot', center: [150, 30], length: 40, width: 10, angle: 20 },
-        { shape: 'ellipse', center: [205, 32], a: 10, b: 4, angle: 90 },
-      ],
-    },
-    supports: [{ type: 'fixed', on: { x: 0 } }],
-    loads: [{ type: 'force', on: { x: 240 }, fx: 20000 }],
-    mesh: { size: 6 * sizeFactor, raiserSize: 0.6 * sizeFactor },
-  };
 }
 
 function mb(bytes: number): string {

@@ -1,13 +1,16 @@
 /**
  * Benchmark of the sparse direct solver on plane-stress stiffness matrices of
- * linear (constant strain) triangles on a jittered triangulated 2 x 1
- * rectangle with its left edge fixed.
+ * linear (3-node, constant strain) and quadratic (6-node, linear strain)
+ * triangles on a jittered triangulated 2 x 1 rectangle with its left edge
+ * fixed: the matrices of the native reference in shared/MEASURED.md, whose
+ * CHOLMOD-with-AMD totals (ordering + factorisation + solve) are printed
+ * beside each row with the ratio ours / reference.
  *
- *   npx tsc -p tsconfig.build.json && node dist/bench/solve.js [--large] [--amd] [--runs N]
+ *   npx tsc -p tsconfig.build.json && node dist/bench/solve.js [--large] [--amd] [--runs N] [--elements linear,quadratic]
  *
  * --large adds the 5e5 and 1e6 DOF cases; --amd also times the AMD ordering
  * (the default is nested dissection from the node coordinates); --sizes
- * a,b,c picks the DOF counts. Each case first runs warm-up solves (10 below
+ * a,b,c picks the DOF counts; --elements picks the element types (default both). Each case first runs warm-up solves (10 below
  * 2e4 DOF, 3 below 2e5, else 1: the JavaScript engine needs several calls
  * before the small cases reach their compiled speed), then `runs` timed
  * solves (default 3); the table has the medians, "best" the fastest timed
@@ -17,11 +20,41 @@
 
 import { performance } from 'node:perf_hooks';
 import { fileURLToPath } from 'node:url';
-import { cantileverProblem } from '../solve/testing.js';
+import { cantileverProblem, cantileverProblemP2 } from '../solve/testing.js';
 import { solveSpd, type OrderingMethod, type SolveStats } from '../solve/index.js';
+
+export type BenchElement = 'linear' | 'quadratic';
+
+/**
+ * CHOLMOD called directly with its AMD ordering, ordering + factorisation + solve in seconds,
+ * linear / quadratic, on this machine (shared/MEASURED.md, second table, "with AMD, total").
+ */
+export const CHOLMOD_AMD_SECONDS: ReadonlyArray<{ dof: number; linear: number; quadratic: number }> = [
+  { dof: 1e4, linear: 0.018, quadratic: 0.028 },
+  { dof: 1e5, linear: 0.32, quadratic: 0.37 },
+  { dof: 5e5, linear: 2.3, quadratic: 2.8 },
+  { dof: 1e6, linear: 4.9, quadratic: 6.1 },
+  { dof: 2e6, linear: 12.5, quadratic: 13.2 },
+];
+
+/** The reference time at the listed size within 15 % of dof, or NaN. */
+export function cholmodReference(dof: number, element: BenchElement): number {
+  const r = CHOLMOD_AMD_SECONDS.find((x) => Math.abs(x.dof - dof) <= 0.15 * x.dof);
+  return r === undefined ? NaN : r[element];
+}
+
+/** The cantilever benchmark problem of about `target` DOF with 3- or 6-node triangles. */
+export function benchProblem(target: number, element: BenchElement) {
+  // 2:1 rectangle, nx = 2 ny cells: about 4 ny^2 DOF (linear), 16 ny^2 (quadratic)
+  const ny = Math.max(2, Math.round(Math.sqrt(target / (element === 'linear' ? 4 : 16))));
+  return element === 'linear' ? cantileverProblem(2 * ny, ny, 7) : cantileverProblemP2(2 * ny, ny, 7);
+}
 
 export interface SolveBenchRow {
   readonly dof: number;
+  readonly element: BenchElement;
+  /** CHOLMOD with AMD on this machine at this size (NaN when not measured) */
+  readonly referenceSeconds: number;
   readonly ordering: OrderingMethod;
   readonly nnzA: number;
   readonly nnzL: number;
@@ -42,6 +75,7 @@ export interface SolveBenchOptions {
   /** approximate DOF counts to run */
   readonly sizes?: readonly number[];
   readonly orderings?: readonly OrderingMethod[];
+  readonly elements?: readonly BenchElement[];
   readonly runs?: number;
   readonly log?: (line: string) => void;
 }
@@ -56,19 +90,18 @@ function median(xs: number[]): number {
 export function runSolveBench(options: SolveBenchOptions = {}): SolveBenchRow[] {
   const sizes = options.sizes ?? [1e4, 1e5];
   const orderings = options.orderings ?? ['nested-dissection'];
+  const elements = options.elements ?? ['linear', 'quadratic'];
   const runs = options.runs ?? 3;
   const log = options.log ?? ((line: string) => console.log(line));
   const out: SolveBenchRow[] = [];
   log(`node ${process.version}, ${runs} timed runs after warm-up; times in seconds (medians); peak RSS is the process's so far`);
   log(
-    '| DOF | ordering | nnz(A) | nnz(L) | flops | order | symbolic | numeric | solve | total | best | cold | GFLOP/s | bytes/nnz(L) | peak RSS | rel. residual |',
+    '| element | DOF | ordering | nnz(A) | nnz(L) | flops | order | symbolic | numeric | solve | total | best | cold | CHOLMOD AMD | ratio | GFLOP/s | bytes/nnz(L) | peak RSS | rel. residual |',
   );
-  log('|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|');
-  for (const target of sizes) {
-    // 2:1 rectangle, nx = 2 ny cells: about 4 ny^2 DOF
-    const ny = Math.max(2, Math.round(Math.sqrt(target / 4)));
+  log('|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|');
+  for (const target of sizes) for (const element of elements) {
     const tA = performance.now();
-    const prob = cantileverProblem(2 * ny, ny, 7);
+    const prob = benchProblem(target, element);
     const assemblySeconds = (performance.now() - tA) / 1e3;
     const n = prob.matrix.n;
     const b = new Float64Array(n);
@@ -102,8 +135,11 @@ export function runSolveBench(options: SolveBenchOptions = {}): SolveBenchRow[] 
         total: median(samples.map((s) => s.seconds.ordering + s.seconds.symbolic + s.seconds.numeric + s.seconds.solve)),
         bestTotal: Math.min(...samples.map((s) => s.seconds.ordering + s.seconds.symbolic + s.seconds.numeric + s.seconds.solve)),
       };
+      const referenceSeconds = cholmodReference(n, element);
       const row: SolveBenchRow = {
         dof: n,
+        element,
+        referenceSeconds,
         ordering,
         nnzA: s0.nnzA,
         nnzL: s0.nnzL,
@@ -121,7 +157,7 @@ export function runSolveBench(options: SolveBenchOptions = {}): SolveBenchRow[] 
       const e = (x: number): string => x.toExponential(2);
       const f = (x: number): string => x.toFixed(3);
       log(
-        `| ${n} | ${ordering}${s0.threads > 1 ? ` (${s0.threads} threads)` : ''} | ${e(row.nnzA)} | ${e(row.nnzL)} | ${e(row.flops)} | ${f(sec.ordering)} | ${f(sec.symbolic)} | ${f(sec.numeric)} | ${f(sec.solve)} | ${f(sec.total)} | ${f(sec.bestTotal)} | ${f(coldSeconds)} | ${row.gflops.toFixed(2)} | ${row.bytesPerNnzL.toFixed(1)} | ${(row.peakRssBytes / 2 ** 30).toFixed(2)} GB | ${e(row.relativeResidual)} |`,
+        `| ${element === 'linear' ? '3-node' : '6-node'} | ${n} | ${ordering}${s0.threads > 1 ? ` (${s0.threads} threads)` : ''} | ${e(row.nnzA)} | ${e(row.nnzL)} | ${e(row.flops)} | ${f(sec.ordering)} | ${f(sec.symbolic)} | ${f(sec.numeric)} | ${f(sec.solve)} | ${f(sec.total)} | ${f(sec.bestTotal)} | ${f(coldSeconds)} | ${Number.isNaN(referenceSeconds) ? '-' : f(referenceSeconds)} | ${Number.isNaN(referenceSeconds) ? '-' : (sec.total / referenceSeconds).toFixed(2)} | ${row.gflops.toFixed(2)} | ${row.bytesPerNnzL.toFixed(1)} | ${(row.peakRssBytes / 2 ** 30).toFixed(2)} GB | ${e(row.relativeResidual)} |`,
       );
     }
   }
@@ -136,5 +172,7 @@ if (process.argv[1] !== undefined && fileURLToPath(import.meta.url) === process.
   const sizesAt = args.indexOf('--sizes');
   const sizes = sizesAt >= 0 ? args[sizesAt + 1].split(',').map(Number) : large ? [1e4, 1e5, 5e5, 1e6] : [1e4, 1e5];
   const orderings: OrderingMethod[] = args.includes('--amd') ? ['nested-dissection', 'amd'] : ['nested-dissection'];
-  runSolveBench({ sizes, orderings, runs });
+  const elAt = args.indexOf('--elements');
+  const elements = elAt >= 0 ? (args[elAt + 1].split(',') as BenchElement[]) : undefined;
+  runSolveBench({ sizes, orderings, runs, elements });
 }

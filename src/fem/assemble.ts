@@ -4,7 +4,7 @@
  * prescribed values move to the right-hand side, f_f - K_fc u_c. The matrix stays symmetric
  * positive definite when the supports stop every rigid motion.
  */
-import { assembleSymmetric, type CsrGraph, type SymmetricCsc } from '../solve/index.js';
+import type { CsrGraph, SymmetricCsc } from '../solve/index.js';
 import type { Mesh } from '../mesh/types.js';
 import { P2Scratch, stiffnessP1, stiffnessP2 } from './elements.js';
 
@@ -60,19 +60,22 @@ export function assembleSystem(mesh: Mesh, D: Float64Array, thickness: number, f
   const f = new Float64Array(nFree);
   for (let d = 0; d < nDof; d++) if (dofFree[d] >= 0) f[dofFree[d]] = fFull[d];
 
-  const per = mesh.order === 2 ? 6 : 3;
-  const nd = 2 * per;
-  const perElement = (nd * (nd + 1)) / 2;
-  let rows = new Int32Array(perElement * mesh.nElements);
-  let cols = new Int32Array(perElement * mesh.nElements);
-  let vals = new Float64Array(perElement * mesh.nElements);
-  let k = 0;
+  // The lower-triangle pattern of K on the free DOFs comes from the node graph (two nodes are
+  // coupled when they share an element), and every element's entries are added in place: no
+  // coordinate triplets (for 1e6 DOF of 6-node elements those are 2e7 entries to bucket twice).
+  // The sums run in element order, as the triplet assembly summed them, so K is the same to
+  // the last bit.
+  const K = freeStiffnessPattern(mesh, dofFree, nFree);
+  const { colPtr, rowIndex, values } = K;
   forEachElementStiffness(mesh, D, thickness, (_e, ke, dofs) => {
-    for (let i = 0; i < nd; i++) {
-      const ri = dofFree[dofs[i]];
-      if (ri < 0) continue;
-      for (let j = 0; j < nd; j++) {
-        const cj = dofFree[dofs[j]];
+    const nd = dofs.length;
+    // columns outer, rows inner: each f[ri] still receives its terms in the order j = 0, 1, ...
+    for (let j = 0; j < nd; j++) {
+      const cj = dofFree[dofs[j]];
+      let prev = -1;
+      for (let i = 0; i < nd; i++) {
+        const ri = dofFree[dofs[i]];
+        if (ri < 0) continue;
         const v = ke[i * nd + j];
         if (cj < 0) {
           const u = c.value[dofs[j]];
@@ -80,20 +83,86 @@ export function assembleSystem(mesh: Mesh, D: Float64Array, thickness: number, f
           continue;
         }
         if (ri < cj) continue;
-        rows[k] = ri;
-        cols[k] = cj;
-        vals[k] = v;
-        k++;
+        // row ri in column cj (rows sorted); a node's y row follows its x row
+        let lo: number;
+        if ((i & 1) === 1 && prev >= 0 && rowIndex[prev + 1] === ri) lo = prev + 1;
+        else {
+          lo = colPtr[cj];
+          let hi = colPtr[cj + 1] - 1;
+          while (lo < hi) {
+            const mid = (lo + hi) >> 1;
+            if (rowIndex[mid] < ri) lo = mid + 1;
+            else hi = mid;
+          }
+        }
+        prev = (i & 1) === 0 ? lo : -1;
+        values[lo] += v;
       }
     }
   });
-  rows = rows.subarray(0, k);
-  cols = cols.subarray(0, k);
-  vals = vals.subarray(0, k);
-  const K = assembleSymmetric(nFree, rows, cols, vals, 'full');
   return { K, f, freeDof, dofFree };
 }
 
+/**
+ * The lower triangle pattern (CSC, rows sorted, values zero) of the stiffness matrix on the free
+ * DOFs: column of free DOF (node a, component k) holds the free DOFs >= it of node a and of the
+ * nodes sharing an element with a. Free DOF numbers increase with the full DOF 2 * node + c, so
+ * the rows of a column come out sorted when the node's neighbours are.
+ */
+export function freeStiffnessPattern(mesh: Mesh, dofFree: Int32Array, nFree: number): SymmetricCsc {
+  const g = meshNodeGraph(mesh);
+  const n = mesh.nNodes;
+  // neighbours of each node with the node itself, sorted
+  const sptr = new Int32Array(n + 1);
+  for (let a = 0; a < n; a++) sptr[a + 1] = sptr[a] + (g.ptr[a + 1] - g.ptr[a]) + 1;
+  const sidx = new Int32Array(sptr[n]);
+  for (let a = 0; a < n; a++) {
+    let w = sptr[a];
+    sidx[w++] = a;
+    // insertion sort: the lists are short (6-30 nodes)
+    for (let p = g.ptr[a]; p < g.ptr[a + 1]; p++) {
+      const b = g.idx[p];
+      let q = w++;
+      while (q > sptr[a] && sidx[q - 1] > b) {
+        sidx[q] = sidx[q - 1];
+        q--;
+      }
+      sidx[q] = b;
+    }
+  }
+  const colPtr = new Int32Array(nFree + 1);
+  let rowIndexOut = new Int32Array(0);
+  for (let pass = 0; pass < 2; pass++) {
+    let nz = 0;
+    for (let d = 0; d < 2 * n; d++) {
+      const cj = dofFree[d];
+      if (cj < 0) continue;
+      const a = d >> 1;
+      if (pass === 0) {
+        let cnt = 0;
+        for (let p = sptr[a]; p < sptr[a + 1]; p++) {
+          const b = sidx[p];
+          if (dofFree[2 * b] >= cj) cnt++;
+          if (dofFree[2 * b + 1] >= cj) cnt++;
+        }
+        colPtr[cj + 1] = cnt;
+      } else {
+        for (let p = sptr[a]; p < sptr[a + 1]; p++) {
+          const b = sidx[p];
+          const r0 = dofFree[2 * b];
+          const r1 = dofFree[2 * b + 1];
+          if (r0 >= cj) rowIndexOut[nz++] = r0;
+          if (r1 >= cj) rowIndexOut[nz++] = r1;
+        }
+      }
+    }
+    if (pass === 0) {
+      for (let j = 0; j < nFree; j++) colPtr[j + 1] += colPtr[j];
+      rowIndexOut = new Int32Array(colPtr[nFree]);
+    }
+  }
+  return { n: nFree, colPtr, rowIndex: rowIndexOut, values: new Float64Array(colPtr[nFree]) };
+}
 /** r = K u over the whole mesh (all DOFs), element by element: the nodal internal forces. */
 export function internalForces(mesh: Mesh, D: Float64Array, thickness: number, u: Float64Array): Float64Array {
   const r = new Float64Array(2 * mesh.nNodes);

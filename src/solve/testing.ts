@@ -360,3 +360,238 @@ export function denseSymbolic(a: SymmetricCsc, perm: Int32Array): { colCount: In
   }
   return { colCount, parent };
 }
+
+/**
+ * The quadratic (6-node) version of jitteredRectangleMesh and its plane-stress cantilever:
+ * corners as in jitteredRectangleMesh (same seed, same jitter), midside nodes at the midpoints
+ * of the straight edges. Nodes are numbered on the (2 nx + 1) x (2 ny + 1) lattice of corners and
+ * midpoints row by row, node (I, J) = J (2 nx + 1) + I; corner (i, j) is lattice node (2i, 2j).
+ * Elements list corners 0, 1, 2 counter-clockwise, then midsides 3 = 0-1, 4 = 1-2, 5 = 2-0.
+ */
+export interface QuadraticMesh {
+  readonly coords: Float64Array;
+  /** 6 nodes per element */
+  readonly elements: Int32Array;
+}
+
+export function jitteredRectangleMeshP2(nx: number, ny: number, width: number, height: number, seed = 1, jitter = 0.25): QuadraticMesh {
+  const lin = jitteredRectangleMesh(nx, ny, width, height, seed, jitter);
+  const mx = 2 * nx + 1;
+  const my = 2 * ny + 1;
+  const coords = new Float64Array(2 * mx * my);
+  const node = (I: number, J: number): number => J * mx + I;
+  for (let j = 0; j <= ny; j++) {
+    for (let i = 0; i <= nx; i++) {
+      const v = j * (nx + 1) + i;
+      const w = node(2 * i, 2 * j);
+      coords[2 * w] = lin.coords[2 * v];
+      coords[2 * w + 1] = lin.coords[2 * v + 1];
+    }
+  }
+  // midpoints: lattice nodes with an odd index lie between two corners
+  for (let J = 0; J < my; J++) {
+    for (let I = 0; I < mx; I++) {
+      if (I % 2 === 0 && J % 2 === 0) continue;
+      let a: number;
+      let b: number;
+      if (J % 2 === 0) {
+        a = node(I - 1, J);
+        b = node(I + 1, J);
+      } else if (I % 2 === 0) {
+        a = node(I, J - 1);
+        b = node(I, J + 1);
+      } else {
+        // the cell's diagonal: 00-11 when (i + j) is even, 10-01 otherwise
+        const i = (I - 1) / 2;
+        const j = (J - 1) / 2;
+        if ((i + j) % 2 === 0) {
+          a = node(I - 1, J - 1);
+          b = node(I + 1, J + 1);
+        } else {
+          a = node(I + 1, J - 1);
+          b = node(I - 1, J + 1);
+        }
+      }
+      const w = node(I, J);
+      coords[2 * w] = 0.5 * (coords[2 * a] + coords[2 * b]);
+      coords[2 * w + 1] = 0.5 * (coords[2 * a + 1] + coords[2 * b + 1]);
+    }
+  }
+  const elements = new Int32Array(12 * nx * ny);
+  let e = 0;
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      const I = 2 * i;
+      const J = 2 * j;
+      const c00 = node(I, J);
+      const c10 = node(I + 2, J);
+      const c01 = node(I, J + 2);
+      const c11 = node(I + 2, J + 2);
+      const mb = node(I + 1, J); // bottom edge
+      const mr = node(I + 2, J + 1); // right
+      const mt = node(I + 1, J + 2); // top
+      const ml = node(I, J + 1); // left
+      const md = node(I + 1, J + 1); // diagonal
+      if ((i + j) % 2 === 0) {
+        elements.set([c00, c10, c11, mb, mr, md, c00, c11, c01, md, mt, ml], e);
+      } else {
+        elements.set([c00, c10, c01, mb, md, ml, c10, c11, c01, mr, mt, md], e);
+      }
+      e += 12;
+    }
+  }
+  return { coords, elements };
+}
+
+/** Node adjacency (CSR, no self loops, sorted) of a 6-node triangle mesh: nodes sharing an element. */
+export function meshNodeAdjacencyP2(mesh: QuadraticMesh): CsrGraph {
+  const nn = mesh.coords.length >> 1;
+  const el = mesh.elements;
+  const ne = el.length / 6;
+  const deg = new Int32Array(nn + 1);
+  for (let e = 0; e < ne; e++) for (let a = 0; a < 6; a++) deg[el[6 * e + a]] += 5;
+  const start = new Int32Array(nn + 1);
+  for (let v = 0; v < nn; v++) start[v + 1] = start[v] + deg[v];
+  const raw = new Int32Array(start[nn]);
+  const fill = start.slice(0, nn);
+  for (let e = 0; e < ne; e++) {
+    for (let a = 0; a < 6; a++) {
+      const v = el[6 * e + a];
+      for (let b = 0; b < 6; b++) if (b !== a) raw[fill[v]++] = el[6 * e + b];
+    }
+  }
+  const ptr = new Int32Array(nn + 1);
+  const idx = new Int32Array(raw.length);
+  let w = 0;
+  for (let v = 0; v < nn; v++) {
+    ptr[v] = w;
+    const seg = raw.subarray(start[v], start[v + 1]).sort();
+    let last = -1;
+    for (let q = 0; q < seg.length; q++) {
+      if (seg[q] !== last) {
+        idx[w++] = seg[q];
+        last = seg[q];
+      }
+    }
+  }
+  ptr[nn] = w;
+  return { ptr, idx: idx.slice(0, w) };
+}
+
+/**
+ * Plane-stress stiffness of 6-node (linear strain) triangles with straight sides, full matrix
+ * of order 2 * nodes. Shape functions in area coordinates: N_a = L_a (2 L_a - 1) at the corners,
+ * N = 4 L_a L_b at the midsides; B is linear in the L_a, so B^T D B is quadratic and the
+ * three-point rule at the edge midpoints (weights A / 3) integrates it exactly (G. Strang and
+ * G. J. Fix, "An Analysis of the Finite Element Method", 1973, section 4.3; Zienkiewicz and
+ * Taylor, vol. 1, on triangle quadrature). Throws a RangeError on an element with area <= 0.
+ */
+export function planeStressStiffnessP2(mesh: QuadraticMesh, E = 1, nu = 0.3, t = 1): SymmetricCsc {
+  const { coords, elements } = mesh;
+  const nn = coords.length >> 1;
+  const ne = elements.length / 6;
+  const per = 78; // lower triangle of 12 x 12, diagonal included
+  const rows = new Int32Array(per * ne);
+  const cols = new Int32Array(per * ne);
+  const vals = new Float64Array(per * ne);
+  const f = E / (1 - nu * nu);
+  const D00 = f;
+  const D01 = f * nu;
+  const D22 = (f * (1 - nu)) / 2;
+  const gx = new Float64Array(6); // dN/dx at one point
+  const gy = new Float64Array(6);
+  const ke = new Float64Array(144);
+  const dof = new Int32Array(12);
+  const bl = new Float64Array(3);
+  const cl = new Float64Array(3);
+  // quadrature points (L0, L1, L2): the edge midpoints
+  const QP = [0.5, 0.5, 0, 0, 0.5, 0.5, 0.5, 0, 0.5];
+  let w = 0;
+  for (let e = 0; e < ne; e++) {
+    const n0 = elements[6 * e];
+    const n1 = elements[6 * e + 1];
+    const n2 = elements[6 * e + 2];
+    const x0 = coords[2 * n0];
+    const y0 = coords[2 * n0 + 1];
+    const x1 = coords[2 * n1];
+    const y1 = coords[2 * n1 + 1];
+    const x2 = coords[2 * n2];
+    const y2 = coords[2 * n2 + 1];
+    const twoA = (x1 - x0) * (y2 - y0) - (x2 - x0) * (y1 - y0);
+    if (!(twoA > 0)) throw new RangeError(`planeStressStiffnessP2: element ${e} has det J = ${twoA} <= 0`);
+    // grad L_a = (b_a, c_a) / 2A
+    bl[0] = (y1 - y2) / twoA;
+    bl[1] = (y2 - y0) / twoA;
+    bl[2] = (y0 - y1) / twoA;
+    cl[0] = (x2 - x1) / twoA;
+    cl[1] = (x0 - x2) / twoA;
+    cl[2] = (x1 - x0) / twoA;
+    ke.fill(0);
+    const wq = (t * twoA) / 6; // A / 3 per point, times thickness
+    for (let q = 0; q < 3; q++) {
+      const L0 = QP[3 * q];
+      const L1 = QP[3 * q + 1];
+      const L2 = QP[3 * q + 2];
+      const L = [L0, L1, L2];
+      for (let a = 0; a < 3; a++) {
+        gx[a] = (4 * L[a] - 1) * bl[a];
+        gy[a] = (4 * L[a] - 1) * cl[a];
+      }
+      gx[3] = 4 * (L1 * bl[0] + L0 * bl[1]);
+      gy[3] = 4 * (L1 * cl[0] + L0 * cl[1]);
+      gx[4] = 4 * (L2 * bl[1] + L1 * bl[2]);
+      gy[4] = 4 * (L2 * cl[1] + L1 * cl[2]);
+      gx[5] = 4 * (L0 * bl[2] + L2 * bl[0]);
+      gy[5] = 4 * (L0 * cl[2] + L2 * cl[0]);
+      // B columns: ux_a -> (gx, 0, gy), uy_a -> (0, gy, gx)
+      for (let a = 0; a < 6; a++) {
+        const ax = gx[a];
+        const ay = gy[a];
+        for (let b = 0; b < 6; b++) {
+          const bx = gx[b];
+          const by = gy[b];
+          ke[(2 * a) * 12 + 2 * b] += wq * (ax * D00 * bx + ay * D22 * by);
+          ke[(2 * a) * 12 + 2 * b + 1] += wq * (ax * D01 * by + ay * D22 * bx);
+          ke[(2 * a + 1) * 12 + 2 * b] += wq * (ay * D01 * bx + ax * D22 * by);
+          ke[(2 * a + 1) * 12 + 2 * b + 1] += wq * (ay * D00 * by + ax * D22 * bx);
+        }
+      }
+    }
+    for (let a = 0; a < 6; a++) {
+      const v = elements[6 * e + a];
+      dof[2 * a] = 2 * v;
+      dof[2 * a + 1] = 2 * v + 1;
+    }
+    for (let p = 0; p < 12; p++) {
+      for (let r = 0; r < 12; r++) {
+        if (dof[r] < dof[p]) continue;
+        rows[w] = dof[r];
+        cols[w] = dof[p];
+        vals[w] = ke[r * 12 + p];
+        w++;
+      }
+    }
+  }
+  return assembleSymmetric(2 * nn, rows.subarray(0, w), cols.subarray(0, w), vals.subarray(0, w), 'full');
+}
+
+/**
+ * The cantilever of cantileverProblem with 6-node triangles: jittered nx x ny rectangle (width
+ * 2, height 1 by default), E = 1, nu = 0.3, every node at x = 0 fixed.
+ */
+export function cantileverProblemP2(nx: number, ny: number, seed = 1, width = 2, height = 1): CantileverProblem & { readonly meshP2: QuadraticMesh } {
+  const meshP2 = jitteredRectangleMeshP2(nx, ny, width, height, seed);
+  const adjacency = meshNodeAdjacencyP2(meshP2);
+  const k = planeStressStiffnessP2(meshP2);
+  const nn = meshP2.coords.length >> 1;
+  const keep = new Uint8Array(2 * nn);
+  for (let v = 0; v < nn; v++) {
+    const free = meshP2.coords[2 * v] !== 0 ? 1 : 0;
+    keep[2 * v] = free;
+    keep[2 * v + 1] = free;
+  }
+  const sub = extractPrincipal(k, keep);
+  const triangles = new Int32Array(3 * (meshP2.elements.length / 6));
+  for (let e = 0; e < triangles.length / 3; e++) for (let a = 0; a < 3; a++) triangles[3 * e + a] = meshP2.elements[6 * e + a];
+  return { mesh: { coords: meshP2.coords, triangles }, meshP2, adjacency, matrix: sub.matrix, fullDofOfRow: sub.oldOfNew, rowOfFullDof: sub.newOfOld };
+}
