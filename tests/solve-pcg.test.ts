@@ -165,3 +165,16 @@ describe('automatic choice between Cholesky and PCG', () => {
     expect(stats.estimatedFactorBytes).toBeLessThan(3 * (stats.factorBytes + stats.workspaceBytes));
   });
 });
+
+describe('iterative refinement after the direct solve', () => {
+  it('is skipped when the first residual is small, and one forced step does not worsen the residual', () => {
+    const p = cantileverProblem(20, 10, 3);
+    const b = randomVector(p.matrix.n, 6);
+    const plain = solveSpd(p.matrix, b, { method: 'cholesky' });
+    expect(plain.stats.refinementSteps).toBe(0);
+    const forced = solveSpd(p.matrix, b, { method: 'cholesky', refineAbove: 0 });
+    expect(forced.stats.refinementSteps).toBeGreaterThanOrEqual(1);
+    expect(forced.stats.relativeResidual).toBeLessThanOrEqual(plain.stats.relativeResidual);
+    expect(relativeMaxDifference(forced.x, plain.x)).toBeLessThan(1e-10);
+  });
+});

@@ -3,8 +3,11 @@
  * warm-up. Speed targets live here, never in the tests.
  *
  *   npm run bench              mesher and whole-analysis tables, solver at 1e4 and 1e5 DOF
- *   npm run bench -- --large   also the solver at 5e5 and 1e6 DOF
+ *   npm run bench -- --large   also the mesher at 1e6 triangles, the assembly and the solver at
+ *                              5e5 and 1e6 DOF, and a whole 1e6-DOF analysis with its peak memory
+ *   npm run bench -- --scaling only the scaling study (every stage, 1e4 to 1e6 DOF, exponents)
  */
+import os from 'node:os';
 import { performance } from 'node:perf_hooks';
 import { buildDomain } from '../geometry/domain.js';
 import { generateMesh } from '../mesh/generate.js';
@@ -13,6 +16,7 @@ import { analyseModel, type Analysis } from '../pipeline/analyse.js';
 import type { MeshStats } from '../mesh/types.js';
 import { runSolveBench } from './solve.js';
 import { runAdaptiveBench } from './adaptive.js';
+import { benchAssembly, benchMesherAt, benchScaling, benchWholeMillion } from './scale.js';
 
 export { benchModel };
 
@@ -26,7 +30,7 @@ function mb(bytes: number): string {
   return (bytes / 2 ** 20).toFixed(0);
 }
 
-function benchMesher(runs: number, log: (s: string) => void): void {
+function benchMesher(runs: number, log: (s: string) => void, large: boolean): void {
   log('\nMesher (graded constrained Delaunay refinement, minimum angle 25 deg, linear triangles)');
   log('| triangles | vertices | boundary | triangulate | refine | finish + check | total | min angle | peak RSS MB |');
   log('|---|---|---|---|---|---|---|---|---|');
@@ -43,6 +47,7 @@ function benchMesher(runs: number, log: (s: string) => void): void {
       `| ${s.triangles} | ${s.vertices} | ${t((x) => x.timeMs.boundary)} | ${t((x) => x.timeMs.triangulate)} | ${t((x) => x.timeMs.refine)} | ${t((x) => x.timeMs.finish)} | ${t((x) => x.timeMs.total)} | ${s.minAngleUnforcedDeg.toFixed(1)} | ${mb(process.memoryUsage().rss)} |`,
     );
   }
+  if (large) benchMesherAt(1e6, runs, log);
 }
 
 function benchAnalysis(runs: number, log: (s: string) => void): void {
@@ -65,14 +70,23 @@ function benchAnalysis(runs: number, log: (s: string) => void): void {
 export function runBench(args: string[], log: (s: string) => void = console.log): void {
   const runs = 3;
   const t0 = performance.now();
-  log(`raiser bench: node ${process.version}, ${process.platform} ${process.arch}; medians of ${runs} runs after a warm-up`);
-  log('command: npm run bench' + (args.includes('--large') ? ' -- --large' : ''));
-  benchMesher(runs, log);
+  const large = args.includes('--large');
+  log(`raiser bench: node ${process.version}, ${process.platform} ${process.arch}, ${os.cpus().length} cores (${os.cpus()[0]?.model ?? 'unknown'}); medians of ${runs} runs after a warm-up`);
+  if (args.includes('--scaling')) {
+    log('command: npm run bench -- --scaling');
+    benchScaling(log);
+    log(`\nbench finished in ${((performance.now() - t0) / 1e3).toFixed(1)} s`);
+    return;
+  }
+  log('command: npm run bench' + (large ? ' -- --large' : ''));
+  benchMesher(runs, log, large);
   benchAnalysis(runs, log);
+  benchAssembly(large ? [1e5, 5e5, 1e6] : [1e5], runs, log);
   log('\nCertified Kt: adaptive series against uniform refinement (same accuracy, true error against the reference)');
   runAdaptiveBench(log);
   log('\nSparse Cholesky on plane-stress stiffness matrices of a jittered rectangle, left edge fixed');
-  runSolveBench({ sizes: args.includes('--large') ? [1e4, 1e5, 5e5, 1e6] : [1e4, 1e5], runs, log });
+  runSolveBench({ sizes: large ? [1e4, 1e5, 5e5, 1e6] : [1e4, 1e5], runs, log });
+  if (large) benchWholeMillion(log);
   log(`\nbench finished in ${((performance.now() - t0) / 1e3).toFixed(1)} s`);
 }
 

@@ -74,7 +74,7 @@ export function formatBenchSolve(file: string, a: SymmetricCsc, stats: SolveStat
   if (stats.method === 'cholesky') {
     lines.push(
       `  numeric           ${sec(s.numeric)}  (${stats.threads} thread${stats.threads > 1 ? 's' : ''})`,
-      `  solve             ${sec(s.solve)}`,
+      `  solve             ${sec(s.solve)}${stats.refinementSteps > 0 ? `  (with ${stats.refinementSteps} step${stats.refinementSteps > 1 ? 's' : ''} of iterative refinement)` : ''}`,
       `  total             ${sec(times.total)}  (best ${sec(times.best)})`,
       `  nnz(L)            ${stats.nnzL} (${e(stats.nnzL)})`,
       `  flops             ${e(stats.flops)}`,
