@@ -68,6 +68,11 @@ const P2_SAMPLES: [number, number][] = [
   [1 / 6, 2 / 3],
 ];
 
+/** The angle in degrees opposite side x of a triangle with sides x, y, z. */
+function angleDeg(x: number, y: number, z: number): number {
+  return (Math.acos(Math.max(-1, Math.min(1, (y * y + z * z - x * x) / (2 * y * z)))) * 180) / Math.PI;
+}
+
 export function checkMesh(mesh: Mesh, domain: Domain): MeshQuality {
   const { nodes, elements, nElements, nNodes, order } = mesh;
   const per = order === 2 ? 6 : 3;
@@ -108,26 +113,30 @@ export function checkMesh(mesh: Mesh, domain: Domain): MeshQuality {
     const la = Math.hypot(nodes[2 * b] - nodes[2 * c], nodes[2 * b + 1] - nodes[2 * c + 1]);
     const lb = Math.hypot(ax - nodes[2 * c], ay - nodes[2 * c + 1]);
     const lc = Math.hypot(ax - nodes[2 * b], ay - nodes[2 * b + 1]);
-    for (const [x, y, z] of [
-      [la, lb, lc],
-      [lb, la, lc],
-      [lc, la, lb],
-    ]) {
-      const ang = (Math.acos(Math.max(-1, Math.min(1, (y * y + z * z - x * x) / (2 * y * z)))) * 180) / Math.PI;
-      minAngle = Math.min(minAngle, ang);
-      maxAngle = Math.max(maxAngle, ang);
-    }
+    // the three angles by the law of cosines (no arrays in the loop)
+    const aA = angleDeg(la, lb, lc);
+    const aB = angleDeg(lb, la, lc);
+    const aC = angleDeg(lc, la, lb);
+    minAngle = Math.min(minAngle, aA, aB, aC);
+    maxAngle = Math.max(maxAngle, aA, aB, aC);
   }
   for (let k = 0; k < nNodes; k++) if (!used[k]) throw new InternalError(`mesh check: node ${k} belongs to no element`);
 
-  // Edge use: directed element edges, as sorted keys u * nv + w (exact in a double below 2^53);
-  // a boundary edge appears once, in its own direction.
+  // Edge use: each element edge u -> w as the key 2 (min(u, w) nv + max(u, w)) + (u < w ? 0 : 1)
+  // (exact in a double below 2^53), sorted, so both directions of an undirected edge are
+  // neighbours: a key twice is an edge used twice in the same direction, an undirected edge
+  // seen once is a boundary edge. (One sort and one scan, no search per edge.)
   const nv = nNodes;
   const keys = new Float64Array(3 * nElements);
   for (let e = 0; e < nElements; e++) {
-    for (let i = 0; i < 3; i++) keys[3 * e + i] = elements[per * e + i] * nv + elements[per * e + ((i + 1) % 3)];
+    for (let i = 0; i < 3; i++) {
+      const u = elements[per * e + i];
+      const w = elements[per * e + ((i + 1) % 3)];
+      keys[3 * e + i] = u < w ? 2 * (u * nv + w) : 2 * (w * nv + u) + 1;
+    }
   }
   keys.sort();
+  const directedKey = (u: number, w: number): number => (u < w ? 2 * (u * nv + w) : 2 * (w * nv + u) + 1);
   const has = (key: number) => {
     let lo = 0;
     let hi = keys.length;
@@ -141,12 +150,16 @@ export function checkMesh(mesh: Mesh, domain: Domain): MeshQuality {
   let boundaryEdges = 0;
   for (let k = 0; k < keys.length; k++) {
     if (k > 0 && keys[k] === keys[k - 1]) {
-      const u = Math.floor(keys[k] / nv);
-      throw new InternalError(`mesh check: edge ${u}-${keys[k] - u * nv} is used twice in the same direction`);
+      const half = Math.floor(keys[k] / 2);
+      const lo = Math.floor(half / nv);
+      const hi = half - lo * nv;
+      const [u, w] = keys[k] % 2 === 0 ? [lo, hi] : [hi, lo];
+      throw new InternalError(`mesh check: edge ${u}-${w} is used twice in the same direction`);
     }
-    const u = Math.floor(keys[k] / nv);
-    const w = keys[k] - u * nv;
-    if (!has(w * nv + u)) boundaryEdges++;
+    const undirected = Math.floor(keys[k] / 2);
+    const pairedBefore = k > 0 && Math.floor(keys[k - 1] / 2) === undirected;
+    const pairedAfter = k + 1 < keys.length && Math.floor(keys[k + 1] / 2) === undirected;
+    if (!pairedBefore && !pairedAfter) boundaryEdges++;
   }
   if (boundaryEdges !== mesh.nBEdges) {
     throw new InternalError(`mesh check: ${boundaryEdges} element edges lie on the boundary, but the mesh lists ${mesh.nBEdges} boundary edges`);
@@ -155,8 +168,8 @@ export function checkMesh(mesh: Mesh, domain: Domain): MeshQuality {
   for (let s = 0; s < mesh.nBEdges; s++) {
     const a = mesh.bEdges[3 * s];
     const b = mesh.bEdges[3 * s + 1];
-    if (!has(a * nv + b)) throw new InternalError(`mesh check: boundary edge ${a}-${b} is missing, or has the material on its right`);
-    if (has(b * nv + a)) throw new InternalError(`mesh check: boundary edge ${a}-${b} has elements on both sides`);
+    if (!has(directedKey(a, b))) throw new InternalError(`mesh check: boundary edge ${a}-${b} is missing, or has the material on its right`);
+    if (has(directedKey(b, a))) throw new InternalError(`mesh check: boundary edge ${a}-${b} has elements on both sides`);
     const ax = nodes[2 * a];
     const ay = nodes[2 * a + 1];
     const bx = nodes[2 * b];

@@ -58,6 +58,8 @@ export class SizeField {
   private readonly data: Float64Array;
   /** per source: how fast its value can change with position (its Lipschitz constant) */
   private readonly slope: Float64Array;
+  /** per source: x0, y0, x1, y1 of its geometry's bounding box */
+  private readonly box: Float64Array;
   readonly count: number;
   readonly sources: SizeSource[];
   // Candidate lists on a uniform grid: only sources that can be the least in a cell are kept.
@@ -91,6 +93,15 @@ export class SizeField {
       this.slope[i] = k;
     });
     this.hMin = hMin;
+    // per source, the bounding box of its geometry (a whole circle's for an arc)
+    this.box = new Float64Array(4 * sources.length);
+    sources.forEach((src, i) => {
+      const q = src.geom;
+      const o = 4 * i;
+      if (q[0] === ARC) this.box.set([q[2] - q[4], q[3] - q[4], q[2] + q[4], q[3] + q[4]], o);
+      else if (q[0] === POINT) this.box.set([q[2], q[3], q[2], q[3]], o);
+      else this.box.set([Math.min(q[2], q[4]), Math.min(q[3], q[5]), Math.max(q[2], q[4]), Math.max(q[3], q[5])], o);
+    });
     if (bbox && sources.length > 8) this.buildGrid(bbox);
   }
 
@@ -135,8 +146,13 @@ export class SizeField {
   private buildGrid(bbox: readonly [number, number, number, number]): void {
     const [x0, y0, x1, y1] = bbox;
     const span = Math.max(x1 - x0, y1 - y0) || 1;
-    // About 3e5 source evaluations to build it: a few milliseconds, a small share of meshing.
-    const n = Math.max(8, Math.min(256, Math.round(Math.sqrt(3e5 / this.count))));
+    // About 3e5 source evaluations to build it (a few milliseconds) for ordinary meshes; for
+    // fine ones, which query the field millions of times, a budget up to 4e6 evaluations
+    // (tens of milliseconds) that grows with (span / hMin)^2, so that the cells near the raisers
+    // hold few candidates. The grid changes only the speed: every cell keeps every source that
+    // can be the least in it.
+    const budget = Math.max(3e5, Math.min(4e6, 2 * (span / this.hMin) ** 2));
+    const n = Math.max(8, Math.min(256, Math.round(Math.sqrt(budget / this.count))));
     this.cell = span / n;
     this.gx0 = x0 - this.cell;
     this.gy0 = y0 - this.cell;
@@ -193,8 +209,19 @@ export class SizeField {
         return h;
       }
     }
+    // Outside the grid (queries beyond the part, such as the quadtree of the triangle
+    // estimate): every source, each first bounded below by its smallest size plus the grading
+    // times the distance to its bounding box (a shade less, against rounding), which skips
+    // the far ones without evaluating them.
+    const g = this.grading;
+    const box = this.box;
     for (let s = 0; s < this.count; s++) {
-      if (this.data[STRIDE * s + 1] >= h) continue;
+      const hs = this.data[STRIDE * s + 1];
+      if (hs >= h) continue;
+      const o = 4 * s;
+      const dx = x < box[o] ? box[o] - x : x > box[o + 2] ? x - box[o + 2] : 0;
+      const dy = y < box[o + 1] ? box[o + 1] - y : y > box[o + 3] ? y - box[o + 3] : 0;
+      if ((hs + g * Math.sqrt(dx * dx + dy * dy)) * (1 - 1e-12) >= h) continue;
       const val = this.value(s, x, y);
       if (val < h) h = val;
     }
