@@ -122,44 +122,58 @@ export function checkMesh(mesh: Mesh, domain: Domain): MeshQuality {
   }
   for (let k = 0; k < nNodes; k++) if (!used[k]) throw new InternalError(`mesh check: node ${k} belongs to no element`);
 
-  // Edge use: each element edge u -> w as the key 2 (min(u, w) nv + max(u, w)) + (u < w ? 0 : 1)
-  // (exact in a double below 2^53), sorted, so both directions of an undirected edge are
-  // neighbours: a key twice is an edge used twice in the same direction, an undirected edge
-  // seen once is a boundary edge. (One sort and one scan, no search per edge.)
+  // Edge use: each element edge u -> w is put in the bucket of its lower vertex min(u, w) as
+  // 2 max(u, w) + (u < w ? 0 : 1) (a counting sort by the lower vertex, then a small sort in
+  // each bucket), so both directions of an undirected edge are neighbours: an entry twice is an
+  // edge used twice in the same direction, an undirected edge seen once is a boundary edge.
   const nv = nNodes;
-  const keys = new Float64Array(3 * nElements);
+  const bucketStart = new Int32Array(nv + 1);
   for (let e = 0; e < nElements; e++) {
     for (let i = 0; i < 3; i++) {
       const u = elements[per * e + i];
       const w = elements[per * e + ((i + 1) % 3)];
-      keys[3 * e + i] = u < w ? 2 * (u * nv + w) : 2 * (w * nv + u) + 1;
+      bucketStart[(u < w ? u : w) + 1]++;
     }
   }
-  keys.sort();
-  const directedKey = (u: number, w: number): number => (u < w ? 2 * (u * nv + w) : 2 * (w * nv + u) + 1);
-  const has = (key: number) => {
-    let lo = 0;
-    let hi = keys.length;
-    while (lo < hi) {
-      const mid = (lo + hi) >> 1;
-      if (keys[mid] < key) lo = mid + 1;
-      else hi = mid;
+  for (let v = 0; v < nv; v++) bucketStart[v + 1] += bucketStart[v];
+  const entry = new Int32Array(3 * nElements);
+  {
+    const fill = bucketStart.slice(0, nv);
+    for (let e = 0; e < nElements; e++) {
+      for (let i = 0; i < 3; i++) {
+        const u = elements[per * e + i];
+        const w = elements[per * e + ((i + 1) % 3)];
+        // insertion into the bucket keeps it sorted (buckets hold a few entries)
+        const lo = u < w ? u : w;
+        const key = u < w ? 2 * w : 2 * u + 1;
+        let q = fill[lo]++;
+        while (q > bucketStart[lo] && entry[q - 1] > key) {
+          entry[q] = entry[q - 1];
+          q--;
+        }
+        entry[q] = key;
+      }
     }
-    return lo < keys.length && keys[lo] === key;
+  }
+  const has = (u: number, w: number) => {
+    const lo = u < w ? u : w;
+    const key = u < w ? 2 * w : 2 * u + 1;
+    for (let q = bucketStart[lo]; q < bucketStart[lo + 1]; q++) if (entry[q] === key) return true;
+    return false;
   };
   let boundaryEdges = 0;
-  for (let k = 0; k < keys.length; k++) {
-    if (k > 0 && keys[k] === keys[k - 1]) {
-      const half = Math.floor(keys[k] / 2);
-      const lo = Math.floor(half / nv);
-      const hi = half - lo * nv;
-      const [u, w] = keys[k] % 2 === 0 ? [lo, hi] : [hi, lo];
-      throw new InternalError(`mesh check: edge ${u}-${w} is used twice in the same direction`);
+  for (let v = 0; v < nv; v++) {
+    const end = bucketStart[v + 1];
+    for (let q = bucketStart[v]; q < end; q++) {
+      const key = entry[q];
+      if (q > bucketStart[v] && key === entry[q - 1]) {
+        const [u, w] = key % 2 === 0 ? [v, key >> 1] : [key >> 1, v];
+        throw new InternalError(`mesh check: edge ${u}-${w} is used twice in the same direction`);
+      }
+      const pairedBefore = q > bucketStart[v] && entry[q - 1] >> 1 === key >> 1;
+      const pairedAfter = q + 1 < end && entry[q + 1] >> 1 === key >> 1;
+      if (!pairedBefore && !pairedAfter) boundaryEdges++;
     }
-    const undirected = Math.floor(keys[k] / 2);
-    const pairedBefore = k > 0 && Math.floor(keys[k - 1] / 2) === undirected;
-    const pairedAfter = k + 1 < keys.length && Math.floor(keys[k + 1] / 2) === undirected;
-    if (!pairedBefore && !pairedAfter) boundaryEdges++;
   }
   if (boundaryEdges !== mesh.nBEdges) {
     throw new InternalError(`mesh check: ${boundaryEdges} element edges lie on the boundary, but the mesh lists ${mesh.nBEdges} boundary edges`);
@@ -168,8 +182,8 @@ export function checkMesh(mesh: Mesh, domain: Domain): MeshQuality {
   for (let s = 0; s < mesh.nBEdges; s++) {
     const a = mesh.bEdges[3 * s];
     const b = mesh.bEdges[3 * s + 1];
-    if (!has(directedKey(a, b))) throw new InternalError(`mesh check: boundary edge ${a}-${b} is missing, or has the material on its right`);
-    if (has(directedKey(b, a))) throw new InternalError(`mesh check: boundary edge ${a}-${b} has elements on both sides`);
+    if (!has(a, b)) throw new InternalError(`mesh check: boundary edge ${a}-${b} is missing, or has the material on its right`);
+    if (has(b, a)) throw new InternalError(`mesh check: boundary edge ${a}-${b} has elements on both sides`);
     const ax = nodes[2 * a];
     const ay = nodes[2 * a + 1];
     const bx = nodes[2 * b];
