@@ -34,6 +34,7 @@ export function generateMesh(domain: Domain, opts: MeshOptions): MeshResult {
   const t0 = performance.now();
   const size = buildSizeField(domain, opts);
   const estimated = estimateTriangles(domain, size);
+  size.tuneGrid(estimated);
   if (opts.maxBytes !== undefined) {
     const bytes = estimateAnalysisBytes(estimated, opts.order);
     if (bytes > opts.maxBytes) {

@@ -70,6 +70,8 @@ export class SizeField {
   private ny = 0;
   private cellStart = new Int32Array(1);
   private cellList = new Int32Array(0);
+  private gridN = 0;
+  private gridBox?: readonly [number, number, number, number];
 
   private readonly limit?: SizeLimit;
 
@@ -143,16 +145,25 @@ export class SizeField {
    * in it: v_s(x) lies within slope_s * (half diagonal) of v_s(centre), so a source whose lower
    * bound exceeds the least upper bound (or the global size) is never the minimum there.
    */
-  private buildGrid(bbox: readonly [number, number, number, number]): void {
+  /**
+   * Sizes the candidate grid for a mesh of about `triangles` triangles: a build of up to two
+   * source evaluations per expected triangle (the mesher queries the field several times per
+   * triangle), at most 4e6. A no-op for small meshes and fields without a grid.
+   */
+  tuneGrid(triangles: number): void {
+    if (this.gridBox) this.buildGrid(this.gridBox, Math.min(4e6, 2 * triangles));
+  }
+
+  private buildGrid(bbox: readonly [number, number, number, number], budget = 3e5): void {
     const [x0, y0, x1, y1] = bbox;
     const span = Math.max(x1 - x0, y1 - y0) || 1;
-    // About 3e5 source evaluations to build it (a few milliseconds) for ordinary meshes; for
-    // fine ones, which query the field millions of times, a budget up to 4e6 evaluations
-    // (tens of milliseconds) that grows with (span / hMin)^2, so that the cells near the raisers
-    // hold few candidates. The grid changes only the speed: every cell keeps every source that
-    // can be the least in it.
-    const budget = Math.max(3e5, Math.min(4e6, 2 * (span / this.hMin) ** 2));
+    // About `budget` source evaluations to build it: 3e5 (a few milliseconds) at first; a field
+    // that will be queried millions of times is given a finer grid by tuneGrid. The grid changes
+    // only the speed: every cell keeps every source that can be the least in it.
     const n = Math.max(8, Math.min(256, Math.round(Math.sqrt(budget / this.count))));
+    if (n <= this.gridN) return;
+    this.gridN = n;
+    this.gridBox = bbox;
     this.cell = span / n;
     this.gx0 = x0 - this.cell;
     this.gy0 = y0 - this.cell;
