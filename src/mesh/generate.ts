@@ -36,7 +36,9 @@ export function generateMesh(domain: Domain, opts: MeshOptions): MeshResult {
   const estimated = estimateTriangles(domain, size);
   size.tuneGrid(estimated);
   if (opts.maxBytes !== undefined) {
-    const bytes = estimateAnalysisBytes(estimated, opts.order);
+    // Refused only when not even the iterative solver (no factor) would fit; the solver chooses
+    // between direct and iterative once the factor's size is known.
+    const bytes = estimateAnalysisBytes(estimated, opts.order, 'iterative');
     if (bytes > opts.maxBytes) {
       throw new ModelError(
         'mesh',

@@ -24,7 +24,8 @@ import { findPeak, outOfPlaneFactor, type Peak } from '../post/peak.js';
 import { recoverNodalStress, type KnownTraction } from '../post/recover.js';
 import { findSections, sectionAlong, type Cut } from '../post/section.js';
 import { sampleElementStresses } from '../post/stress.js';
-import { SolverPivotError, solveSpd, type SolveStats } from '../solve/index.js';
+import { estimateAnalysisBytes } from '../mesh/estimate.js';
+import { IncompleteCholeskyError, PcgError, SolverPivotError, solveSpd, type SolveStats } from '../solve/index.js';
 
 export interface AnalyseOptions {
   /** overrides the model's mesh.element */
@@ -149,7 +150,10 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
 
   let solved;
   try {
-    solved = solveSpd(system.K, system.f, { coords: mesh.nodes, nodeAdjacency: meshNodeGraph(mesh), dofsPerNode: 2, fullDofOfRow: system.freeDof });
+    // The direct factor may use what the memory limit leaves beside the rest of the analysis;
+    // beyond that the solver switches to conjugate gradients.
+    const maxFactorBytes = Math.max(0, prep.maxMemoryBytes - estimateAnalysisBytes(meshStats.triangles, mesh.order as 1 | 2, 'iterative'));
+    solved = solveSpd(system.K, system.f, { coords: mesh.nodes, nodeAdjacency: meshNodeGraph(mesh), dofsPerNode: 2, fullDofOfRow: system.freeDof, maxFactorBytes });
   } catch (err) {
     if (err instanceof SolverPivotError) {
       const dof = system.freeDof[err.originalIndex];
@@ -157,6 +161,14 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
       throw new AnalysisError(
         `the stiffness matrix is singular near (${mesh.nodes[2 * node].toPrecision(5)}, ${mesh.nodes[2 * node + 1].toPrecision(5)}) (${dof & 1 ? 'y' : 'x'} direction): part of the model can move without straining`,
         'check the supports: every piece of the part must be held against moving in x, in y and rotating',
+      );
+    }
+    if (err instanceof PcgError || err instanceof IncompleteCholeskyError) {
+      throw new AnalysisError(
+        `the model is too large for the direct solver's memory, and the iterative solver failed: ${err.message}`,
+        err instanceof PcgError && err.reason === 'not-converged'
+          ? 'coarsen the mesh (mesh.size, mesh.raiserSize) or run on a machine with more memory'
+          : 'check the supports (the stiffness matrix may not be positive definite), or coarsen the mesh',
       );
     }
     throw err;

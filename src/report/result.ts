@@ -175,6 +175,8 @@ function buildResultUnchecked(a: Analysis, file?: string, cert: Certified | null
       equations: a.solveStats.n,
       factorNonzeros: a.solveStats.nnzL,
       relativeResidual: a.solveStats.relativeResidual,
+      method: a.solveStats.method,
+      iterations: a.solveStats.iterations,
     },
     timeMs: a.timeMs,
     convergence: conv,

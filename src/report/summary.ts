@@ -72,6 +72,9 @@ export function formatSummary(r: ResultJson): string {
     `  mesh   ${r.mesh.nodes} nodes, ${r.mesh.elements} ${r.mesh.elementType} triangles (${r.mesh.nodesPerElement}-node), ${r.mesh.dofs} DOF, smallest angle ${fmt(r.mesh.minAngleDeg, 3)} deg`,
   );
   out.push(`  time   mesh ${fmt(r.timeMs.mesh, 3)} ms, stiffness ${fmt(r.timeMs.assemble, 3)} ms, solve ${fmt(r.timeMs.solve, 3)} ms, total ${fmt(r.timeMs.total, 3)} ms`);
+  if (r.solver.method === 'pcg') {
+    out.push(`  solver the direct factor would not fit in memory: conjugate gradients with an incomplete Cholesky preconditioner, ${r.solver.iterations} iterations, residual ${r.solver.relativeResidual.toExponential(1)}`);
+  }
   out.push(
     `  loads  resultant (${fmt(r.load.resultant.fx)}, ${fmt(r.load.resultant.fy)}) ${u.force}; reactions balance them to ${r.load.equilibriumError.toExponential(1)} of the load`,
   );

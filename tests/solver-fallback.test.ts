@@ -1,0 +1,32 @@
+/**
+ * When the direct factor would not fit in what the memory limit leaves, the analysis solves by
+ * conjugate gradients (incomplete Cholesky preconditioner, to ||f - K u|| / ||f|| <= 1e-10) and
+ * says so. Kt must then agree with the direct solve: the two differ only by the iteration's
+ * residual, so to far better than the mesh error (1e-6 relative is used here).
+ */
+import { describe, expect, it } from 'vitest';
+import { estimateAnalysisBytes } from '../src/mesh/estimate.js';
+import { loadModelFile } from '../src/model/load.js';
+import { analyseOnMesh, prepareModel } from '../src/pipeline/analyse.js';
+import { buildResult } from '../src/report/result.js';
+import { formatSummary } from '../src/report/summary.js';
+
+describe('iterative solve when the factor does not fit', () => {
+  it('gives the direct solution, reports the method and iterations', () => {
+    const { model } = loadModelFile('examples/strap-bolt-hole.json');
+    const direct = analyseOnMesh(prepareModel(model));
+    expect(direct.solveStats.method).toBe('cholesky');
+    // Leave 1 MB beside the rest of the analysis: far less than this factor needs.
+    const limit = estimateAnalysisBytes(direct.meshStats.triangles, direct.mesh.order as 1 | 2, 'iterative') + 1e6;
+    expect(direct.solveStats.estimatedFactorBytes).toBeGreaterThan(1e6);
+    const iterative = analyseOnMesh(prepareModel(model, { maxMemoryBytes: limit }));
+    expect(iterative.solveStats.method).toBe('pcg');
+    expect(iterative.solveStats.iterations).toBeGreaterThan(0);
+    expect(iterative.solveStats.relativeResidual).toBeLessThanOrEqual(1e-10);
+    expect(iterative.meshStats.triangles).toBe(direct.meshStats.triangles);
+    expect(Math.abs(iterative.kt.net / direct.kt.net - 1)).toBeLessThan(1e-6);
+    const result = buildResult(iterative, 'examples/strap-bolt-hole.json');
+    expect(result.solver.method).toBe('pcg');
+    expect(formatSummary(result)).toMatch(/conjugate gradients .* \d+ iterations/);
+  });
+});
