@@ -12,6 +12,7 @@ import { existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } fro
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { PNG } from 'pngjs';
 import { describe, expect, it } from 'vitest';
 import { ktHoleInStripNet, ktSteppedBarTension } from '../src/charts/formulas.js';
 import { raiser, ROOT } from './support/cli.js';
@@ -43,6 +44,12 @@ describe('raiser sweep', () => {
       expect(row.status).toBe('converged');
     }
     expect(readFileSync(join(out, 'sweep.svg'), 'utf8')).toContain('<svg');
+    // The PNG chart: its size, and the curve's colour present (markers and line).
+    const png = PNG.sync.read(readFileSync(join(out, 'sweep.png')));
+    expect([png.width, png.height]).toEqual([1400, 900]);
+    let curve = 0;
+    for (let i = 0; i < png.data.length; i += 4) if (Math.abs(png.data[i] - 27) + Math.abs(png.data[i + 1] - 79) + Math.abs(png.data[i + 2] - 114) < 12) curve++;
+    expect(curve).toBeGreaterThan(500);
   });
 
   it('a shoulder fillet radius follows the chart 3.1 fit within 5%', () => {

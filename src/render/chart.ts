@@ -8,7 +8,7 @@ import type { Rgb } from './raster.js';
 import { discPolygon } from './raster.js';
 import { addText, type Box, type Scene } from './scene.js';
 import { formatTicks, formatValue, niceStep, ticksIn } from './ticks.js';
-import { INK, SOFT } from './annotate.js';
+import { INK, PAPER, SOFT } from './annotate.js';
 
 export interface Series {
   name: string;
@@ -165,13 +165,43 @@ export function drawChart(s: Scene, box: Box, spec: ChartSpec, size: number): Ch
     if (discs.length) s.items.push({ kind: 'fill', paths: discs, colour: se.colour });
   }
   s.items.push({ kind: 'stroke', lines: [[plot[0], plot[1], plot[2], plot[1], plot[2], plot[3], plot[0], plot[3]]], width: 1.2, colour: INK, closed: true });
-  // Key.
-  let ky = plot[1] + size * 1.4;
-  for (const se of spec.series) {
-    const kx = plot[0] + size * 0.8;
-    s.items.push({ kind: 'stroke', lines: [[kx, ky - capHeight(size) / 2, kx + size * 1.8, ky - capHeight(size) / 2]], width: se.width ?? 2, colour: se.colour, dash: se.dash });
-    addText(s, se.name, kx + size * 2.3, ky, size * 0.9, SOFT);
-    ky += size * 1.35;
+  // Key, on a paper-coloured box in the corner of the plot that covers the fewest data points.
+  if (spec.series.length > 0) {
+    const kw = size * 3.1 + Math.max(...spec.series.map((se) => textWidth(se.name, size * 0.9)));
+    const kh = size * 1.35 * spec.series.length + size * 0.5;
+    const pad = size * 0.4;
+    const corners: [number, number][] = [
+      [plot[0] + pad, plot[1] + pad],
+      [plot[2] - pad - kw, plot[1] + pad],
+      [plot[0] + pad, plot[3] - pad - kh],
+      [plot[2] - pad - kw, plot[3] - pad - kh],
+    ];
+    const covered = ([x0, y0]: [number, number]) => {
+      let n = 0;
+      for (const se of spec.series) {
+        for (let k = 0; k + 1 < se.points.length; k += 2) {
+          const px = xToPx(se.points[k]);
+          const py = yToPx(se.points[k + 1]);
+          if (px >= x0 - size && px <= x0 + kw + size && py >= y0 - size && py <= y0 + kh + size) n++;
+        }
+      }
+      return n;
+    };
+    let [bx0, by0] = corners[0];
+    let best = Infinity;
+    for (const c of corners) {
+      const n = covered(c);
+      if (n < best) [best, bx0, by0] = [n, c[0], c[1]];
+    }
+    s.items.push({ kind: 'fill', paths: [[bx0, by0, bx0 + kw, by0, bx0 + kw, by0 + kh, bx0, by0 + kh]], colour: PAPER, alpha: 0.88 });
+    s.info.boxes.push({ what: 'key', box: [bx0, by0, bx0 + kw, by0 + kh] });
+    let ky = by0 + size * 1.0;
+    for (const se of spec.series) {
+      const kx = bx0 + size * 0.4;
+      s.items.push({ kind: 'stroke', lines: [[kx, ky - capHeight(size) / 2, kx + size * 1.8, ky - capHeight(size) / 2]], width: se.width ?? 2, colour: se.colour, dash: se.dash });
+      addText(s, se.name, kx + size * 2.3, ky, size * 0.9, SOFT);
+      ky += size * 1.35;
+    }
   }
   return { plot, xToPx, yToPx };
 }

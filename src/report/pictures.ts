@@ -109,14 +109,14 @@ function outlineLoops(src: PlotSource, nodes: Float64Array, view: View): number[
   return loops;
 }
 
-interface Frame {
+export interface Frame {
   size: number;
   draw: Box;
   legend: Box | null;
 }
 
 /** Title, subtitle and footer (model, date, caution); returns the drawing area and legend column. */
-function frame(s: Scene, src: PlotSource | null, title: string, subtitle: string, withLegend: boolean): Frame {
+export function frame(s: Scene, src: PlotSource | null, title: string, subtitle: string, withLegend: boolean): Frame {
   const W = s.width;
   const H = s.height;
   const size = Math.max(11, Math.min(22, Math.min(W / 1.6, H) / 58));

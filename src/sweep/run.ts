@@ -14,7 +14,8 @@ import { ModelError } from '../model/errors.js';
 import { writeAtomic } from '../report/files.js';
 import { allCases, caseKey, readSweepSource, type SweepSource, type Vary } from './cases.js';
 import { solveCase, type CaseOptions, type CaseRow } from './solve-case.js';
-import { sweepSvg } from './plot.js';
+import { renderPng, renderSvg } from '../render/scene.js';
+import { sweepScene } from './plot.js';
 
 export interface SweepOptions extends CaseOptions {
   vary: Vary[];
@@ -150,7 +151,10 @@ function writeSweepFiles(outDir: string, src: SweepSource, rows: CaseRow[], vary
   writeAtomic(csv, lines.join('\n') + '\n');
   const json = join(outDir, 'sweep.json');
   writeAtomic(json, JSON.stringify({ model: src.file, vary, x: xExpr, rows: rows.map((r) => ({ ...r, x: caseX(src, r, xExpr) })) }, null, 2) + '\n');
+  const scene = sweepScene(rows.map((r) => ({ ...r, x: caseX(src, r, xExpr) })), vary, xExpr, src.model.title ?? src.file);
   const svg = join(outDir, 'sweep.svg');
-  writeAtomic(svg, sweepSvg(rows.map((r) => ({ ...r, x: caseX(src, r, xExpr) })), vary, xExpr, src.model.title ?? src.file));
-  return [csv, json, svg];
+  writeAtomic(svg, renderSvg(scene));
+  const png = join(outDir, 'sweep.png');
+  writeAtomic(png, renderPng(scene).toPng());
+  return [csv, json, svg, png];
 }
