@@ -13,7 +13,7 @@
 import { describe, expect, it } from 'vitest';
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { constitutiveMatrix } from '../src/fem/material.js';
-import { P2Scratch, stiffnessP1, stiffnessP2 } from '../src/fem/elements.js';
+import { P2Scratch, TRI3, TRI6, internalForceP2, isStraightP2, stiffnessP1, stiffnessP2, strainMatrixP2 } from '../src/fem/elements.js';
 import { addEdgeTraction } from '../src/fem/boundary-conditions.js';
 import { sampleElementStresses } from '../src/post/stress.js';
 import { boundaryFlags, distortedPatch, solveLinear } from './support/fe.js';
@@ -59,6 +59,62 @@ describe('element stiffness', () => {
       expect(ev.slice(3).every((v) => v > 1e-6 * max)).toBe(true);
     });
   }
+
+  /** The textbook form, t sum_q w_q det J B_q^T D B_q with the full 3 x 12 B, as the reference. */
+  function referenceP2(nodes: Float64Array, D: Float64Array, t: number): Float64Array {
+    const el = Int32Array.of(0, 1, 2, 3, 4, 5);
+    const rule = isStraightP2(nodes, el, 0) ? TRI3 : TRI6;
+    const s = new P2Scratch();
+    const ke = new Float64Array(144);
+    for (let q = 0; q < rule.w.length; q++) {
+      const det = strainMatrixP2(nodes, el, 0, rule.xi[q], rule.eta[q], s);
+      for (let i = 0; i < 12; i++) {
+        for (let j = 0; j < 12; j++) {
+          let v = 0;
+          for (let a = 0; a < 3; a++) for (let b = 0; b < 3; b++) v += s.B[12 * a + i] * D[3 * a + b] * s.B[12 * b + j];
+          ke[12 * i + j] += t * det * rule.w[q] * v;
+        }
+      }
+    }
+    return ke;
+  }
+
+  it('stiffnessP2 built by node blocks equals t sum w det J B^T D B with the full B, straight and curved, and re = ke ue', () => {
+    // Random triangles (a fixed linear congruential sequence), some with a midside node off its chord.
+    let seed = 12345;
+    const rand = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31);
+    const s = new P2Scratch();
+    const el = Int32Array.of(0, 1, 2, 3, 4, 5);
+    for (let trial = 0; trial < 40; trial++) {
+      const c = [0, 0, 1 + rand(), rand() - 0.5, rand() - 0.5, 0.8 + rand()];
+      const nodes = new Float64Array(12);
+      nodes.set(c);
+      const mids = [[0, 1], [1, 2], [2, 0]];
+      mids.forEach(([a, b], k) => {
+        const bow = trial % 2 === 1 && k === trial % 3 ? 0.08 * (rand() - 0.5) : 0;
+        const dx = c[2 * b] - c[2 * a];
+        const dy = c[2 * b + 1] - c[2 * a + 1];
+        nodes[6 + 2 * k] = 0.5 * (c[2 * a] + c[2 * b]) - bow * dy;
+        nodes[7 + 2 * k] = 0.5 * (c[2 * a + 1] + c[2 * b + 1]) + bow * dx;
+      });
+      const Dm = constitutiveMatrix(1e5 * (1 + rand()), 0.45 * rand(), trial % 4 === 0 ? 'plane-strain' : 'plane-stress');
+      const ke = new Float64Array(144);
+      stiffnessP2(nodes, el, 0, Dm, 1.5, ke, s);
+      const ref = referenceP2(nodes, Dm, 1.5);
+      let scale = 0;
+      for (const v of ref) scale = Math.max(scale, Math.abs(v));
+      for (let k = 0; k < 144; k++) expect(Math.abs(ke[k] - ref[k])).toBeLessThanOrEqual(1e-12 * scale);
+      for (let i = 0; i < 12; i++) for (let j = 0; j < 12; j++) expect(ke[12 * i + j]).toBe(ke[12 * j + i]);
+      const ue = Float64Array.from({ length: 12 }, () => rand() - 0.5);
+      const re = new Float64Array(12);
+      internalForceP2(nodes, el, 0, Dm, 1.5, ue, re, s);
+      for (let i = 0; i < 12; i++) {
+        let v = 0;
+        for (let j = 0; j < 12; j++) v += ref[12 * i + j] * ue[j];
+        expect(Math.abs(re[i] - v)).toBeLessThanOrEqual(1e-11 * scale);
+      }
+    }
+  });
 
   it('stiffnessP1 refuses a clockwise element instead of taking |det J|', () => {
     const ke = new Float64Array(36);

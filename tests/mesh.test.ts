@@ -14,7 +14,7 @@ import { describe, expect, it } from 'vitest';
 import { buildDomain } from '../src/geometry/domain.js';
 import { curvatureRadius, evaluateCurve } from '../src/geometry/curve.js';
 import { checkMesh } from '../src/mesh/check.js';
-import { generateMesh } from '../src/mesh/generate.js';
+import { generateMesh, hilbertIndex } from '../src/mesh/generate.js';
 import { buildSizeField } from '../src/mesh/sizefield.js';
 import type { Geometry } from '../src/model/schema.js';
 
@@ -129,5 +129,29 @@ describe('generateMesh', () => {
     expect(() => checkMesh(flipped, domain)).toThrow(/counter-clockwise/);
     const missing = { ...mesh, nElements: mesh.nElements - 1 };
     expect(() => checkMesh(missing, domain)).toThrow(/mesh check/);
+  });
+});
+
+describe('Hilbert order of the finished mesh', () => {
+  // The curve visits every cell of an n x n grid once, each step to an edge neighbour
+  // (D. Hilbert, "Ueber die stetige Abbildung einer Linie auf ein Flaechenstueck", Math. Ann. 38, 1891).
+  it('hilbertIndex is a bijection on a 16 x 16 grid whose consecutive cells are edge neighbours', () => {
+    const n = 16;
+    const at: [number, number][] = [];
+    for (let x = 0; x < n; x++) for (let y = 0; y < n; y++) at[hilbertIndex(n, x, y)] = [x, y];
+    expect(at.filter(Boolean).length).toBe(n * n);
+    for (let d = 1; d < n * n; d++) expect(Math.abs(at[d][0] - at[d - 1][0]) + Math.abs(at[d][1] - at[d - 1][1])).toBe(1);
+  });
+
+  it('numbers nodes so that an element spans a small range of node numbers', () => {
+    const { mesh } = generateMesh(buildDomain(SHAPES['plate with a circular hole']), { order: 1, size: 1.5 });
+    const spans: number[] = [];
+    for (let e = 0; e < mesh.nElements; e++) {
+      const a = mesh.elements[3 * e], b = mesh.elements[3 * e + 1], c = mesh.elements[3 * e + 2];
+      spans.push(Math.max(a, b, c) - Math.min(a, b, c));
+    }
+    spans.sort((p, q) => p - q);
+    // a random numbering would give a median span of about half the node count
+    expect(spans[spans.length >> 1]).toBeLessThan(0.02 * mesh.nNodes);
   });
 });

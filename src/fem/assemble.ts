@@ -6,7 +6,7 @@
  */
 import type { CsrGraph, SymmetricCsc } from '../solve/index.js';
 import type { Mesh } from '../mesh/types.js';
-import { P2Scratch, stiffnessP1, stiffnessP2 } from './elements.js';
+import { P2Scratch, internalForceP2, stiffnessP1, stiffnessP2 } from './elements.js';
 
 export interface Constraints {
   /** per DOF: 1 when prescribed */
@@ -50,7 +50,7 @@ export function forEachElementStiffness(
   }
 }
 
-export function assembleSystem(mesh: Mesh, D: Float64Array, thickness: number, fFull: Float64Array, c: Constraints): FeSystem {
+export function assembleSystem(mesh: Mesh, D: Float64Array, thickness: number, fFull: Float64Array, c: Constraints, graph?: CsrGraph): FeSystem {
   const nDof = 2 * mesh.nNodes;
   const dofFree = new Int32Array(nDof);
   let nFree = 0;
@@ -63,40 +63,45 @@ export function assembleSystem(mesh: Mesh, D: Float64Array, thickness: number, f
   // The lower-triangle pattern of K on the free DOFs comes from the node graph (two nodes are
   // coupled when they share an element), and every element's entries are added in place: no
   // coordinate triplets (for 1e6 DOF of 6-node elements those are 2e7 entries to bucket twice).
-  // The sums run in element order, as the triplet assembly summed them, so K is the same to
-  // the last bit.
-  const K = freeStiffnessPattern(mesh, dofFree, nFree);
-  const { colPtr, rowIndex, values } = K;
-  forEachElementStiffness(mesh, D, thickness, (_e, ke, dofs) => {
-    const nd = dofs.length;
-    // columns outer, rows inner: each f[ri] still receives its terms in the order j = 0, 1, ...
+  // Each node pair (a, b >= a) of an element finds b in a's short list once and adds its 2x2
+  // block through the four stored positions. The sums run in element order, as the triplet
+  // assembly summed them, so K is the same to the last bit.
+  const { K, upper } = freePatternWithSlots(mesh, graph ?? meshNodeGraph(mesh), dofFree, nFree);
+  const { ptr: uptr, idx: uidx, slot } = upper;
+  const values = K.values;
+  const per = mesh.order === 2 ? 6 : 3;
+  const el = mesh.elements;
+  forEachElementStiffness(mesh, D, thickness, (e, ke, dofs) => {
+    const nd = 2 * per;
+    const o = per * e;
+    for (let i = 0; i < per; i++) {
+      const na = el[o + i];
+      for (let j = 0; j < per; j++) {
+        const nb = el[o + j];
+        if (nb < na) continue;
+        let p = uptr[na];
+        while (uidx[p] !== nb) p++;
+        const s4 = 4 * p;
+        // rows x_b, y_b (local 2j, 2j+1) in columns x_a, y_a (local 2i, 2i+1)
+        const r0 = 2 * j * nd + 2 * i;
+        const r1 = r0 + nd;
+        let q = slot[s4];
+        if (q >= 0) values[q] += ke[r0];
+        q = slot[s4 + 1];
+        if (q >= 0) values[q] += ke[r1];
+        q = slot[s4 + 2];
+        if (q >= 0) values[q] += ke[r0 + 1];
+        q = slot[s4 + 3];
+        if (q >= 0) values[q] += ke[r1 + 1];
+      }
+    }
+    // prescribed values: f_f -= K_fc u_c, each f[ri] taking its terms in the order j = 0, 1, ...
     for (let j = 0; j < nd; j++) {
-      const cj = dofFree[dofs[j]];
-      let prev = -1;
+      const u = c.value[dofs[j]];
+      if (u === 0 || dofFree[dofs[j]] >= 0) continue;
       for (let i = 0; i < nd; i++) {
         const ri = dofFree[dofs[i]];
-        if (ri < 0) continue;
-        const v = ke[i * nd + j];
-        if (cj < 0) {
-          const u = c.value[dofs[j]];
-          if (u !== 0) f[ri] -= v * u;
-          continue;
-        }
-        if (ri < cj) continue;
-        // row ri in column cj (rows sorted); a node's y row follows its x row
-        let lo: number;
-        if ((i & 1) === 1 && prev >= 0 && rowIndex[prev + 1] === ri) lo = prev + 1;
-        else {
-          lo = colPtr[cj];
-          let hi = colPtr[cj + 1] - 1;
-          while (lo < hi) {
-            const mid = (lo + hi) >> 1;
-            if (rowIndex[mid] < ri) lo = mid + 1;
-            else hi = mid;
-          }
-        }
-        prev = (i & 1) === 0 ? lo : -1;
-        values[lo] += v;
+        if (ri >= 0) f[ri] -= ke[i * nd + j] * u;
       }
     }
   });
@@ -110,62 +115,131 @@ export function assembleSystem(mesh: Mesh, D: Float64Array, thickness: number, f
  * the rows of a column come out sorted when the node's neighbours are.
  */
 export function freeStiffnessPattern(mesh: Mesh, dofFree: Int32Array, nFree: number): SymmetricCsc {
-  const g = meshNodeGraph(mesh);
+  return freePatternWithSlots(mesh, meshNodeGraph(mesh), dofFree, nFree).K;
+}
+
+/**
+ * The pattern, and for each node a the sorted list of nodes b >= a coupled to it (a first) with,
+ * per entry, the positions in K.values of (x_b, x_a), (y_b, x_a), (x_b, y_a), (y_b, y_a) as
+ * (row, column), -1 where a DOF is fixed or the entry is above the diagonal.
+ */
+function freePatternWithSlots(mesh: Mesh, g: CsrGraph, dofFree: Int32Array, nFree: number): { K: SymmetricCsc; upper: { ptr: Int32Array; idx: Int32Array; slot: Int32Array } } {
   const n = mesh.nNodes;
-  // neighbours of each node with the node itself, sorted
-  const sptr = new Int32Array(n + 1);
-  for (let a = 0; a < n; a++) sptr[a + 1] = sptr[a] + (g.ptr[a + 1] - g.ptr[a]) + 1;
-  const sidx = new Int32Array(sptr[n]);
+  const uptr = new Int32Array(n + 1);
   for (let a = 0; a < n; a++) {
-    let w = sptr[a];
-    sidx[w++] = a;
-    // insertion sort: the lists are short (6-30 nodes)
+    let cnt = 1;
+    for (let p = g.ptr[a]; p < g.ptr[a + 1]; p++) if (g.idx[p] > a) cnt++;
+    uptr[a + 1] = uptr[a] + cnt;
+  }
+  const uidx = new Int32Array(uptr[n]);
+  for (let a = 0; a < n; a++) {
+    let w = uptr[a];
+    uidx[w++] = a;
+    // insertion sort: the lists are short (3-15 nodes)
     for (let p = g.ptr[a]; p < g.ptr[a + 1]; p++) {
       const b = g.idx[p];
+      if (b <= a) continue;
       let q = w++;
-      while (q > sptr[a] && sidx[q - 1] > b) {
-        sidx[q] = sidx[q - 1];
+      while (q > uptr[a] + 1 && uidx[q - 1] > b) {
+        uidx[q] = uidx[q - 1];
         q--;
       }
-      sidx[q] = b;
+      uidx[q] = b;
     }
   }
+  // Column (a, x) holds x_a, y_a (if free), then x_b, y_b of every b > a (where free); column
+  // (a, y) holds y_a, then the same x_b, y_b. Counts first.
   const colPtr = new Int32Array(nFree + 1);
-  let rowIndexOut = new Int32Array(0);
-  for (let pass = 0; pass < 2; pass++) {
-    let nz = 0;
-    for (let d = 0; d < 2 * n; d++) {
-      const cj = dofFree[d];
-      if (cj < 0) continue;
-      const a = d >> 1;
-      if (pass === 0) {
-        let cnt = 0;
-        for (let p = sptr[a]; p < sptr[a + 1]; p++) {
-          const b = sidx[p];
-          if (dofFree[2 * b] >= cj) cnt++;
-          if (dofFree[2 * b + 1] >= cj) cnt++;
+  for (let a = 0; a < n; a++) {
+    let below = 0; // free DOFs of the nodes b > a
+    for (let p = uptr[a] + 1; p < uptr[a + 1]; p++) {
+      const b = uidx[p];
+      if (dofFree[2 * b] >= 0) below++;
+      if (dofFree[2 * b + 1] >= 0) below++;
+    }
+    const fx = dofFree[2 * a];
+    const fy = dofFree[2 * a + 1];
+    if (fx >= 0) colPtr[fx + 1] = below + 1 + (fy >= 0 ? 1 : 0);
+    if (fy >= 0) colPtr[fy + 1] = below + 1;
+  }
+  for (let j = 0; j < nFree; j++) colPtr[j + 1] += colPtr[j];
+  const rowIndex = new Int32Array(colPtr[nFree]);
+  const slot = new Int32Array(4 * uptr[n]).fill(-1);
+  for (let a = 0; a < n; a++) {
+    const fx = dofFree[2 * a];
+    const fy = dofFree[2 * a + 1];
+    let wx = fx >= 0 ? colPtr[fx] : -1;
+    let wy = fy >= 0 ? colPtr[fy] : -1;
+    const s0 = 4 * uptr[a];
+    // the node with itself: (x_a, x_a), (y_a, x_a), (y_a, y_a)
+    if (fx >= 0) {
+      slot[s0] = wx;
+      rowIndex[wx++] = fx;
+      if (fy >= 0) {
+        slot[s0 + 1] = wx;
+        rowIndex[wx++] = fy;
+      }
+    }
+    if (fy >= 0) {
+      slot[s0 + 3] = wy;
+      rowIndex[wy++] = fy;
+    }
+    for (let p = uptr[a] + 1; p < uptr[a + 1]; p++) {
+      const b = uidx[p];
+      const rx = dofFree[2 * b];
+      const ry = dofFree[2 * b + 1];
+      const s4 = 4 * p;
+      if (fx >= 0) {
+        if (rx >= 0) {
+          slot[s4] = wx;
+          rowIndex[wx++] = rx;
         }
-        colPtr[cj + 1] = cnt;
-      } else {
-        for (let p = sptr[a]; p < sptr[a + 1]; p++) {
-          const b = sidx[p];
-          const r0 = dofFree[2 * b];
-          const r1 = dofFree[2 * b + 1];
-          if (r0 >= cj) rowIndexOut[nz++] = r0;
-          if (r1 >= cj) rowIndexOut[nz++] = r1;
+        if (ry >= 0) {
+          slot[s4 + 1] = wx;
+          rowIndex[wx++] = ry;
+        }
+      }
+      if (fy >= 0) {
+        if (rx >= 0) {
+          slot[s4 + 2] = wy;
+          rowIndex[wy++] = rx;
+        }
+        if (ry >= 0) {
+          slot[s4 + 3] = wy;
+          rowIndex[wy++] = ry;
         }
       }
     }
-    if (pass === 0) {
-      for (let j = 0; j < nFree; j++) colPtr[j + 1] += colPtr[j];
-      rowIndexOut = new Int32Array(colPtr[nFree]);
-    }
   }
-  return { n: nFree, colPtr, rowIndex: rowIndexOut, values: new Float64Array(colPtr[nFree]) };
+  return { K: { n: nFree, colPtr, rowIndex, values: new Float64Array(colPtr[nFree]) }, upper: { ptr: uptr, idx: uidx, slot } };
 }
-/** r = K u over the whole mesh (all DOFs), element by element: the nodal internal forces. */
+/**
+ * r = K u over the whole mesh (all DOFs), element by element: the nodal internal forces. For
+ * 6-node elements r_e = t sum_q w_q det J B_q^T sigma_q by the stiffness rule, which is K_e u_e
+ * without forming K_e.
+ */
 export function internalForces(mesh: Mesh, D: Float64Array, thickness: number, u: Float64Array): Float64Array {
   const r = new Float64Array(2 * mesh.nNodes);
+  if (mesh.order === 2) {
+    const s = new P2Scratch();
+    const ue = new Float64Array(12);
+    const re = new Float64Array(12);
+    const el = mesh.elements;
+    for (let e = 0; e < mesh.nElements; e++) {
+      for (let i = 0; i < 6; i++) {
+        const n = el[6 * e + i];
+        ue[2 * i] = u[2 * n];
+        ue[2 * i + 1] = u[2 * n + 1];
+      }
+      internalForceP2(mesh.nodes, el, e, D, thickness, ue, re, s);
+      for (let i = 0; i < 6; i++) {
+        const n = el[6 * e + i];
+        r[2 * n] += re[2 * i];
+        r[2 * n + 1] += re[2 * i + 1];
+      }
+    }
+    return r;
+  }
   forEachElementStiffness(mesh, D, thickness, (_e, ke, dofs) => {
     const nd = dofs.length;
     for (let i = 0; i < nd; i++) {

@@ -97,6 +97,7 @@ export class P2Scratch {
   dxi = new Float64Array(6);
   deta = new Float64Array(6);
   B = new Float64Array(36);
+  g = new P2Gradients();
 }
 
 /**
@@ -140,21 +141,98 @@ export function strainMatrixP2(nodes: Float64Array, el: Int32Array, e: number, x
 /** True when every midside node sits at its chord midpoint (a straight-sided element). */
 export function isStraightP2(nodes: Float64Array, el: Int32Array, e: number): boolean {
   const o = 6 * e;
-  const pairs = [
-    [0, 1, 3],
-    [1, 2, 4],
-    [2, 0, 5],
-  ];
-  for (const [a, b, m] of pairs) {
-    const ia = el[o + a];
-    const ib = el[o + b];
-    const im = el[o + m];
-    const dx = nodes[2 * im] - 0.5 * (nodes[2 * ia] + nodes[2 * ib]);
-    const dy = nodes[2 * im + 1] - 0.5 * (nodes[2 * ia + 1] + nodes[2 * ib + 1]);
-    const l = Math.abs(nodes[2 * ib] - nodes[2 * ia]) + Math.abs(nodes[2 * ib + 1] - nodes[2 * ia + 1]);
-    if (Math.abs(dx) + Math.abs(dy) > 1e-12 * l) return false;
+  return straightSide(nodes, el[o], el[o + 1], el[o + 3]) && straightSide(nodes, el[o + 1], el[o + 2], el[o + 4]) && straightSide(nodes, el[o + 2], el[o], el[o + 5]);
+}
+
+function straightSide(nodes: Float64Array, ia: number, ib: number, im: number): boolean {
+  const dx = nodes[2 * im] - 0.5 * (nodes[2 * ia] + nodes[2 * ib]);
+  const dy = nodes[2 * im + 1] - 0.5 * (nodes[2 * ia + 1] + nodes[2 * ib + 1]);
+  const l = Math.abs(nodes[2 * ib] - nodes[2 * ia]) + Math.abs(nodes[2 * ib + 1] - nodes[2 * ia + 1]);
+  return Math.abs(dx) + Math.abs(dy) <= 1e-12 * l;
+}
+
+/** Reference derivatives of the six shape functions at the points of a rule: [q * 6 + i]. */
+function referenceDerivatives(rule: { xi: Float64Array; eta: Float64Array }): { dxi: Float64Array; deta: Float64Array } {
+  const nq = rule.xi.length;
+  const N = new Float64Array(6);
+  const a = new Float64Array(6);
+  const b = new Float64Array(6);
+  const dxi = new Float64Array(6 * nq);
+  const deta = new Float64Array(6 * nq);
+  for (let q = 0; q < nq; q++) {
+    shapeP2(rule.xi[q], rule.eta[q], N, a, b);
+    dxi.set(a, 6 * q);
+    deta.set(b, 6 * q);
   }
-  return true;
+  return { dxi, deta };
+}
+const REF3 = referenceDerivatives(TRI3);
+const REF6 = referenceDerivatives(TRI6);
+
+/** Cartesian shape-function gradients of a 6-node element at the points of its rule. */
+export class P2Gradients {
+  /** dN_i/dx, dN_i/dy at point q: [q * 6 + i] */
+  dx = new Float64Array(36);
+  dy = new Float64Array(36);
+  /** quadrature weight times det J at point q */
+  w = new Float64Array(6);
+  /** number of points used (3 for straight sides, 6 for curved) */
+  nq = 0;
+}
+
+/**
+ * Fills g with the gradients at the stiffness rule's points of element e: the 3-point rule for
+ * straight sides (J constant, from the corners), the 6-point rule for curved sides
+ * (isoparametric J at each point). Throws a RangeError when det J <= 0 anywhere.
+ */
+export function gradientsP2(nodes: Float64Array, el: Int32Array, e: number, g: P2Gradients): void {
+  const o = 6 * e;
+  if (isStraightP2(nodes, el, e)) {
+    const a = el[o];
+    const b = el[o + 1];
+    const c = el[o + 2];
+    const j11 = nodes[2 * b] - nodes[2 * a];
+    const j12 = nodes[2 * b + 1] - nodes[2 * a + 1];
+    const j21 = nodes[2 * c] - nodes[2 * a];
+    const j22 = nodes[2 * c + 1] - nodes[2 * a + 1];
+    const det = j11 * j22 - j12 * j21;
+    if (!(det > 0)) throw new RangeError(`element ${e}: det J = ${det} <= 0`);
+    const inv = 1 / det;
+    for (let k = 0; k < 18; k++) {
+      g.dx[k] = (j22 * REF3.dxi[k] - j12 * REF3.deta[k]) * inv;
+      g.dy[k] = (-j21 * REF3.dxi[k] + j11 * REF3.deta[k]) * inv;
+    }
+    for (let q = 0; q < 3; q++) g.w[q] = TRI3.w[q] * det;
+    g.nq = 3;
+    return;
+  }
+  for (let q = 0; q < 6; q++) {
+    let j11 = 0;
+    let j12 = 0;
+    let j21 = 0;
+    let j22 = 0;
+    for (let i = 0; i < 6; i++) {
+      const k = el[o + i];
+      const x = nodes[2 * k];
+      const y = nodes[2 * k + 1];
+      const a = REF6.dxi[6 * q + i];
+      const b = REF6.deta[6 * q + i];
+      j11 += a * x;
+      j12 += a * y;
+      j21 += b * x;
+      j22 += b * y;
+    }
+    const det = j11 * j22 - j12 * j21;
+    if (!(det > 0)) throw new RangeError(`element ${e}: det J = ${det} <= 0 at (${TRI6.xi[q]}, ${TRI6.eta[q]})`);
+    const inv = 1 / det;
+    for (let i = 0; i < 6; i++) {
+      const k = 6 * q + i;
+      g.dx[k] = (j22 * REF6.dxi[k] - j12 * REF6.deta[k]) * inv;
+      g.dy[k] = (-j21 * REF6.dxi[k] + j11 * REF6.deta[k]) * inv;
+    }
+    g.w[q] = TRI6.w[q] * det;
+  }
+  g.nq = 6;
 }
 
 /**
@@ -164,13 +242,84 @@ export function isStraightP2(nodes: Float64Array, el: Int32Array, e: number): bo
  * Writes the 12x12 row-major stiffness into ke       |     \
  * (ux0, uy0, ux1, ...). Curved sides: isoparametric. 0--3--1
  * Straight sides: 3-point rule (exact, B^T D B is quadratic); curved: 6-point degree-4 rule.
+ *
+ * Built by 2x2 node blocks rather than as B^T D B with B's zeros: with B_col(ux_i) =
+ * (dx_i, 0, dy_i) and B_col(uy_i) = (0, dy_i, dx_i), each block needs only the four weighted sums
+ * Sxx = sum w dx_i dx_j, Sxy = sum w dx_i dy_j, Syx = sum w dy_i dx_j, Syy = sum w dy_i dy_j.
+ * Only blocks with j >= i are formed; the others are their mirror images (D is symmetric), so
+ * ke is symmetric to the last bit.
  */
 export function stiffnessP2(nodes: Float64Array, el: Int32Array, e: number, D: Float64Array, thickness: number, ke: Float64Array, s: P2Scratch): void {
-  const rule = isStraightP2(nodes, el, e) ? TRI3 : TRI6;
-  ke.fill(0, 0, 144);
-  for (let q = 0; q < rule.w.length; q++) {
-    const det = strainMatrixP2(nodes, el, e, rule.xi[q], rule.eta[q], s);
-    accumulateBtDB(s.B, D, 12, thickness * det * rule.w[q], ke, false);
+  const g = s.g;
+  gradientsP2(nodes, el, e, g);
+  const { dx, dy, w, nq } = g;
+  const d00 = D[0], d01 = D[1], d02 = D[2], d11 = D[4], d12 = D[5], d22 = D[8];
+  for (let i = 0; i < 6; i++) {
+    for (let j = i; j < 6; j++) {
+      let sxx = 0;
+      let sxy = 0;
+      let syx = 0;
+      let syy = 0;
+      for (let q = 0; q < nq; q++) {
+        const wq = w[q] * thickness;
+        const axi = dx[6 * q + i] * wq;
+        const ayi = dy[6 * q + i] * wq;
+        const bxj = dx[6 * q + j];
+        const byj = dy[6 * q + j];
+        sxx += axi * bxj;
+        sxy += axi * byj;
+        syx += ayi * bxj;
+        syy += ayi * byj;
+      }
+      const uu = d00 * sxx + d02 * (sxy + syx) + d22 * syy;
+      const uv = d01 * sxy + d02 * sxx + d12 * syy + d22 * syx;
+      // on a diagonal block uv and vu are the same entry mirrored (equal but for rounding)
+      const vu = i === j ? uv : d01 * syx + d12 * syy + d02 * sxx + d22 * sxy;
+      const vv = d11 * syy + d12 * (syx + sxy) + d22 * sxx;
+      const r = 24 * i + 2 * j; // row 2i, column 2j
+      ke[r] = uu;
+      ke[r + 1] = uv;
+      ke[r + 12] = vu;
+      ke[r + 13] = vv;
+      const m = 24 * j + 2 * i; // row 2j, column 2i
+      ke[m] = uu;
+      ke[m + 1] = vu;
+      ke[m + 12] = uv;
+      ke[m + 13] = vv;
+    }
+  }
+}
+
+/**
+ * Internal nodal forces of a 6-node element, re = t * sum_q w_q det J B_q^T D B_q ue, by the
+ * stiffness rule (so re = ke ue) without forming ke. ue and re are in element DOF order.
+ */
+export function internalForceP2(nodes: Float64Array, el: Int32Array, e: number, D: Float64Array, thickness: number, ue: Float64Array, re: Float64Array, s: P2Scratch): void {
+  const g = s.g;
+  gradientsP2(nodes, el, e, g);
+  const { dx, dy, w, nq } = g;
+  re.fill(0, 0, 12);
+  for (let q = 0; q < nq; q++) {
+    let exx = 0;
+    let eyy = 0;
+    let gxy = 0;
+    for (let i = 0; i < 6; i++) {
+      const a = dx[6 * q + i];
+      const b = dy[6 * q + i];
+      exx += a * ue[2 * i];
+      eyy += b * ue[2 * i + 1];
+      gxy += b * ue[2 * i] + a * ue[2 * i + 1];
+    }
+    const f = w[q] * thickness;
+    const sxx = (D[0] * exx + D[1] * eyy + D[2] * gxy) * f;
+    const syy = (D[3] * exx + D[4] * eyy + D[5] * gxy) * f;
+    const sxy = (D[6] * exx + D[7] * eyy + D[8] * gxy) * f;
+    for (let i = 0; i < 6; i++) {
+      const a = dx[6 * q + i];
+      const b = dy[6 * q + i];
+      re[2 * i] += a * sxx + b * sxy;
+      re[2 * i + 1] += b * syy + a * sxy;
+    }
   }
 }
 

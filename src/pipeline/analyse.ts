@@ -145,7 +145,8 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
   const loads = compileLoads(model, domain, mesh, supports, warnings, prep.extraTractions);
   checkRigidMotion(mesh, supports.constraints.fixed, domain.scale);
   const D = constitutiveMatrix(model.material.E, model.material.nu, state);
-  const system = assembleSystem(mesh, D, model.thickness, loads.f, supports.constraints);
+  const nodeGraph = meshNodeGraph(mesh);
+  const system = assembleSystem(mesh, D, model.thickness, loads.f, supports.constraints, nodeGraph);
   const t2 = performance.now();
 
   let solved;
@@ -153,7 +154,7 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
     // The direct factor may use what the memory limit leaves beside the rest of the analysis;
     // beyond that the solver switches to conjugate gradients.
     const maxFactorBytes = Math.max(0, prep.maxMemoryBytes - estimateAnalysisBytes(meshStats.triangles, mesh.order as 1 | 2, 'iterative'));
-    solved = solveSpd(system.K, system.f, { coords: mesh.nodes, nodeAdjacency: meshNodeGraph(mesh), dofsPerNode: 2, fullDofOfRow: system.freeDof, maxFactorBytes });
+    solved = solveSpd(system.K, system.f, { coords: mesh.nodes, nodeAdjacency: nodeGraph, dofsPerNode: 2, fullDofOfRow: system.freeDof, maxFactorBytes });
   } catch (err) {
     if (err instanceof SolverPivotError) {
       const dof = system.freeDof[err.originalIndex];

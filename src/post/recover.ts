@@ -75,6 +75,24 @@ export function recoverNodalStress(mesh: Mesh, samples: ElementSamples, traction
   const phi = new Float64Array(terms);
   const k = samples.perElement;
   const minPoints = 2 * terms;
+  const L = new Float64Array(terms * terms);
+  const ys = new Float64Array(terms);
+  /** Adds to the patch of vertex v every element touching a corner of one already in it. */
+  const grow = (v: number) => {
+    const n0 = patch.length;
+    for (let q = 0; q < n0; q++) {
+      const e = patch[q];
+      for (let i = 0; i < 3; i++) {
+        const w = mesh.elements[per * e + i];
+        for (let p = ptr[w]; p < ptr[w + 1]; p++) {
+          const f = idx[p];
+          if (stamp[f] === v) continue;
+          stamp[f] = v;
+          patch.push(f);
+        }
+      }
+    }
+  };
 
   for (let v = 0; v < nv; v++) {
     patch.length = 0;
@@ -83,32 +101,21 @@ export function recoverNodalStress(mesh: Mesh, samples: ElementSamples, traction
       stamp[e] = v;
       patch.push(e);
     }
-    const grow = () => {
-      const n0 = patch.length;
-      for (let q = 0; q < n0; q++) {
-        const e = patch[q];
-        for (let i = 0; i < 3; i++) {
-          const w = mesh.elements[per * e + i];
-          for (let p = ptr[w]; p < ptr[w + 1]; p++) {
-            const f = idx[p];
-            if (stamp[f] === v) continue;
-            stamp[f] = v;
-            patch.push(f);
-          }
-        }
-      }
-    };
     // Growing the patches of boundary vertices helps 3-node meshes (one sample per element);
     // for 6-node meshes, sampled at 6 points each, it only blurs the fit (measured on Kirsch).
-    if ((onBoundary[v] && mesh.order === 1) || patch.length * k < minPoints) grow();
-    if (patch.length * k < minPoints) grow();
+    if ((onBoundary[v] && mesh.order === 1) || patch.length * k < minPoints) grow(v);
+    if (patch.length * k < minPoints) grow(v);
     const x0 = mesh.nodes[2 * v];
     const y0 = mesh.nodes[2 * v + 1];
     let h = 0;
-    for (const e of patch) {
+    for (let pi = 0; pi < patch.length; pi++) {
+      const e = patch[pi];
       for (let q = 0; q < k; q++) {
         const s = e * k + q;
-        h = Math.max(h, Math.abs(samples.xy[2 * s] - x0), Math.abs(samples.xy[2 * s + 1] - y0));
+        const ax = Math.abs(samples.xy[2 * s] - x0);
+        const ay = Math.abs(samples.xy[2 * s + 1] - y0);
+        if (ax > h) h = ax;
+        if (ay > h) h = ay;
       }
     }
     centre[3 * v] = x0;
@@ -116,19 +123,23 @@ export function recoverNodalStress(mesh: Mesh, samples: ElementSamples, traction
     centre[3 * v + 2] = h;
     // Normal equations in scaled coordinates, solved by Cholesky; the patch grows once more if singular.
     for (let attempt = 0; attempt < 3; attempt++) {
-      ata.fill(0);
-      atb.fill(0);
-      for (const e of patch) {
-        for (let q = 0; q < k; q++) {
-          const s = e * k + q;
-          basis((samples.xy[2 * s] - x0) / h, (samples.xy[2 * s + 1] - y0) / h, terms, phi);
-          for (let a = 0; a < terms; a++) {
-            for (let b = 0; b <= a; b++) ata[a * terms + b] += phi[a] * phi[b];
-            for (let c = 0; c < 3; c++) atb[c * terms + a] += phi[a] * samples.stress[3 * s + c];
+      if (terms === 6) accumulateQuadratic(patch, k, samples.xy, samples.stress, x0, y0, h, ata, atb);
+      else {
+        ata.fill(0);
+        atb.fill(0);
+        for (let pi = 0; pi < patch.length; pi++) {
+          const e = patch[pi];
+          for (let q = 0; q < k; q++) {
+            const s = e * k + q;
+            basis((samples.xy[2 * s] - x0) / h, (samples.xy[2 * s + 1] - y0) / h, terms, phi);
+            for (let a = 0; a < terms; a++) {
+              for (let b = 0; b <= a; b++) ata[a * terms + b] += phi[a] * phi[b];
+              for (let c = 0; c < 3; c++) atb[c * terms + a] += phi[a] * samples.stress[3 * s + c];
+            }
           }
         }
       }
-      if (solveNormal(ata, atb, terms, coef, v * 3 * terms)) break;
+      if (solveNormal(ata, atb, terms, coef, v * 3 * terms, L, ys)) break;
       if (attempt === 2) {
         // Fall back to the plain mean of the patch (a degree-0 fit), never to nothing.
         const o = v * 3 * terms;
@@ -139,18 +150,21 @@ export function recoverNodalStress(mesh: Mesh, samples: ElementSamples, traction
         for (let c = 0; c < 3; c++) coef[o + c * terms] /= cnt;
         break;
       }
-      grow();
+      grow(v);
     }
   }
 
   const out = new Float64Array(3 * mesh.nNodes);
-  const evalAt = (v: number, x: number, y: number, c: number) => {
+  /** Adds f times vertex v's fitted polynomials at (x, y) to out[o .. o+2]. */
+  const addFit = (v: number, x: number, y: number, f: number, out: Float64Array, o: number) => {
     const h = centre[3 * v + 2];
     basis((x - centre[3 * v]) / h, (y - centre[3 * v + 1]) / h, terms, phi);
-    let s = 0;
-    const o = v * 3 * terms + c * terms;
-    for (let a = 0; a < terms; a++) s += coef[o + a] * phi[a];
-    return s;
+    for (let c = 0; c < 3; c++) {
+      let s = 0;
+      const oc = v * 3 * terms + c * terms;
+      for (let a = 0; a < terms; a++) s += coef[oc + a] * phi[a];
+      out[o + c] += f * s;
+    }
   };
   for (let v = 0; v < nv; v++) {
     for (let c = 0; c < 3; c++) out[3 * v + c] = coef[v * 3 * terms + c * terms]; // phi = 1 at the centre
@@ -158,18 +172,19 @@ export function recoverNodalStress(mesh: Mesh, samples: ElementSamples, traction
   {
     // Boundary vertices: the mean of the neighbouring interior vertices' polynomials there, as
     // Zienkiewicz & Zhu recommend (Part 1, sec. 4), rather than a one-sided fit of their own.
+    const acc = new Float64Array(3);
+    const seen = new Int32Array(nv).fill(-1);
     for (let v = 0; v < nv; v++) {
       if (!onBoundary[v]) continue;
-      const acc = [0, 0, 0];
+      acc.fill(0);
       let cnt = 0;
-      const seen = new Set<number>();
       for (let p = ptr[v]; p < ptr[v + 1]; p++) {
         const e = idx[p];
         for (let i = 0; i < 3; i++) {
           const w = mesh.elements[per * e + i];
-          if (onBoundary[w] || seen.has(w)) continue;
-          seen.add(w);
-          for (let c = 0; c < 3; c++) acc[c] += evalAt(w, mesh.nodes[2 * v], mesh.nodes[2 * v + 1], c);
+          if (onBoundary[w] || seen[w] === v) continue;
+          seen[w] = v;
+          addFit(w, mesh.nodes[2 * v], mesh.nodes[2 * v + 1], 1, acc, 0);
           cnt++;
         }
       }
@@ -178,26 +193,137 @@ export function recoverNodalStress(mesh: Mesh, samples: ElementSamples, traction
   }
   if (mesh.order === 2) {
     const done = new Uint8Array(mesh.nNodes);
-    const pairs = [
-      [0, 1, 3],
-      [1, 2, 4],
-      [2, 0, 5],
-    ];
+    const two = new Float64Array(6);
     for (let e = 0; e < mesh.nElements; e++) {
-      for (const [i, j, m] of pairs) {
-        const node = mesh.elements[6 * e + m];
+      for (let m = 0; m < 3; m++) {
+        const node = mesh.elements[6 * e + 3 + m];
         if (done[node]) continue;
         done[node] = 1;
-        const a = mesh.elements[6 * e + i];
-        const b = mesh.elements[6 * e + j];
+        // midside 3 + m lies between corners m and (m + 1) mod 3
+        const a = mesh.elements[6 * e + m];
+        const b = mesh.elements[6 * e + (m === 2 ? 0 : m + 1)];
         const x = mesh.nodes[2 * node];
         const y = mesh.nodes[2 * node + 1];
-        for (let c = 0; c < 3; c++) out[3 * node + c] = 0.5 * (evalAt(a, x, y, c) + evalAt(b, x, y, c));
+        two.fill(0);
+        addFit(a, x, y, 1, two, 0);
+        addFit(b, x, y, 1, two, 3);
+        for (let c = 0; c < 3; c++) out[3 * node + c] = 0.5 * (two[c] + two[3 + c]);
       }
     }
   }
   if (tractions) projectKnownTractions(mesh, out, tractions);
   return out;
+}
+
+/**
+ * The normal equations of the quadratic fit over a patch, written out: ata (lower triangle,
+ * 6 x 6 row-major) = sum phi phi^T and atb[c * 6 + a] = sum phi_a sigma_c over the samples, phi
+ * the monomials 1, x, y, x^2, x y, y^2 in the scaled coordinates. Kept in locals, the 39 sums
+ * cost a fraction of the general loops (same terms, same order, same result).
+ */
+function accumulateQuadratic(patch: readonly number[], k: number, xy: Float64Array, stress: Float64Array, x0: number, y0: number, h: number, ata: Float64Array, atb: Float64Array): void {
+  let a10 = 0, a11 = 0, a20 = 0, a21 = 0, a22 = 0, a30 = 0, a31 = 0, a32 = 0, a33 = 0;
+  let a40 = 0, a41 = 0, a42 = 0, a43 = 0, a44 = 0, a50 = 0, a51 = 0, a52 = 0, a53 = 0, a54 = 0, a55 = 0;
+  let a00 = 0;
+  let b00 = 0, b01 = 0, b02 = 0, b03 = 0, b04 = 0, b05 = 0;
+  let b10 = 0, b11 = 0, b12 = 0, b13 = 0, b14 = 0, b15 = 0;
+  let b20 = 0, b21 = 0, b22 = 0, b23 = 0, b24 = 0, b25 = 0;
+  for (let pi = 0; pi < patch.length; pi++) {
+    const e = patch[pi];
+    for (let q = 0; q < k; q++) {
+      const s = e * k + q;
+      const x = (xy[2 * s] - x0) / h;
+      const y = (xy[2 * s + 1] - y0) / h;
+      const p0 = 1;
+      const p1 = x;
+      const p2 = y;
+      const p3 = x * x;
+      const p4 = x * y;
+      const p5 = y * y;
+      const s0 = stress[3 * s];
+      const s1 = stress[3 * s + 1];
+      const s2 = stress[3 * s + 2];
+      a00 += p0 * p0;
+      b00 += p0 * s0;
+      b10 += p0 * s1;
+      b20 += p0 * s2;
+      a10 += p1 * p0;
+      a11 += p1 * p1;
+      b01 += p1 * s0;
+      b11 += p1 * s1;
+      b21 += p1 * s2;
+      a20 += p2 * p0;
+      a21 += p2 * p1;
+      a22 += p2 * p2;
+      b02 += p2 * s0;
+      b12 += p2 * s1;
+      b22 += p2 * s2;
+      a30 += p3 * p0;
+      a31 += p3 * p1;
+      a32 += p3 * p2;
+      a33 += p3 * p3;
+      b03 += p3 * s0;
+      b13 += p3 * s1;
+      b23 += p3 * s2;
+      a40 += p4 * p0;
+      a41 += p4 * p1;
+      a42 += p4 * p2;
+      a43 += p4 * p3;
+      a44 += p4 * p4;
+      b04 += p4 * s0;
+      b14 += p4 * s1;
+      b24 += p4 * s2;
+      a50 += p5 * p0;
+      a51 += p5 * p1;
+      a52 += p5 * p2;
+      a53 += p5 * p3;
+      a54 += p5 * p4;
+      a55 += p5 * p5;
+      b05 += p5 * s0;
+      b15 += p5 * s1;
+      b25 += p5 * s2;
+    }
+  }
+  ata.fill(0);
+  ata[0] = a00;
+  ata[6] = a10;
+  ata[7] = a11;
+  ata[12] = a20;
+  ata[13] = a21;
+  ata[14] = a22;
+  ata[18] = a30;
+  ata[19] = a31;
+  ata[20] = a32;
+  ata[21] = a33;
+  ata[24] = a40;
+  ata[25] = a41;
+  ata[26] = a42;
+  ata[27] = a43;
+  ata[28] = a44;
+  ata[30] = a50;
+  ata[31] = a51;
+  ata[32] = a52;
+  ata[33] = a53;
+  ata[34] = a54;
+  ata[35] = a55;
+  atb[0] = b00;
+  atb[1] = b01;
+  atb[2] = b02;
+  atb[3] = b03;
+  atb[4] = b04;
+  atb[5] = b05;
+  atb[6] = b10;
+  atb[7] = b11;
+  atb[8] = b12;
+  atb[9] = b13;
+  atb[10] = b14;
+  atb[11] = b15;
+  atb[12] = b20;
+  atb[13] = b21;
+  atb[14] = b22;
+  atb[15] = b23;
+  atb[16] = b24;
+  atb[17] = b25;
 }
 
 /** Monomials 1, x, y (, x^2, x y, y^2). */
@@ -213,8 +339,8 @@ function basis(x: number, y: number, terms: number, phi: Float64Array): void {
 }
 
 /** Solves the symmetric normal equations (lower triangle of ata) for 3 right-hand sides; false if not positive definite. */
-function solveNormal(ata: Float64Array, atb: Float64Array, n: number, out: Float64Array, o: number): boolean {
-  const L = new Float64Array(n * n);
+function solveNormal(ata: Float64Array, atb: Float64Array, n: number, out: Float64Array, o: number, L: Float64Array, y: Float64Array): boolean {
+  L.fill(0);
   let dmax = 0;
   for (let i = 0; i < n; i++) dmax = Math.max(dmax, ata[i * n + i]);
   for (let j = 0; j < n; j++) {
@@ -229,7 +355,6 @@ function solveNormal(ata: Float64Array, atb: Float64Array, n: number, out: Float
       L[i * n + j] = s / ljj;
     }
   }
-  const y = new Float64Array(n);
   for (let c = 0; c < 3; c++) {
     for (let i = 0; i < n; i++) {
       let s = atb[c * n + i];
