@@ -211,3 +211,32 @@ describe('patch tests on the distorted MacNeal-Harder patch', () => {
     expect(err).toBeLessThan(1e-10);
   });
 });
+
+describe('stress sampling', () => {
+  it('the element-by-element 6-node sampler equals the point-by-point stress routine, straight and curved elements', async () => {
+    const { buildDomain } = await import('../src/geometry/domain.js');
+    const { generateMesh } = await import('../src/mesh/generate.js');
+    const { elementStressAt, samplePoints, StressWorkspace } = await import('../src/post/stress.js');
+    const geometry = { outline: { shape: 'path', path: [[0, 0], [40, 0], [40, 20], [0, 20]] }, holes: [{ shape: 'circle', center: [20, 10], radius: 4 }] };
+    const { mesh } = generateMesh(buildDomain(geometry as never), { order: 2, size: 3 });
+    const u = Float64Array.from({ length: 2 * mesh.nNodes }, (_v, i) => Math.sin(0.37 * i) * 1e-3);
+    const fast = sampleElementStresses(mesh, D, u);
+    const { xi, eta } = samplePoints(2);
+    const ws = new StressWorkspace();
+    const out = new Float64Array(3);
+    const pt = new Float64Array(2);
+    let curved = 0;
+    let scale = 0;
+    for (const v of fast.stress) scale = Math.max(scale, Math.abs(v));
+    for (let e = 0; e < mesh.nElements; e++) {
+      if (!isStraightP2(mesh.nodes, mesh.elements, e)) curved++;
+      for (let q = 0; q < 6; q++) {
+        elementStressAt(mesh, D, u, e, xi[q], eta[q], out, pt, ws);
+        const s = 6 * e + q;
+        for (let c = 0; c < 3; c++) expect(Math.abs(fast.stress[3 * s + c] - out[c])).toBeLessThanOrEqual(1e-11 * scale);
+        expect(Math.abs(fast.xy[2 * s] - pt[0]) + Math.abs(fast.xy[2 * s + 1] - pt[1])).toBeLessThanOrEqual(1e-12 * 40);
+      }
+    }
+    expect(curved).toBeGreaterThan(0);
+  });
+});

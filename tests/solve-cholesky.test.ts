@@ -11,7 +11,7 @@ import {
   SolverPivotError,
   DEFAULT_PIVOT_TOLERANCE,
 } from '../src/solve/cholesky.js';
-import { relativeResidual, solveSpd } from '../src/solve/index.js';
+import { backwardError, relativeResidual, solveSpd } from '../src/solve/index.js';
 import { chooseSplit } from '../src/solve/multifrontal.js';
 import {
   cantileverProblem,
@@ -403,5 +403,24 @@ describe('solveSpd', () => {
     const r = restrictOrdering(full.perm, p.rowOfFullDof);
     expect(r.perm.length).toBe(p.matrix.n);
     for (let k = 0; k < r.perm.length; k++) expect(p.fullDofOfRow[r.perm[k]] % 2 === 0 ? 0 : 1).toBe(k % 2);
+  });
+});
+
+describe('normwise backward error', () => {
+  // eta(x) = ||b - A x||inf / (||A||inf ||x||inf + ||b||inf): Rigal & Gaches (1967); Higham,
+  // Accuracy and Stability of Numerical Algorithms (2002), thm. 7.1.
+  it('equals the definition evaluated densely, and is at round-off for the direct solve', () => {
+    const a = cantileverProblem(12, 6, 2).matrix;
+    const A = toDense(a);
+    const b = randomVector(a.n, 3);
+    const { x } = solveSpd(a, b);
+    expect(backwardError(a, x, b)).toBeLessThan(1e-15);
+    const y = Float64Array.from(x, (v, i) => v * (1 + 1e-6 * Math.sin(i)));
+    const r = Matrix.columnVector(Array.from(b)).sub(A.mmul(Matrix.columnVector(Array.from(y)))).to1DArray();
+    let normA = 0;
+    for (let i = 0; i < a.n; i++) normA = Math.max(normA, A.getRow(i).reduce((s, v) => s + Math.abs(v), 0));
+    const inf = (v: ArrayLike<number>) => Math.max(...Array.from(v, Math.abs));
+    const expected = inf(r) / (normA * inf(y) + inf(b));
+    expect(Math.abs(backwardError(a, y, b) - expected)).toBeLessThan(1e-9 * expected);
   });
 });

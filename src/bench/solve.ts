@@ -21,7 +21,8 @@
 import { performance } from 'node:perf_hooks';
 import { fileURLToPath } from 'node:url';
 import { cantileverProblem, cantileverProblemP2 } from '../solve/testing.js';
-import { solveSpd, type OrderingMethod, type SolveStats } from '../solve/index.js';
+import { backwardError, solveSpd, type OrderingMethod, type SolveStats } from '../solve/index.js';
+import { peakResidentBytes } from './memory.js';
 
 export type BenchElement = 'linear' | 'quadratic';
 
@@ -64,6 +65,8 @@ export interface SolveBenchRow {
   readonly bytesPerNnzL: number;
   readonly peakRssBytes: number;
   readonly relativeResidual: number;
+  /** normwise backward error ||b - A x|| / (||A|| ||x|| + ||b||), infinity norm, of the last run */
+  readonly backwardError: number;
   readonly assemblySeconds: number;
   /** total seconds of the first (cold) solve of this case */
   readonly coldSeconds: number;
@@ -96,9 +99,9 @@ export function runSolveBench(options: SolveBenchOptions = {}): SolveBenchRow[] 
   const out: SolveBenchRow[] = [];
   log(`node ${process.version}, ${runs} timed runs after warm-up; times in seconds (medians); peak RSS is the process's so far`);
   log(
-    '| element | DOF | ordering | nnz(A) | nnz(L) | flops | order | symbolic | numeric | solve | total | best | cold | CHOLMOD AMD | ratio | GFLOP/s | bytes/nnz(L) | peak RSS | rel. residual |',
+    '| element | DOF | ordering | nnz(A) | nnz(L) | flops | order | symbolic | numeric | solve | total | best | cold | CHOLMOD AMD | ratio | GFLOP/s | bytes/nnz(L) | peak RSS | rel. residual | backward error |',
   );
-  log('|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|');
+  log('|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|');
   for (const target of sizes) for (const element of elements) {
     const tA = performance.now();
     const prob = benchProblem(target, element);
@@ -115,8 +118,9 @@ export function runSolveBench(options: SolveBenchOptions = {}): SolveBenchRow[] 
       const samples: SolveStats[] = [];
       const warmups = n < 2e4 ? 10 : n < 2e5 ? 3 : 1;
       let coldSeconds = 0;
+      let eta = NaN;
       for (let run = 0; run < warmups + runs; run++) {
-        const { stats } = solveSpd(prob.matrix, b, {
+        const { stats, x } = solveSpd(prob.matrix, b, {
           coords: prob.mesh.coords,
           nodeAdjacency: prob.adjacency,
           dofsPerNode: 2,
@@ -125,6 +129,7 @@ export function runSolveBench(options: SolveBenchOptions = {}): SolveBenchRow[] 
         });
         if (run === 0) coldSeconds = stats.seconds.ordering + stats.seconds.symbolic + stats.seconds.numeric + stats.seconds.solve;
         if (run >= warmups) samples.push(stats);
+        if (run === warmups + runs - 1) eta = backwardError(prob.matrix, x, b);
       }
       const s0 = samples[0];
       const sec = {
@@ -147,8 +152,9 @@ export function runSolveBench(options: SolveBenchOptions = {}): SolveBenchRow[] 
         seconds: sec,
         gflops: s0.flops / sec.numeric / 1e9,
         bytesPerNnzL: s0.bytesPerNnzL,
-        peakRssBytes: process.resourceUsage().maxRSS * 1024,
+        peakRssBytes: peakResidentBytes(),
         relativeResidual: Math.max(...samples.map((s) => s.relativeResidual)),
+        backwardError: eta,
         assemblySeconds,
         coldSeconds,
         threads: s0.threads,
@@ -157,7 +163,7 @@ export function runSolveBench(options: SolveBenchOptions = {}): SolveBenchRow[] 
       const e = (x: number): string => x.toExponential(2);
       const f = (x: number): string => x.toFixed(3);
       log(
-        `| ${element === 'linear' ? '3-node' : '6-node'} | ${n} | ${ordering}${s0.threads > 1 ? ` (${s0.threads} threads)` : ''} | ${e(row.nnzA)} | ${e(row.nnzL)} | ${e(row.flops)} | ${f(sec.ordering)} | ${f(sec.symbolic)} | ${f(sec.numeric)} | ${f(sec.solve)} | ${f(sec.total)} | ${f(sec.bestTotal)} | ${f(coldSeconds)} | ${Number.isNaN(referenceSeconds) ? '-' : f(referenceSeconds)} | ${Number.isNaN(referenceSeconds) ? '-' : (sec.total / referenceSeconds).toFixed(2)} | ${row.gflops.toFixed(2)} | ${row.bytesPerNnzL.toFixed(1)} | ${(row.peakRssBytes / 2 ** 30).toFixed(2)} GB | ${e(row.relativeResidual)} |`,
+        `| ${element === 'linear' ? '3-node' : '6-node'} | ${n} | ${ordering}${s0.threads > 1 ? ` (${s0.threads} threads)` : ''} | ${e(row.nnzA)} | ${e(row.nnzL)} | ${e(row.flops)} | ${f(sec.ordering)} | ${f(sec.symbolic)} | ${f(sec.numeric)} | ${f(sec.solve)} | ${f(sec.total)} | ${f(sec.bestTotal)} | ${f(coldSeconds)} | ${Number.isNaN(referenceSeconds) ? '-' : f(referenceSeconds)} | ${Number.isNaN(referenceSeconds) ? '-' : (sec.total / referenceSeconds).toFixed(2)} | ${row.gflops.toFixed(2)} | ${row.bytesPerNnzL.toFixed(1)} | ${(row.peakRssBytes / 2 ** 30).toFixed(2)} GB | ${e(row.relativeResidual)} | ${e(row.backwardError)} |`,
       );
     }
   }

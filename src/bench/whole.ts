@@ -12,6 +12,7 @@
  */
 import { fileURLToPath } from 'node:url';
 import { benchModel } from './model.js';
+import { peakResidentBytes } from './memory.js';
 import { analyseModel, type Analysis } from '../pipeline/analyse.js';
 import { buildDomain } from '../geometry/domain.js';
 import { generateMesh } from '../mesh/generate.js';
@@ -86,7 +87,7 @@ export function runWhole(dof: number, element: 'linear' | 'quadratic', runs: num
       total: m((x) => x.timeMs.total) / 1e3,
     },
     solver: { method: st.method, nnzL: st.nnzL, flops: st.flops, iterations: st.iterations, relativeResidual: Math.max(...rows.map((x) => x.solveStats.relativeResidual)) },
-    peakRssBytes: process.resourceUsage().maxRSS * 1024,
+    peakRssBytes: peakResidentBytes(),
     runs,
   };
 }

@@ -9,7 +9,9 @@ import { readFileSync } from 'node:fs';
 import { performance } from 'node:perf_hooks';
 import { Option, type Command } from 'commander';
 import { ModelError } from '../model/errors.js';
+import { peakResidentBytes } from '../bench/memory.js';
 import {
+  backwardError,
   multiplySymmetric,
   readMatrixMarket,
   readMatrixMarketArray,
@@ -57,7 +59,7 @@ function parseVector(file: string, n: number): Float64Array {
 }
 
 /** The printed report of one bench-solve run. */
-export function formatBenchSolve(file: string, a: SymmetricCsc, stats: SolveStats, times: { read: number; total: number; best: number }, runs: number, peakRssBytes: number): string {
+export function formatBenchSolve(file: string, a: SymmetricCsc, stats: SolveStats, times: { read: number; total: number; best: number }, runs: number, peakRssBytes: number, backwardErr = NaN): string {
   const s = stats.seconds;
   const e = (x: number): string => x.toExponential(3);
   const sec = (x: number): string => `${x.toFixed(3)} s`;
@@ -90,6 +92,7 @@ export function formatBenchSolve(file: string, a: SymmetricCsc, stats: SolveStat
     );
   }
   lines.push(`  peak RSS          ${(peakRssBytes / 2 ** 30).toFixed(2)} GB`, `  residual          ${e(stats.relativeResidual)}  (||Ax - b|| / ||b||)`);
+  if (!Number.isNaN(backwardErr)) lines.push(`  backward error    ${e(backwardErr)}  (||Ax - b|| / (||A|| ||x|| + ||b||), infinity norm)`);
   return lines.join('\n');
 }
 
@@ -116,13 +119,15 @@ export function runBenchSolve(file: string, bFile: string | undefined, flags: Be
   const ordering: OrderingMethod = flags.ordering ?? 'amd';
   const method = flags.method ?? 'auto';
   const samples: SolveStats[] = [];
+  let eta = NaN;
   for (let r = 0; r < runs; r++) {
-    const { stats } = solveSpd(a, b, {
+    const { stats, x } = solveSpd(a, b, {
       ordering,
       threads: threads as 1 | 2,
       method,
     });
     samples.push(stats);
+    if (r === runs - 1) eta = backwardError(a, x, b);
   }
   const total = (s: SolveStats): number => s.seconds.ordering + s.seconds.symbolic + s.seconds.numeric + s.seconds.solve;
   const mid = samples.slice().sort((p, q) => total(p) - total(q))[(samples.length - 1) >> 1];
@@ -137,11 +142,11 @@ export function runBenchSolve(file: string, bFile: string | undefined, flags: Be
     relativeResidual: Math.max(...samples.map((s) => s.relativeResidual)),
   };
   const times = { read, total: median(samples.map(total)), best: Math.min(...samples.map(total)) };
-  const peak = process.resourceUsage().maxRSS * 1024;
+  const peak = peakResidentBytes();
   if (flags.json) {
-    process.stdout.write(JSON.stringify({ file, n: a.n, runs, times, peakRssBytes: peak, stats }, null, 2) + '\n');
+    process.stdout.write(JSON.stringify({ file, n: a.n, runs, times, peakRssBytes: peak, backwardError: eta, stats }, null, 2) + '\n');
   } else {
-    process.stdout.write(formatBenchSolve(file, a, stats, times, runs, peak) + '\n');
+    process.stdout.write(formatBenchSolve(file, a, stats, times, runs, peak, eta) + '\n');
   }
   return 0;
 }

@@ -168,6 +168,18 @@ function referenceDerivatives(rule: { xi: Float64Array; eta: Float64Array }): { 
 }
 const REF3 = referenceDerivatives(TRI3);
 const REF6 = referenceDerivatives(TRI6);
+/** The six shape functions at the points of TRI6: [q * 6 + i]. */
+export const SHAPE_AT_TRI6: Float64Array = (() => {
+  const out = new Float64Array(36);
+  const N = new Float64Array(6);
+  const a = new Float64Array(6);
+  const b = new Float64Array(6);
+  for (let q = 0; q < 6; q++) {
+    shapeP2(TRI6.xi[q], TRI6.eta[q], N, a, b);
+    out.set(N, 6 * q);
+  }
+  return out;
+})();
 
 /** Cartesian shape-function gradients of a 6-node element at the points of its rule. */
 export class P2Gradients {
@@ -183,9 +195,10 @@ export class P2Gradients {
 /**
  * Fills g with the gradients at the stiffness rule's points of element e: the 3-point rule for
  * straight sides (J constant, from the corners), the 6-point rule for curved sides
- * (isoparametric J at each point). Throws a RangeError when det J <= 0 anywhere.
+ * (isoparametric J at each point); with sixPoints, at the 6 points of the degree-4 rule (TRI6)
+ * whatever the sides. Throws a RangeError when det J <= 0 anywhere.
  */
-export function gradientsP2(nodes: Float64Array, el: Int32Array, e: number, g: P2Gradients): void {
+export function gradientsP2(nodes: Float64Array, el: Int32Array, e: number, g: P2Gradients, sixPoints = false): void {
   const o = 6 * e;
   if (isStraightP2(nodes, el, e)) {
     const a = el[o];
@@ -198,12 +211,15 @@ export function gradientsP2(nodes: Float64Array, el: Int32Array, e: number, g: P
     const det = j11 * j22 - j12 * j21;
     if (!(det > 0)) throw new RangeError(`element ${e}: det J = ${det} <= 0`);
     const inv = 1 / det;
-    for (let k = 0; k < 18; k++) {
-      g.dx[k] = (j22 * REF3.dxi[k] - j12 * REF3.deta[k]) * inv;
-      g.dy[k] = (-j21 * REF3.dxi[k] + j11 * REF3.deta[k]) * inv;
+    const ref = sixPoints ? REF6 : REF3;
+    const rule = sixPoints ? TRI6 : TRI3;
+    const nq = rule.w.length;
+    for (let k = 0; k < 6 * nq; k++) {
+      g.dx[k] = (j22 * ref.dxi[k] - j12 * ref.deta[k]) * inv;
+      g.dy[k] = (-j21 * ref.dxi[k] + j11 * ref.deta[k]) * inv;
     }
-    for (let q = 0; q < 3; q++) g.w[q] = TRI3.w[q] * det;
-    g.nq = 3;
+    for (let q = 0; q < nq; q++) g.w[q] = rule.w[q] * det;
+    g.nq = nq;
     return;
   }
   for (let q = 0; q < 6; q++) {
