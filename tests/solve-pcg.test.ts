@@ -178,3 +178,32 @@ describe('iterative refinement after the direct solve', () => {
     expect(relativeMaxDifference(forced.x, plain.x)).toBeLessThan(1e-10);
   });
 });
+
+describe('PCG stopping on the backward error', () => {
+  // Arioli, Duff & Ruiz, SIAM J. Matrix Anal. Appl. 13 (1992): once the normwise backward error
+  // is at round-off, no further iteration can improve x in working precision.
+  it('a relative-residual tolerance below what doubles can reach still converges, on the backward error, to the direct solution', () => {
+    const p = cantileverProblem(40, 10, 2);
+    const a = p.matrix;
+    const ic = factorIncompleteCholesky(a, orderAmd(adjacencyGraph(a)), { fillLevel: 1 });
+    const b = randomVector(a.n, 9);
+    const r = solvePcg(ic, b, { tolerance: 1e-30 });
+    expect(r.backwardError).toBeLessThanOrEqual(1e-14);
+    expect(r.relativeResidual).toBeGreaterThan(1e-30);
+    const direct = solveSpd(a, b, { method: 'cholesky' });
+    expect(relativeMaxDifference(r.x, direct.x)).toBeLessThan(1e-8);
+    // with the backward test switched off the same request cannot be met, and says so
+    expect(() => solvePcg(ic, b, { tolerance: 1e-30, backwardTolerance: 0, maxIterations: 400 })).toThrow(PcgError);
+  });
+
+  it('solveSpd reports the backward error of both methods', () => {
+    const p = cantileverProblem(20, 6, 2);
+    const b = randomVector(p.matrix.n, 4);
+    for (const method of ['cholesky', 'pcg'] as const) {
+      const { stats } = solveSpd(p.matrix, b, { method });
+      expect(stats.backwardError).toBeGreaterThan(0);
+      // the direct solve is backward stable (a small multiple of 1.1e-16); PCG stops at a relative residual of 1e-10
+      expect(stats.backwardError).toBeLessThan(method === 'cholesky' ? 1e-15 : 1e-12);
+    }
+  });
+});

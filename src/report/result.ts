@@ -175,6 +175,7 @@ function buildResultUnchecked(a: Analysis, file?: string, cert: Certified | null
       equations: a.solveStats.n,
       factorNonzeros: a.solveStats.nnzL,
       relativeResidual: a.solveStats.relativeResidual,
+      backwardError: a.solveStats.backwardError,
       method: a.solveStats.method,
       iterations: a.solveStats.iterations,
     },

@@ -117,6 +117,12 @@ export interface SolveStats {
   readonly seconds: { readonly ordering: number; readonly symbolic: number; readonly numeric: number; readonly solve: number };
   /** max over right-hand sides of ||A x - b|| / ||b|| (2-norms; 0 when b = 0 and x = 0) */
   readonly relativeResidual: number;
+  /**
+   * max over right-hand sides of the normwise backward error ||b - A x|| / (||A|| ||x|| + ||b||)
+   * (infinity norms): a small multiple of 1.1e-16 for a stable solve, where the relative residual
+   * also carries ||A|| ||x|| / ||b||
+   */
+  readonly backwardError: number;
   /** steps of iterative refinement after the direct solve (0 when the first residual was small enough) */
   readonly refinementSteps: number;
   /** 'cholesky' (direct) or 'pcg' (the iterative fallback) */
@@ -188,6 +194,17 @@ export function backwardError(a: SymmetricCsc, x: Float64Array, b: Float64Array)
   }
   const den = aMax * xMax + bMax;
   return den > 0 ? rMax / den : rMax;
+}
+
+/** max over right-hand sides of the backward error. */
+function worstBackwardError(a: SymmetricCsc, x: Float64Array, b: Float64Array, nrhs: number): number {
+  const n = a.n;
+  let worst = 0;
+  for (let r = 0; r < nrhs; r++) {
+    const e = backwardError(a, x.subarray(r * n, (r + 1) * n), b.subarray(r * n, (r + 1) * n));
+    if (e > worst || Number.isNaN(e)) worst = e;
+  }
+  return worst;
 }
 
 /** max over right-hand sides of ||A x - b|| / ||b||. */
@@ -266,6 +283,7 @@ export function solveSpd(a: SymmetricCsc, b: Float64Array, options: SolveOptions
       solveThreads: 1,
       seconds: { ordering: (t1 - t0) / 1e3, symbolic: (t2 - t1) / 1e3, numeric: (t3 - t2) / 1e3, solve: (t4 - t3) / 1e3 },
       relativeResidual: relativeResidual(a, x, b, nrhs),
+      backwardError: worstBackwardError(a, x, b, nrhs),
       refinementSteps: 0,
       method,
       iterations,
@@ -316,6 +334,7 @@ export function solveSpd(a: SymmetricCsc, b: Float64Array, options: SolveOptions
     solveThreads: solveReport.threads,
     seconds: { ordering: (t1 - t0) / 1e3, symbolic: (t2 - t1) / 1e3, numeric: (t3 - t2) / 1e3, solve: (t4 - t3) / 1e3 },
     relativeResidual: residual,
+    backwardError: worstBackwardError(a, x, b, nrhs),
     method,
     iterations: 0,
     preconditioner: '',
