@@ -136,7 +136,7 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
       ['loads', `<ul class="plain">${m.loads.map((l) => `<li>${esc(describeLoad(l, u.stress, u.force, u.moment))}${l.note ? ` (${esc(l.note)})` : ''}</li>`).join('')}</ul>`],
     ])}</tbody></table>`,
   );
-  parts.push(figure(png, 'geometry', 'Geometry with the net section (solid) and the gross section (dashed) on which the nominal stresses are taken, and the place of the peak.'));
+  parts.push(figure(png, 'geometry', 'Geometry with the net section (solid) and the gross section (dashed) on which the nominal stresses are taken, the place of the peak, and the loads (L, arrows not to scale) and supports (S).'));
 
   parts.push('<h2>Mesh</h2>');
   parts.push(

@@ -17,6 +17,8 @@ import { edgePolyline, fitView, fieldRange, isoSegments, meshEdgeLines, paintFie
 import type { Rgb } from '../render/raster.js';
 import { addText, newScene, renderPng, renderSvg, type Box, type Scene } from '../render/scene.js';
 import { formatValue } from '../render/ticks.js';
+import { drawBoundaryConditions } from '../render/boundary-conditions.js';
+import { buildDomain } from '../geometry/domain.js';
 import { writeAtomic } from './files.js';
 import type { PlotSource } from './saved.js';
 
@@ -326,8 +328,9 @@ export function geometryScene(src: PlotSource, opts: PictureOptions = {}): Scene
   const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), false) + 60;
   const r = src.result;
   const s = newScene(W, H, `geometry: ${r.model.title ?? 'raiser'}`);
-  const fr = frame(s, src, `Geometry and nominal sections: ${r.model.title ?? ''}`.trim(), `net section (least material across the load) solid, gross section dashed; lengths in ${r.units.length}`, false);
-  const view = fitView(opts.window ?? bbox(src.mesh.nodes), inflate(fr.draw, fr.size * 2.5));
+  const fr = frame(s, src, `Geometry and nominal sections: ${r.model.title ?? ''}`.trim(), `net section (least material across the load) solid, gross section dashed; loads L (arrows, not to scale) and supports S; lengths in ${r.units.length}`, false);
+  // room around the plate for the load arrows (2.6 sizes) and their labels
+  const view = fitView(opts.window ?? bbox(src.mesh.nodes), inflate(fr.draw, fr.size * 4.4));
   s.items.push({ kind: 'fill', paths: outlineLoops(src, src.mesh.nodes, view), colour: PLATE_FILL, clip: fr.draw });
   s.items.push({ kind: 'stroke', lines: outlineLoops(src, src.mesh.nodes, view), closed: true, width: 1.8, colour: INK, clip: fr.draw });
   const sec = (c: typeof r.nominal.section, colour: Rgb, dash: number[] | undefined, label: string, below: boolean) => {
@@ -341,10 +344,17 @@ export function geometryScene(src: PlotSource, opts: PictureOptions = {}): Scene
   const n = r.nominal;
   sec(n.gross.section, GROSS_COLOUR, [8, 5], `gross ${formatValue(n.gross.section.length)} ${r.units.length}`, true);
   sec(n.section, NET_COLOUR, undefined, `net ${formatValue(n.section.length)} ${r.units.length}`, false);
+  // Loads and supports, where the geometry can be rebuilt (an imported drawing may be gone).
+  let drawn = { loads: 0, supports: 0 };
+  try {
+    drawn = drawBoundaryConditions(s, src.mesh, buildDomain(src.model.geometry), src.model.loads, src.model.supports, view, fr.size);
+  } catch {
+    // the picture stays without them
+  }
   const [px, py] = toPixel(view, r.peak.x, r.peak.y);
   drawMarker(s, px, py, `peak, ${r.peak.feature}`, fr.size * 0.9, fr.draw, 'peak');
   drawScaleBar(s, fr.draw[0] + fr.size * 0.6, fr.draw[3] - fr.size * 0.6, view.s, 0.22 * (fr.draw[2] - fr.draw[0]), r.units.length, fr.size * 0.9);
-  Object.assign(s.info, { view, draw: fr.draw });
+  Object.assign(s.info, { view, draw: fr.draw, boundaryConditions: drawn });
   return s;
 }
 
