@@ -158,6 +158,22 @@ describe('automatic choice between Cholesky and PCG', () => {
     expect(relativeMaxDifference(below.x, at.x)).toBeLessThan(1e-6);
   });
 
+  it('a factor far beyond the limit is judged from the column counts alone, without building its structure', () => {
+    const p = cantileverProblem(30, 12, 2);
+    const a = p.matrix;
+    const full = analyzeCholesky(a, orderAmd(adjacencyGraph(a)));
+    const b = randomVector(a.n, 3);
+    // a limit below even 12 bytes per nonzero of L
+    const { stats } = solveSpd(a, b, { maxFactorBytes: 6 * full.nnzL, ordering: 'amd' });
+    expect(stats.method).toBe('pcg');
+    expect(stats.nnzL).toBe(full.nnzL);
+    expect(stats.flops).toBe(full.flops);
+    expect(stats.nnzA).toBe(full.nnzA);
+    expect(stats.nSupernodes).toBe(0);
+    expect(stats.estimatedFactorBytes).toBe(12 * full.nnzL);
+    expect(stats.estimatedFactorBytes).toBeLessThanOrEqual(estimateFactorBytes(full));
+  });
+
   it('the estimate covers the factor the direct solve then holds', () => {
     const p = cantileverProblem(30, 15, 2);
     const { stats } = solveSpd(p.matrix, randomVector(p.matrix.n, 1), { method: 'cholesky' });

@@ -294,6 +294,16 @@ export interface SymbolicFactor {
  * computed.
  */
 export function analyzeCholesky(a: SymmetricCsc, ordering: Ordering, relax: RelaxOptions = {}): SymbolicFactor {
+  return analyzeCholeskyWithin(a, ordering, Infinity, relax) as SymbolicFactor;
+}
+
+/**
+ * analyzeCholesky, stopping after the column counts when the factor could not fit in maxBytes:
+ * at 12 bytes per nonzero of L (value and row index), a lower bound of what the supernodal factor
+ * stores. Then only nnz(L) and the flop count come back, and the supernodal structure, whose
+ * arrays are as large as L's row indices, is never built.
+ */
+export function analyzeCholeskyWithin(a: SymmetricCsc, ordering: Ordering, maxBytes: number, relax: RelaxOptions = {}): SymbolicFactor | { nnzL: number; flops: number; nnzA: number } {
   const n = a.n;
   if (ordering.perm.length !== n) throw new RangeError(`analyzeCholesky: ordering has ${ordering.perm.length} entries, matrix ${n}`);
   // etree of A(q, q) for the given ordering q, its postorder, and the
@@ -317,6 +327,7 @@ export function analyzeCholesky(a: SymmetricCsc, ordering: Ordering, relax: Rela
     nnzL += countP[j];
     flops += countP[j] * countP[j];
   }
+  if (12 * nnzL > maxBytes) return { nnzL, flops, nnzA: nnzFull(a) };
 
   // Fundamental supernodes (Liu, Ng & Peyton 1993): j joins j-1 when it is
   // j-1's parent, its only child, and its column is j-1's minus the diagonal.

@@ -33,7 +33,7 @@ import {
   orderNestedDissection,
   restrictOrdering,
 } from './ordering.js';
-import { analyzeCholesky, factorCholesky, solveCholesky, type CholeskyFactor, type RelaxOptions, type SymbolicFactor } from './cholesky.js';
+import { analyzeCholeskyWithin, factorCholesky, solveCholesky, type CholeskyFactor, type RelaxOptions, type SymbolicFactor } from './cholesky.js';
 import { factorIncompleteCholesky } from './ic.js';
 import { solvePcg } from './pcg.js';
 
@@ -246,19 +246,22 @@ export function solveSpd(a: SymmetricCsc, b: Float64Array, options: SolveOptions
   const t0 = performance.now();
   const { ordering, method: orderingName } = chooseOrdering(a, options);
   const t1 = performance.now();
-  const symbolic = analyzeCholesky(a, ordering, options.relax);
-  const t2 = performance.now();
-  const estimatedFactorBytes = estimateFactorBytes(symbolic);
   const maxFactorBytes = options.maxFactorBytes ?? defaultMaxFactorBytes();
+  // The factor's size from the column counts first: when even 12 bytes per nonzero of L exceed
+  // the limit, the supernodal structure (as large as L's row indices) is never built.
+  const analysed = analyzeCholeskyWithin(a, ordering, options.method === 'cholesky' ? Infinity : maxFactorBytes, options.relax);
+  const symbolic = 'superStart' in analysed ? analysed : null;
+  const t2 = performance.now();
+  const estimatedFactorBytes = symbolic ? estimateFactorBytes(symbolic) : 12 * analysed.nnzL;
   const method: SolveMethod = options.method === 'pcg' || (options.method !== 'cholesky' && estimatedFactorBytes > maxFactorBytes) ? 'pcg' : 'cholesky';
   const common = {
     n,
-    nnzA: symbolic.nnzA,
-    nnzL: symbolic.nnzL,
-    flops: symbolic.flops,
+    nnzA: analysed.nnzA,
+    nnzL: analysed.nnzL,
+    flops: analysed.flops,
     ordering: orderingName,
-    nSupernodes: symbolic.nSuper,
-    storedValues: symbolic.storedValues,
+    nSupernodes: symbolic?.nSuper ?? 0,
+    storedValues: symbolic?.storedValues ?? 0,
     estimatedFactorBytes,
     maxFactorBytes,
   };
@@ -291,6 +294,7 @@ export function solveSpd(a: SymmetricCsc, b: Float64Array, options: SolveOptions
     };
     return { x, stats, factor: null };
   }
+  if (symbolic === null) throw new Error('solveSpd: no symbolic factor for the direct solve');
   const factor = factorCholesky(a, symbolic, { pivotTolerance: options.pivotTolerance, threads: options.threads });
   const t3 = performance.now();
   const solveReport = { threads: 1 };
