@@ -1,8 +1,8 @@
 /**
- * Loads and supports drawn on a picture of the plate, schematically (arrow lengths do not scale
- * with the load): the loaded edges with arrows in the direction of the traction they put on the
- * part, the held edges with short hatching on the outside, pins as triangles, mirror planes
- * dash-dotted. Built into a scene (src/render/scene.ts) so that PNG and SVG show the same.
+ * Loads and supports drawn on a picture of the plate, schematically: the loaded edges with arrows
+ * in the direction of the traction they put on the part (the longest arrow of a load has a fixed
+ * length, the others are in proportion to the local traction), the held edges with short
+ * hatching on the outside, pins as triangles, mirror planes dash-dotted. Built into a scene (src/render/scene.ts) so that PNG and SVG show the same.
  *
  * Directions follow the mesh's one orientation convention: a boundary edge runs with the
  * material on its left, so its outward normal is (dy, -dx) / |d|.
@@ -24,9 +24,18 @@ import { addText, type Scene } from './scene.js';
 export const LOAD_COLOUR: Rgb = [0, 140, 100];
 export const SUPPORT_COLOUR: Rgb = [150, 70, 130];
 
+interface Frame {
+  x: number;
+  y: number;
+  nx: number;
+  ny: number;
+  /** chord length of the boundary edge */
+  len: number;
+}
+
 /** Midpoints, unit outward normals and tangents (model units) of the boundary edges on the given domain edges. */
-function edgeFrames(mesh: Mesh, domainEdges: Set<number>): { x: number; y: number; nx: number; ny: number }[] {
-  const out: { x: number; y: number; nx: number; ny: number }[] = [];
+function edgeFrames(mesh: Mesh, domainEdges: Set<number>): Frame[] {
+  const out: Frame[] = [];
   const n = mesh.nodes;
   for (let k = 0; k < mesh.nBEdges; k++) {
     if (!domainEdges.has(mesh.bEdgeDomain[k])) continue;
@@ -39,7 +48,7 @@ function edgeFrames(mesh: Mesh, domainEdges: Set<number>): { x: number; y: numbe
     if (!(l > 0)) continue;
     const x = m >= 0 ? n[2 * m] : 0.5 * (n[2 * a] + n[2 * b]);
     const y = m >= 0 ? n[2 * m + 1] : 0.5 * (n[2 * a + 1] + n[2 * b + 1]);
-    out.push({ x, y, nx: dy / l, ny: -dx / l });
+    out.push({ x, y, nx: dy / l, ny: -dx / l, len: l });
   }
   return out;
 }
@@ -70,12 +79,21 @@ function anchorFor(nx: number): 'start' | 'middle' | 'end' {
   return nx > 0.5 ? 'start' : nx < -0.5 ? 'end' : 'middle';
 }
 
-/** At most `count` items spread evenly over the list. */
-function spread<T>(list: T[], count: number): T[] {
-  if (list.length <= count) return list;
-  const out: T[] = [];
-  for (let i = 0; i < count; i++) out.push(list[Math.floor(((i + 0.5) * list.length) / count)]);
-  return out;
+/**
+ * About `count` frames spread evenly in space over the loaded length: a frame is kept when it lies
+ * at least the mean spacing from every frame kept before it (boundary edges are short where the
+ * mesh is fine, so picking every k-th edge would bunch the marks there).
+ */
+function spread(list: Frame[], count: number): Frame[] {
+  let total = 0;
+  for (const f of list) total += f.len;
+  const d2 = (0.9 * total / count) ** 2;
+  const kept: Frame[] = [];
+  // from the middle of the list outwards in index order is arbitrary; in coordinate order the
+  // kept marks start at one end of each loaded edge
+  const order = list.slice().sort((p, q) => p.x - q.x || p.y - q.y);
+  for (const f of order) if (kept.every((k) => (k.x - f.x) ** 2 + (k.y - f.y) ** 2 >= d2)) kept.push(f);
+  return kept;
 }
 
 function arrow(s: Scene, x0: number, y0: number, x1: number, y1: number, head: number, colour: Rgb, width: number): void {
@@ -179,17 +197,25 @@ export function drawBoundaryConditions(
       return d === null || Math.hypot(d[0], d[1]) > 0;
     });
     if (frames.length === 0) return;
+    // arrow length in proportion to the local traction, the largest on this load at full length
+    let big = 0;
+    for (const f of frames) {
+      const d = loadDirection(ld, f.nx, f.ny);
+      if (d !== null) big = Math.max(big, Math.hypot(d[0], d[1]));
+    }
     for (const f of spread(frames, 14)) {
       const d = loadDirection(ld, f.nx, f.ny);
       if (d === null) continue;
       const [x, y] = toPixel(view, f.x, f.y);
       const l = Math.hypot(d[0], d[1]);
+      if (l < 0.15 * big) continue;
       const ux = d[0] / l;
       const uy = -d[1] / l; // pixel y runs down
+      const al = (len * l) / big;
       // pulling (away from the material) starts on the edge; pushing ends on it
       const pulling = d[0] * f.nx + d[1] * f.ny >= 0;
-      if (pulling) arrow(s, x, y, x + len * ux, y + len * uy, head, LOAD_COLOUR, 0.16 * size);
-      else arrow(s, x - len * ux, y - len * uy, x, y, head, LOAD_COLOUR, 0.16 * size);
+      if (pulling) arrow(s, x, y, x + al * ux, y + al * uy, head, LOAD_COLOUR, 0.16 * size);
+      else arrow(s, x - al * ux, y - al * uy, x, y, head, LOAD_COLOUR, 0.16 * size);
     }
     const f0 = frames[Math.floor(frames.length / 2)];
     const [lx, ly] = toPixel(view, f0.x, f0.y);
