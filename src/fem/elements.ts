@@ -97,6 +97,7 @@ export class P2Scratch {
   dxi = new Float64Array(6);
   deta = new Float64Array(6);
   B = new Float64Array(36);
+  J = new Float64Array(4);
   g = new P2Gradients();
 }
 
@@ -106,20 +107,9 @@ export class P2Scratch {
  */
 export function strainMatrixP2(nodes: Float64Array, el: Int32Array, e: number, xi: number, eta: number, s: P2Scratch): number {
   shapeP2(xi, eta, s.N, s.dxi, s.deta);
-  const o = 6 * e;
-  let j11 = 0;
-  let j12 = 0;
-  let j21 = 0;
-  let j22 = 0;
-  for (let i = 0; i < 6; i++) {
-    const k = el[o + i];
-    const x = nodes[2 * k];
-    const y = nodes[2 * k + 1];
-    j11 += s.dxi[i] * x;
-    j12 += s.dxi[i] * y;
-    j21 += s.deta[i] * x;
-    j22 += s.deta[i] * y;
-  }
+  const J = s.J;
+  jacobianP2(nodes, el, 6 * e, s.dxi, s.deta, 0, J);
+  const j11 = J[0], j12 = J[1], j21 = J[2], j22 = J[3];
   const det = j11 * j22 - j12 * j21;
   if (!(det > 0)) throw new RangeError(`element ${e}: det J = ${det} <= 0 at (${xi}, ${eta})`);
   const inv = 1 / det;
@@ -136,6 +126,30 @@ export function strainMatrixP2(nodes: Float64Array, el: Int32Array, e: number, x
     B[24 + 2 * i + 1] = dx;
   }
   return det;
+}
+
+/**
+ * The isoparametric Jacobian J = [dx/dxi dy/dxi; dx/deta dy/deta] of the 6-node element whose
+ * nodes start at el[o], from reference derivatives dxi[off + i], deta[off + i]; into J (row-major).
+ */
+function jacobianP2(nodes: Float64Array, el: Int32Array, o: number, dxi: Float64Array, deta: Float64Array, off: number, J: Float64Array): void {
+  let j11 = 0;
+  let j12 = 0;
+  let j21 = 0;
+  let j22 = 0;
+  for (let i = 0; i < 6; i++) {
+    const k = el[o + i];
+    const x = nodes[2 * k];
+    const y = nodes[2 * k + 1];
+    j11 += dxi[off + i] * x;
+    j12 += dxi[off + i] * y;
+    j21 += deta[off + i] * x;
+    j22 += deta[off + i] * y;
+  }
+  J[0] = j11;
+  J[1] = j12;
+  J[2] = j21;
+  J[3] = j22;
 }
 
 /** True when every midside node sits at its chord midpoint (a straight-sided element). */
@@ -190,6 +204,8 @@ export class P2Gradients {
   w = new Float64Array(6);
   /** number of points used (3 for straight sides, 6 for curved) */
   nq = 0;
+  /** scratch Jacobian */
+  J = new Float64Array(4);
 }
 
 /**
@@ -222,22 +238,10 @@ export function gradientsP2(nodes: Float64Array, el: Int32Array, e: number, g: P
     g.nq = nq;
     return;
   }
+  const J = g.J;
   for (let q = 0; q < 6; q++) {
-    let j11 = 0;
-    let j12 = 0;
-    let j21 = 0;
-    let j22 = 0;
-    for (let i = 0; i < 6; i++) {
-      const k = el[o + i];
-      const x = nodes[2 * k];
-      const y = nodes[2 * k + 1];
-      const a = REF6.dxi[6 * q + i];
-      const b = REF6.deta[6 * q + i];
-      j11 += a * x;
-      j12 += a * y;
-      j21 += b * x;
-      j22 += b * y;
-    }
+    jacobianP2(nodes, el, o, REF6.dxi, REF6.deta, 6 * q, J);
+    const j11 = J[0], j12 = J[1], j21 = J[2], j22 = J[3];
     const det = j11 * j22 - j12 * j21;
     if (!(det > 0)) throw new RangeError(`element ${e}: det J = ${det} <= 0 at (${TRI6.xi[q]}, ${TRI6.eta[q]})`);
     const inv = 1 / det;
