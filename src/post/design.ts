@@ -45,14 +45,14 @@ export function estimateFatigue(kt: number, radius: number, material: Material, 
       const q = neuberNotchSensitivity(sqrtA, rMm);
       out.methods.push({ name: 'Neuber, steel fit from the ultimate strength', q, kf: fatigueNotchFactor(kt, q), source: 'Shigley 9th ed. Eqs. 6-34, 6-35a (SI form), bending or axial' });
     } catch (err) {
-      out.notes.push(`Neuber's steel fit does not apply: ${(err as Error).message}`);
+      out.notes.push(`Neuber's steel fit does not apply: ${withoutRoutineName(err)}`);
     }
     try {
       const a = petersonLengthSteelMm(sutMPa);
       const q = petersonNotchSensitivity(a, rMm);
       out.methods.push({ name: 'Peterson, steel formula from the ultimate strength', q, kf: fatigueNotchFactor(kt, q), source: 'a = 0.0254 (2070 / Su)^1.8 mm, Peterson (1959) [recalled]' });
     } catch (err) {
-      out.notes.push(`Peterson's steel formula does not apply: ${(err as Error).message}`);
+      out.notes.push(`Peterson's steel formula does not apply: ${withoutRoutineName(err)}`);
     }
     out.notes.push('q from the ultimate strength uses fits for steels; for other metals give material.notchSensitivity');
   }
@@ -86,4 +86,9 @@ export function neuberLocal(ktTimesS: number, E: number, K: number, n: number): 
   }
   const s = 0.5 * (lo + hi);
   return { stress: s, strain: strainOf(s), elasticStrain: Math.abs(ktTimesS) / E, source: "Neuber's rule (Neuber 1961) with the Ramberg-Osgood law (1943)" };
+}
+
+/** A range error's message for people: without the name of the routine that raised it. */
+function withoutRoutineName(err: unknown): string {
+  return (err as Error).message.replace(/^[A-Za-z]\w*: /, '');
 }
