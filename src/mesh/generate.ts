@@ -229,13 +229,18 @@ function hilbertOrder(tm: TriMesh): Int32Array {
   let y0 = Infinity;
   let x1 = -Infinity;
   let y1 = -Infinity;
-  for (let v = 0; v < tm.nv; v++) {
-    x0 = Math.min(x0, tm.px[v]);
-    x1 = Math.max(x1, tm.px[v]);
-    y0 = Math.min(y0, tm.py[v]);
-    y1 = Math.max(y1, tm.py[v]);
+  // the box of the material triangles' corners (not of every vertex the triangulation holds)
+  for (let t = 0; t < tm.nt; t++) {
+    if (!tm.talive[t] || tm.treg[t] !== 1) continue;
+    nTri++;
+    for (let i = 0; i < 3; i++) {
+      const v = tm.tv[3 * t + i];
+      x0 = Math.min(x0, tm.px[v]);
+      x1 = Math.max(x1, tm.px[v]);
+      y0 = Math.min(y0, tm.py[v]);
+      y1 = Math.max(y1, tm.py[v]);
+    }
   }
-  for (let t = 0; t < tm.nt; t++) if (tm.talive[t] && tm.treg[t] === 1) nTri++;
   if (nTri >= 2 ** 23) throw new InternalError(`too many triangles to order (${nTri})`);
   // key * 2^23 + t is exact in a double: the 30-bit key and a 23-bit triangle number
   const GRID = 2 ** 15;
@@ -247,8 +252,8 @@ function hilbertOrder(tm: TriMesh): Int32Array {
     const a = tm.tv[3 * t];
     const b = tm.tv[3 * t + 1];
     const c = tm.tv[3 * t + 2];
-    const cx = Math.round((((tm.px[a] + tm.px[b] + tm.px[c]) / 3 - x0) * scale));
-    const cy = Math.round((((tm.py[a] + tm.py[b] + tm.py[c]) / 3 - y0) * scale));
+    const cx = Math.min(GRID - 1, Math.max(0, Math.round(((tm.px[a] + tm.px[b] + tm.px[c]) / 3 - x0) * scale)));
+    const cy = Math.min(GRID - 1, Math.max(0, Math.round(((tm.py[a] + tm.py[b] + tm.py[c]) / 3 - y0) * scale)));
     packed[k++] = hilbertIndex(GRID, cx, cy) * 2 ** 23 + t;
   }
   packed.sort();
