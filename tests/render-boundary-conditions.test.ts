@@ -60,3 +60,32 @@ describe('geometry picture: loads and supports', () => {
     expect(heaviest[0]).toBeGreaterThan(2 * first);
   });
 });
+
+describe('geometry picture of an imported drawing', () => {
+  // meshes/import-plate-hole.svg: our own test drawing, a 200 x 50 plate with a central bore
+  it('draws the loads and supports while the drawing can be read, and says so when it cannot', async () => {
+    const { join } = await import('node:path');
+    const { parseModelText, reattachDrawing } = await import('../src/model/load.js');
+    const file = join('meshes', 'plate-hole-from-svg.json');
+    const text = JSON.stringify({
+      material: { E: 210000, nu: 0.3 },
+      thickness: 10,
+      geometry: { from: 'import-plate-hole.svg' },
+      supports: [{ type: 'pin', at: [0, 25] }, { type: 'pin', at: [200, 25], fix: 'y' }],
+      loads: [{ type: 'traction', on: 'pull', normal: 100 }],
+      mesh: { size: 8, raiserSize: 1 },
+    });
+    const model = parseModelText(text, file);
+    const a = analyseModel(model);
+    const result = buildResult(a, file);
+    expect(geometryScene(plotSource(a, result), { width: 800 }).info.boundaryConditions).toEqual({ loads: 1, supports: 2 });
+    // as a saved solution holds it: the model without its drawing
+    const saved = JSON.parse(JSON.stringify(model));
+    const bare = geometryScene({ ...plotSource(a, result), model: saved }, { width: 800 });
+    expect(bare.info.boundaryConditions).toEqual({ loads: 0, supports: 0 });
+    expect(bare.items.some((it) => it.kind === 'text' && it.text.includes('loads and supports not drawn'))).toBe(true);
+    expect(reattachDrawing(saved, file)).toBe(true);
+    expect(geometryScene({ ...plotSource(a, result), model: saved }, { width: 800 }).info.boundaryConditions).toEqual({ loads: 1, supports: 2 });
+    expect(reattachDrawing(JSON.parse(JSON.stringify(model)), join('no-such-folder', 'm.json'))).toBe(false);
+  });
+});

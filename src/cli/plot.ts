@@ -27,6 +27,7 @@ import {
   type PictureSet,
 } from '../report/pictures.js';
 import { readSaved, SAVED_FILE, type PlotSource } from '../report/saved.js';
+import { reattachDrawing } from '../model/load.js';
 
 export const PICTURE_NAMES = ['contour', 'peak', 'mesh', 'deformed', 'geometry', 'section', 'convergence'] as const;
 
@@ -121,6 +122,8 @@ interface PlotFlags extends PictureFlags {
 
 function runPlot(saved: string, flags: PlotFlags): number {
   const src = readSaved(saved);
+  // an imported drawing is not in the saved file: read it again for the loads and supports of the geometry picture
+  reattachDrawing(src.model, src.result.model.file ?? undefined);
   const o = pictureOptions(flags);
   let only: string[];
   if (flags.only) {

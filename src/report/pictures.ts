@@ -328,7 +328,16 @@ export function geometryScene(src: PlotSource, opts: PictureOptions = {}): Scene
   const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), false) + 60;
   const r = src.result;
   const s = newScene(W, H, `geometry: ${r.model.title ?? 'raiser'}`);
-  const fr = frame(s, src, `Geometry and nominal sections: ${r.model.title ?? ''}`.trim(), `net section (least material across the load) solid, gross section dashed; loads L (arrows, not to scale) and supports S; lengths in ${r.units.length}`, false);
+  // Loads and supports need the domain's edges and tags; an imported drawing that cannot be read
+  // again (moved since the solve) leaves them out, and the subtitle says so.
+  let domain: ReturnType<typeof buildDomain> | null = null;
+  try {
+    domain = buildDomain(src.model.geometry);
+  } catch {
+    domain = null;
+  }
+  const bcWords = domain ? 'loads L (arrows, not to scale) and supports S' : 'loads and supports not drawn (the drawing the geometry came from could not be read again)';
+  const fr = frame(s, src, `Geometry and nominal sections: ${r.model.title ?? ''}`.trim(), `net section (least material across the load) solid, gross section dashed; ${bcWords}; lengths in ${r.units.length}`, false);
   // room around the plate for the load arrows (2.6 sizes) and their labels
   const view = fitView(opts.window ?? bbox(src.mesh.nodes), inflate(fr.draw, fr.size * 4.4));
   s.items.push({ kind: 'fill', paths: outlineLoops(src, src.mesh.nodes, view), colour: PLATE_FILL, clip: fr.draw });
@@ -344,13 +353,7 @@ export function geometryScene(src: PlotSource, opts: PictureOptions = {}): Scene
   const n = r.nominal;
   sec(n.gross.section, GROSS_COLOUR, [8, 5], `gross ${formatValue(n.gross.section.length)} ${r.units.length}`, true);
   sec(n.section, NET_COLOUR, undefined, `net ${formatValue(n.section.length)} ${r.units.length}`, false);
-  // Loads and supports, where the geometry can be rebuilt (an imported drawing may be gone).
-  let drawn = { loads: 0, supports: 0 };
-  try {
-    drawn = drawBoundaryConditions(s, src.mesh, buildDomain(src.model.geometry), src.model.loads, src.model.supports, view, fr.size);
-  } catch {
-    // the picture stays without them
-  }
+  const drawn = domain ? drawBoundaryConditions(s, src.mesh, domain, src.model.loads, src.model.supports, view, fr.size) : { loads: 0, supports: 0 };
   const [px, py] = toPixel(view, r.peak.x, r.peak.y);
   drawMarker(s, px, py, `peak, ${r.peak.feature}`, fr.size * 0.9, fr.draw, 'peak');
   drawScaleBar(s, fr.draw[0] + fr.size * 0.6, fr.draw[3] - fr.size * 0.6, view.s, 0.22 * (fr.draw[2] - fr.draw[0]), r.units.length, fr.size * 0.9);
