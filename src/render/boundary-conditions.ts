@@ -96,6 +96,19 @@ function spread(list: Frame[], count: number): Frame[] {
   return kept;
 }
 
+/** The frame nearest the middle of a group of frames: where its label goes. */
+function central(list: Frame[]): Frame {
+  let cx = 0;
+  let cy = 0;
+  for (const f of list) {
+    cx += f.x / list.length;
+    cy += f.y / list.length;
+  }
+  let best = list[0];
+  for (const f of list) if ((f.x - cx) ** 2 + (f.y - cy) ** 2 < (best.x - cx) ** 2 + (best.y - cy) ** 2) best = f;
+  return best;
+}
+
 function arrow(s: Scene, x0: number, y0: number, x1: number, y1: number, head: number, colour: Rgb, width: number): void {
   const dx = x1 - x0;
   const dy = y1 - y0;
@@ -180,7 +193,7 @@ export function drawBoundaryConditions(
       });
       s.items.push({ kind: 'stroke', lines: ticks, width: 0.14 * size, colour: SUPPORT_COLOUR });
     }
-    const f0 = frames[Math.floor(frames.length / 2)];
+    const f0 = central(spread(frames, 14));
     const [lx, ly] = toPixel(view, f0.x, f0.y);
     const word = sp.type === 'roller' ? ` (${sp.fix} held)` : sp.type === 'symmetry' ? ' (mirror)' : '';
     label(s, `S${i + 1}${word}`, lx + 1.6 * size * f0.nx, ly - 1.6 * size * f0.ny + 0.35 * size, 0.8 * size, SUPPORT_COLOUR, anchorFor(f0.nx), `support ${i + 1}`);
@@ -217,7 +230,7 @@ export function drawBoundaryConditions(
       if (pulling) arrow(s, x, y, x + al * ux, y + al * uy, head, LOAD_COLOUR, 0.16 * size);
       else arrow(s, x - al * ux, y - al * uy, x, y, head, LOAD_COLOUR, 0.16 * size);
     }
-    const f0 = frames[Math.floor(frames.length / 2)];
+    const f0 = central(spread(frames, 14));
     const [lx, ly] = toPixel(view, f0.x, f0.y);
     const off = ld.type === 'moment' ? 1.4 * size : len + 0.9 * size;
     label(s, `L${i + 1}${ld.type === 'moment' ? ' (moment)' : ''}`, lx + off * f0.nx, ly - off * f0.ny + 0.35 * size, 0.8 * size, LOAD_COLOUR, anchorFor(f0.nx), `load ${i + 1}`);
