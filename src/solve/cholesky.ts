@@ -551,7 +551,18 @@ export function analyzeCholeskyWithin(a: SymmetricCsc, ordering: Ordering, maxBy
         }
       }
     }
-    rows.subarray(below, nr).sort();
+    if (nr - below <= 24) {
+      // insertion sort: most supernodes have few rows below them, where a typed-array sort call costs more than the sorting
+      for (let t = below + 1; t < nr; t++) {
+        const v = rows[t];
+        let u = t;
+        while (u > below && rows[u - 1] > v) {
+          rows[u] = rows[u - 1];
+          u--;
+        }
+        rows[u] = v;
+      }
+    } else rows.subarray(below, nr).sort();
     rowPtr[s + 1] = nr;
     // offsets of this supernode's entries of A in its row-major front
     const m = nr - rowPtr[s];
