@@ -170,6 +170,11 @@ export function chooseOrdering(a: SymmetricCsc, options: SolveOptions = {}): { o
  * carries ||A|| ||x|| / ||b||, which is large for a stiffness matrix loaded at a few nodes.
  */
 export function backwardError(a: SymmetricCsc, x: Float64Array, b: Float64Array): number {
+  return residualMeasures(a, x, b, 1).backward;
+}
+
+/** ||A||inf of a symmetric matrix stored as its lower triangle: the largest row sum of |a_ij|. */
+function symmetricInfNorm(a: SymmetricCsc): number {
   const { n, colPtr, rowIndex, values } = a;
   const rowAbs = new Float64Array(n);
   for (let j = 0; j < n; j++) {
@@ -180,31 +185,46 @@ export function backwardError(a: SymmetricCsc, x: Float64Array, b: Float64Array)
       if (i !== j) rowAbs[j] += v;
     }
   }
-  const ax = new Float64Array(n);
-  multiplySymmetric(a, x, ax);
-  let rMax = 0;
-  let aMax = 0;
-  let xMax = 0;
-  let bMax = 0;
-  for (let i = 0; i < n; i++) {
-    rMax = Math.max(rMax, Math.abs(b[i] - ax[i]));
-    aMax = Math.max(aMax, rowAbs[i]);
-    xMax = Math.max(xMax, Math.abs(x[i]));
-    bMax = Math.max(bMax, Math.abs(b[i]));
-  }
-  const den = aMax * xMax + bMax;
-  return den > 0 ? rMax / den : rMax;
+  let m = 0;
+  for (let i = 0; i < n; i++) m = Math.max(m, rowAbs[i]);
+  return m;
 }
 
-/** max over right-hand sides of the backward error. */
-function worstBackwardError(a: SymmetricCsc, x: Float64Array, b: Float64Array, nrhs: number): number {
+/**
+ * Both measures of a solution, with one product A x per right-hand side: the largest over the
+ * right-hand sides of the relative residual ||A x - b|| / ||b|| (2-norms) and of the backward
+ * error (infinity norms, see backwardError).
+ */
+export function residualMeasures(a: SymmetricCsc, x: Float64Array, b: Float64Array, nrhs = 1): { relative: number; backward: number } {
   const n = a.n;
-  let worst = 0;
+  const ax = new Float64Array(n);
+  const normA = symmetricInfNorm(a);
+  let relative = 0;
+  let backward = 0;
   for (let r = 0; r < nrhs; r++) {
-    const e = backwardError(a, x.subarray(r * n, (r + 1) * n), b.subarray(r * n, (r + 1) * n));
-    if (e > worst || Number.isNaN(e)) worst = e;
+    const xr = x.subarray(r * n, (r + 1) * n);
+    const br = b.subarray(r * n, (r + 1) * n);
+    multiplySymmetric(a, xr, ax);
+    let num = 0;
+    let den = 0;
+    let rMax = 0;
+    let xMax = 0;
+    let bMax = 0;
+    for (let i = 0; i < n; i++) {
+      const d = ax[i] - br[i];
+      num += d * d;
+      den += br[i] * br[i];
+      rMax = Math.max(rMax, Math.abs(d));
+      xMax = Math.max(xMax, Math.abs(xr[i]));
+      bMax = Math.max(bMax, Math.abs(br[i]));
+    }
+    const rel = den > 0 ? Math.sqrt(num / den) : Math.sqrt(num);
+    const eDen = normA * xMax + bMax;
+    const eta = eDen > 0 ? rMax / eDen : rMax;
+    if (rel > relative || Number.isNaN(rel)) relative = rel;
+    if (eta > backward || Number.isNaN(eta)) backward = eta;
   }
-  return worst;
+  return { relative, backward };
 }
 
 /** max over right-hand sides of ||A x - b|| / ||b||. */
@@ -277,6 +297,7 @@ export function solveSpd(a: SymmetricCsc, b: Float64Array, options: SolveOptions
       iterations += res.iterations;
     }
     const t4 = performance.now();
+    const measured = residualMeasures(a, x, b, nrhs);
     const stats: SolveStats = {
       ...common,
       factorBytes: ic.bytes,
@@ -285,8 +306,8 @@ export function solveSpd(a: SymmetricCsc, b: Float64Array, options: SolveOptions
       threads: 1,
       solveThreads: 1,
       seconds: { ordering: (t1 - t0) / 1e3, symbolic: (t2 - t1) / 1e3, numeric: (t3 - t2) / 1e3, solve: (t4 - t3) / 1e3 },
-      relativeResidual: relativeResidual(a, x, b, nrhs),
-      backwardError: worstBackwardError(a, x, b, nrhs),
+      relativeResidual: measured.relative,
+      backwardError: measured.backward,
       refinementSteps: 0,
       method,
       iterations,
@@ -301,7 +322,8 @@ export function solveSpd(a: SymmetricCsc, b: Float64Array, options: SolveOptions
   const x = solveCholesky(factor, b, nrhs, { threads: options.threads, report: solveReport });
   const tSolved = performance.now();
   let refinementSteps = 0;
-  let residual = relativeResidual(a, x, b, nrhs);
+  let measured = residualMeasures(a, x, b, nrhs);
+  let residual = measured.relative;
   // Optional iterative refinement in working precision (J. H. Wilkinson, "Rounding Errors in
   // Algebraic Processes", 1963; N. J. Higham, "Accuracy and Stability of Numerical Algorithms",
   // 2nd ed., SIAM 2002, chapter 12): x += A^-1 (b - A x) with the same factor while the residual
@@ -320,11 +342,13 @@ export function solveSpd(a: SymmetricCsc, b: Float64Array, options: SolveOptions
     const dx = solveCholesky(factor, r, nrhs, { threads: options.threads });
     const trial = x.slice();
     for (let i = 0; i < x.length; i++) trial[i] += dx[i];
-    const res = relativeResidual(a, trial, b, nrhs);
+    const trialMeasured = residualMeasures(a, trial, b, nrhs);
+    const res = trialMeasured.relative;
     refinementSteps++;
     if (!(res < residual)) break;
     x.set(trial);
     residual = res;
+    measured = trialMeasured;
   }
   // the solve time is the triangular solves (and the refinement steps when there are any), not the residual check
   const t4 = refinementSteps > 0 ? performance.now() : tSolved;
@@ -338,7 +362,7 @@ export function solveSpd(a: SymmetricCsc, b: Float64Array, options: SolveOptions
     solveThreads: solveReport.threads,
     seconds: { ordering: (t1 - t0) / 1e3, symbolic: (t2 - t1) / 1e3, numeric: (t3 - t2) / 1e3, solve: (t4 - t3) / 1e3 },
     relativeResidual: residual,
-    backwardError: worstBackwardError(a, x, b, nrhs),
+    backwardError: measured.backward,
     method,
     iterations: 0,
     preconditioner: '',
