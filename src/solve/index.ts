@@ -34,8 +34,9 @@ import {
   restrictOrdering,
 } from './ordering.js';
 import { analyzeCholeskyWithin, factorCholesky, solveCholesky, type CholeskyFactor, type RelaxOptions, type SymbolicFactor } from './cholesky.js';
-import { factorIncompleteCholesky } from './ic.js';
-import { solvePcg } from './pcg.js';
+import { factorIncompleteCholesky, type IncompleteCholesky } from './ic.js';
+import { solvePcg, type PcgPreconditioner } from './pcg.js';
+import { amgPreconditioner, buildAmg, rigidModes } from './amg.js';
 
 export * from './sparse.js';
 export * from './ordering.js';
@@ -90,7 +91,11 @@ export interface SolveOptions {
   /** largest estimated direct-factor memory in bytes for the automatic choice (default defaultMaxFactorBytes()) */
   readonly maxFactorBytes?: number;
   /** the iterative solve: relative residual (default 1e-10), iteration limit, IC fill level (default 5) */
-  readonly pcg?: { readonly tolerance?: number; readonly maxIterations?: number; readonly fillLevel?: number };
+  /**
+   * the iterative solve: relative residual (default 1e-10), iteration limit, preconditioner
+   * ('amg', the default where the mesh is known, or 'ic'), IC fill level (default 5)
+   */
+  readonly pcg?: { readonly tolerance?: number; readonly maxIterations?: number; readonly fillLevel?: number; readonly preconditioner?: 'amg' | 'ic' };
 }
 
 export interface SolveStats {
@@ -287,12 +292,31 @@ export function solveSpd(a: SymmetricCsc, b: Float64Array, options: SolveOptions
   };
   if (method === 'pcg') {
     const pc = options.pcg ?? {};
-    const ic = factorIncompleteCholesky(a, ordering, { fillLevel: pc.fillLevel ?? 5 });
+    // Smoothed-aggregation multigrid needs the rigid motions, so the mesh: node coordinates and
+    // the full DOF of each row with two DOFs a node. Without them, incomplete Cholesky.
+    const geometryKnown = options.coords !== undefined && options.fullDofOfRow !== undefined && (options.dofsPerNode ?? 2) === 2;
+    const useAmg = (pc.preconditioner ?? (geometryKnown ? 'amg' : 'ic')) === 'amg';
+    if (useAmg && !geometryKnown) throw new RangeError('solveSpd: the multigrid preconditioner needs coords and fullDofOfRow (two DOFs a node)');
+    let pre: IncompleteCholesky | PcgPreconditioner;
+    let preBytes: number;
+    let preWords: string;
+    if (useAmg) {
+      const modes = rigidModes(options.coords!, options.fullDofOfRow!);
+      const h = buildAmg(a, modes.blockOf, modes.nBlocks, modes.B);
+      pre = amgPreconditioner(a, h);
+      preBytes = h.bytes;
+      preWords = `smoothed-aggregation multigrid, ${h.sizes.length} levels (${h.sizes.join(', ')} unknowns), operator complexity ${h.complexity.toFixed(2)}`;
+    } else {
+      const ic = factorIncompleteCholesky(a, ordering, { fillLevel: pc.fillLevel ?? 5 });
+      pre = ic;
+      preBytes = ic.bytes;
+      preWords = `IC(${ic.fillLevel}), ${ic.nnz} nonzeros${ic.shift > 0 ? `, diagonal shift ${ic.shift}` : ''}`;
+    }
     const t3 = performance.now();
     const x = new Float64Array(b.length);
     let iterations = 0;
     for (let r = 0; r < nrhs; r++) {
-      const res = solvePcg(ic, b.subarray(r * n, (r + 1) * n), { tolerance: pc.tolerance, maxIterations: pc.maxIterations });
+      const res = solvePcg(pre, b.subarray(r * n, (r + 1) * n), { tolerance: pc.tolerance, maxIterations: pc.maxIterations });
       x.set(res.x, r * n);
       iterations += res.iterations;
     }
@@ -300,7 +324,7 @@ export function solveSpd(a: SymmetricCsc, b: Float64Array, options: SolveOptions
     const measured = residualMeasures(a, x, b, nrhs);
     const stats: SolveStats = {
       ...common,
-      factorBytes: ic.bytes,
+      factorBytes: preBytes,
       bytesPerNnzL: 0,
       workspaceBytes: 8 * 6 * n,
       threads: 1,
@@ -311,7 +335,7 @@ export function solveSpd(a: SymmetricCsc, b: Float64Array, options: SolveOptions
       refinementSteps: 0,
       method,
       iterations,
-      preconditioner: `IC(${ic.fillLevel}), ${ic.nnz} nonzeros${ic.shift > 0 ? `, diagonal shift ${ic.shift}` : ''}`,
+      preconditioner: preWords,
     };
     return { x, stats, factor: null };
   }

@@ -29,6 +29,20 @@
 import { multiplySymmetric, type SymmetricCsc } from './sparse.js';
 import { applyIncompleteCholesky, type IncompleteCholesky } from './ic.js';
 
+/**
+ * Any symmetric positive definite preconditioner for the iteration: it runs on the permuted,
+ * scaled matrix `scaled` = S P A P^T S and applies z = M^-1 r there. The incomplete Cholesky
+ * factor is one (its own permutation and unit-diagonal scaling); the multigrid of amg.ts runs
+ * on A itself (identity permutation, unit scale).
+ */
+export interface PcgPreconditioner {
+  readonly n: number;
+  readonly perm: Int32Array;
+  readonly scale: Float64Array;
+  readonly scaled: SymmetricCsc;
+  apply(r: Float64Array, z: Float64Array): void;
+}
+
 export class PcgError extends Error {
   override readonly name = 'PcgError';
   constructor(
@@ -81,12 +95,13 @@ function unscaledNorm(v: Float64Array, scale: Float64Array, n: number): number {
  * the incomplete factor f of A. Throws PcgError when A is found indefinite or the tolerance is
  * not met within the iteration limit.
  */
-export function solvePcg(f: IncompleteCholesky, b: Float64Array, options: PcgOptions = {}): PcgResult {
+export function solvePcg(f: IncompleteCholesky | PcgPreconditioner, b: Float64Array, options: PcgOptions = {}): PcgResult {
   const n = f.n;
   const tol = options.tolerance ?? 1e-10;
   const etaTol = options.backwardTolerance ?? 1e-14;
   const maxIt = options.maxIterations ?? 20000;
   const { perm, scale, scaled } = f;
+  const precondition = 'apply' in f ? (r: Float64Array, z: Float64Array) => f.apply(r, z) : (r: Float64Array, z: Float64Array) => applyIncompleteCholesky(f, r, z);
   if (b.length !== n) throw new RangeError(`solvePcg: right-hand side length ${b.length}, matrix order ${n}`);
   // scaled right-hand side b^ = S P b; the solution y of A^ y = b^ gives x = P^T S y
   const bs = new Float64Array(n);
@@ -109,7 +124,7 @@ export function solvePcg(f: IncompleteCholesky, b: Float64Array, options: PcgOpt
   let it = 0;
   let rel = 1;
   for (let restart = 0; restart < 4; restart++) {
-    applyIncompleteCholesky(f, r, z);
+    precondition(r, z);
     p.set(z);
     let rz = dot(r, z, n);
     while (it < maxIt) {
@@ -132,7 +147,7 @@ export function solvePcg(f: IncompleteCholesky, b: Float64Array, options: PcgOpt
       it++;
       rel = unscaledNorm(r, scale, n) / bnorm;
       if (rel <= tol) break;
-      applyIncompleteCholesky(f, r, z);
+      precondition(r, z);
       const rz1 = dot(r, z, n);
       const beta = rz1 / rz;
       rz = rz1;
