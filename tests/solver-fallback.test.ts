@@ -1,6 +1,6 @@
 /**
  * When the direct factor would not fit in what the memory limit leaves, the analysis solves by
- * conjugate gradients (incomplete Cholesky preconditioner, to ||f - K u|| / ||f|| <= 1e-10) and
+ * conjugate gradients (smoothed-aggregation multigrid preconditioner, to ||f - K u|| / ||f|| <= 1e-10 or a backward error of 1e-14) and
  * says so. Kt must then agree with the direct solve: the two differ only by the iteration's
  * residual, so to far better than the mesh error (1e-6 relative is used here).
  */
@@ -27,6 +27,7 @@ describe('iterative solve when the factor does not fit', () => {
     expect(Math.abs(iterative.kt.net / direct.kt.net - 1)).toBeLessThan(1e-6);
     const result = buildResult(iterative, 'examples/strap-bolt-hole.json');
     expect(result.solver.method).toBe('pcg');
+    expect(result.solver.preconditioner).toMatch(/smoothed-aggregation multigrid, \d+ levels/);
     expect(formatSummary(result)).toMatch(/conjugate gradients .* \d+ iterations/);
   });
 });

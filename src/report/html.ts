@@ -145,7 +145,7 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
       ['nodes', String(r.mesh.nodes)],
       ['degrees of freedom', `${r.mesh.dofs} (${r.solver.equations} free)`],
       ['smallest and largest angle', `${f(r.mesh.minAngleDeg, 3)} and ${f(r.mesh.maxAngleDeg, 3)} degrees`],
-      ['solver', `${r.solver.method === 'pcg' ? `conjugate gradients with an incomplete Cholesky preconditioner (the direct factor would not fit in memory), ${r.solver.iterations} iterations` : `sparse Cholesky, ${esc(r.solver.ordering)} ordering, ${r.solver.factorNonzeros} nonzeros in the factor`}, relative residual ${esc(r.solver.relativeResidual.toExponential(1))}, backward error ${esc(r.solver.backwardError.toExponential(1))}`],
+      ['solver', `${r.solver.method === 'pcg' ? `conjugate gradients preconditioned by ${esc(r.solver.preconditioner ?? 'incomplete Cholesky')} (the direct factor would not fit in memory), ${r.solver.iterations} iterations` : `sparse Cholesky, ${esc(r.solver.ordering)} ordering, ${r.solver.factorNonzeros} nonzeros in the factor`}, relative residual ${esc(r.solver.relativeResidual.toExponential(1))}, backward error ${esc(r.solver.backwardError.toExponential(1))}`],
       ['equilibrium', `applied loads and reactions balance to ${esc(r.load.equilibriumError.toExponential(1))} of the load`],
     ])}</tbody></table>`,
   );

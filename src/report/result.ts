@@ -178,6 +178,7 @@ function buildResultUnchecked(a: Analysis, file?: string, cert: Certified | null
       backwardError: a.solveStats.backwardError,
       method: a.solveStats.method,
       iterations: a.solveStats.iterations,
+      preconditioner: a.solveStats.method === 'pcg' ? a.solveStats.preconditioner : null,
     },
     timeMs: a.timeMs,
     convergence: conv,

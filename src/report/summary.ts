@@ -73,7 +73,7 @@ export function formatSummary(r: ResultJson): string {
   );
   out.push(`  time   mesh ${fmt(r.timeMs.mesh, 3)} ms, stiffness ${fmt(r.timeMs.assemble, 3)} ms, solve ${fmt(r.timeMs.solve, 3)} ms, total ${fmt(r.timeMs.total, 3)} ms`);
   if (r.solver.method === 'pcg') {
-    out.push(`  solver the direct factor would not fit in memory: conjugate gradients with an incomplete Cholesky preconditioner, ${r.solver.iterations} iterations, residual ${r.solver.relativeResidual.toExponential(1)}, backward error ${r.solver.backwardError.toExponential(1)}`);
+    out.push(`  solver the direct factor would not fit in memory: conjugate gradients preconditioned by ${r.solver.preconditioner ?? 'incomplete Cholesky'}, ${r.solver.iterations} iterations, residual ${r.solver.relativeResidual.toExponential(1)}, backward error ${r.solver.backwardError.toExponential(1)}`);
   }
   out.push(
     `  loads  resultant (${fmt(r.load.resultant.fx)}, ${fmt(r.load.resultant.fy)}) ${u.force}; reactions balance them to ${r.load.equilibriumError.toExponential(1)} of the load`,
