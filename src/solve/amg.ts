@@ -20,7 +20,7 @@
  *
  * Matrices are held as full (both triangles) CSR, rows sorted; all arrays are typed.
  */
-import type { SymmetricCsc } from './sparse.js';
+import { adjacencyGraph, type SymmetricCsc } from './sparse.js';
 import { analyzeCholesky, factorCholesky, solveCholesky, type CholeskyFactor } from './cholesky.js';
 import { orderAmd } from './ordering.js';
 import type { PcgPreconditioner } from './pcg.js';
@@ -219,35 +219,26 @@ export function aggregateBlocks(a: Csr, blockOf: Int32Array, nBlocks: number): {
   const rowList = new Int32Array(a.rows);
   const fill = firstRow.slice(0, nBlocks);
   for (let i = 0; i < a.rows; i++) rowList[fill[blockOf[i]]++] = i;
-  for (let k = 0; k < nBlocks; k++) {
+  /** Calls visit(m) once for every block m != k coupled to block k. */
+  const forEachNeighbour = (k: number, visit: (m: number) => void) => {
     for (let t = firstRow[k]; t < firstRow[k + 1]; t++) {
       const i = rowList[t];
       for (let p = a.ptr[i]; p < a.ptr[i + 1]; p++) {
         const m = blockOf[a.idx[p]];
         if (m !== k && mark[m] !== k) {
           mark[m] = k;
-          deg[k + 1]++;
+          visit(m);
         }
       }
     }
-  }
+  };
+  for (let k = 0; k < nBlocks; k++) forEachNeighbour(k, () => deg[k + 1]++);
   for (let k = 0; k < nBlocks; k++) deg[k + 1] += deg[k];
   const gptr = deg;
   const gidx = new Int32Array(gptr[nBlocks]);
   mark.fill(-1);
   const gfill = gptr.slice(0, nBlocks);
-  for (let k = 0; k < nBlocks; k++) {
-    for (let t = firstRow[k]; t < firstRow[k + 1]; t++) {
-      const i = rowList[t];
-      for (let p = a.ptr[i]; p < a.ptr[i + 1]; p++) {
-        const m = blockOf[a.idx[p]];
-        if (m !== k && mark[m] !== k) {
-          mark[m] = k;
-          gidx[gfill[k]++] = m;
-        }
-      }
-    }
-  }
+  for (let k = 0; k < nBlocks; k++) forEachNeighbour(k, (m) => (gidx[gfill[k]++] = m));
   const aggOf = new Int32Array(nBlocks).fill(-1);
   let nAgg = 0;
   // pass 1: a block with every neighbour free starts an aggregate with them
@@ -434,39 +425,13 @@ export function buildAmg(a: SymmetricCsc, blockOf: Int32Array, nBlocks: number, 
   const d = diagonalOf(A);
   levels.push({ A, invDiag: Float64Array.from(d, (v) => (v > 0 ? 1 / v : 0)), r: new Float64Array(A.rows), x: new Float64Array(A.rows), b: new Float64Array(A.rows) });
   const lower = lowerFromFull(A);
-  const coarse = factorCholesky(lower, analyzeCholesky(lower, orderAmd(graphOf(lower))));
+  const coarse = factorCholesky(lower, analyzeCholesky(lower, orderAmd(adjacencyGraph(lower))));
   bytes += csrBytes(A) + coarse.bytes;
   return { levels, coarse, sizes, complexity: nnzSum / nnz0, bytes };
 }
 
 function csrBytes(a: Csr): number {
   return a.ptr.byteLength + a.idx.byteLength + a.val.byteLength;
-}
-
-/** The adjacency (CSR, no self loops) of a lower CSC's pattern, for the coarse ordering. */
-function graphOf(a: SymmetricCsc): { ptr: Int32Array; idx: Int32Array } {
-  const n = a.n;
-  const deg = new Int32Array(n + 1);
-  for (let j = 0; j < n; j++) {
-    for (let p = a.colPtr[j]; p < a.colPtr[j + 1]; p++) {
-      const i = a.rowIndex[p];
-      if (i === j) continue;
-      deg[i + 1]++;
-      deg[j + 1]++;
-    }
-  }
-  for (let i = 0; i < n; i++) deg[i + 1] += deg[i];
-  const next = deg.slice(0, n);
-  const idx = new Int32Array(deg[n]);
-  for (let j = 0; j < n; j++) {
-    for (let p = a.colPtr[j]; p < a.colPtr[j + 1]; p++) {
-      const i = a.rowIndex[p];
-      if (i === j) continue;
-      idx[next[i]++] = j;
-      idx[next[j]++] = i;
-    }
-  }
-  return { ptr: deg, idx };
 }
 
 /** P0 - omega D^-1 (A P0), merging the two patterns row by row (both sorted). */
