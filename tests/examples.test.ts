@@ -31,7 +31,8 @@ const EXPECTED: Record<string, Expect> = {
     ktNet: 2.102, ktGross: 3.503, feature: /lanyard hole/, plasticity: true,
   },
   'mounting-plate.json': {
-    ktNet: 4.544, ktGross: 5.022, feature: /adjustment slot/, plasticity: true,
+    // regression values since the slot was drawn to its given width (before, twice as wide)
+    ktNet: 3.699, ktGross: 4.089, feature: /adjustment slot/, plasticity: false,
   },
   'notched-bar-bending.json': {
     ktNet: 2.146, ktGross: 2.803, feature: /notch/, plasticity: false,

@@ -155,3 +155,43 @@ describe('Hilbert order of the finished mesh', () => {
     expect(spans[spans.length >> 1]).toBeLessThan(0.02 * mesh.nNodes);
   });
 });
+
+describe('hole shapes as drawn', () => {
+  // Areas and extents by plane geometry: a slot of overall length L and width w is a w x (L - w)
+  // rectangle with two half discs of diameter w; a rounded rectangle W x H with corner radius r
+  // loses (4 - pi) r^2 to its corners.
+  const plate = (hole: object) =>
+    buildDomain({ outline: { shape: 'path', path: [[0, 0], [100, 0], [100, 60], [0, 60]] }, holes: [hole] } as unknown as Geometry);
+  const bbox = (d: ReturnType<typeof buildDomain>, loop: number) => {
+    const xs: number[] = [];
+    const ys: number[] = [];
+    const p = [0, 0];
+    for (const id of d.loops[loop].edges) for (let k = 0; k <= 16; k++) {
+      evaluateCurve(d.edges[id].curve, k / 16, p);
+      xs.push(p[0]);
+      ys.push(p[1]);
+    }
+    return [Math.min(...xs), Math.max(...xs), Math.min(...ys), Math.max(...ys)];
+  };
+
+  for (const [L, w] of [
+    [30, 8],
+    [6, 5.7],
+  ]) {
+    it(`a slot ${L} long and ${w} wide has area (L - w) w + pi w^2 / 4 and extents L by w`, () => {
+      const d = plate({ shape: 'slot', center: [50, 30], length: L, width: w });
+      expect(Math.abs(Math.abs(d.loops[1].signedArea) / ((L - w) * w + (Math.PI * w * w) / 4) - 1)).toBeLessThan(1e-9);
+      const [x0, x1, y0, y1] = bbox(d, 1);
+      expect(x1 - x0).toBeCloseTo(L, 9);
+      expect(y1 - y0).toBeCloseTo(w, 9);
+    });
+  }
+
+  it('a rounded rectangle 20 x 12 with corners of radius 2 has area W H - (4 - pi) r^2', () => {
+    const d = plate({ shape: 'rounded-rect', center: [50, 30], width: 20, height: 12, radius: 2 });
+    expect(Math.abs(Math.abs(d.loops[1].signedArea) / (240 - (4 - Math.PI) * 4) - 1)).toBeLessThan(1e-9);
+    const [x0, x1, y0, y1] = bbox(d, 1);
+    expect(x1 - x0).toBeCloseTo(20, 9);
+    expect(y1 - y0).toBeCloseTo(12, 9);
+  });
+});

@@ -210,7 +210,7 @@ function buildLoop(loop: Loop, path: string, label: string, isOutline: boolean):
       }
       const r = loop.width / 2;
       const half = loop.length / 2 - r;
-      return roundedBox(loop.center, half, r, r, loop.angle ?? 0, loopTags, label, feature, path);
+      return roundedBox(loop.center, half, 0, r, loop.angle ?? 0, loopTags, label, feature, path);
     }
     case 'rounded-rect': {
       const rmax = Math.min(loop.width, loop.height) / 2;
