@@ -74,7 +74,7 @@ function checkLoading(loading: FatigueLoading, fn: string): void {
  *   bending or axial: sqrt(a) = 0.246 - 3.08e-3 Sut + 1.51e-5 Sut^2 - 2.67e-8 Sut^3
  *   torsion:          sqrt(a) = 0.190 - 2.51e-3 Sut + 1.35e-5 Sut^2 - 2.67e-8 Sut^3
  * Range 50 <= Sut <= 250 kpsi: the kpsi counterpart of the SI form's range 340 to 1700 MPa
- * (49.3 to 246.6 kpsi; REFERENCES.md section 8 [V: SI transcription]); the 9th-edition page
+ * (49.3 to 246.6 kpsi; REFERENCES.md section 8 [V: the SI form of the fit]); the 9th-edition page
  * itself states no range, and its torsion chart (Fig. 6-21) draws curves for 60 to 200 kpsi.
  * Out of range: a RangeError.
  */
@@ -92,7 +92,7 @@ export function neuberSqrtASteelKpsi(sutKpsi: number, loading: FatigueLoading): 
 
 /**
  * The SI form of Shigley's fit, Sut in MPa, result in sqrt(mm), 340 <= Sut <= 1700 MPa
- * [V: SI transcription of the Shigley fit, REFERENCES.md section 8]:
+ * [V: the SI form of the Shigley fit, REFERENCES.md section 8]:
  *   bending or axial: sqrt(a) = 1.24 - 2.25e-3 S + 1.60e-6 S^2 - 4.11e-10 S^3
  *   torsion:          sqrt(a) = 0.958 - 1.83e-3 S + 1.43e-6 S^2 - 4.11e-10 S^3
  * (a known typo elsewhere writes 1.15e-5 for the kpsi form's 1.51e-5). Against the kpsi form
