@@ -113,13 +113,7 @@ export function assembleSystem(mesh: Mesh, D: Float64Array, thickness: number, f
  * DOFs: column of free DOF (node a, component k) holds the free DOFs >= it of node a and of the
  * nodes sharing an element with a. Free DOF numbers increase with the full DOF 2 * node + c, so
  * the rows of a column come out sorted when the node's neighbours are.
- */
-export function freeStiffnessPattern(mesh: Mesh, dofFree: Int32Array, nFree: number): SymmetricCsc {
-  return freePatternWithSlots(mesh, meshNodeGraph(mesh), dofFree, nFree).K;
-}
-
-/**
- * The pattern, and for each node a the sorted list of nodes b >= a coupled to it (a first) with,
+ * With it, for each node a the sorted list of nodes b >= a coupled to it (a first) with,
  * per entry, the positions in K.values of (x_b, x_a), (y_b, x_a), (x_b, y_a), (y_b, y_a) as
  * (row, column), -1 where a DOF is fixed or the entry is above the diagonal.
  */

@@ -16,7 +16,7 @@
  * discretisation error of either element, so the rules do not spoil convergence rates.
  */
 import type { Mesh } from '../mesh/types.js';
-import { TRI6, isStraightP2, shapeP2 } from './elements.js';
+import { TRI6, isStraightP2, jacobianP2, shapeP2 } from './elements.js';
 
 /** b(x, y, out): writes the body force per unit volume (bx, by) at (x, y) into out[0], out[1]. */
 export type BodyForceField = (x: number, y: number, out: number[]) => void;
@@ -103,6 +103,7 @@ export function addBodyForce(mesh: Mesh, b: BodyForceField, thickness: number, f
   const N = new Float64Array(6);
   const dxi = new Float64Array(6);
   const deta = new Float64Array(6);
+  const J = new Float64Array(4);
   for (let e = 0; e < mesh.nElements; e++) {
     const rule = isStraightP2(nodes, el, e) ? TRI6 : TRI12;
     const o = 6 * e;
@@ -110,22 +111,13 @@ export function addBodyForce(mesh: Mesh, b: BodyForceField, thickness: number, f
       shapeP2(rule.xi[q], rule.eta[q], N, dxi, deta);
       let x = 0;
       let y = 0;
-      let j11 = 0;
-      let j12 = 0;
-      let j21 = 0;
-      let j22 = 0;
       for (let i = 0; i < 6; i++) {
         const k = el[o + i];
-        const xk = nodes[2 * k];
-        const yk = nodes[2 * k + 1];
-        x += N[i] * xk;
-        y += N[i] * yk;
-        j11 += dxi[i] * xk;
-        j12 += dxi[i] * yk;
-        j21 += deta[i] * xk;
-        j22 += deta[i] * yk;
+        x += N[i] * nodes[2 * k];
+        y += N[i] * nodes[2 * k + 1];
       }
-      const det = j11 * j22 - j12 * j21;
+      jacobianP2(nodes, el, o, dxi, deta, 0, J);
+      const det = J[0] * J[3] - J[1] * J[2];
       if (!(det > 0)) throw new RangeError(`element ${e}: det J = ${det} <= 0 at (${rule.xi[q]}, ${rule.eta[q]})`);
       b(x, y, bv);
       const wq = rule.w[q] * det * thickness;

@@ -132,7 +132,7 @@ export function strainMatrixP2(nodes: Float64Array, el: Int32Array, e: number, x
  * The isoparametric Jacobian J = [dx/dxi dy/dxi; dx/deta dy/deta] of the 6-node element whose
  * nodes start at el[o], from reference derivatives dxi[off + i], deta[off + i]; into J (row-major).
  */
-function jacobianP2(nodes: Float64Array, el: Int32Array, o: number, dxi: Float64Array, deta: Float64Array, off: number, J: Float64Array): void {
+export function jacobianP2(nodes: Float64Array, el: Int32Array, o: number, dxi: Float64Array, deta: Float64Array, off: number, J: Float64Array): void {
   let j11 = 0;
   let j12 = 0;
   let j21 = 0;

@@ -13,6 +13,7 @@
  */
 import type { Domain } from '../geometry/domain.js';
 import { selectTarget } from '../geometry/select.js';
+import { outerEdges } from '../fem/boundary-conditions.js';
 import type { Mesh } from '../mesh/types.js';
 import type { Load, Support } from '../model/schema.js';
 import { toPixel, type View } from './field.js';
@@ -142,11 +143,14 @@ function loadDirection(load: Load, nx: number, ny: number): [number, number] | n
   }
 }
 
-/** The outline edges without a support: where a remote load with no target acts. */
-function unsupportedOutline(domain: Domain, supports: readonly Support[]): number[] {
+/**
+ * Where a remote load with no target acts, as the load compilation chooses it: the outline's
+ * straight edges on its bounding box (outerEdges) that no edge support holds.
+ */
+function remoteDefaultEdges(domain: Domain, supports: readonly Support[]): number[] {
   const held = new Set<number>();
   for (const sp of supports) if (sp.type !== 'pin') for (const e of selectTarget(domain, sp.on).edges) held.add(e);
-  return domain.edges.filter((e) => e.loop === 0 && !held.has(e.id)).map((e) => e.id);
+  return outerEdges(domain).filter((e) => !held.has(e));
 }
 
 /**
@@ -199,7 +203,7 @@ export function drawBoundaryConditions(
     label(s, `S${i + 1}${word}`, lx + 1.6 * size * f0.nx, ly - 1.6 * size * f0.ny + 0.35 * size, 0.8 * size, SUPPORT_COLOUR, anchorFor(f0.nx), `support ${i + 1}`);
   });
   loads.forEach((ld, i) => {
-    const edges = new Set(ld.on !== undefined ? selectTarget(domain, ld.on).edges : unsupportedOutline(domain, supports));
+    const edges = new Set(ld.on !== undefined ? selectTarget(domain, ld.on).edges : remoteDefaultEdges(domain, supports));
     const all = edgeFrames(mesh, edges);
     if (all.length === 0) return;
     nLoads++;

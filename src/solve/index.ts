@@ -24,7 +24,7 @@
 import { totalmem } from 'node:os';
 
 import { performance } from 'node:perf_hooks';
-import { type SymmetricCsc, adjacencyGraph, multiplySymmetric } from './sparse.js';
+import { type SymmetricCsc, adjacencyGraph, multiplySymmetric, symmetricInfNorm } from './sparse.js';
 import {
   type CsrGraph,
   type Ordering,
@@ -178,23 +178,6 @@ export function backwardError(a: SymmetricCsc, x: Float64Array, b: Float64Array)
   return residualMeasures(a, x, b, 1).backward;
 }
 
-/** ||A||inf of a symmetric matrix stored as its lower triangle: the largest row sum of |a_ij|. */
-function symmetricInfNorm(a: SymmetricCsc): number {
-  const { n, colPtr, rowIndex, values } = a;
-  const rowAbs = new Float64Array(n);
-  for (let j = 0; j < n; j++) {
-    for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
-      const i = rowIndex[p];
-      const v = Math.abs(values[p]);
-      rowAbs[i] += v;
-      if (i !== j) rowAbs[j] += v;
-    }
-  }
-  let m = 0;
-  for (let i = 0; i < n; i++) m = Math.max(m, rowAbs[i]);
-  return m;
-}
-
 /**
  * Both measures of a solution, with one product A x per right-hand side: the largest over the
  * right-hand sides of the relative residual ||A x - b|| / ||b|| (2-norms) and of the backward
@@ -234,24 +217,7 @@ export function residualMeasures(a: SymmetricCsc, x: Float64Array, b: Float64Arr
 
 /** max over right-hand sides of ||A x - b|| / ||b||. */
 export function relativeResidual(a: SymmetricCsc, x: Float64Array, b: Float64Array, nrhs = 1): number {
-  const n = a.n;
-  const ax = new Float64Array(n);
-  let worst = 0;
-  for (let r = 0; r < nrhs; r++) {
-    const xr = x.subarray(r * n, (r + 1) * n);
-    const br = b.subarray(r * n, (r + 1) * n);
-    multiplySymmetric(a, xr, ax);
-    let num = 0;
-    let den = 0;
-    for (let i = 0; i < n; i++) {
-      const d = ax[i] - br[i];
-      num += d * d;
-      den += br[i] * br[i];
-    }
-    const rel = den > 0 ? Math.sqrt(num / den) : Math.sqrt(num);
-    if (rel > worst || Number.isNaN(rel)) worst = rel;
-  }
-  return worst;
+  return residualMeasures(a, x, b, nrhs).relative;
 }
 
 /**

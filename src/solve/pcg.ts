@@ -26,7 +26,7 @@
  * (PcgError with reason 'indefinite'); the iteration limit reached without the tolerance gives
  * PcgError with reason 'not-converged', the iterations done and the residual reached.
  */
-import { multiplySymmetric, type SymmetricCsc } from './sparse.js';
+import { multiplySymmetric, symmetricInfNorm, type SymmetricCsc } from './sparse.js';
 import { applyIncompleteCholesky, type IncompleteCholesky } from './ic.js';
 
 /**
@@ -113,7 +113,7 @@ export function solvePcg(f: IncompleteCholesky | PcgPreconditioner, b: Float64Ar
     return x;
   };
   if (n === 0 || bnorm === 0) return { x, iterations: 0, relativeResidual: 0, backwardError: 0 };
-  const normA = originalInfNorm(f.scaled, scale);
+  const normA = symmetricInfNorm(f.scaled, scale); // of the caller's matrix, a_ij = a^_ij / (s_i s_j)
   let bMax = 0;
   for (let k = 0; k < n; k++) bMax = Math.max(bMax, Math.abs(b[k]));
   const y = new Float64Array(n);
@@ -174,22 +174,6 @@ export function solvePcg(f: IncompleteCholesky | PcgPreconditioner, b: Float64Ar
     rel,
     `conjugate gradient did not reach the relative residual ${tol.toExponential(1)} (or the backward error ${etaTol.toExponential(1)}) in ${it} iterations (reached ${rel.toExponential(2)})`,
   );
-}
-
-/** ||A||inf of the caller's matrix from the scaled one, a_ij = a^_ij / (s_i s_j). */
-function originalInfNorm(a: SymmetricCsc, scale: Float64Array): number {
-  const rowAbs = new Float64Array(a.n);
-  for (let j = 0; j < a.n; j++) {
-    for (let p = a.colPtr[j]; p < a.colPtr[j + 1]; p++) {
-      const i = a.rowIndex[p];
-      const v = Math.abs(a.values[p]) / (scale[i] * scale[j]);
-      rowAbs[i] += v;
-      if (i !== j) rowAbs[j] += v;
-    }
-  }
-  let m = 0;
-  for (let i = 0; i < a.n; i++) m = Math.max(m, rowAbs[i]);
-  return m;
 }
 
 function trueResidual(a: SymmetricCsc, y: Float64Array, bs: Float64Array, scale: Float64Array, work: Float64Array): number {

@@ -188,6 +188,26 @@ export function multiplySymmetric(a: SymmetricCsc, x: Float64Array, y: Float64Ar
 }
 
 /** Largest diagonal entry (0 for an empty matrix or one with no diagonal). */
+/**
+ * ||A||inf of a symmetric matrix stored as its lower triangle: the largest row sum of |a_ij|.
+ * With `scale`, of the matrix a_ij / (s_i s_j) (A given already scaled as S A S, s = scale).
+ */
+export function symmetricInfNorm(a: SymmetricCsc, scale?: Float64Array): number {
+  const { n, colPtr, rowIndex, values } = a;
+  const rowAbs = new Float64Array(n);
+  for (let j = 0; j < n; j++) {
+    for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
+      const i = rowIndex[p];
+      const v = scale ? Math.abs(values[p]) / (scale[i] * scale[j]) : Math.abs(values[p]);
+      rowAbs[i] += v;
+      if (i !== j) rowAbs[j] += v;
+    }
+  }
+  let m = 0;
+  for (let i = 0; i < n; i++) m = Math.max(m, rowAbs[i]);
+  return m;
+}
+
 export function maxDiagonal(a: SymmetricCsc): number {
   let m = 0;
   for (let j = 0; j < a.n; j++) {
