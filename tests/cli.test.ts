@@ -17,8 +17,11 @@ describe('raiser solve', () => {
     expect(r.code).toBe(0);
     const j = JSON.parse(r.stdout);
     for (const path of [
-      'kt.net', 'kt.gross', 'peak.stress', 'peak.measure', 'peak.x', 'peak.y', 'peak.feature',
-      'nominal.stress', 'nominal.section.from', 'nominal.section.to', 'nominal.section.area', 'load.resultant.fx',
+      'kt.raiser', 'kt.kind', 'kt.value', 'kt.error', 'kt.band', 'kt.definition', 'kt.net', 'kt.gross',
+      'peak.stress', 'peak.measure', 'peak.x', 'peak.y', 'peak.feature',
+      'raisers.0.name', 'raisers.0.peak.stress', 'raisers.0.section.from', 'raisers.0.section.to', 'raisers.0.section.area', 'raisers.0.section.N',
+      'raisers.0.section.M', 'raisers.0.kt.net.value', 'raisers.0.kt.net.nominal', 'raisers.0.kt.net.band', 'raisers.0.gross.length',
+      'singularPoints', 'load.resultant.fx',
       'mesh.nodes', 'mesh.elements', 'mesh.dofs', 'mesh.elementType', 'mesh.minAngleDeg', 'units.stress',
     ]) {
       const v = path.split('.').reduce((o: any, k) => o?.[k], j);
@@ -32,8 +35,10 @@ describe('raiser solve', () => {
   it('prints a summary with Kt, the section and the cautions', () => {
     const r = raiser(['solve', 'examples/strap-bolt-hole.json']);
     expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/Kt net \d\.\d+ \+- [\d.]+% at hole 1 "bolt hole"/);
     expect(r.stdout).toMatch(/Kt net\s+\d/);
     expect(r.stdout).toMatch(/Kt gross\s+\d/);
+    expect(r.stdout).toMatch(/net section \(150, 0\) to \(150, 60\), 43 mm of material in 2 ligaments/);
     expect(r.stdout).toContain('bolt hole');
     expect(r.stdout).toContain('qualified engineer');
     expect(r.stdout).toContain('Kf = 1 + q (Kt - 1)');
@@ -109,6 +114,7 @@ describe('raiser new', () => {
     expect(s.code).toBe(0);
     // Pilkey chart 4.1 fit at d/W = 0.2: Ktn = 2.519 (REFERENCES.md section 3), 2% tolerance.
     expect(Math.abs(JSON.parse(s.stdout).kt.net / 2.519 - 1)).toBeLessThan(0.02);
+    expect(JSON.parse(s.stdout).raisers[0].chart.difference).not.toBeNull();
   });
 
   it('takes the long parameter names too: --width 50 --diameter 10 is --W 50 --d 10', () => {

@@ -1,36 +1,146 @@
 /**
- * The nominal section. For a plate with a central hole the least-material cut across the load
- * passes through the hole centre and has W - d of material; the force through any cut between
- * the loaded end and the supports is the applied force (equilibrium); a cut given by the user
- * along the same line gives the same section, and one across part of the plate only the material
- * it crosses. Net and gross Kt then differ by exactly W / (W - d) (REFERENCES.md "General facts").
+ * Sections and what they carry (src/post/section.ts), and each raiser's net section
+ * (src/post/raiser-cut.ts).
+ *
+ * Identities of statics, exact for the discrete solution whatever its stress distribution: the
+ * nodal forces r = K u of the nodes on one side of a cut are the external loads on that free
+ * body, so the cut carries exactly the applied force and moment (to round-off):
+ *  - a strip pulled by a uniform end traction: N = F, and for a section symmetric about the
+ *    load's line M = 0, so the beam formula gives F / A_net (consistent nodal loads of a uniform
+ *    traction have their resultant through the edge's middle to round-off);
+ *  - a plain bar bent by an end moment M: N = 0 and the moment M, so the beam formula gives
+ *    6 M / (t d^2) at the fibres (Timoshenko & Goodier, Theory of Elasticity, sec. 22);
+ *  - a cantilever with a tip force P at x = L: a cut at x = a carries V = P and M = P (L - a).
+ * Tolerances: 1e-10 of the load, a few hundred round-off errors of sums over the nodes.
  */
 import { describe, expect, it } from 'vitest';
+import { buildDomain } from '../src/geometry/domain.js';
 import { expandTemplate } from '../src/model/templates.js';
+import type { Model } from '../src/model/schema.js';
 import { analyseModel } from '../src/pipeline/analyse.js';
+import { beamStress, cutBetween, loadsThroughCut, pointOnCut } from '../src/post/section.js';
+import { governing, ktOf } from './support/kt.js';
 
-describe('nominal section', () => {
+const steel = { E: 210000, nu: 0.3 };
+
+function strip(holes: Model['geometry']['holes'], loads: Model['loads'], supports: Model['supports']): Model {
+  return {
+    material: steel,
+    thickness: 5,
+    geometry: { outline: { shape: 'path', path: [{ at: [0, 0] }, { at: [200, 0], edge: 'right' }, { at: [200, 40] }, { at: [0, 40], edge: 'left' }] }, holes },
+    supports,
+    loads,
+  };
+}
+
+describe('what a section carries', () => {
+  it('a strip with a central hole under tension: the cut through the hole carries N = F, M = 0, and the beam formula gives F / A_net to 1e-12', () => {
+    const F = 30000;
+    const m = strip([{ shape: 'circle', center: [100, 20], diameter: 12 }], [{ type: 'force', on: 'right', fx: F }], [{ type: 'fixed', on: 'left' }]);
+    const a = analyseModel(m);
+    const cut = cutBetween(buildDomain(m.geometry), 100, 0, 100, 40, m.thickness)!;
+    expect(cut.ligaments).toHaveLength(4);
+    expect(cut.length).toBeCloseTo(28, 10);
+    const loads = loadsThroughCut(a.mesh, cut, a.nodalForce)!;
+    expect(Math.abs(loads.N - F)).toBeLessThan(1e-10 * F);
+    expect(Math.abs(loads.M)).toBeLessThan(1e-10 * F * 40);
+    const nominal = F / (28 * m.thickness);
+    for (const v of cut.ligaments) expect(Math.abs(beamStress(cut, loads, v) / nominal - 1)).toBeLessThan(1e-12 + Math.abs(loads.M) * 20 / cut.inertia / nominal);
+  });
+
+  it('a plain bar in pure bending: N = 0, M = the applied moment, and the beam formula gives 6 M / (t d^2) at the fibres', () => {
+    const M = 4e5;
+    const t = 2;
+    const d = 20;
+    const a = analyseModel({
+      material: steel,
+      thickness: t,
+      geometry: { outline: { shape: 'path', path: [[0, 0], { at: [100, 0], edge: 'end' }, [100, d], { at: [0, d], edge: 'held' }] } },
+      supports: [
+        { type: 'roller', fix: 'x', on: 'held' },
+        { type: 'pin', at: [0, d / 2], fix: 'y' },
+      ],
+      loads: [{ type: 'moment', on: 'end', m: M }],
+    });
+    const cut = cutBetween(a.domain, 60, 0, 60, d, t)!;
+    const loads = loadsThroughCut(a.mesh, cut, a.nodalForce)!;
+    expect(Math.abs(loads.N)).toBeLessThan(1e-10 * M / d);
+    expect(Math.abs(Math.abs(loads.M) - M)).toBeLessThan(1e-10 * M);
+    const expected = (6 * M) / (t * d * d);
+    const lo = beamStress(cut, loads, cut.ligaments[0]);
+    const hi = beamStress(cut, loads, cut.ligaments[1]);
+    expect(Math.abs(Math.abs(lo) / expected - 1)).toBeLessThan(1e-10);
+    expect(Math.abs(lo + hi)).toBeLessThan(1e-10 * expected);
+    // A counter-clockwise moment on the right end puts the lower fibre (y = 0) in tension.
+    const lower = pointOnCut(cut, cut.ligaments[0])[1] < pointOnCut(cut, cut.ligaments[1])[1] ? lo : hi;
+    expect(lower).toBeGreaterThan(0);
+  });
+
+  it('a cantilever with a tip force: any cut carries V = P and M = P (L - a), on a free body either side', () => {
+    const P = 1000;
+    const L = 200;
+    const m = strip([], [{ type: 'force', on: 'right', fy: -P }], [{ type: 'fixed', on: 'left' }]);
+    const a = analyseModel(m);
+    for (const x of [50, 120, 170]) {
+      const cut = cutBetween(a.domain, x, 0, x, 40, m.thickness)!;
+      const loads = loadsThroughCut(a.mesh, cut, a.nodalForce)!;
+      expect(Math.abs(Math.abs(loads.V) - P)).toBeLessThan(1e-10 * P);
+      // (the cut is taken a hair, 1e-9 of the part's size, off the given line)
+      const xc = pointOnCut(cut, cut.vBar)[0];
+      expect(Math.abs(xc - x)).toBeLessThan(1e-8 * L);
+      expect(Math.abs(Math.abs(loads.M) - P * (L - xc))).toBeLessThan(1e-10 * P * L);
+      expect(Math.abs(loads.N)).toBeLessThan(1e-10 * P);
+      // The top fibre is in tension (hogging): the beam stress there is + M c / I.
+      const top = pointOnCut(cut, cut.ligaments[0])[1] > pointOnCut(cut, cut.ligaments[1])[1] ? cut.ligaments[0] : cut.ligaments[1];
+      expect(beamStress(cut, loads, top) / ((6 * P * (L - xc)) / (m.thickness * 40 * 40)) - 1).toBeCloseTo(0, 10);
+    }
+  });
+
+  it('a cut that does not divide the part in two carries nothing defined', () => {
+    const m = strip([], [{ type: 'force', on: 'right', fx: 1000 }], [{ type: 'fixed', on: 'left' }]);
+    const a = analyseModel(m);
+    // From the bottom edge half way up: the part stays connected around its end.
+    const cut = cutBetween(a.domain, 100, 0, 100, 20, m.thickness)!;
+    expect(loadsThroughCut(a.mesh, cut, a.nodalForce)).toBeNull();
+  });
+});
+
+describe('the net section of a raiser', () => {
   const W = 60;
   const d = 18;
   const model = expandTemplate('plate-with-hole', { W, d });
   const auto = analyseModel(model);
 
-  it('the automatic net section is the cut through the hole centre, W - d wide, carrying the load', () => {
-    expect(auto.net.section.length).toBeCloseTo((W - d) / 2, 6);
-    expect(Math.abs(auto.net.section.from[0])).toBeLessThan(1e-6 * W);
-    expect(auto.net.section.force).toBeCloseTo(100 * (W / 2) * model.thickness, 6);
-    expect(auto.gross.section.length).toBeCloseTo(W / 2, 6);
-    expect(auto.kt.gross / auto.kt.net).toBeCloseTo(W / (W - d), 9);
+  it('the quarter plate\'s hole: the cut through the hole centre, (W - d)/2 of material, half of a symmetric section (N / A), and the gross width W/2', () => {
+    const g = governing(auto);
+    expect(g.section!.length).toBeCloseTo((W - d) / 2, 6);
+    expect(g.section!.mirror).toBe(true);
+    expect(Math.abs(g.loads!.N - 100 * (W / 2) * model.thickness)).toBeLessThan(1e-9 * 100 * W * model.thickness);
+    expect(g.gross!.cut.length).toBeCloseTo(W / 2, 6);
+    const k = ktOf(auto);
+    expect(k.gross! / k.net!).toBeCloseTo(W / (W - d), 9);
   });
 
-  it('a user-given cut on the same line gives the same nominal stress; a partial cut only its material', () => {
+  it('a section given for the raiser on the same line gives the same nominal stress; one across part of the plate only its material', () => {
     const m = structuredClone(model);
-    m.results = { section: { from: [0, 0], to: [0, W / 2] } };
+    m.results = { nominal: { hole: { section: { from: [0, 0], to: [0, W / 2] } } } };
     const a = analyseModel(m);
-    expect(a.net.stress).toBeCloseTo(auto.net.stress, 6);
+    const net = governing(a).kt.find((k) => k.kind === 'net')!;
+    const ref = governing(auto).kt.find((k) => k.kind === 'net')!;
+    expect(governing(a).sectionGiven).toBe(true);
+    expect(net.nominal).toBeCloseTo(ref.nominal, 6);
     const part = structuredClone(model);
     part.results = { section: { from: [10, 0], to: [10, W / 4] } };
     const b = analyseModel(part);
-    expect(b.net.section.length).toBeCloseTo(W / 4, 6);
+    expect(governing(b).section!.length).toBeCloseTo(W / 4, 6);
+  });
+
+  it('a nominal stress given for the raiser gives Kt on it', () => {
+    const m = structuredClone(model);
+    m.results = { nominal: { hole: { stress: 100 } } };
+    const a = analyseModel(m);
+    const k = ktOf(a);
+    expect(k.kind).toBe('given');
+    expect(k.value).toBeCloseTo(governing(a).peak.stress / 100, 12);
   });
 });

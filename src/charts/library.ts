@@ -257,15 +257,20 @@ export interface ChartComparison {
   provenance: string;
   nominal: 'net' | 'gross';
   value: number;
-  computed: number;
-  /** computed / chart - 1 */
-  difference: number;
+  /** the computed Kt on the chart's nominal stress (null when withheld) */
+  computed: number | null;
+  /** computed / chart - 1; null when the dimensions lie outside the chart's range or no Kt was computed */
+  difference: number | null;
   spread: number;
   outside: string[];
 }
 
-/** The chart value beside a computed Kt (net and gross given; the chart says which it uses). */
-export function compareWithChart(family: string, dims: Record<string, number>, kt: { net: number; gross: number }): ChartComparison | null {
+/**
+ * The chart value beside a computed Kt (net and gross given; the chart says which it uses). No
+ * difference is given outside the chart's range: a fit is not a statement about the shapes it
+ * excludes.
+ */
+export function compareWithChart(family: string, dims: Record<string, number>, kt: { net: number | null; gross: number | null }): ChartComparison | null {
   const found = chartForFamily(family, dims);
   if (!found) return null;
   const { chart, params } = found;
@@ -278,5 +283,6 @@ export function compareWithChart(family: string, dims: Record<string, number>, k
     value = NaN;
   }
   const computed = chart.nominal === 'net' ? kt.net : kt.gross;
-  return { id: chart.id, title: chart.title, source: chart.source, provenance: chart.provenance, nominal: chart.nominal, value, computed, difference: computed / value - 1, spread: chart.spread, outside };
+  const difference = computed === null || outside.length > 0 || !Number.isFinite(value) ? null : computed / value - 1;
+  return { id: chart.id, title: chart.title, source: chart.source, provenance: chart.provenance, nominal: chart.nominal, value, computed, difference, spread: chart.spread, outside };
 }

@@ -21,6 +21,7 @@ import { meshCommand } from './mesh.js';
 import { benchSolveCommand } from './bench-solve.js';
 import { parseAccuracy } from './accuracy.js';
 import { addSolvePictureOptions, exportMatrixIfAsked, plotCommand, solveOutputOptions } from './plot.js';
+import { probeCommand } from './probe.js';
 
 export const EXIT = { ok: 0, internal: 1, badInput: 2, cannotAnalyse: 3 } as const;
 
@@ -127,6 +128,7 @@ export async function main(argv: string[]): Promise<number> {
   sweepCommands(program, (c) => (code = c));
   addSolvePictureOptions(program.commands.find((c) => c.name() === 'solve')!);
   plotCommand(program, (c) => (code = c));
+  probeCommand(program, (c) => (code = c));
   meshCommand(program, (c) => (code = c));
   benchSolveCommand(program, (c) => (code = c));
 

@@ -90,7 +90,20 @@ export interface CompiledSupports {
   symmetry: Uint8Array;
   /** per domain edge: the index of a fixed support holding it, or -1 */
   fixedBy: Int32Array;
+  /**
+   * per domain edge, how it is held (HOLD_FREE, HOLD_MIRROR: a symmetry plane or a roller
+   * holding the straight edge's normal motion; HOLD_SLIDE: a roller holding motion along the
+   * edge; HOLD_FIXED)
+   */
+  hold: Uint8Array;
+  /** point supports (pins): where they are and which support of the model they are */
+  points: { x: number; y: number; support: number; node: number }[];
 }
+
+export const HOLD_FREE = 0;
+export const HOLD_MIRROR = 1;
+export const HOLD_SLIDE = 2;
+export const HOLD_FIXED = 3;
 
 function edgeMask(domain: Domain, edges: number[]): Uint8Array {
   const m = new Uint8Array(domain.edges.length);
@@ -295,6 +308,8 @@ export function compileSupports(model: Model, domain: Domain, mesh: Mesh, warnin
   const supported = new Uint8Array(domain.edges.length);
   const symmetry = new Uint8Array(domain.edges.length);
   const fixedBy = new Int32Array(domain.edges.length).fill(-1);
+  const hold = new Uint8Array(domain.edges.length);
+  const points: CompiledSupports['points'] = [];
   const nodesOf = (mask: Uint8Array) => {
     const set = new Set<number>();
     for (let s = 0; s < mesh.nBEdges; s++) {
@@ -312,12 +327,14 @@ export function compileSupports(model: Model, domain: Domain, mesh: Mesh, warnin
       if (fix.includes('y')) fixed[2 * node + 1] = 1;
       const d = Math.hypot(mesh.nodes[2 * node] - sup.at[0], mesh.nodes[2 * node + 1] - sup.at[1]);
       if (d > 1e-3 * domain.scale) warnings.push(`${path}: the pin at (${sup.at.join(', ')}) is ${d.toPrecision(3)} from the nearest boundary node, which it holds`);
+      points.push({ x: mesh.nodes[2 * node], y: mesh.nodes[2 * node + 1], support: i, node });
       return;
     }
     const edges = resolve(domain, sup.on, `${path}.on`, warnings);
     const mask = edgeMask(domain, edges);
     for (const e of edges) supported[e] = 1;
     if (sup.type === 'fixed') for (const e of edges) fixedBy[e] = i;
+    for (const e of edges) hold[e] = Math.max(hold[e], holdKind(domain, e, sup));
     if (sup.type === 'fixed' || sup.type === 'roller') {
       const comps = sup.type === 'fixed' ? [0, 1] : [sup.fix === 'x' ? 0 : 1];
       for (const n of nodesOf(mask)) for (const c of comps) fixed[2 * n + c] = 1;
@@ -343,7 +360,19 @@ export function compileSupports(model: Model, domain: Domain, mesh: Mesh, warnin
       for (const n of nodesOf(one)) fixed[2 * n + comp] = 1;
     }
   });
-  return { constraints: { fixed, value }, supported, symmetry, fixedBy };
+  return { constraints: { fixed, value }, supported, symmetry, fixedBy, hold, points };
+}
+
+/** How a support holds one edge: a roller holding a straight edge's normal motion acts as a mirror plane. */
+function holdKind(domain: Domain, edge: number, sup: Exclude<Support, { type: 'pin' }>): number {
+  if (sup.type === 'fixed') return HOLD_FIXED;
+  if (sup.type === 'symmetry') return HOLD_MIRROR;
+  const c = domain.edges[edge].curve;
+  if (c.kind !== 'line') return HOLD_SLIDE;
+  const len = Math.hypot(c.x1 - c.x0, c.y1 - c.y0);
+  // The held component is along the edge's normal when the edge runs across it.
+  const along = sup.fix === 'x' ? Math.abs(c.x1 - c.x0) / len : Math.abs(c.y1 - c.y0) / len;
+  return along <= 1e-9 ? HOLD_MIRROR : HOLD_SLIDE;
 }
 
 export function nearestBoundaryNode(mesh: Mesh, x: number, y: number): number {

@@ -280,8 +280,20 @@ export const ResultSettings = z.strictObject({
       z.strictObject({ from: Point, to: Point }).describe('a user-given straight cut for the nominal stress'),
     ])
     .optional()
-    .describe('the nominal section: auto (the least net section across the load) or a cut'),
-  direction: Point.optional().describe('load direction for the nominal section, if it should not be taken from the loads'),
+    .describe('the nominal section: auto (each raiser\'s least net section across the flow) or a cut, which applies to the raiser nearest it'),
+  direction: Point.optional().describe('the direction of the flow of stress at the raisers, across which their sections are cut, when it should not be taken from the stress at each peak'),
+  raiser: z.string().optional().describe('the stress raiser whose Kt is the headline (a hole name, "hole 2", an edge tag or a printed raiser name); default: the one with the highest peak'),
+  raisers: z.array(z.string()).optional().describe('the stress raisers to report (default: all)'),
+  nominal: z
+    .record(
+      z.string(),
+      z.strictObject({
+        section: z.strictObject({ from: Point, to: Point }).optional().describe('a straight cut for this raiser\'s nominal stress'),
+        stress: finite().optional().describe('a nominal stress for this raiser, stress units'),
+      }),
+    )
+    .optional()
+    .describe('per stress raiser (by name): a given section or a given nominal stress for its Kt'),
 });
 export type ResultSettings = z.infer<typeof ResultSettings>;
 

@@ -1,14 +1,15 @@
 /**
  * One analysis, end to end: model -> domain -> mesh -> loads and supports -> stiffness ->
- * sparse Cholesky -> recovered stresses -> peak, nominal section, Kt. This file only wires the
- * stages together; each stage lives in its own module and knows nothing of the ones after it.
+ * sparse Cholesky -> recovered stresses -> the stress raisers' peaks, sections and Kt. This file
+ * only wires the stages together; each stage lives in its own module and knows nothing of the
+ * ones after it.
  */
 import { totalmem } from 'node:os';
+import { evaluateCurve } from '../geometry/curve.js';
 import { buildDomain, type Domain } from '../geometry/domain.js';
-import { traceLoops } from '../geometry/validate.js';
 import { validateDomain } from '../geometry/validate.js';
 import { assembleSystem, internalForces, meshNodeGraph } from '../fem/assemble.js';
-import { compileLoads, compileSupports, type CompiledLoads, type ExtraTraction } from '../fem/boundary-conditions.js';
+import { compileLoads, compileSupports, HOLD_FREE, HOLD_MIRROR, type CompiledLoads, type ExtraTraction } from '../fem/boundary-conditions.js';
 import { constitutiveMatrix, type PlaneState } from '../fem/material.js';
 import { checkRigidMotion } from '../fem/rigid.js';
 import { generateMesh, triangleMinAngle } from '../mesh/generate.js';
@@ -20,9 +21,14 @@ import { AnalysisError, ModelError } from '../model/errors.js';
 import { nearestBoundaryPoint } from '../geometry/project.js';
 import type { Model, StressMeasure } from '../model/schema.js';
 import { resolveUnits, type ResolvedUnits } from '../model/units.js';
+import { evaluateMesh, type MeshEvaluation } from '../post/evaluate.js';
+import type { RaiserNominalInput } from '../post/kt.js';
 import { findPeak, outOfPlaneFactor, type Peak } from '../post/peak.js';
+import { RaiserCutFinder } from '../post/raiser-cut.js';
+import { findRaisers, matchRaisers, type Raiser } from '../post/raisers.js';
 import { recoverNodalStress, type KnownTraction } from '../post/recover.js';
-import { findSections, sectionAlong, type Cut } from '../post/section.js';
+import { cutBetween, pointOnCut } from '../post/section.js';
+import { findSingularCandidates, type SingularCandidate } from '../post/singular.js';
 import { sampleElementStresses } from '../post/stress.js';
 import { estimateAnalysisBytes } from '../mesh/estimate.js';
 import { IncompleteCholeskyError, PcgError, SolverPivotError, solveSpd, type SolveStats } from '../solve/index.js';
@@ -36,13 +42,6 @@ export interface AnalyseOptions {
   sizeFactor?: number;
   /** refuse a model whose analysis is estimated to need more memory (bytes; default 60% of the machine's) */
   maxMemoryBytes?: number;
-}
-
-export interface NominalInfo {
-  stress: number;
-  kind: 'tension' | 'bending';
-  definition: string;
-  section: Cut;
 }
 
 export interface Analysis {
@@ -62,11 +61,18 @@ export interface Analysis {
   szzFactor: number;
   /** the constitutive matrix used */
   D: Float64Array;
+  /** the highest value of the measure anywhere in the part */
   peak: Peak;
-  direction: [number, number];
-  net: NominalInfo;
-  gross: NominalInfo;
-  kt: { net: number; gross: number };
+  /** the stress raisers of the part (the same on every mesh of a model) */
+  raisers: readonly Raiser[];
+  /** the raiser the model names as the headline (results.raiser), or -1 */
+  named: number;
+  /** the raisers the model asks to report (results.raisers), or null for all */
+  reported: ReadonlySet<number> | null;
+  /** where the stress may be singular */
+  candidates: SingularCandidate[];
+  /** each raiser's peak, section, nominal stresses and Kt on this mesh */
+  evaluation: MeshEvaluation;
   load: { fx: number; fy: number; m: number; items: CompiledLoads['items']; remote?: CompiledLoads['remote'] };
   reaction: { fx: number; fy: number; m: number };
   /** |applied + reactions| relative to the applied load */
@@ -86,7 +92,19 @@ export interface PreparedModel {
   hardPoints: HardPoint[];
   /** traction fields given in code, beside the model's loads (closed-form verification cases) */
   extraTractions?: ExtraTraction[];
+  /** the remote stress state those fields tend to far away, for Kt against it */
+  extraRemote?: { sxx: number; syy: number; sxy: number };
   maxMemoryBytes: number;
+  /** the stress raisers found in the geometry */
+  raisers: Raiser[];
+  /** the raiser the model names as the headline (results.raiser), or -1 */
+  named: number;
+  /** the raisers to report (results.raisers), or null for all */
+  reported: Set<number> | null;
+  /** per raiser index, a nominal section or stress the model gives for it */
+  given: Map<number, RaiserNominalInput>;
+  /** finds the raisers' net sections; keeps what it found across the meshes of a series */
+  finder: RaiserCutFinder;
 }
 
 export function prepareModel(model: Model, opts: AnalyseOptions = {}): PreparedModel {
@@ -113,7 +131,84 @@ export function prepareModel(model: Model, opts: AnalyseOptions = {}): PreparedM
     }
   }
   const maxMemoryBytes = opts.maxMemoryBytes ?? 0.6 * totalmem();
-  return { model, units, state, measure, domain, order, hardPoints, maxMemoryBytes };
+  const raisers = findRaisers(domain);
+  const { named, reported, given } = resolveRaiserSettings(model, domain, raisers);
+  const finder = new RaiserCutFinder(domain, model.thickness);
+  return { model, units, state, measure, domain, order, hardPoints, maxMemoryBytes, raisers, named, reported, given, finder };
+}
+
+/** One raiser by the name a model file uses for it, or a ModelError that lists the names there are. */
+function raiserByName(raisers: readonly Raiser[], name: string, path: string): number {
+  const found = matchRaisers(raisers, name);
+  const names = raisers.map((r) => r.name);
+  if (found.length === 0) {
+    throw new ModelError(
+      path,
+      raisers.length === 0 ? `"${name}" names a stress raiser, but the part has none (no hole, notch, fillet or other concave curved edge)` : `no stress raiser is called "${name}"`,
+      raisers.length === 0 ? 'remove it' : `the raisers are: ${names.map((n) => `'${n}'`).join(', ')} (a hole may also be named by its name or "hole N", an edge by its tag)`,
+    );
+  }
+  if (found.length > 1) throw new ModelError(path, `"${name}" names ${found.length} stress raisers: ${found.map((r) => `'${r.name}'`).join(', ')}`, 'use a name that picks one of them (the printed name, a hole\'s name, or "hole N")');
+  return found[0].index;
+}
+
+/** results.raiser, results.raisers, results.nominal and results.section turned into raiser indices. */
+function resolveRaiserSettings(model: Model, domain: Domain, raisers: readonly Raiser[]) {
+  const res = model.results ?? {};
+  const named = res.raiser !== undefined ? raiserByName(raisers, res.raiser, 'results.raiser') : -1;
+  const reported = res.raisers ? new Set(res.raisers.map((n, i) => raiserByName(raisers, n, `results.raisers[${i}]`))) : null;
+  if (reported && named >= 0) reported.add(named);
+  const given = new Map<number, RaiserNominalInput>();
+  for (const [name, spec] of Object.entries(res.nominal ?? {})) {
+    const i = raiserByName(raisers, name, `results.nominal.${name}`);
+    if (spec.section === undefined && spec.stress === undefined) throw new ModelError(`results.nominal.${name}`, 'gives neither a section nor a stress', 'give "section": { "from": [x, y], "to": [x, y] } or "stress": value');
+    if (spec.section) checkSectionCrossesMaterial(domain, spec.section, `results.nominal.${name}.section`, model.thickness);
+    given.set(i, { section: spec.section, stress: spec.stress });
+  }
+  if (res.section && res.section !== 'auto') {
+    checkSectionCrossesMaterial(domain, res.section, 'results.section', model.thickness);
+    // The raiser the given cut passes nearest.
+    if (raisers.length === 0) throw new ModelError('results.section', 'a section is given, but the part has no stress raiser to take it for', 'remove results.section');
+    const [ax, ay] = res.section.from;
+    const [bx, by] = res.section.to;
+    let best = named;
+    if (best < 0) {
+      let bd = Infinity;
+      for (const r of raisers) {
+        for (const id of r.edges) {
+          const b = nearestOnSegment(domain, id, ax, ay, bx, by);
+          if (b < bd) {
+            bd = b;
+            best = r.index;
+          }
+        }
+      }
+    }
+    given.set(best, { ...given.get(best), section: res.section });
+  }
+  return { named, reported, given };
+}
+
+/** A given section must cross material. */
+function checkSectionCrossesMaterial(domain: Domain, sec: { from: readonly [number, number]; to: readonly [number, number] }, path: string, thickness: number): void {
+  if (!cutBetween(domain, sec.from[0], sec.from[1], sec.to[0], sec.to[1], thickness)) {
+    throw new ModelError(path, `the section from (${sec.from.join(', ')}) to (${sec.to.join(', ')}) crosses no material`, 'give a cut from one edge of the part to the other, across the raiser');
+  }
+}
+
+/** Distance from samples of a domain edge to the segment a-b. */
+function nearestOnSegment(domain: Domain, edge: number, ax: number, ay: number, bx: number, by: number): number {
+  const p = [0, 0];
+  let best = Infinity;
+  const lx = bx - ax;
+  const ly = by - ay;
+  const l2 = lx * lx + ly * ly || 1;
+  for (let k = 0; k <= 32; k++) {
+    evaluateCurve(domain.edges[edge].curve, k / 32, p);
+    const t = Math.max(0, Math.min(1, ((p[0] - ax) * lx + (p[1] - ay) * ly) / l2));
+    best = Math.min(best, Math.hypot(p[0] - ax - t * lx, p[1] - ay - t * ly));
+  }
+  return best;
 }
 
 /** One analysis on the model's own mesh (scaled by opts.sizeFactor). */
@@ -202,65 +297,36 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
   }
   const szzFactor = outOfPlaneFactor(state, model.material.nu);
   const peak = findPeak(mesh, domain, stress, measure, szzFactor);
-
-  // Load direction and kind of nominal stress.
-  const bendingOnly = model.loads.length > 0 && !prep.extraTractions?.length && model.loads.every((l) => l.type === 'moment');
-  let dir: [number, number];
-  if (model.results?.direction) {
-    const [a, b] = model.results.direction;
-    const l = Math.hypot(a, b);
-    dir = [a / l, b / l];
-  } else {
-    dir = loadDirection(loads, domain, bendingOnly);
+  const candidates = findSingularCandidates(domain, supports, loads, model.supports.map((_s, i) => `supports[${i}]`));
+  const mirrorEdge = new Uint8Array(domain.edges.length);
+  const edgeRole = new Uint8Array(domain.edges.length);
+  for (let e = 0; e < mirrorEdge.length; e++) {
+    mirrorEdge[e] = supports.hold[e] === HOLD_MIRROR ? 1 : 0;
+    edgeRole[e] = supports.hold[e] !== HOLD_FREE && supports.hold[e] !== HOLD_MIRROR ? 1 : loads.loaded[e] ? 2 : 0;
   }
-  const kind = bendingOnly ? 'bending' : 'tension';
-  const trace = traceLoops(domain);
-  const sectionInput = { trace, nodes: mesh.nodes, nodalForce: r, thickness: model.thickness, dx: dir[0], dy: dir[1], kind, peakX: peak.x, peakY: peak.y, scale: domain.scale } as const;
-  let netCut: Cut;
-  let grossCut: Cut;
-  const userSection = model.results?.section;
-  const auto = findSections(sectionInput);
-  if (userSection && userSection !== 'auto') {
-    netCut = sectionAlong(sectionInput, userSection.from[0], userSection.from[1], userSection.to[0], userSection.to[1]);
-    if (!(netCut.length > 0)) throw new AnalysisError('the nominal section given in results.section crosses no material', 'give a cut from one edge of the part to the other');
-  } else netCut = auto.net;
-  grossCut = auto.gross;
-  const bendingWord = 'M c / I over the cut (6 M / (t d^2) for a solid section)';
-  const net: NominalInfo = {
-    stress: netCut.stress,
-    kind,
-    section: netCut,
-    definition:
-      kind === 'tension'
-        ? userSection && userSection !== 'auto'
-          ? 'F / A on the given section: F the force through it, A = thickness x material length'
-          : 'F / A_net: F the force through the net section, A_net = thickness x material length of the cut across the load with the least material'
-        : `bending: ${bendingWord}, on the cut with the least material`,
-  };
-  let gross: NominalInfo;
-  if (loads.remote && kind === 'tension') {
-    const { sxx, syy, sxy } = loads.remote;
-    const s1 = principalMax(sxx, syy, sxy);
-    grossCut = { ...grossCut, stress: s1 };
-    gross = { stress: s1, kind, section: grossCut, definition: 'the remote stress: the largest principal value of the applied remote stress state' };
-  } else {
-    gross = {
-      stress: grossCut.stress,
-      kind,
-      section: grossCut,
-      definition: kind === 'tension' ? 'F / A_gross on the widest cut across the load that carries it' : `bending: ${bendingWord}, on the widest cut`,
-    };
-  }
-  const peakMag = measure === 'min-principal' ? -peak.stress : peak.stress;
-  const kt = { net: peakMag / Math.abs(net.stress), gross: peakMag / Math.abs(gross.stress) };
-  if (peak.atSharpCorner) {
-    warnings.push(`the peak sits on a sharp re-entrant corner (${peak.feature}): the elastic stress there is infinite in theory and grows as the mesh is refined, so this Kt is not a converged value; model the real corner radius`);
-  }
+  const evaluation = evaluateMesh({
+    domain,
+    mesh,
+    stress,
+    nodalForce: r,
+    measure,
+    szzFactor,
+    thickness: model.thickness,
+    raisers: prep.raisers,
+    candidates,
+    finder: prep.finder,
+    mirrorEdge,
+    edgeRole,
+    remote: loads.remote ?? prep.extraRemote,
+    direction: model.results?.direction,
+    given: prep.given,
+    units: { stress: units.stress },
+  });
   const y = model.material.yield;
   if (y !== undefined && Math.abs(peak.stress) > y) {
     warnings.push(`the elastic peak stress ${peak.stress.toPrecision(4)} ${units.stress} exceeds the yield strength ${y} ${units.stress}: local plastic flow is expected there and the linear result overstates the real peak stress`);
   }
-  warnings.push(...checkResolution(mesh, meshGen.size, netCut, peak));
+  warnings.push(...checkResolution(mesh, meshGen.size, evaluation, peak));
   if (model.supports.length > 0 && model.supports.every((s) => s.type === 'pin')) {
     const carried = Math.hypot(reaction.fx, reaction.fy);
     if (carried > 1e-6 * fAbs) {
@@ -283,10 +349,11 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
     szzFactor,
     D,
     peak,
-    direction: dir,
-    net,
-    gross,
-    kt,
+    raisers: prep.raisers,
+    named: prep.named,
+    reported: prep.reported,
+    candidates,
+    evaluation,
     load: { ...applied, items: loads.items, remote: loads.remote },
     reaction,
     equilibriumError,
@@ -296,16 +363,22 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
 }
 
 /**
- * Warnings about the mesh where it matters: a net-section ligament under two elements wide (the
+ * Warnings about the mesh where it matters: a raiser's ligament under two elements wide (the
  * stress across it is then poorly resolved), and badly shaped elements at the peak.
  */
-function checkResolution(mesh: Mesh, size: SizeField, net: Cut, peak: Peak): string[] {
+function checkResolution(mesh: Mesh, size: SizeField, evaluation: MeshEvaluation, peak: Peak): string[] {
   const out: string[] = [];
-  for (const [x0, y0, x1, y1] of net.intervals) {
-    const L = Math.hypot(x1 - x0, y1 - y0);
-    const h = size.at(0.5 * (x0 + x1), 0.5 * (y0 + y1));
-    if (L > 0 && L / h < 2) {
-      out.push(`the ligament from (${x0.toPrecision(4)}, ${y0.toPrecision(4)}) to (${x1.toPrecision(4)}, ${y1.toPrecision(4)}) is only about ${(L / h).toFixed(1)} elements wide; give mesh.size or mesh.raiserSize a smaller value`);
+  for (const ev of evaluation.raisers) {
+    const c = ev.section;
+    if (!c) continue;
+    for (let k = 0; k < c.ligaments.length; k += 2) {
+      const [x0, y0] = pointOnCut(c, c.ligaments[k]);
+      const [x1, y1] = pointOnCut(c, c.ligaments[k + 1]);
+      const L = c.ligaments[k + 1] - c.ligaments[k];
+      const h = size.at(0.5 * (x0 + x1), 0.5 * (y0 + y1));
+      if (L > 0 && L / h < 2) {
+        out.push(`the ligament from (${x0.toPrecision(4)}, ${y0.toPrecision(4)}) to (${x1.toPrecision(4)}, ${y1.toPrecision(4)}) at ${ev.raiser.name} is only about ${(L / h).toFixed(1)} elements wide; give mesh.size or mesh.raiserSize a smaller value`);
+      }
     }
   }
   const per = mesh.order === 2 ? 6 : 3;
@@ -319,12 +392,6 @@ function checkResolution(mesh: Mesh, size: SizeField, net: Cut, peak: Peak): str
   return out;
 }
 
-function principalMax(sxx: number, syy: number, sxy: number): number {
-  const c = 0.5 * (sxx + syy);
-  const r = Math.hypot(0.5 * (sxx - syy), sxy);
-  return Math.abs(c + r) >= Math.abs(c - r) ? c + r : c - r;
-}
-
 function resultant(mesh: Mesh, f: Float64Array): { fx: number; fy: number; m: number } {
   let fx = 0;
   let fy = 0;
@@ -335,52 +402,4 @@ function resultant(mesh: Mesh, f: Float64Array): { fx: number; fy: number; m: nu
     m += mesh.nodes[2 * i] * f[2 * i + 1] - mesh.nodes[2 * i + 1] * f[2 * i];
   }
   return { fx, fy, m };
-}
-
-/**
- * The load axis: for a remote stress, its largest principal direction; for moments only, the
- * normal of the loaded edge (the beam axis); otherwise the dominant direction of the applied
- * nodal forces (the leading eigenvector of sum f f^T, so loads pulling both ends agree).
- */
-function loadDirection(loads: CompiledLoads, domain: Domain, bendingOnly: boolean): [number, number] {
-  if (loads.remote) {
-    const { sxx, syy, sxy } = loads.remote;
-    const s1 = principalMax(sxx, syy, sxy);
-    // Eigenvector of [sxx sxy; sxy syy] for s1.
-    let vx = sxy;
-    let vy = s1 - sxx;
-    if (Math.hypot(vx, vy) < 1e-12 * (Math.abs(s1) + 1e-300)) [vx, vy] = Math.abs(sxx) >= Math.abs(syy) ? [1, 0] : [0, 1];
-    const l = Math.hypot(vx, vy);
-    return [vx / l, vy / l];
-  }
-  if (bendingOnly) {
-    const item = loads.items.find((i) => i.edges.length > 0);
-    if (item) {
-      const c = domain.edges[item.edges[0]].curve;
-      if (c.kind === 'line') {
-        const l = Math.hypot(c.x1 - c.x0, c.y1 - c.y0);
-        return [(c.y1 - c.y0) / l, -(c.x1 - c.x0) / l];
-      }
-    }
-  }
-  // Every applied nodal force counts, so loads that pull both ends (and cancel as a
-  // resultant) still give their axis.
-  let a = 0;
-  let b = 0;
-  let c = 0;
-  for (let i = 0; i < loads.f.length; i += 2) {
-    const fx = loads.f[i];
-    const fy = loads.f[i + 1];
-    a += fx * fx;
-    b += fx * fy;
-    c += fy * fy;
-  }
-  const tr = 0.5 * (a + c);
-  const rr = Math.hypot(0.5 * (a - c), b);
-  const lam = tr + rr;
-  let vx = b;
-  let vy = lam - a;
-  if (Math.hypot(vx, vy) < 1e-12 * (lam + 1e-300)) [vx, vy] = a >= c ? [1, 0] : [0, 1];
-  const l = Math.hypot(vx, vy);
-  return [vx / l, vy / l];
 }

@@ -1,7 +1,8 @@
 /**
- * Certified Kt: a series of meshes refined until the estimated discretisation error of the peak
- * stress (and so of Kt) is below a target, with the error band from Richardson extrapolation and
- * the Grid Convergence Index (src/post/convergence.ts).
+ * Certified Kt: a series of meshes refined until the estimated discretisation error of the
+ * governing raiser's Kt is below a target, with the error band from Richardson extrapolation and
+ * the Grid Convergence Index (src/post/convergence.ts) computed on the Kt series itself; every
+ * raiser's Kt gets its own band the same way (src/post/settle.ts).
  *
  * The series is adaptive and systematic at once:
  *  1. a first mesh from the geometric size field is solved, and the Zienkiewicz-Zhu indicator
@@ -12,12 +13,17 @@
  *     (h (e_peak / e)^(1/p)), graded smoothly into the rest;
  *  2. this adapted size field is then scaled by 1/sqrt(2) per mesh, so the meshes form a family
  *     with a known refinement ratio at the peak, as Richardson extrapolation assumes.
- * Refinement stops when the GCI of the last three meshes is below the target, when the peak is
- * found not to converge (a sharp re-entrant corner), or when the mesh or DOF budget is spent.
+ * Refinement stops when the GCI of the last three meshes is below the target, when no raiser is
+ * left whose peak converges (every one at a singular point), or when the mesh or DOF budget is
+ * spent. A raiser whose peak sits at a singular point is kept out of the stopping rule, so a
+ * clamp's end that never converges does not drive the series to its budget.
  */
 import { MeshSizeLimit, type SizeLimit } from '../mesh/background.js';
 import { gridConvergence, type GciResult } from '../post/convergence.js';
 import { estimateErrors } from '../post/estimate.js';
+import type { MeshEvaluation } from '../post/evaluate.js';
+import type { KtKind } from '../post/kt.js';
+import { settleSeries, type Settlement } from '../post/settle.js';
 import { analyseOnMesh, prepareModel, type AnalyseOptions, type Analysis, type PreparedModel } from './analyse.js';
 import type { Model } from '../model/schema.js';
 import { ModelError } from '../model/errors.js';
@@ -37,11 +43,12 @@ export interface MeshRecord {
   dofs: number;
   /** size factor of the family member: the mesh size at the peak relative to the first family mesh */
   relativeSize: number;
+  /** the highest stress anywhere in the part, and where */
   peak: number;
   peakX: number;
   peakY: number;
-  ktNet: number;
-  ktGross: number;
+  /** per raiser: its peak and its Kt values on this mesh (null where withheld) */
+  raisers: { peak: number; kt: Partial<Record<KtKind, number | null>> }[];
   timeMs: number;
   atSharpCorner: boolean;
 }
@@ -52,9 +59,14 @@ export interface Certified {
   analysis: Analysis;
   status: CertifyStatus;
   target: number;
+  /** the band of the quantity the series was stopped on: the governing raiser's headline Kt, else a peak */
   gci: GciResult | null;
+  /** what the band is of */
+  quantity: { raiser: number; kind: KtKind | 'peak' };
   theoreticalOrder: number;
   meshes: MeshRecord[];
+  /** what the series says about each raiser and each singular point */
+  settlement: Settlement;
   /** elements the error indicator marked on the first mesh, of how many */
   adapted: { marked: number; of: number };
   notes: string[];
@@ -72,27 +84,42 @@ function record(a: Analysis, relativeSize: number): MeshRecord {
     peak: a.peak.stress,
     peakX: a.peak.x,
     peakY: a.peak.y,
-    ktNet: a.kt.net,
-    ktGross: a.kt.gross,
+    raisers: a.evaluation.raisers.map((r) => ({ peak: r.peak.stress, kt: Object.fromEntries(r.kt.map((k) => [k.kind, k.value])) })),
     timeMs: a.timeMs.total,
     atSharpCorner: a.peak.atSharpCorner,
   };
+}
+
+/** The settlement of a series of analyses (coarse to fine, with their relative sizes). */
+export function settleAnalyses(runs: readonly Analysis[], sizes: readonly number[], named: number): Settlement {
+  const last = runs[runs.length - 1];
+  const evals: MeshEvaluation[] = runs.map((r) => r.evaluation);
+  return settleSeries(evals, sizes, last.mesh.order, last.candidates, named, last.units.stress);
+}
+
+/** The node of the peak the adaptation aims at: the governing raiser's, else the part's highest. */
+function referenceNode(a: Analysis, s: Settlement): { node: number; stress: number } {
+  if (s.governing >= 0) {
+    const p = a.evaluation.raisers[s.governing].peak;
+    return { node: p.node, stress: p.stress };
+  }
+  return { node: a.peak.node, stress: a.peak.stress };
 }
 
 /**
  * The adapted size limit from the error indicators of one analysis: elements whose relative
  * stress error exceeds the peak elements' get the size that would bring it to that level.
  */
-export function adaptedLimit(a: Analysis): { limit: MeshSizeLimit | null; marked: number } {
+export function adaptedLimit(a: Analysis, reference: { node: number; stress: number } = { node: a.peak.node, stress: a.peak.stress }): { limit: MeshSizeLimit | null; marked: number } {
   const mesh = a.mesh;
   const est = estimateErrors(mesh, a.D, a.model.thickness, a.u, a.stress);
   const per = mesh.order === 2 ? 6 : 3;
   const p = mesh.order;
-  const peakMag = Math.abs(a.peak.stress) || 1;
+  const peakMag = Math.abs(reference.stress) || 1;
   let eRef = 0;
   for (let e = 0; e < mesh.nElements; e++) {
     for (let k = 0; k < per; k++) {
-      if (mesh.elements[per * e + k] === a.peak.node) eRef = Math.max(eRef, est.stressRms[e] / peakMag);
+      if (mesh.elements[per * e + k] === reference.node) eRef = Math.max(eRef, est.stressRms[e] / peakMag);
     }
   }
   const desired = new Float64Array(mesh.nElements).fill(Infinity);
@@ -134,10 +161,12 @@ export function certifyPrepared(prep: PreparedModel, opts: CertifyOptions = {}):
   const base = prep.order === 2 ? 0.005 : 0.01;
   const s0 = Math.min(2, Math.max(0.35, Math.pow(target / base, 1 / pTh)));
   const first = analyseOnMesh(prep, { sizeFactor: s0 });
-  const { limit, marked } = adaptedLimit(first);
+  const { limit, marked } = adaptedLimit(first, referenceNode(first, settleAnalyses([first], [1], prep.named)));
   const meshes: MeshRecord[] = [];
   const runs: Analysis[] = [];
   let gci: GciResult | null = null;
+  let quantity: Certified['quantity'] = { raiser: -1, kind: 'peak' };
+  let settlement: Settlement | null = null;
   let status: CertifyStatus = 'not-converged';
   for (let k = 0; k < maxMeshes; k++) {
     const f = Math.pow(RATIO, -k);
@@ -154,18 +183,26 @@ export function certifyPrepared(prep: PreparedModel, opts: CertifyOptions = {}):
     }
     runs.push(a);
     meshes.push(record(a, f));
-    if (runs.length >= 2) {
-      gci = gridConvergence(
-        meshes.map((m) => m.relativeSize),
-        meshes.map((m) => Math.abs(m.peak)),
-        pTh,
-      );
-      const last = meshes[meshes.length - 1];
-      if (last.atSharpCorner && runs.length >= 3 && (gci.behaviour === 'diverging' || (gci.observedOrder < 0.5 * pTh && Math.abs(meshes[meshes.length - 1].peak) > Math.abs(meshes[meshes.length - 2].peak)))) {
+    const sizes = meshes.map((m) => m.relativeSize);
+    settlement = settleAnalyses(runs, sizes, prep.named);
+    const tracked = trackedSeries(meshes, settlement);
+    quantity = tracked.quantity;
+    if (tracked.values.length >= 2) gci = gridConvergence(tracked.sizes, tracked.values, pTh);
+    if (runs.length >= 3 && gci) {
+      // Nothing to certify: no raiser governs and the highest stress sits at a singular point
+      // (a sharp corner, or a place where the stress keeps growing).
+      const top = Math.abs(meshes[meshes.length - 1].peak);
+      const lastCand = runs[runs.length - 1].evaluation.candidateStress;
+      const atSingular =
+        meshes[meshes.length - 1].atSharpCorner ||
+        settlement.singular.some((sp) => sp.grows === true && Math.abs(lastCand[sp.candidate]) >= 0.9 * top);
+      const peakDiverges = settlement.governing < 0 && atSingular && (gci.behaviour === 'diverging' || (gci.observedOrder < 0.5 * pTh && top > Math.abs(meshes[meshes.length - 2].peak)));
+      const noneLeft = settlement.governing < 0 && settlement.raisers.length > 0 && settlement.raisers.every((r) => r.status === 'singular');
+      if (noneLeft || peakDiverges) {
         status = 'singular';
         break;
       }
-      if (runs.length >= 3 && gci.behaviour !== 'diverging' && gci.gci <= target) {
+      if (gci.gci <= target) {
         status = 'converged';
         break;
       }
@@ -183,10 +220,57 @@ export function certifyPrepared(prep: PreparedModel, opts: CertifyOptions = {}):
     status,
     target,
     gci,
+    quantity,
     theoreticalOrder: pTh,
     meshes,
+    settlement: settlement!,
     adapted: { marked, of: first.mesh.nElements },
     notes,
     totalTimeMs: performance.now() - t0,
   };
+}
+
+/**
+ * The series the stopping rule watches: the governing raiser's headline Kt (the meshes where it
+ * has a value), else that raiser's peak, else the part's highest stress.
+ */
+function trackedSeries(meshes: readonly MeshRecord[], s: Settlement): { quantity: Certified['quantity']; sizes: number[]; values: number[] } {
+  const g = s.governing;
+  if (g >= 0) {
+    const kind = s.raisers[g].primary;
+    const sizes: number[] = [];
+    const values: number[] = [];
+    for (const m of meshes) {
+      const v = kind ? m.raisers[g].kt[kind] : Math.abs(m.raisers[g].peak);
+      if (v === null || v === undefined) continue;
+      sizes.push(m.relativeSize);
+      values.push(v);
+    }
+    return { quantity: { raiser: g, kind: kind ?? 'peak' }, sizes, values };
+  }
+  return { quantity: { raiser: -1, kind: 'peak' }, sizes: meshes.map((m) => m.relativeSize), values: meshes.map((m) => Math.abs(m.peak)) };
+}
+
+export interface GoverningKt {
+  /** the governing raiser's name, or null when no raiser has a Kt */
+  raiser: string | null;
+  /** the headline kind and value (given, remote, net, gross: the first not withheld) */
+  kind: KtKind | null;
+  value: number | null;
+  /** the relative error band of the headline value (null without a series) */
+  error: number | null;
+  net: number | null;
+  gross: number | null;
+  remote: number | null;
+}
+
+/** The governing raiser's Kt values, from a certified series or from one analysis alone. */
+export function governingKt(x: Certified | Analysis): GoverningKt {
+  const s = 'settlement' in x ? x.settlement : settleAnalyses([x], [1], x.named);
+  const a = 'settlement' in x ? x.analysis : x;
+  if (s.governing < 0) return { raiser: null, kind: null, value: null, error: null, net: null, gross: null, remote: null };
+  const r = s.raisers[s.governing];
+  const get = (k: KtKind) => r.kt.find((q) => q.kind === k)?.value ?? null;
+  const head = r.primary ? r.kt.find((q) => q.kind === r.primary)! : null;
+  return { raiser: a.raisers[s.governing].name, kind: r.primary, value: head?.value ?? null, error: head?.error ?? null, net: get('net'), gross: get('gross'), remote: get('remote') };
 }

@@ -40,19 +40,28 @@ export function measureField(stress: Float64Array, measure: StressMeasure, szzFa
 }
 
 /**
- * The largest value of the measure along the boundary edges at a node, with the stress
+ * The largest value of the measure along the boundary edges at a node (those that onSegment
+ * accepts), with the stress
  * components interpolated along each edge by its shape functions (quadratic on 6-node meshes),
  * found by golden-section search: the peak on a curved edge between two nodes is not missed.
  */
-function refineAlongBoundary(mesh: Mesh, stress: Float64Array, node: number, measure: StressMeasure, szzFactor: number, sign: number): { value: number; x: number; y: number } | null {
+export function refineAlongBoundary(
+  mesh: Mesh,
+  stress: Float64Array,
+  node: number,
+  measure: StressMeasure,
+  szzFactor: number,
+  sign: number,
+  onSegment: (s: number) => boolean = () => true,
+): { value: number; x: number; y: number; sxx: number; syy: number; sxy: number } | null {
   if (mesh.order !== 2) return null;
-  let best: { value: number; x: number; y: number } | null = null;
+  let best: { value: number; x: number; y: number; sxx: number; syy: number; sxy: number } | null = null;
   const n = mesh.nodes;
   for (let s = 0; s < mesh.nBEdges; s++) {
     const a = mesh.bEdges[3 * s];
     const b = mesh.bEdges[3 * s + 1];
     const m = mesh.bEdges[3 * s + 2];
-    if (m < 0 || (a !== node && b !== node && m !== node)) continue;
+    if (m < 0 || (a !== node && b !== node && m !== node) || !onSegment(s)) continue;
     const at = (u: number) => {
       const na = (1 - u) * (1 - 2 * u);
       const nm = 4 * u * (1 - u);
@@ -60,7 +69,7 @@ function refineAlongBoundary(mesh: Mesh, stress: Float64Array, node: number, mea
       const sxx = na * stress[3 * a] + nm * stress[3 * m] + nb * stress[3 * b];
       const syy = na * stress[3 * a + 1] + nm * stress[3 * m + 1] + nb * stress[3 * b + 1];
       const sxy = na * stress[3 * a + 2] + nm * stress[3 * m + 2] + nb * stress[3 * b + 2];
-      return { v: stressMeasure(measure, sxx, syy, sxy, szzFactor * (sxx + syy)), x: na * n[2 * a] + nm * n[2 * m] + nb * n[2 * b], y: na * n[2 * a + 1] + nm * n[2 * m + 1] + nb * n[2 * b + 1] };
+      return { v: stressMeasure(measure, sxx, syy, sxy, szzFactor * (sxx + syy)), x: na * n[2 * a] + nm * n[2 * m] + nb * n[2 * b], y: na * n[2 * a + 1] + nm * n[2 * m + 1] + nb * n[2 * b + 1], sxx, syy, sxy };
     };
     // Golden-section search for the largest sign * value on [0, 1], then compare with the ends.
     let lo = 0;
@@ -87,7 +96,7 @@ function refineAlongBoundary(mesh: Mesh, stress: Float64Array, node: number, mea
     }
     for (const u of [0, 0.5 * (lo + hi), 1]) {
       const r = at(u);
-      if (!best || sign * r.v > sign * best.value) best = { value: r.v, x: r.x, y: r.y };
+      if (!best || sign * r.v > sign * best.value) best = { value: r.v, x: r.x, y: r.y, sxx: r.sxx, syy: r.syy, sxy: r.sxy };
     }
   }
   return best;

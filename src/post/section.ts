@@ -1,231 +1,303 @@
 /**
- * Nominal stress: the cut across the part that Kt refers to.
+ * Sections (cuts across the part) and what they carry.
  *
- * The cuts considered are the straight lines across the part perpendicular to the load
- * direction d. For each cut the material it crosses (the intervals inside the plate, holes
- * excluded) comes from a fine trace of the boundary; the force it carries is the sum, over the
- * nodes beyond it, of the nodal forces K u (applied loads plus reactions), which the discrete
- * solution balances exactly. Among the cuts that carry at least half of the largest such force
- * (so a cut through an unloaded overhang is not taken), the net section is the one with the
- * least material, the gross section the one with the most. Ties go to the cut nearest the peak.
+ * A cut is a straight line across the part, from outer boundary to outer boundary, crossing any
+ * holes on the way: the material on it is one or more ligaments. Along the cut v runs in the
+ * direction e; the cut's normal d = (e_y, -e_x) points to its "plus" side.
  *
- *   tension: sigma_nom = F / (t * L)
- *   in-plane bending: sigma_nom = M c / I, I = t * sum integral (v - v_bar)^2 dv over the
- *   material intervals, c the farthest fibre; for one interval of width d, 6 M / (t d^2).
+ *          plus side (d)
+ *     |=====ligament=====|  hole  |==ligament==|      v along e --->
+ *          minus side
+ *
+ * What the cut carries comes from the nodal forces r = K u of the finite element solution
+ * (applied loads plus reactions; zero at free interior nodes up to round-off): the nodes of the
+ * mesh are split into the two bodies the cut separates, and the resultant of r over the plus
+ * body is what the minus body must pass through the cut (a free-body cut, exact for the discrete
+ * solution whatever the stress distribution). With F that resultant and M its moment about the
+ * centroid c of the net section (counter-clockwise positive):
+ *
+ *   N = F . d (normal force, tension positive), V = F . e (shear force),
+ *   sigma(v) = N / A - M (v - v_bar) / I         (the beam formula on the net section)
+ *
+ * with A = t L the net area (L the ligaments' total length), v_bar their centroid and
+ * I = t sum integral (v - v_bar)^2 dv their second moment. (Derivation: the traction on the plus
+ * body's cut face is -sigma_dd d; force balance gives integral sigma_dd dA = F . d, moment
+ * balance about c gives integral (v - v_bar) sigma_dd dA = -M, since e x d = -1.) For tension
+ * alone it is N / A_net; for one ligament of width h in bending, 6 M / (t h^2) at its edges.
+ * This is the membrane-plus-bending split of the stress-classification practice of pressure
+ * equipment design by analysis: the membrane stress is "the component of normal stress that is
+ * uniformly distributed and equal to the average value of the stress across the thickness", the
+ * bending stress "the variable stress across the thickness ... after the subtraction of the
+ * membrane stress" (US 46 CFR Part 154, Appendix B, stress analyses definitions [V]); in the
+ * ASME Boiler and Pressure Vessel Code, Section VIII Division 2, Part 5, Annex 5-A, sigma_m =
+ * (1/t) integral sigma dx and sigma_b = (6/t^2) integral sigma (t/2 - x) dx [M]. Here it is taken
+ * from the section's resultants over all its ligaments together, which is how the published
+ * charts define their nominal stresses: Roark's Formulas (Young & Budynas), Table 17.1, gives
+ * for a central hole in a plate in bending sigma_nom = 12 M r / (t (D^3 - (2 r)^3)), that is
+ * M (d/2) / I_net at the hole's edge [V], and P / A_net, 6 M / (t d^2) for notched and stepped
+ * bars [V]. It is not the linearisation of the actual stress over one ligament, whose first
+ * moment would count part of the concentration itself as bending.
  */
-import type { Polylines } from '../geometry/intersect.js';
+import type { Domain } from '../geometry/domain.js';
+import { stretchesAlongLine } from '../geometry/line-cross.js';
+import type { Mesh } from '../mesh/types.js';
 
 export interface Cut {
-  /** the two outermost material points of the cut */
-  from: [number, number];
-  to: [number, number];
-  /** material length along the cut and its area (times the thickness) */
-  length: number;
-  area: number;
-  /** material intervals along the cut, as pairs of points */
-  intervals: [number, number, number, number][];
-  /** force through the cut along d (tension), or bending moment about the cut's centroid */
-  force: number;
-  moment: number;
-  stress: number;
-  kind: 'tension' | 'bending';
-}
-
-export interface SectionInput {
-  trace: Polylines;
-  nodes: Float64Array;
-  /** nodal forces K u: applied loads plus reactions */
-  nodalForce: Float64Array;
-  thickness: number;
-  /** unit load direction */
+  /** a point on the cut's line; v is measured from it along e */
+  ox: number;
+  oy: number;
+  /** unit vector along the cut */
+  ex: number;
+  ey: number;
+  /** unit normal of the cut, (ey, -ex): the direction of the flow it is taken across */
   dx: number;
   dy: number;
-  kind: 'tension' | 'bending';
-  peakX: number;
-  peakY: number;
-  scale: number;
+  /** the material ligaments along the cut, as v0, v1 pairs in increasing v */
+  ligaments: number[];
+  /** the domain edges at the ends of each ligament (two per ligament) */
+  ligamentEdges: number[];
+  /** total ligament length and net area (length x thickness) */
+  length: number;
+  area: number;
+  /** v of the ligaments' centroid, and their second moment about it times the thickness */
+  vBar: number;
+  inertia: number;
+  thickness: number;
+  /**
+   * the cut's line crosses a mirror plane (a symmetry support) at right angles: it is half of a
+   * symmetric section whose whole carries no moment and no shear by symmetry, so its nominal
+   * stress is N / A
+   */
+  mirror: boolean;
 }
 
-/** Material intervals [v0, v1] along the line p . d = u, with v = p . e, e = (-dy, dx). */
-function intervalsAt(trace: Polylines, dx: number, dy: number, u: number): number[] {
-  const { xy, segs } = trace;
-  const vs: number[] = [];
-  for (let s = 0; s < segs.length / 2; s++) {
-    const a = segs[2 * s];
-    const b = segs[2 * s + 1];
-    const ua = xy[2 * a] * dx + xy[2 * a + 1] * dy;
-    const ub = xy[2 * b] * dx + xy[2 * b + 1] * dy;
-    if (ua > u === ub > u) continue;
-    const va = -xy[2 * a] * dy + xy[2 * a + 1] * dx;
-    const vb = -xy[2 * b] * dy + xy[2 * b + 1] * dx;
-    vs.push(va + ((u - ua) / (ub - ua)) * (vb - va));
+/** What a cut carries: normal force, shear force and moment about the net centroid (of the plus body's loads). */
+export interface CutLoads {
+  N: number;
+  V: number;
+  M: number;
+  /** resultant of the plus body's nodal forces, and the centroid the moment is taken about */
+  fx: number;
+  fy: number;
+  cx: number;
+  cy: number;
+}
+
+/** The point at parameter v along the cut. */
+export function pointOnCut(c: Cut, v: number): [number, number] {
+  return [c.ox + v * c.ex, c.oy + v * c.ey];
+}
+
+/** The beam formula on the net section: N / A - M (v - v_bar) / I at parameter v (stress units). */
+export function beamStress(c: Cut, loads: CutLoads, v: number): number {
+  if (c.mirror) return loads.N / c.area;
+  return loads.N / c.area - (loads.M * (v - c.vBar)) / c.inertia;
+}
+
+/**
+ * Marks a cut whose line crosses a mirror plane at right angles (the line of a straight edge
+ * flagged in `mirrorEdge`): the model is one side of that plane, so the cut is one half of a
+ * symmetric section; see Cut.mirror.
+ */
+export function markMirror(c: Cut, domain: Domain, mirrorEdge: Uint8Array): Cut {
+  for (let id = 0; id < mirrorEdge.length; id++) {
+    if (!mirrorEdge[id]) continue;
+    const k = domain.edges[id].curve;
+    if (k.kind !== 'line') continue;
+    const l = Math.hypot(k.x1 - k.x0, k.y1 - k.y0);
+    if (Math.abs(((k.x1 - k.x0) * c.ex + (k.y1 - k.y0) * c.ey) / l) <= 1e-9) c.mirror = true;
   }
-  vs.sort((p, q) => p - q);
-  return vs;
+  return c;
 }
 
-function lengthOf(vs: number[]): number {
+/** The largest |beam stress| over the section: at one of the ligaments' outermost fibres. */
+export function largestBeamStress(c: Cut, loads: CutLoads): number {
+  const lo = c.ligaments[0];
+  const hi = c.ligaments[c.ligaments.length - 1];
+  return Math.max(Math.abs(beamStress(c, loads, lo)), Math.abs(beamStress(c, loads, hi)));
+}
+
+/** Builds a cut from its line and ligaments. */
+export function makeCut(ox: number, oy: number, ex: number, ey: number, ligaments: number[], ligamentEdges: number[], thickness: number): Cut {
   let L = 0;
-  for (let k = 0; k + 1 < vs.length; k += 2) L += vs[k + 1] - vs[k];
-  return L;
-}
-
-/** Sorted node positions along d with suffix sums of force and moment terms, for F(u) and M(u). */
-function prefix(input: SectionInput) {
-  const { nodes, nodalForce, dx, dy } = input;
-  const n = nodes.length / 2;
-  const order = new Int32Array(n);
-  const us = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    order[i] = i;
-    us[i] = nodes[2 * i] * dx + nodes[2 * i + 1] * dy;
-  }
-  order.sort((a, b) => us[a] - us[b]);
-  // Suffix sums from the far end: force along d, and the moment terms of r about the origin
-  // and the transverse force, so M about any point c follows: M_c = M_0 - (c x F).
-  const Fd = new Float64Array(n + 1);
-  const Fx = new Float64Array(n + 1);
-  const Fy = new Float64Array(n + 1);
-  const M0 = new Float64Array(n + 1);
-  const usSorted = new Float64Array(n);
-  for (let k = n - 1; k >= 0; k--) {
-    const i = order[k];
-    usSorted[k] = us[i];
-    const rx = nodalForce[2 * i];
-    const ry = nodalForce[2 * i + 1];
-    Fd[k] = Fd[k + 1] + rx * dx + ry * dy;
-    Fx[k] = Fx[k + 1] + rx;
-    Fy[k] = Fy[k + 1] + ry;
-    M0[k] = M0[k + 1] + nodes[2 * i] * ry - nodes[2 * i + 1] * rx;
-  }
-  return {
-    at(u: number) {
-      // First sorted index with position > u.
-      let lo = 0;
-      let hi = n;
-      while (lo < hi) {
-        const mid = (lo + hi) >> 1;
-        if (usSorted[mid] > u) hi = mid;
-        else lo = mid + 1;
-      }
-      return { Fd: Fd[lo], Fx: Fx[lo], Fy: Fy[lo], M0: M0[lo] };
-    },
-  };
-}
-
-function makeCut(input: SectionInput, u: number, vs: number[], sums: { Fd: number; Fx: number; Fy: number; M0: number }): Cut {
-  const { dx, dy, thickness } = input;
-  const L = lengthOf(vs);
-  const ex = -dy;
-  const ey = dx;
-  const point = (v: number): [number, number] => [u * dx + v * ex, u * dy + v * ey];
-  // Centroid and second moment of the material intervals.
   let first = 0;
-  for (let k = 0; k + 1 < vs.length; k += 2) first += 0.5 * (vs[k + 1] * vs[k + 1] - vs[k] * vs[k]);
-  const vbar = L > 0 ? first / L : 0;
-  let I2 = 0;
-  let cmax = 0;
-  for (let k = 0; k + 1 < vs.length; k += 2) {
-    const a = vs[k] - vbar;
-    const b = vs[k + 1] - vbar;
-    I2 += (b * b * b - a * a * a) / 3;
-    cmax = Math.max(cmax, Math.abs(a), Math.abs(b));
+  for (let k = 0; k < ligaments.length; k += 2) {
+    const a = ligaments[k];
+    const b = ligaments[k + 1];
+    L += b - a;
+    first += 0.5 * (b * b - a * a);
   }
-  const [cx, cy] = point(vbar);
-  const moment = sums.M0 - (cx * sums.Fy - cy * sums.Fx);
-  const intervals: [number, number, number, number][] = [];
-  for (let k = 0; k + 1 < vs.length; k += 2) intervals.push([...point(vs[k]), ...point(vs[k + 1])]);
-  const stress = input.kind === 'tension' ? sums.Fd / (thickness * L) : (Math.abs(moment) * cmax) / (thickness * I2);
-  return {
-    from: point(vs[0]),
-    to: point(vs[vs.length - 1]),
-    length: L,
-    area: L * thickness,
-    intervals,
-    force: sums.Fd,
-    moment,
-    stress: input.kind === 'tension' ? stress : Math.sign(moment || 1) * stress,
-    kind: input.kind,
-  };
+  const vBar = first / L;
+  let I = 0;
+  for (let k = 0; k < ligaments.length; k += 2) {
+    const a = ligaments[k] - vBar;
+    const b = ligaments[k + 1] - vBar;
+    I += (b * b * b - a * a * a) / 3;
+  }
+  return { ox, oy, ex, ey, dx: ey, dy: -ex, ligaments, ligamentEdges, length: L, area: L * thickness, vBar, inertia: I * thickness, thickness, mirror: false };
 }
 
-/** The net (least material) and gross (most material) load-carrying cuts. */
-export function findSections(input: SectionInput): { net: Cut; gross: Cut } {
-  const { trace, dx, dy, scale } = input;
-  const sums = prefix(input);
-  // Candidate positions: every trace vertex, nudged to both sides, plus an even spread.
-  const us: number[] = [];
-  let umin = Infinity;
-  let umax = -Infinity;
-  for (let i = 0; i < trace.xy.length; i += 2) {
-    const u = trace.xy[i] * dx + trace.xy[i + 1] * dy;
-    umin = Math.min(umin, u);
-    umax = Math.max(umax, u);
-  }
-  const eps = 1e-9 * scale;
-  for (let i = 0; i < trace.xy.length; i += 2) {
-    const u = trace.xy[i] * dx + trace.xy[i + 1] * dy;
-    us.push(u - eps, u + eps);
-  }
-  for (let k = 0; k < 400; k++) us.push(umin + ((k + 0.5) / 400) * (umax - umin));
-  const inside = us.filter((u) => u > umin + 0.5 * eps && u < umax - 0.5 * eps);
-  const cands = inside.map((u) => {
-    const vs = intervalsAt(trace, dx, dy, u);
-    const s = sums.at(u);
-    return { u, vs, L: lengthOf(vs), s };
-  }).filter((c) => c.vs.length >= 2);
-  const carried = (c: (typeof cands)[number]) => {
-    if (input.kind === 'tension') return Math.abs(c.s.Fd);
-    return Math.abs(makeCut(input, c.u, c.vs, c.s).moment);
-  };
-  const carry = cands.map(carried);
-  const maxCarry = Math.max(...carry);
-  const loaded = cands.filter((_c, i) => carry[i] >= 0.5 * maxCarry);
-  const peakU = input.peakX * dx + input.peakY * dy;
-  const pick = (better: (a: number, b: number) => boolean) => {
-    let best = loaded[0];
-    for (const c of loaded) {
-      const tie = Math.abs(c.L - best.L) <= 1e-7 * Math.max(c.L, best.L);
-      if ((!tie && better(c.L, best.L)) || (tie && Math.abs(c.u - peakU) < Math.abs(best.u - peakU))) best = c;
+/**
+ * The cut along the line o + v e that contains the material point nearest to parameter vAt:
+ * the material stretch there, extended across every hole it meets, up to the outline on both
+ * sides. Null when the line crosses no material.
+ */
+export function cutOnLine(domain: Domain, ox: number, oy: number, ex: number, ey: number, vAt: number, thickness: number): Cut | null {
+  const st = stretchesAlongLine(domain, ox, oy, ex, ey);
+  let best = -1;
+  let bestGap = Infinity;
+  st.forEach((s, i) => {
+    if (s.kind !== 'material') return;
+    const gap = vAt < s.v0 ? s.v0 - vAt : vAt > s.v1 ? vAt - s.v1 : 0;
+    if (gap < bestGap) {
+      bestGap = gap;
+      best = i;
     }
-    return makeCut(input, best.u, best.vs, best.s);
-  };
-  return { net: pick((a, b) => a < b), gross: pick((a, b) => a > b) };
+  });
+  if (best < 0) return null;
+  let lo = best;
+  let hi = best;
+  while (lo - 2 >= 0 && st[lo - 1].kind === 'hole' && st[lo - 2].kind === 'material') lo -= 2;
+  while (hi + 2 < st.length && st[hi + 1].kind === 'hole' && st[hi + 2].kind === 'material') hi += 2;
+  const lig: number[] = [];
+  const edges: number[] = [];
+  for (let i = lo; i <= hi; i += 2) {
+    lig.push(st[i].v0, st[i].v1);
+    edges.push(st[i].edge0, st[i].edge1);
+  }
+  return makeCut(ox, oy, ex, ey, lig, edges, thickness);
 }
 
-/** A user-given straight cut from p to q: the material along the segment, and what it carries. */
-export function sectionAlong(input: Omit<SectionInput, 'dx' | 'dy'>, px: number, py: number, qx: number, qy: number): Cut {
+/**
+ * A cut given by two points: the line through them, clipped to the segment between them. A cut
+ * drawn along a straight boundary (a symmetry edge, say) is taken a hair inside the material:
+ * of the lines 1e-9 of the part's size to either side, the one that crosses more material.
+ */
+export function cutBetween(domain: Domain, px: number, py: number, qx: number, qy: number, thickness: number): Cut | null {
   const len = Math.hypot(qx - px, qy - py);
-  // d is normal to the cut: the cut runs along e = (-dy, dx).
+  if (!(len > 0)) return null;
   const ex = (qx - px) / len;
   const ey = (qy - py) / len;
-  const dx = ey;
-  const dy = -ex;
-  const full: SectionInput = { ...input, dx, dy };
-  const u0 = px * dx + py * dy;
-  const v0 = -px * dy + py * dx;
-  const v1 = -qx * dy + qy * dx;
-  const lo = Math.min(v0, v1);
-  const hi = Math.max(v0, v1);
-  // A cut along a straight boundary (a symmetry edge, say) is taken just inside the material:
-  // of the two lines a hair to either side, the one that crosses more material.
-  const eps = 1e-9 * input.scale;
-  let best: { u: number; clipped: number[]; L: number } = { u: u0, clipped: [], L: 0 };
-  for (const u of [u0 + eps, u0 - eps]) {
-    const vs = intervalsAt(input.trace, dx, dy, u);
-    const clipped: number[] = [];
-    let L = 0;
-    for (let k = 0; k + 1 < vs.length; k += 2) {
-      const a = Math.max(lo, vs[k]);
-      const b = Math.min(hi, vs[k + 1]);
+  const eps = 1e-9 * domain.scale;
+  let best: Cut | null = null;
+  // The offset lines first: a line exactly on a straight boundary edge puts that edge's nodes on
+  // the cut itself, where no element straddles it.
+  for (const off of [eps, -eps, 0]) {
+    const ox = px + off * ey;
+    const oy = py - off * ex;
+    const st = stretchesAlongLine(domain, ox, oy, ex, ey);
+    const lig: number[] = [];
+    const edges: number[] = [];
+    for (const s of st) {
+      if (s.kind !== 'material') continue;
+      const a = Math.max(0, s.v0);
+      const b = Math.min(len, s.v1);
       if (b > a) {
-        clipped.push(a, b);
-        L += b - a;
+        lig.push(a, b);
+        edges.push(a === s.v0 ? s.edge0 : -1, b === s.v1 ? s.edge1 : -1);
       }
     }
-    if (L > best.L * (1 + 1e-9)) best = { u, clipped, L };
+    if (lig.length === 0) continue;
+    const c = makeCut(ox, oy, ex, ey, lig, edges, thickness);
+    if (!best || c.length > best.length * (1 + 1e-9)) best = c;
   }
-  const pre = prefix(full);
-  if (best.clipped.length === 0) return { ...makeCut(full, u0, [lo, lo], pre.at(u0)), length: 0, area: 0, stress: NaN };
-  return makeCut(full, best.u, best.clipped, pre.at(best.u));
+  return best;
+}
+
+/**
+ * Splits the mesh's nodes into the two bodies a cut separates and sums the nodal forces of the
+ * plus body. An element whose nodes lie on both sides of the cut's line, with its chords crossing
+ * the line within a ligament (widened by the chord's own length, so that the chords of a curved
+ * boundary at a ligament's end count), is cut: its nodes join their own side only. Every other
+ * element joins all its nodes. Returns null when the bodies are not separate (a path of uncut
+ * elements leads around the cut), which means the cut does not divide the part in two.
+ */
+export function loadsThroughCut(mesh: Mesh, cut: Cut, nodalForce: Float64Array): CutLoads | null {
+  const n = mesh.nNodes;
+  const per = mesh.order === 2 ? 6 : 3;
+  const xy = mesh.nodes;
+  const side = new Float64Array(n);
+  const along = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const rx = xy[2 * i] - cut.ox;
+    const ry = xy[2 * i + 1] - cut.oy;
+    side[i] = rx * cut.dx + ry * cut.dy;
+    along[i] = rx * cut.ex + ry * cut.ey;
+  }
+  const parent = new Int32Array(n);
+  for (let i = 0; i < n; i++) parent[i] = i;
+  const find = (a: number): number => {
+    while (parent[a] !== a) {
+      parent[a] = parent[parent[a]];
+      a = parent[a];
+    }
+    return a;
+  };
+  const join = (a: number, b: number) => {
+    const ra = find(a);
+    const rb = find(b);
+    if (ra !== rb) parent[ra] = rb;
+  };
+  const cutEl = new Uint8Array(mesh.nElements);
+  const lig = cut.ligaments;
+  const inLigament = (v: number, slack: number) => {
+    for (let k = 0; k < lig.length; k += 2) if (v >= lig[k] - slack && v <= lig[k + 1] + slack) return true;
+    return false;
+  };
+  for (let e = 0; e < mesh.nElements; e++) {
+    const o = per * e;
+    let crosses = false;
+    for (let i = 0; i < per && !crosses; i++) {
+      const a = mesh.elements[o + i];
+      for (let j = i + 1; j < per && !crosses; j++) {
+        const b = mesh.elements[o + j];
+        if (side[a] >= 0 === side[b] >= 0) continue;
+        const t = side[a] / (side[a] - side[b]);
+        const v = along[a] + t * (along[b] - along[a]);
+        const chord = Math.hypot(xy[2 * b] - xy[2 * a], xy[2 * b + 1] - xy[2 * a + 1]);
+        if (inLigament(v, chord)) crosses = true;
+      }
+    }
+    if (crosses) {
+      cutEl[e] = 1;
+      let plus = -1;
+      let minus = -1;
+      for (let i = 0; i < per; i++) {
+        const a = mesh.elements[o + i];
+        if (side[a] >= 0) plus < 0 ? (plus = a) : join(plus, a);
+        else minus < 0 ? (minus = a) : join(minus, a);
+      }
+    } else {
+      const a = mesh.elements[o];
+      for (let i = 1; i < per; i++) join(a, mesh.elements[o + i]);
+    }
+  }
+  // The plus body: every component holding a plus-side node of a cut element.
+  const label = new Int8Array(n); // per root: 1 plus, 2 minus, 3 both
+  let any = false;
+  for (let e = 0; e < mesh.nElements; e++) {
+    if (!cutEl[e]) continue;
+    any = true;
+    for (let i = 0; i < per; i++) {
+      const a = mesh.elements[per * e + i];
+      label[find(a)] |= side[a] >= 0 ? 1 : 2;
+    }
+  }
+  if (!any) return null;
+  // Moments about the centroid directly, so a part far from the origin loses no digits.
+  const [cx, cy] = pointOnCut(cut, cut.vBar);
+  let fx = 0;
+  let fy = 0;
+  let M = 0;
+  for (let i = 0; i < n; i++) {
+    const l = label[find(i)];
+    if (l === 3) return null;
+    if (l !== 1) continue;
+    const rx = nodalForce[2 * i];
+    const ry = nodalForce[2 * i + 1];
+    fx += rx;
+    fy += ry;
+    M += (xy[2 * i] - cx) * ry - (xy[2 * i + 1] - cy) * rx;
+  }
+  return { N: fx * cut.dx + fy * cut.dy, V: fx * cut.ex + fy * cut.ey, M, fx, fy, cx, cy };
 }

@@ -9,6 +9,7 @@ import type { Load, Selector, Support } from '../model/schema.js';
 import { formatValue } from '../render/ticks.js';
 import { measureName } from './pictures.js';
 import type { PlotSource } from './saved.js';
+import type { ResultJson } from './result.js';
 
 function esc(t: unknown): string {
   return String(t).replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
@@ -104,18 +105,16 @@ export function reportHtml(src: PlotSource, png: Map<string, Buffer>): string {
   const title = r.model.title ?? 'Untitled model';
   const date = src.createdAt.slice(0, 10);
   const c = r.convergence;
-  const band = r.kt.error === null ? 'no error estimate (one mesh)' : `estimated error +-${pct(r.kt.error)}`;
-  const ktNet = r.kt.net === null ? 'none' : f(r.kt.net, 4);
-  const ktGross = r.kt.gross === null ? 'none' : f(r.kt.gross, 4);
+  const band = r.kt.error === null ? (r.kt.value === null ? '' : 'no error estimate (one mesh)') : `estimated error +-${pct(r.kt.error)}`;
+  const headline = r.kt.value === null ? 'none' : f(r.kt.value, 4);
   const bandRange = (b: [number, number] | null) => (b ? `${f(b[0], 5)} to ${f(b[1], 5)}` : '-');
   const parts: string[] = [];
   parts.push(`<header><p class="kind">Stress concentration report</p><h1>${esc(title)}</h1>
 <p>Model file ${esc(r.model.file ?? '(not from a file)')}; analysed ${esc(date)} by raiser ${esc(r.tool.version)}.</p>
 ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
   parts.push(`<section class="keys" aria-label="key results">
-<div class="key"><div class="label">Kt net</div><div class="value" id="kt-net">${ktNet}</div><div class="sub">${esc(band)}</div></div>
-<div class="key"><div class="label">Kt gross</div><div class="value" id="kt-gross">${ktGross}</div><div class="sub">${esc(band)}</div></div>
-<div class="key"><div class="label">Peak ${esc(measureName(r.peak.measure))}</div><div class="value">${f(r.peak.stress)} ${esc(u.stress)}</div><div class="sub">${esc(r.peak.feature)}</div></div>
+<div class="key"><div class="label">Kt${r.kt.kind ? ` ${esc(r.kt.kind)}` : ''}</div><div class="value" id="kt">${headline}</div><div class="sub">${esc(r.kt.value === null ? (r.kt.withheld ?? '') : `${band}; at ${r.kt.raiser}`)}</div></div>
+<div class="key"><div class="label">Highest ${esc(measureName(r.peak.measure))}</div><div class="value">${f(r.peak.stress)} ${esc(u.stress)}</div><div class="sub">${esc(r.peak.feature)}</div></div>
 </section>`);
   parts.push(`<div class="caution" role="note"><strong>Read before use.</strong> This is a linear elastic, small-strain analysis of the model as described. A peak above the yield strength means local plastic flow; Kt is not the fatigue factor Kf. The results must be checked by a qualified engineer under the applicable codes and standards before they are used for design. See the cautions at the end.</div>`);
 
@@ -136,7 +135,7 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
       ['loads', `<ul class="plain">${m.loads.map((l) => `<li>${esc(describeLoad(l, u.stress, u.force, u.moment))}${l.note ? ` (${esc(l.note)})` : ''}</li>`).join('')}</ul>`],
     ])}</tbody></table>`,
   );
-  parts.push(figure(png, 'geometry', 'Geometry with the net section (solid) and the gross section (dashed) on which the nominal stresses are taken, the place of the peak, and the loads (L, arrows not to scale) and supports (S).'));
+  parts.push(figure(png, 'geometry', 'Geometry with each stress raiser\'s net section (solid) and gross section (dashed) on which its nominal stresses are taken, the raisers\' peaks, and the loads (L, arrows not to scale) and supports (S).'));
 
   parts.push('<h2>Mesh</h2>');
   parts.push(
@@ -152,57 +151,65 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
   parts.push(figure(png, 'mesh', 'The final mesh of the series.'));
 
   parts.push('<h2 class="page">Results</h2>');
-  const n = r.nominal;
+  parts.push(raisersTable(r));
+  if (r.singularPoints.length) {
+    parts.push('<h3>Singular points</h3><p>Where the elastic stress of the model as described is infinite: a peak there grows without limit as the mesh is refined, so it has no Kt and is not a stress to design to.</p>');
+    parts.push(
+      `<table id="singular"><thead><tr><th>where</th><th>stress on the meshes (${esc(u.stress)})</th><th>what to do</th></tr></thead><tbody>${r.singularPoints
+        .map((sp) => `<tr><td>${esc(sp.what)}</td><td>${sp.stresses.map((v) => f(v)).join(', ')}${sp.grows === true ? ' (grows)' : sp.grows === null ? ' (one mesh: cannot tell)' : ''}</td><td>${esc(sp.fix)}</td></tr>`)
+        .join('')}</tbody></table>`,
+    );
+  }
   parts.push(
-    `<table><thead><tr><th>quantity</th><th class="num">value</th><th>definition</th></tr></thead><tbody>
-<tr><td>peak ${esc(measureName(r.peak.measure))}</td><td class="num">${f(r.peak.stress)} ${esc(u.stress)}</td><td>at (${f(r.peak.x, 5)}, ${f(r.peak.y, 5)}) ${esc(u.length)}, ${esc(r.peak.feature)}; components sxx ${f(r.peak.sxx)}, syy ${f(r.peak.syy)}, sxy ${f(r.peak.sxy)}</td></tr>
-<tr><td>net nominal stress</td><td class="num">${f(n.stress)} ${esc(u.stress)}</td><td>${esc(n.definition)}; cut (${f(n.section.from[0], 5)}, ${f(n.section.from[1], 5)}) to (${f(n.section.to[0], 5)}, ${f(n.section.to[1], 5)}), material length ${f(n.section.length)} ${esc(u.length)}, ${n.kind === 'tension' ? `force ${f(n.section.force)} ${esc(u.force)}` : `moment ${f(n.section.moment)} ${esc(u.moment)}`}</td></tr>
-<tr><td>gross nominal stress</td><td class="num">${f(n.gross.stress)} ${esc(u.stress)}</td><td>${esc(n.gross.definition)}</td></tr>
-<tr><td><strong>Kt net</strong></td><td class="num"><strong>${ktNet}</strong></td><td>${esc(r.kt.netDefinition)}; band ${bandRange(r.kt.netBand)}; extrapolated ${f(r.kt.netExtrapolated, 5)}</td></tr>
-<tr><td><strong>Kt gross</strong></td><td class="num"><strong>${ktGross}</strong></td><td>${esc(r.kt.grossDefinition)}; band ${bandRange(r.kt.grossBand)}; extrapolated ${f(r.kt.grossExtrapolated, 5)}</td></tr>
-<tr><td>peak / yield</td><td class="num">${r.safety.peakOverYield === null ? '-' : pct(r.safety.peakOverYield, 3)}</td><td>${r.safety.localPlasticity ? '<strong>above yield: local plastic flow expected</strong>' : r.safety.yield === null ? 'no yield strength given' : 'below yield'}</td></tr>
-</tbody></table>`,
+    `<table><tbody>${rows([
+      [`highest ${esc(measureName(r.peak.measure))}`, `${f(r.peak.stress)} ${esc(u.stress)} at (${f(r.peak.x, 5)}, ${f(r.peak.y, 5)}) ${esc(u.length)}, ${esc(r.peak.feature)}; components sxx ${f(r.peak.sxx)}, syy ${f(r.peak.syy)}, sxy ${f(r.peak.sxy)}`],
+      ['peak / yield', `${r.safety.peakOverYield === null ? '-' : pct(r.safety.peakOverYield, 3)}: ${r.safety.localPlasticity ? '<strong>above yield: local plastic flow expected</strong>' : r.safety.yield === null ? 'no yield strength given' : 'below yield'}`],
+    ])}</tbody></table>`,
   );
   parts.push(figure(png, 'contour', `${measureName(r.peak.measure)} over the part, with iso-lines at the legend's values and the peak marked.`));
   parts.push(figure(png, 'peak', 'Close-up of the peak region with the element edges.'));
-  parts.push(figure(png, 'section', 'Stress along the net section: the stress measure and the stress along the load direction, with the net nominal stress.'));
+  parts.push(figure(png, 'section', 'Stress along the governing raiser\'s net section: the stress measure and the stress across the section (along the flow), with the beam-formula nominal stress.'));
   parts.push(figure(png, 'deformed', 'Deformed shape, displacements magnified by the factor printed on the picture.'));
 
   parts.push('<h2 class="page">Convergence</h2>');
   if (c.status === 'single-mesh') parts.push('<p>One mesh only: the discretisation error is not estimated. Solve without --single-mesh for a certified Kt.</p>');
   else {
     parts.push(
-      `<p>Status: <strong>${esc(c.status)}</strong>; target ${pct(c.target)}, estimated error ${pct(c.estimatedError)}; observed order ${f(c.observedOrder, 3)} (theory ${esc(c.theoreticalOrder)}), safety factor ${f(c.safetyFactor, 3)}; grid convergence index over the last three meshes.</p>`,
+      `<p>Status: <strong>${esc(c.status)}</strong>; target ${pct(c.target)}, estimated error ${pct(c.estimatedError)} of ${esc(c.quantity ?? '')}; observed order ${f(c.observedOrder, 3)} (theory ${esc(c.theoreticalOrder)}), safety factor ${f(c.safetyFactor, 3)}; grid convergence index over the last three meshes. Every raiser's Kt has its own band, computed the same way on its own series (table above).</p>`,
     );
     parts.push(
-      `<table id="convergence"><thead><tr><th class="num">DOF</th><th class="num">elements</th><th class="num">peak (${esc(u.stress)})</th><th class="num">Kt net</th><th class="num">Kt gross</th><th class="num">time (ms)</th></tr></thead><tbody>${c.meshes
-        .map((x) => `<tr><td class="num">${x.dofs}</td><td class="num">${x.elements}</td><td class="num">${f(x.peak, 6)}</td><td class="num">${f(x.ktNet, 5)}</td><td class="num">${f(x.ktGross, 5)}</td><td class="num">${f(x.timeMs, 3)}</td></tr>`)
+      `<table id="convergence"><thead><tr><th class="num">DOF</th><th class="num">elements</th><th class="num">governing raiser's peak (${esc(u.stress)})</th><th class="num">Kt</th><th class="num">highest stress (${esc(u.stress)})</th><th class="num">time (ms)</th></tr></thead><tbody>${c.meshes
+        .map((x) => `<tr><td class="num">${x.dofs}</td><td class="num">${x.elements}</td><td class="num">${f(x.raiserPeak, 6)}</td><td class="num">${f(x.kt, 5)}</td><td class="num">${f(x.peak, 6)}</td><td class="num">${f(x.timeMs, 3)}</td></tr>`)
         .join('')}</tbody></table>`,
     );
     if (c.notes.length) parts.push(`<ul class="plain">${c.notes.map((x) => `<li>${esc(x)}</li>`).join('')}</ul>`);
     parts.push(figure(png, 'convergence', 'Kt on each mesh of the series against the degrees of freedom, the error band on the finest mesh and the extrapolated values.'));
   }
 
-  if (r.chart) {
-    const ch = r.chart;
-    parts.push('<h2>Comparison with a published chart</h2>');
-    parts.push(
-      `<table><tbody>${rows([
-        ['chart', `${esc(ch.title)} [${esc(ch.provenance)}]`],
-        ['source', esc(ch.source)],
-        [`chart Kt ${ch.nominal}`, f(ch.value, 4)],
-        [`computed Kt ${ch.nominal}`, f(ch.computed, 4)],
-        ['difference', ch.difference === null ? 'not comparable' : `${ch.difference >= 0 ? '+' : ''}${pct(ch.difference)} (the chart is good to about ${pct(ch.spread)})`],
-        ['range', ch.outside.length ? `outside the chart's range: ${esc(ch.outside.join('; '))}` : 'inside the chart\'s range'],
-      ])}</tbody></table>`,
-    );
+  const charted = r.raisers.filter((x) => x.chart);
+  if (charted.length) {
+    parts.push('<h2>Comparison with published charts</h2>');
+    for (const x of charted) {
+      const ch = x.chart!;
+      parts.push(
+        `<table><tbody>${rows([
+          ['raiser', esc(x.name)],
+          ['chart', `${esc(ch.title)} [${esc(ch.provenance)}]`],
+          ['source', esc(ch.source)],
+          [`chart Kt ${ch.nominal}`, f(ch.value, 4)],
+          [`computed Kt ${ch.nominal}`, f(ch.computed, 4)],
+          ['difference', ch.difference === null ? `not compared${ch.outside.length ? ': the dimensions lie outside the chart\'s range' : ''}` : `${ch.difference >= 0 ? '+' : ''}${pct(ch.difference)} (the chart is good to about ${pct(ch.spread)})`],
+          ['range', ch.outside.length ? `outside the chart's range: ${esc(ch.outside.join('; '))}` : "inside the chart's range"],
+        ])}</tbody></table>`,
+      );
+    }
   }
   if (r.fatigue) {
     parts.push('<h2>Fatigue notch factor (estimate)</h2>');
     parts.push(
       `<table><thead><tr><th>method</th><th class="num">q</th><th class="num">Kf</th><th>source</th></tr></thead><tbody>${r.fatigue.methods
         .map((x) => `<tr><td>${esc(x.name)}</td><td class="num">${f(x.q, 3)}</td><td class="num">${f(x.kf, 4)}</td><td>${esc(x.source)}</td></tr>`)
-        .join('')}</tbody></table><p>At the notch radius ${f(r.fatigue.radius, 4)} ${esc(u.length)}, from Kt net.</p>${r.fatigue.notes.length ? `<ul class="plain">${r.fatigue.notes.map((x) => `<li>${esc(x)}</li>`).join('')}</ul>` : ''}`,
+        .join('')}</tbody></table><p>At ${esc(r.fatigue.raiser)}, notch radius ${f(r.fatigue.radius, 4)} ${esc(u.length)}, from Kt ${esc(r.fatigue.kt ?? '')}.</p>${r.fatigue.notes.length ? `<ul class="plain">${r.fatigue.notes.map((x) => `<li>${esc(x)}</li>`).join('')}</ul>` : ''}`,
     );
   }
   if (r.warnings.length) {
@@ -217,7 +224,8 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
 <li>Supports hold displacements at zero; loads act as described in the inputs. Contact at holes, friction and residual stresses are not modelled.</li>
 <li>Stresses are recovered nodal values (superconvergent patch recovery); the peak is searched on the boundary between nodes.</li>
 <li>The error band covers the discretisation only, not whether the model represents the real part.</li>
-<li>A peak at a sharp re-entrant corner has no converged value; model the real corner radius.</li>
+<li>A peak at a singular point (a sharp re-entrant corner, the end of a rigid support, a point support) has no converged value and no Kt; model the real corner radius or support.</li>
+<li>A Kt whose nominal stress means nothing here (a section that carries no load toward the raiser, a nominal stress of the other sign, a raiser loaded by shear, a biaxial state) is withheld with the reason; the peak stress is always given.</li>
 </ul>`,
   );
   parts.push(`<footer>Made by raiser ${esc(r.tool.version)} on ${esc(date)}. Colours: the batlow colour map (F. Crameri, Scientific colour maps, 2018). Text in the pictures: DejaVu Sans.</footer>`);
@@ -237,4 +245,34 @@ ${parts.filter(Boolean).join('\n')}
 </body>
 </html>
 `;
+}
+
+/** The table of stress raisers: peak, section, nominal stresses, every Kt with its band or the reason it is withheld. */
+function raisersTable(r: ResultJson): string {
+  const u = r.units;
+  if (r.raisers.length === 0) return '<p>The part has no stress raiser (no hole, notch, fillet or other concave curved edge), so no Kt is given.</p>';
+  const kinds = ['net', 'gross', 'remote', 'given'] as const;
+  const body = r.raisers
+    .map((x) => {
+      const sec = x.section;
+      const secText = !sec
+        ? 'none'
+        : `${sec.given ? 'given' : 'net'} section (${f(sec.from[0], 5)}, ${f(sec.from[1], 5)}) to (${f(sec.to[0], 5)}, ${f(sec.to[1], 5)}), ${f(sec.length)} ${esc(u.length)} in ${sec.ligaments.length} ligament${sec.ligaments.length > 1 ? 's' : ''}; ${sec.mirror ? 'half of a symmetric section (N / A)' : `N ${f(sec.N)} ${esc(u.force)}, V ${f(sec.V)} ${esc(u.force)}, M ${f(sec.M)} ${esc(u.moment)}`}${x.gross ? `; gross width ${f(x.gross.length)} ${esc(u.length)}` : ''}`;
+      const kt =
+        x.status !== 'ok'
+          ? `<td colspan="2">no Kt: ${esc(x.reason ?? '')}</td>`
+          : `<td>${kinds
+              .filter((k) => x.kt[k])
+              .map((k) => {
+                const e = x.kt[k]!;
+                return e.value === null
+                  ? `<div>Kt ${k}: <em>withheld</em>: ${esc(e.withheld ?? '')}</div>`
+                  : `<div class="kt-${k}">Kt ${k} <strong>${f(e.value, 4)}</strong>${e.error === null ? '' : ` +-${pct(e.error)}`} (nominal ${f(e.nominal)} ${esc(u.stress)}${e.extrapolated === null ? '' : `; extrapolated ${f(e.extrapolated, 5)}`})</div>`;
+              })
+              .join('')}</td><td>${esc(secText)}</td>`;
+      return `<tr${x.governing ? ' class="governing"' : ''}><td>${x.governing ? '<strong>' : ''}${esc(x.name)}${x.governing ? '</strong> (governs)' : ''}</td><td class="num">${f(x.peak.stress)}</td><td>(${f(x.peak.x, 5)}, ${f(x.peak.y, 5)})</td>${kt}</tr>`;
+    })
+    .join('');
+  const defs = `<p class="defs">Kt net: peak / (N / A_net - M y / I_net) on the raiser's net section, the least-material cut across the flow at the raiser through all ligaments, at the raiser's edge. Kt gross: the same N and M over the prismatic width beside the raiser, at its outer fibre. Kt remote: peak / the largest principal remote stress. N, V and M come from the nodal forces on one side of the section (a free-body cut).</p>`;
+  return `<table id="raisers"><thead><tr><th>stress raiser</th><th class="num">peak (${esc(u.stress)})</th><th>at</th><th>Kt</th><th>section</th></tr></thead><tbody>${body}</tbody></table>${defs}`;
 }

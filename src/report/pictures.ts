@@ -337,22 +337,27 @@ export function geometryScene(src: PlotSource, opts: PictureOptions = {}): Scene
     domain = null;
   }
   const bcWords = domain ? 'loads L (arrows, not to scale) and supports S' : 'loads and supports not drawn (the drawing the geometry came from could not be read again)';
-  const fr = frame(s, src, `Geometry and nominal sections: ${r.model.title ?? ''}`.trim(), `net section (least material across the load) solid, gross section dashed; ${bcWords}; lengths in ${r.units.length}`, false);
+  const fr = frame(s, src, `Geometry and nominal sections: ${r.model.title ?? ''}`.trim(), `each raiser's net section (least material across the flow) solid, gross section dashed; ${bcWords}; lengths in ${r.units.length}`, false);
   // room around the plate for the load arrows (2.6 sizes) and their labels
   const view = fitView(opts.window ?? bbox(src.mesh.nodes), inflate(fr.draw, fr.size * 4.4));
   s.items.push({ kind: 'fill', paths: outlineLoops(src, src.mesh.nodes, view), colour: PLATE_FILL, clip: fr.draw });
   s.items.push({ kind: 'stroke', lines: outlineLoops(src, src.mesh.nodes, view), closed: true, width: 1.8, colour: INK, clip: fr.draw });
-  const sec = (c: typeof r.nominal.section, colour: Rgb, dash: number[] | undefined, label: string, below: boolean) => {
-    const lines = c.intervals.map((iv) => [...toPixel(view, iv.from[0], iv.from[1]), ...toPixel(view, iv.to[0], iv.to[1])]);
+  type Sec = { ligaments: { from: [number, number]; to: [number, number] }[]; from: [number, number]; to: [number, number] };
+  const sec = (c: Sec, colour: Rgb, dash: number[] | undefined, label: string, below: boolean) => {
+    const lines = c.ligaments.map((iv) => [...toPixel(view, iv.from[0], iv.from[1]), ...toPixel(view, iv.to[0], iv.to[1])]);
     s.items.push({ kind: 'stroke', lines, width: 3, colour, dash });
     const [ax, ay] = toPixel(view, c.from[0], c.from[1]);
     const [bx, by] = toPixel(view, c.to[0], c.to[1]);
     const end = below ? (ay > by ? [ax, ay] : [bx, by]) : ay < by ? [ax, ay] : [bx, by];
     drawLabel(s, label, end[0], end[1] + (below ? fr.size * 1.6 : -fr.size * 0.6), fr.size * 0.9, `${label} label`, { anchor: 'middle', colour });
   };
-  const n = r.nominal;
-  sec(n.gross.section, GROSS_COLOUR, [8, 5], `gross ${formatValue(n.gross.section.length)} ${r.units.length}`, true);
-  sec(n.section, NET_COLOUR, undefined, `net ${formatValue(n.section.length)} ${r.units.length}`, false);
+  // Each raiser's sections; the governing one's labels name it.
+  for (const x of r.raisers) {
+    if (x.gross) sec(x.gross, GROSS_COLOUR, [8, 5], `gross ${formatValue(x.gross.length)} ${r.units.length}`, true);
+    if (!x.section) continue;
+    const carried = x.section.mirror ? 'half of a symmetric section' : `N ${formatValue(x.section.N ?? NaN)} ${r.units.force}, M ${formatValue(x.section.M ?? NaN)} ${r.units.moment}`;
+    sec(x.section, NET_COLOUR, undefined, `${x.name}: net ${formatValue(x.section.length)} ${r.units.length}; ${carried}`, false);
+  }
   const drawn = domain ? drawBoundaryConditions(s, src.mesh, domain, src.model.loads, src.model.supports, view, fr.size) : { loads: 0, supports: 0 };
   const [px, py] = toPixel(view, r.peak.x, r.peak.y);
   drawMarker(s, px, py, `peak, ${r.peak.feature}`, fr.size * 0.9, fr.draw, 'peak');
@@ -369,21 +374,19 @@ export function convergenceScene(src: PlotSource, opts: PictureOptions = {}): Sc
   const W = opts.width ?? 1200;
   const H = opts.height ?? 800;
   const s = newScene(W, H, `convergence: ${r.model.title ?? 'raiser'}`);
-  const fr = frame(s, src, `Convergence of Kt: ${r.model.title ?? ''}`.trim(), `Kt net and gross on each mesh of the series; error band ${c.estimatedError === null ? 'not available' : `+-${formatValue(100 * c.estimatedError, 2)}%`} on the finest (grid convergence index)`, false);
-  const series: Series[] = [
-    { name: 'Kt net', points: c.meshes.flatMap((m) => [m.dofs, m.ktNet]), colour: NET_COLOUR, markers: true },
-    { name: 'Kt gross', points: c.meshes.flatMap((m) => [m.dofs, m.ktGross]), colour: GROSS_COLOUR, markers: true },
-  ];
+  const gov = r.raisers.find((x) => x.governing);
+  const what = r.kt.kind ? `Kt ${r.kt.kind} of ${r.kt.raiser}` : gov ? `the peak of ${gov.name}` : 'the highest stress';
+  const fr = frame(s, src, `Convergence: ${r.model.title ?? ''}`.trim(), `${what} on each mesh of the series; error band ${c.estimatedError === null ? 'not available' : `+-${formatValue(100 * c.estimatedError, 2)}%`} on the finest (grid convergence index)`, false);
+  const values = c.meshes.map((m) => (r.kt.kind ? m.kt : gov ? m.raiserPeak : m.peak));
+  const series: Series[] = [{ name: what, points: c.meshes.flatMap((m, i) => [m.dofs, values[i] ?? NaN]), colour: NET_COLOUR, markers: true }];
   const last = c.meshes[c.meshes.length - 1];
   const refLines = [];
-  if (r.kt.netExtrapolated !== null) refLines.push({ y: r.kt.netExtrapolated, label: `extrapolated Kt net ${formatValue(r.kt.netExtrapolated, 5)}`, colour: NET_COLOUR, dash: [3, 4] });
-  if (r.kt.grossExtrapolated !== null) refLines.push({ y: r.kt.grossExtrapolated, label: `extrapolated Kt gross ${formatValue(r.kt.grossExtrapolated, 5)}`, colour: GROSS_COLOUR, dash: [3, 4] });
-  if (r.chart && r.chart.value !== null) refLines.push({ y: r.chart.value, label: `chart ${r.chart.id} (${r.chart.nominal}) ${formatValue(r.chart.value, 4)}`, colour: SOFT, dash: [10, 4] });
+  if (r.kt.extrapolated !== null) refLines.push({ y: r.kt.extrapolated, label: `extrapolated ${formatValue(r.kt.extrapolated, 5)}`, colour: NET_COLOUR, dash: [3, 4] });
+  if (r.chart && r.chart.value !== null && r.kt.kind === r.chart.nominal) refLines.push({ y: r.chart.value, label: `chart ${r.chart.id} (${r.chart.nominal}) ${formatValue(r.chart.value, 4)}`, colour: SOFT, dash: [10, 4] });
   const bands = [];
-  if (r.kt.netBand) bands.push({ x: last.dofs, lo: r.kt.netBand[0], hi: r.kt.netBand[1], colour: NET_COLOUR });
-  if (r.kt.grossBand) bands.push({ x: last.dofs, lo: r.kt.grossBand[0], hi: r.kt.grossBand[1], colour: GROSS_COLOUR });
-  const res = drawChart(s, fr.draw, { xLabel: 'degrees of freedom (log scale)', yLabel: 'Kt', xLog: true, series, refLines, bands }, fr.size);
-  Object.assign(s.info, { plot: res.plot, points: c.meshes.map((m) => [res.xToPx(m.dofs), res.yToPx(m.ktNet)]) });
+  if (r.kt.band) bands.push({ x: last.dofs, lo: r.kt.band[0], hi: r.kt.band[1], colour: NET_COLOUR });
+  const res = drawChart(s, fr.draw, { xLabel: 'degrees of freedom (log scale)', yLabel: r.kt.kind ? 'Kt' : `stress (${r.units.stress})`, xLog: true, series, refLines, bands }, fr.size);
+  Object.assign(s.info, { plot: res.plot, points: c.meshes.map((m, i) => [res.xToPx(m.dofs), res.yToPx(values[i] ?? NaN)]) });
   return s;
 }
 
@@ -394,20 +397,24 @@ export function lineScene(src: PlotSource, opts: PictureOptions = {}): Scene {
   const H = opts.height ?? 800;
   const measure = opts.measure ?? r.peak.measure;
   const unit = r.units.stress;
-  const line = opts.line ?? [r.nominal.section.from[0], r.nominal.section.from[1], r.nominal.section.to[0], r.nominal.section.to[1]];
+  const gov = r.raisers.find((x) => x.governing && x.section) ?? r.raisers.find((x) => x.section);
+  const govSec = gov?.section ?? null;
+  const line = opts.line ?? (govSec ? [govSec.from[0], govSec.from[1], govSec.to[0], govSec.to[1]] : [r.peak.x, r.peak.y, r.peak.x, r.peak.y]);
   const [x0, y0, x1, y1] = line;
   const L = Math.hypot(x1 - x0, y1 - y0);
-  const isNet = !opts.line;
+  const isNet = !opts.line && govSec !== null;
   const s = newScene(W, H, `stress along a line: ${r.model.title ?? 'raiser'}`);
   const fr = frame(
     s,
     src,
-    `Stress along ${isNet ? 'the net section' : 'a line'}: ${r.model.title ?? ''}`.trim(),
+    `Stress along ${isNet ? `the net section of ${gov!.name}` : 'a line'}: ${r.model.title ?? ''}`.trim(),
     `from (${formatValue(x0, 5)}, ${formatValue(y0, 5)}) to (${formatValue(x1, 5)}, ${formatValue(y1, 5)}) ${r.units.length}; gaps where the line leaves the material`,
     false,
   );
   const probe = new FieldProbe(src.mesh);
-  const [dx, dy] = r.load.direction;
+  // The stress across the line: along its normal (the flow the section is taken across).
+  const Ll = Math.hypot(x1 - x0, y1 - y0) || 1;
+  const [dx, dy] = govSec && isNet ? govSec.normal : [(y1 - y0) / Ll, -(x1 - x0) / Ll];
   const nS = 400;
   const pm: number[] = [];
   const pn: number[] = [];
@@ -431,9 +438,10 @@ export function lineScene(src: PlotSource, opts: PictureOptions = {}): Scene {
   }
   const series: Series[] = [
     { name: measureName(measure), points: pm, colour: NET_COLOUR },
-    { name: 'stress along the load direction (normal to the section)', points: pn, colour: GROSS_COLOUR, dash: [8, 5] },
+    { name: 'stress normal to the section', points: pn, colour: GROSS_COLOUR, dash: [8, 5] },
   ];
-  const refLines = isNet ? [{ y: r.nominal.stress, label: `net nominal stress ${formatValue(r.nominal.stress)} ${unit}`, colour: SOFT }] : [];
+  const net = gov?.kt.net;
+  const refLines = isNet && net && net.nominal !== null ? [{ y: net.nominal, label: `net nominal stress at the raiser ${formatValue(net.nominal)} ${unit}`, colour: SOFT }] : [];
   const res = drawChart(s, fr.draw, { xLabel: `distance along the line (${r.units.length})`, yLabel: `stress (${unit})`, series, refLines, yInclude: [0] }, fr.size);
   Object.assign(s.info, { plot: res.plot, samples: pm });
   return s;

@@ -5,8 +5,10 @@
  */
 import type { Analysis } from '../pipeline/analyse.js';
 import { InternalError } from '../model/errors.js';
-import type { Certified } from '../pipeline/certify.js';
-import type { Cut } from '../post/section.js';
+import { settleAnalyses, type Certified } from '../pipeline/certify.js';
+import { pointOnCut, type Cut } from '../post/section.js';
+import type { KtKind } from '../post/kt.js';
+import type { SettledKt, Settlement } from '../post/settle.js';
 import { compareWithChart } from '../charts/library.js';
 import { estimateFatigue, neuberLocal, notchRadiusAt } from '../post/design.js';
 
@@ -25,17 +27,82 @@ function snap(v: number, scale: number): number {
   return Math.abs(v) < 1e-7 * scale ? 0 : v;
 }
 
-function cut(c: Cut, scale: number) {
+/** A section as result data: the ends, the ligaments, the flow direction and what it carries. */
+function section(c: Cut, scale: number) {
   const p = (q: readonly number[]): [number, number] => [snap(q[0], scale), snap(q[1], scale)];
+  const lig = c.ligaments;
   return {
-    from: p(c.from),
-    to: p(c.to),
+    from: p(pointOnCut(c, lig[0])),
+    to: p(pointOnCut(c, lig[lig.length - 1])),
+    normal: [c.dx, c.dy] as [number, number],
     length: c.length,
     area: c.area,
-    force: c.force,
-    moment: c.moment,
-    intervals: c.intervals.map(([x0, y0, x1, y1]) => ({ from: p([x0, y0]), to: p([x1, y1]) })),
+    centroid: p(pointOnCut(c, c.vBar)),
+    inertia: c.inertia,
+    mirror: c.mirror,
+    ligaments: Array.from({ length: lig.length / 2 }, (_v, k) => ({ from: p(pointOnCut(c, lig[2 * k])), to: p(pointOnCut(c, lig[2 * k + 1])) })),
   };
+}
+
+const num = (v: number | null | undefined) => (v === null || v === undefined || !Number.isFinite(v) ? null : v);
+
+/** One Kt of a raiser as result data. */
+function ktEntry(k: SettledKt) {
+  return {
+    value: num(k.value),
+    nominal: num(k.nominal),
+    definition: k.definition,
+    withheld: k.withheld,
+    error: num(k.error),
+    band: k.band,
+    extrapolated: num(k.extrapolated),
+  };
+}
+
+/** Every raiser of the last mesh with what the series settled about it, highest peak first. */
+function raisers(a: Analysis, s: Settlement, scale: number, cert: Certified | null, reported: ReadonlySet<number> | null) {
+  const chartFor = a.model.chart;
+  const list = a.evaluation.raisers.map((ev, i) => {
+    const st = s.raisers[i];
+    const kt: Partial<Record<KtKind, ReturnType<typeof ktEntry> & { membrane?: number | null }>> = {};
+    for (const k of st.kt) kt[k.kind] = ktEntry(k);
+    const loads = ev.loads;
+    // The net nominal stress split into its membrane part N / A and the bending part.
+    if (kt.net && loads && ev.section) kt.net.membrane = loads.N / ev.section.area;
+    // Resultants at round-off level print as zero (relative to what the section carries).
+    const big = loads && ev.section ? Math.max(Math.abs(loads.N), Math.abs(loads.V), Math.abs(loads.M) / ev.section.length) : 0;
+    const tidy = (v: number) => (Math.abs(v) <= 1e-9 * big ? 0 : v);
+    const governing = i === s.governing;
+    // The published chart of a template model belongs to the raiser it was built around.
+    const chart = governing && chartFor && st.status === 'ok' ? compareWithChart(chartFor.family, chartFor.dims, { net: kt.net?.value ?? null, gross: kt.gross?.value ?? null }) : null;
+    return {
+      index: i,
+      name: ev.raiser.name,
+      kind: ev.raiser.kind,
+      governing,
+      status: st.status,
+      reason: st.reason,
+      radius: num(ev.raiser.radius),
+      peak: { stress: ev.peak.stress, x: snap(ev.peak.x, scale), y: snap(ev.peak.y, scale), sxx: ev.peak.sxx, syy: ev.peak.syy, sxy: ev.peak.sxy },
+      peakError: cert && st.peakGci && Number.isFinite(st.peakGci.gci) ? st.peakGci.gci : null,
+      section: ev.section
+        ? {
+            ...section(ev.section, scale),
+            given: ev.sectionGiven,
+            raiserPoint: ((q) => [snap(q[0], scale), snap(q[1], scale)] as [number, number])(pointOnCut(ev.section, ev.vRaiser)),
+            N: loads ? tidy(loads.N) : null,
+            V: loads ? tidy(loads.V) : null,
+            M: loads ? tidy(loads.M) : null,
+          }
+        : null,
+      gross: ev.gross ? section(ev.gross.found, scale) : null,
+      headline: st.primary,
+      kt,
+      chart: chart ? { ...chart, value: num(chart.value), computed: num(chart.computed), difference: num(chart.difference) } : null,
+      warnings: ev.warnings,
+    };
+  });
+  return list.filter((r) => !reported || reported.has(r.index) || r.governing).sort((x, y) => Math.abs(y.peak.stress) - Math.abs(x.peak.stress));
 }
 
 /** The convergence record: the mesh series, the band and how it was found. */
@@ -51,7 +118,7 @@ function convergence(c: Certified | null, scale: number) {
       safetyFactor: null,
       behaviour: null,
       asymptoticRatio: null,
-      extrapolatedPeak: null,
+      quantity: null,
       meshes: [],
       adaptation: null,
       notes: ['one mesh only: the discretisation error is not estimated'],
@@ -59,7 +126,6 @@ function convergence(c: Certified | null, scale: number) {
     };
   }
   const g = c.gci;
-  const num = (v: number | undefined) => (v === undefined || !Number.isFinite(v) ? null : v);
   return {
     status: c.status,
     target: c.target,
@@ -70,7 +136,7 @@ function convergence(c: Certified | null, scale: number) {
     safetyFactor: num(g?.safetyFactor),
     behaviour: g?.behaviour ?? null,
     asymptoticRatio: num(g?.asymptoticRatio),
-    extrapolatedPeak: num(g?.extrapolated) === null ? null : Math.sign(c.analysis.peak.stress) * g!.extrapolated,
+    quantity: c.quantity.raiser < 0 ? 'the highest stress in the part' : `${c.quantity.kind === 'peak' ? 'the peak' : `Kt ${c.quantity.kind}`} of ${c.analysis.raisers[c.quantity.raiser].name}`,
     meshes: c.meshes.map((r) => ({
       elements: r.elements,
       nodes: r.nodes,
@@ -79,8 +145,8 @@ function convergence(c: Certified | null, scale: number) {
       peak: r.peak,
       peakX: snap(r.peakX, scale),
       peakY: snap(r.peakY, scale),
-      ktNet: r.ktNet,
-      ktGross: r.ktGross,
+      raiserPeak: c.quantity.raiser >= 0 ? r.raisers[c.quantity.raiser].peak : null,
+      kt: c.quantity.raiser >= 0 && c.quantity.kind !== 'peak' ? (r.raisers[c.quantity.raiser].kt[c.quantity.kind] ?? null) : null,
       timeMs: r.timeMs,
     })),
     adaptation: c.adapted,
@@ -110,31 +176,52 @@ function buildResultUnchecked(a: Analysis, file?: string, cert: Certified | null
   const y = m.material.yield;
   const scale = a.domain.scale;
   const conv = convergence(cert, scale);
-  const singular = cert?.status === 'singular';
-  const err = conv.estimatedError;
-  const band = (v: number) => (err === null || singular ? null : ([v * (1 - err), v * (1 + err)] as [number, number]));
-  const extrapolated = (v: number) => (conv.extrapolatedPeak === null || singular ? null : (v * conv.extrapolatedPeak) / a.peak.stress);
-  const chart = m.chart && !singular ? compareWithChart(m.chart.family, m.chart.dims, a.kt) : null;
-  const radius = notchRadiusAt(a.domain, a.peak.x, a.peak.y);
-  const fatigue = singular ? null : estimateFatigue(a.kt.net, radius, m.material, a.units);
+  const settlement = cert ? cert.settlement : settleAnalyses([a], [1], a.named);
+  const list = raisers(a, settlement, scale, cert, a.reported);
+  const gov = list.find((r) => r.governing) ?? null;
+  const headKind = gov?.headline ?? null;
+  const head = gov && headKind ? gov.kt[headKind]! : null;
+  const radius = gov ? notchRadiusAt(a.domain, gov.peak.x, gov.peak.y) : Infinity;
+  const fatigue = head?.value ? estimateFatigue(head.value, radius, m.material, a.units) : null;
   const ss = m.material.stressStrain;
-  const local = ss && !singular ? neuberLocal(Math.abs(a.peak.stress), m.material.E, ss.K, ss.n) : null;
+  const local = ss && gov && gov.status === 'ok' ? neuberLocal(Math.abs(gov.peak.stress), m.material.E, ss.K, ss.n) : null;
+  const withheldWhy = !gov
+    ? a.raisers.length === 0
+      ? 'the part has no stress raiser (no hole, notch, fillet or other concave curved edge), so it has no Kt; the peak stress is reported'
+      : `no raiser has a Kt: ${list.map((r) => `${r.name}: ${r.reason ?? Object.values(r.kt).find((k) => k?.withheld)?.withheld ?? 'no section'}`).join('; ')}`
+    : !head
+      ? `no Kt of ${gov.name} has a meaning here: ${(gov.reason ?? Object.values(gov.kt).find((k) => k?.withheld)?.withheld) ?? 'every nominal stress is withheld'}`
+      : null;
+  const singularPoints = settlement.singular.map((sp) => {
+    const c = a.candidates[sp.candidate];
+    return { kind: c.kind, x: snap(c.x, scale), y: snap(c.y, scale), what: c.what, fix: c.fix, stresses: sp.stresses, grows: sp.grows };
+  });
+  const warnings = [...a.warnings];
+  for (const r of list) for (const w of r.warnings) warnings.push(w);
+  for (const sp of singularPoints) {
+    if (sp.grows === true && Math.abs(sp.stresses[sp.stresses.length - 1]) >= Math.abs(gov?.peak.stress ?? 0)) {
+      warnings.push(`the highest stress is at a singular point, ${sp.what}, and grows with the mesh; it is an artefact of the idealised model, not a peak to design to: ${sp.fix}`);
+    }
+  }
   return {
     tool: { name: 'raiser', version: TOOL_VERSION },
     model: { title: m.title ?? null, file: file ?? null, chart: m.chart ?? null },
     units: { length: a.units.length, force: a.units.force, stress: a.units.stress, moment: a.units.moment },
     analysis: { state: a.state, measure: a.peak.measure, thickness: m.thickness, E: m.material.E, nu: m.material.nu },
     kt: {
-      net: singular ? null : a.kt.net,
-      gross: singular ? null : a.kt.gross,
-      error: singular ? null : err,
-      netBand: band(a.kt.net),
-      grossBand: band(a.kt.gross),
-      netExtrapolated: extrapolated(a.kt.net),
-      grossExtrapolated: extrapolated(a.kt.gross),
-      netDefinition: `peak ${a.peak.measure} stress / net nominal stress (${a.net.definition})`,
-      grossDefinition: `peak ${a.peak.measure} stress / gross nominal stress (${a.gross.definition})`,
+      raiser: gov?.name ?? null,
+      kind: head ? headKind : null,
+      value: head?.value ?? null,
+      error: head?.error ?? null,
+      band: head?.band ?? null,
+      extrapolated: head?.extrapolated ?? null,
+      definition: head ? `peak ${a.peak.measure} stress at ${gov!.name} / ${head.definition}` : null,
+      withheld: withheldWhy,
+      net: gov?.kt.net?.value ?? null,
+      gross: gov?.kt.gross?.value ?? null,
     },
+    raisers: list,
+    singularPoints,
     peak: {
       stress: a.peak.stress,
       measure: a.peak.measure,
@@ -147,16 +234,8 @@ function buildResultUnchecked(a: Analysis, file?: string, cert: Certified | null
       syy: a.peak.components.syy,
       sxy: a.peak.components.sxy,
     },
-    nominal: {
-      stress: a.net.stress,
-      kind: a.net.kind,
-      definition: a.net.definition,
-      section: cut(a.net.section, scale),
-      gross: { stress: a.gross.stress, definition: a.gross.definition, section: cut(a.gross.section, scale) },
-    },
     load: {
       resultant: { fx: a.load.fx, fy: a.load.fy, m: a.load.m },
-      direction: a.direction,
       remote: a.load.remote ?? null,
       reaction: a.reaction,
       equilibriumError: a.equilibriumError,
@@ -182,12 +261,10 @@ function buildResultUnchecked(a: Analysis, file?: string, cert: Certified | null
     },
     timeMs: a.timeMs,
     convergence: conv,
-    chart: chart
-      ? { ...chart, value: Number.isFinite(chart.value) ? chart.value : null, difference: Number.isFinite(chart.difference) ? chart.difference : null }
-      : null,
-    fatigue: fatigue ? { radius: fatigue.radius, kt: 'net', methods: fatigue.methods, notes: fatigue.notes } : null,
+    chart: gov?.chart ?? null,
+    fatigue: fatigue ? { radius: fatigue.radius, kt: headKind, raiser: gov!.name, methods: fatigue.methods, notes: fatigue.notes } : null,
     plasticity: local
-      ? { elasticPeak: Math.abs(a.peak.stress), localStress: local.stress, localStrain: local.strain, elasticStrain: local.elasticStrain, source: local.source }
+      ? { elasticPeak: Math.abs(gov!.peak.stress), localStress: local.stress, localStrain: local.strain, elasticStrain: local.elasticStrain, source: local.source }
       : null,
     safety: {
       yield: y ?? null,
@@ -195,7 +272,7 @@ function buildResultUnchecked(a: Analysis, file?: string, cert: Certified | null
       peakOverYield: y !== undefined ? Math.abs(a.peak.stress) / y : null,
       localPlasticity: y !== undefined ? Math.abs(a.peak.stress) > y : null,
     },
-    warnings: a.warnings,
+    warnings,
     cautions: CAUTIONS,
   };
 }

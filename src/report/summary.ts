@@ -23,28 +23,62 @@ export function formatSummary(r: ResultJson): string {
     `  ${r.analysis.state.replace('-', ' ')}, thickness ${fmt(r.analysis.thickness)} ${u.length}, E ${fmt(r.analysis.E)} ${u.stress}, nu ${fmt(r.analysis.nu)}; units ${u.length}, ${u.force}, ${u.stress}`,
   );
   out.push('');
-  out.push(`  peak ${r.peak.measure} stress  ${fmt(r.peak.stress)} ${u.stress} at ${pt([r.peak.x, r.peak.y])}, ${r.peak.feature}`);
-  const n = r.nominal;
-  const s = n.section;
-  const what = n.kind === 'tension' ? `F ${fmt(s.force)} ${u.force} over A ${fmt(s.area)} ${u.length}^2` : `M ${fmt(s.moment)} ${u.moment}, section depth ${fmt(s.length)} ${u.length}`;
-  out.push(`  net nominal stress    ${fmt(n.stress)} ${u.stress}  ${what}`);
-  out.push(`      cut ${pt(s.from)} to ${pt(s.to)}, material length ${fmt(s.length)} ${u.length}`);
-  out.push(`      ${n.definition}`);
-  out.push(`  gross nominal stress  ${fmt(n.gross.stress)} ${u.stress}`);
-  out.push(`      ${n.gross.definition}`);
-  out.push('');
-  const c = r.convergence;
   const pct = (v: number) => `${fmt(100 * v, 2)}%`;
-  if (r.kt.net === null || r.kt.gross === null) {
-    out.push(`  Kt        none: the peak does not converge`);
-    out.push(`      the peak at ${pt([r.peak.x, r.peak.y])} (${r.peak.feature}) grows as the mesh is refined; the elastic stress at a sharp`);
-    out.push(`      re-entrant corner is infinite, so no Kt exists there. Model the real corner radius and solve again.`);
-  } else {
+  const c = r.convergence;
+  // The headline: the governing raiser's Kt, or why there is none.
+  if (r.kt.value !== null) {
     const pm = r.kt.error === null ? '' : ` +- ${pct(r.kt.error)}`;
-    out.push(`  Kt net    ${fmt(r.kt.net, 4)}${pm}   = peak / net nominal stress`);
-    out.push(`  Kt gross  ${fmt(r.kt.gross, 4)}${pm}   = peak / gross nominal stress`);
-    if (r.kt.netExtrapolated !== null && r.kt.grossExtrapolated !== null) {
-      out.push(`      extrapolated to a zero mesh size: Kt net ${fmt(r.kt.netExtrapolated, 5)}, Kt gross ${fmt(r.kt.grossExtrapolated, 5)}`);
+    out.push(`  Kt ${r.kt.kind} ${fmt(r.kt.value, 4)}${pm} at ${r.kt.raiser} (the governing stress raiser)`);
+    if (r.kt.extrapolated !== null) out.push(`      extrapolated to a zero mesh size: ${fmt(r.kt.extrapolated, 5)}`);
+  } else {
+    out.push(`  Kt  none: ${r.kt.withheld}`);
+  }
+  out.push(`  highest ${r.peak.measure} stress  ${fmt(r.peak.stress)} ${u.stress} at ${pt([r.peak.x, r.peak.y])}, ${r.peak.feature}`);
+  out.push('');
+  if (r.raisers.length > 0) {
+    out.push(`  stress raisers, highest peak first${r.raisers.length > 1 ? ' (* governs)' : ''}`);
+    for (const x of r.raisers) {
+      out.push(`  ${x.governing && r.raisers.length > 1 ? '*' : ' '} ${x.name}: peak ${fmt(x.peak.stress)} ${u.stress} at ${pt([x.peak.x, x.peak.y])}${x.radius !== null ? `, radius ${fmt(x.radius)} ${u.length}` : ''}`);
+      if (x.status !== 'ok') {
+        out.push(`      no Kt: ${x.reason}`);
+        continue;
+      }
+      const sec = x.section;
+      if (sec) {
+        const lig = sec.ligaments.length;
+        const what = sec.mirror ? 'half of a symmetric section: N / A' : `N ${fmt(sec.N ?? NaN)} ${u.force}, V ${fmt(sec.V ?? NaN)} ${u.force}, M ${fmt(sec.M ?? NaN)} ${u.moment} about its centroid`;
+        out.push(`      ${sec.given ? 'given section' : 'net section'} ${pt(sec.from)} to ${pt(sec.to)}, ${fmt(sec.length)} ${u.length} of material in ${lig} ligament${lig > 1 ? 's' : ''}; ${what}`);
+      }
+      for (const kind of ['net', 'gross', 'remote', 'given'] as const) {
+        const k = x.kt[kind];
+        if (!k) continue;
+        const label = `Kt ${kind}`.padEnd(10);
+        if (k.value === null) out.push(`      ${label} withheld: ${k.withheld}`);
+        else {
+          const pm = k.error === null ? '' : ` +- ${pct(k.error)}`;
+          const m = kind === 'net' ? (k as { membrane?: number | null }).membrane : undefined;
+          const split = m !== undefined && m !== null && k.nominal !== null && !sec?.mirror && Math.abs(k.nominal - m) > 1e-6 * Math.abs(k.nominal) ? ` = N / A ${fmt(m)} ${k.nominal - m >= 0 ? '+' : '-'} bending ${fmt(Math.abs(k.nominal - m))}` : '';
+          const nomWord = kind === 'gross' && x.gross ? ` over the gross width ${fmt(x.gross.length)} ${u.length}` : split;
+          out.push(`      ${label} ${`${fmt(k.value, 4)}${pm}`.padEnd(16)} nominal ${fmt(k.nominal ?? NaN)} ${u.stress}${nomWord}`);
+        }
+      }
+      if (x.chart) {
+        const ch = x.chart;
+        const diff = ch.difference === null ? `not compared${ch.outside.length ? `: outside its range (${ch.outside.join('; ')})` : ''}` : `computed differs by ${ch.difference >= 0 ? '+' : ''}${fmt(100 * ch.difference, 2)}% (the chart is good to about ${fmt(100 * ch.spread, 2)}%)`;
+        out.push(`      chart ${ch.id} [${ch.provenance}]: Kt ${ch.nominal} ${ch.value === null ? 'n/a' : fmt(ch.value, 4)}; ${diff}`);
+        out.push(`        ${ch.source}`);
+      }
+    }
+  } else {
+    out.push('  stress raisers: none (no hole, notch, fillet or other concave curved edge)');
+  }
+  if (r.singularPoints.length > 0) {
+    out.push('');
+    out.push('  singular points (the elastic stress there is infinite: no Kt, and no peak to design to)');
+    for (const sp of r.singularPoints) {
+      const grows = sp.grows === true ? `grows under refinement: ${sp.stresses.slice(-3).map((v) => fmt(v)).join(', ')} ${u.stress}` : sp.grows === null ? `${fmt(sp.stresses[sp.stresses.length - 1])} ${u.stress} on one mesh; a series would tell whether it grows` : 'converges here';
+      out.push(`    ${sp.what}: ${grows}`);
+      out.push(`      ${sp.fix}`);
     }
   }
   out.push('');
@@ -55,14 +89,14 @@ export function formatSummary(r: ResultJson): string {
       c.status === 'converged'
         ? `target ${pct(c.target!)} met: estimated error ${pct(c.estimatedError!)}`
         : c.status === 'singular'
-          ? 'the peak diverges under refinement'
+          ? 'no raiser converges: every peak sits at a singular point'
           : `target ${pct(c.target!)} NOT met: estimated error ${c.estimatedError === null ? 'unknown' : pct(c.estimatedError)}`;
     const order = c.observedOrder === null ? 'no observed order' : `observed order ${fmt(c.observedOrder, 3)} (theory ${c.theoreticalOrder})`;
-    out.push(`  accuracy  ${head}; ${order}, safety factor ${c.safetyFactor ?? '-'} (grid convergence index over the last three meshes)`);
-    out.push('      DOF        elements   peak          Kt net     Kt gross   time');
+    out.push(`  accuracy  ${head} on ${c.quantity}; ${order}, safety factor ${c.safetyFactor ?? '-'} (grid convergence index over the last three meshes)`);
+    out.push('      DOF        elements   raiser peak   Kt         highest stress  time');
     for (const m of c.meshes) {
       out.push(
-        `      ${String(m.dofs).padEnd(10)} ${String(m.elements).padEnd(10)} ${fmt(m.peak, 6).padEnd(13)} ${fmt(m.ktNet, 5).padEnd(10)} ${fmt(m.ktGross, 5).padEnd(10)} ${fmt(m.timeMs, 3)} ms`,
+        `      ${String(m.dofs).padEnd(10)} ${String(m.elements).padEnd(10)} ${(m.raiserPeak === null ? '-' : fmt(m.raiserPeak, 6)).padEnd(13)} ${(m.kt === null ? '-' : fmt(m.kt, 5)).padEnd(10)} ${fmt(m.peak, 6).padEnd(15)} ${fmt(m.timeMs, 3)} ms`,
       );
     }
     for (const note of c.notes) out.push(`      ${note}`);
@@ -78,21 +112,14 @@ export function formatSummary(r: ResultJson): string {
   out.push(
     `  loads  resultant (${fmt(r.load.resultant.fx)}, ${fmt(r.load.resultant.fy)}) ${u.force}; reactions balance them to ${r.load.equilibriumError.toExponential(1)} of the load`,
   );
-  if (r.chart) {
-    const ch = r.chart;
-    const diff = ch.difference === null ? 'not comparable' : `computed differs by ${ch.difference >= 0 ? '+' : ''}${fmt(100 * ch.difference, 2)}%`;
-    out.push(`  chart  ${ch.id} [${ch.provenance}]: Kt ${ch.nominal} ${ch.value === null ? 'n/a' : fmt(ch.value, 4)}; ${diff} (the chart is good to about ${fmt(100 * ch.spread, 2)}%)`);
-    out.push(`      ${ch.source}`);
-    for (const o of ch.outside) out.push(`      outside the chart's range: ${o}`);
-  }
   if (r.fatigue) {
     const f = r.fatigue;
-    out.push(`  fatigue  at the notch radius ${fmt(f.radius, 4)} ${u.length}: ${f.methods.map((x) => `${x.name}: q ${fmt(x.q, 3)}, Kf ${fmt(x.kf, 4)}`).join('; ')}`);
+    out.push(`  fatigue  at ${f.raiser}, notch radius ${fmt(f.radius, 4)} ${u.length}, from Kt ${f.kt}: ${f.methods.map((x) => `${x.name}: q ${fmt(x.q, 3)}, Kf ${fmt(x.kf, 4)}`).join('; ')}`);
     for (const n of f.notes) out.push(`      ${n}`);
   }
   if (r.plasticity) {
     const p = r.plasticity;
-    out.push(`  plasticity  Neuber's rule with the given stress-strain law: local stress ${fmt(p.localStress)} ${u.stress}, strain ${fmt(100 * p.localStrain, 3)}% (elastic ${fmt(100 * p.elasticStrain, 3)}%)`);
+    out.push(`  plasticity  at the governing raiser, Neuber's rule with the given stress-strain law: local stress ${fmt(p.localStress)} ${u.stress}, strain ${fmt(100 * p.localStrain, 3)}% (elastic ${fmt(100 * p.elasticStrain, 3)}%)`);
   }
   if (r.safety.yield !== null) {
     out.push(

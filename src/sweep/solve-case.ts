@@ -2,7 +2,7 @@
 import { compareWithChart } from '../charts/library.js';
 import type { StressMeasure } from '../model/schema.js';
 import { analyseModel } from '../pipeline/analyse.js';
-import { certifyModel } from '../pipeline/certify.js';
+import { certifyModel, governingKt, type GoverningKt } from '../pipeline/certify.js';
 import { caseModel, type SweepSource } from './cases.js';
 
 export interface CaseOptions {
@@ -39,22 +39,25 @@ export function solveCase(src: SweepSource, key: string, values: Record<string, 
   let error: number | null = null;
   let meshes = 1;
   let a;
-  if (opts.singleMesh) a = analyseModel(model, opts);
-  else {
+  let kt: GoverningKt;
+  if (opts.singleMesh) {
+    a = analyseModel(model, opts);
+    kt = governingKt(a);
+  } else {
     const c = certifyModel(model, { ...opts, target: opts.target ?? 0.01 });
     a = c.analysis;
+    kt = governingKt(c);
     status = c.status;
-    error = c.gci && Number.isFinite(c.gci.gci) ? c.gci.gci : null;
+    error = c.gci && Number.isFinite(c.gci.gci) && kt.value !== null ? c.gci.gci : null;
     meshes = c.meshes.length;
   }
-  const singular = status === 'singular';
-  const cmp = model.chart ? compareWithChart(model.chart.family, model.chart.dims, a.kt) : null;
+  const cmp = model.chart ? compareWithChart(model.chart.family, model.chart.dims, { net: kt.net, gross: kt.gross }) : null;
   return {
     key,
     values,
     status,
-    ktNet: singular ? null : a.kt.net,
-    ktGross: singular ? null : a.kt.gross,
+    ktNet: kt.net,
+    ktGross: kt.gross,
     error,
     peak: a.peak.stress,
     peakX: a.peak.x,
