@@ -101,6 +101,10 @@ const CASES: Case[] = [
   ['a misspelt plane state', (m) => (m.state = 'plane strain'), 'model', /state/],
   ['an ellipse with a negative semi-axis', (m) => m.geometry.holes.push({ shape: 'ellipse', center: [20, 20], a: -3, b: 2 }), 'model', /\.a/],
   ['a point with three coordinates', (m) => (m.geometry.holes[0].center = [50, 20, 0]), 'model', /center/],
+  ['a bearing load on a hole that is not circular', (m) => ((m.geometry.holes[0] = { shape: 'slot', center: [50, 20], length: 16, width: 8, name: 'bore' }), (m.loads[0] = { type: 'bearing', on: { hole: 'bore' }, force: [1000, 0] })), 'model', /loads\[0\]\.on\.hole.*not circular/],
+  ['a bearing load selecting edges by tag instead of a hole', (m) => (m.loads[0] = { type: 'bearing', on: 'pull', force: [1000, 0] }), 'model', /loads\[0\]\.on/],
+  ['a bearing load of zero', (m) => (m.loads[0] = { type: 'bearing', on: { hole: 1 }, force: [0, 0] }), 'model', /every load is zero/],
+  ['a bearing load on a hole a fixed support holds', (m) => ((m.loads = [{ type: 'bearing', on: { hole: 1 }, force: [1000, 0] }]), m.supports.push({ type: 'fixed', on: { hole: 1 } })), 'model', /supports\[1\]\.on.*has a pin/],
 ];
 
 function attempt(input: Case[1]): unknown {

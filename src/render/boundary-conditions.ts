@@ -140,6 +140,14 @@ function loadDirection(load: Load, nx: number, ny: number): [number, number] | n
     }
     case 'moment':
       return null;
+    case 'bearing': {
+      // p0 cos(phi) on the half facing the force: cos(phi) = -n . F / |F| (n points into the hole)
+      const [fx, fy] = load.force;
+      const c = -(nx * fx + ny * fy) / (Math.hypot(fx, fy) || 1);
+      return c > 0 ? [-c * nx, -c * ny] : [0, 0];
+    }
+    case 'rigid-pin':
+      return null;
   }
 }
 

@@ -8,6 +8,7 @@ import { describeSelector } from '../geometry/select.js';
 import type { Load, Selector, Support } from '../model/schema.js';
 import { formatValue } from '../render/ticks.js';
 import { measureName } from './pictures.js';
+import { describePinLoad, describePinSupport } from './pins.js';
 import type { PlotSource } from './saved.js';
 
 function esc(t: unknown): string {
@@ -22,7 +23,7 @@ function target(on: Selector | Selector[] | undefined): string {
   return (Array.isArray(on) ? on : [on]).map(describeSelector).join(', ');
 }
 
-function describeLoad(l: Load, stress: string, force: string, moment: string): string {
+function describeLoad(l: Load, stress: string, force: string, moment: string, length: string): string {
   switch (l.type) {
     case 'traction':
       return `traction on ${target(l.on)}: ${[l.normal !== undefined ? `normal ${f(l.normal)} ${stress}` : '', l.shear !== undefined ? `shear ${f(l.shear)} ${stress}` : ''].filter(Boolean).join(', ')}`;
@@ -34,10 +35,12 @@ function describeLoad(l: Load, stress: string, force: string, moment: string): s
       return `pressure on ${target(l.on)}: ${f(l.p)} ${stress}`;
     case 'remote':
       return `remote stress on ${target(l.on)}: sxx ${f(l.sxx ?? 0)}, syy ${f(l.syy ?? 0)}, sxy ${f(l.sxy ?? 0)} ${stress}`;
+    default:
+      return describePinLoad(l, force, length);
   }
 }
 
-function describeSupport(s: Support): string {
+function describeSupport(s: Support, length: string): string {
   switch (s.type) {
     case 'fixed':
       return `fixed (both components held) on ${target(s.on)}`;
@@ -47,6 +50,8 @@ function describeSupport(s: Support): string {
       return `symmetry (normal displacement held) on ${target(s.on)}`;
     case 'pin':
       return `pin at (${s.at.join(', ')}) holding ${s.fix ?? 'xy'}`;
+    default:
+      return describePinSupport(s, length);
   }
 }
 
@@ -132,8 +137,8 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
       ['yield strength', mat.yield === undefined ? 'not given' : `${f(mat.yield)} ${esc(u.stress)}`],
       ['ultimate strength', mat.ultimate === undefined ? 'not given' : `${f(mat.ultimate)} ${esc(u.stress)}`],
       ['stress measure', esc(measureName(r.analysis.measure))],
-      ['supports', `<ul class="plain">${m.supports.map((s) => `<li>${esc(describeSupport(s))}${s.note ? ` (${esc(s.note)})` : ''}</li>`).join('')}</ul>`],
-      ['loads', `<ul class="plain">${m.loads.map((l) => `<li>${esc(describeLoad(l, u.stress, u.force, u.moment))}${l.note ? ` (${esc(l.note)})` : ''}</li>`).join('')}</ul>`],
+      ['supports', `<ul class="plain">${m.supports.map((s) => `<li>${esc(describeSupport(s, u.length))}${s.note ? ` (${esc(s.note)})` : ''}</li>`).join('')}</ul>`],
+      ['loads', `<ul class="plain">${m.loads.map((l) => `<li>${esc(describeLoad(l, u.stress, u.force, u.moment, u.length))}${l.note ? ` (${esc(l.note)})` : ''}</li>`).join('')}</ul>`],
     ])}</tbody></table>`,
   );
   parts.push(figure(png, 'geometry', 'Geometry with the net section (solid) and the gross section (dashed) on which the nominal stresses are taken, the place of the peak, and the loads (L, arrows not to scale) and supports (S).'));
