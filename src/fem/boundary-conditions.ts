@@ -328,6 +328,10 @@ export function compileSupports(model: Model, domain: Domain, mesh: Mesh, warnin
     if (sup.type !== 'pin') supportEdges[i] = selectTarget(domain, sup.on).edges;
     if (sup.type === 'pin') {
       const node = nearestBoundaryNode(mesh, sup.at[0], sup.at[1]);
+      const onPin = pins.find((p) => p.kind === 'rigid-pin' && p.edges.includes(mesh.nodeEdge[node]));
+      if (onPin) {
+        throw new ModelError(`${path}.at`, `the pin support at (${sup.at.join(', ')}) is on ${onPin.label}, where the rigid pin ${onPin.path} decides how the hole is held`, 'hold the part at a point away from the pin holes');
+      }
       const fix = sup.fix ?? 'xy';
       if (fix.includes('x')) fixed[2 * node] = 1;
       if (fix.includes('y')) fixed[2 * node + 1] = 1;

@@ -11,6 +11,8 @@ import { assembleSystem, internalForces, meshNodeGraph } from '../fem/assemble.j
 import { compileLoads, compileSupports, type CompiledLoads, type ExtraTraction } from '../fem/boundary-conditions.js';
 import { constitutiveMatrix, type PlaneState } from '../fem/material.js';
 import { checkRigidMotion } from '../fem/rigid.js';
+import { forceMoments, type PinHole } from '../fem/pins.js';
+import { addContactForces, pinSupportCentres, solveContact, type ContactSolution, type PinsOfAnalysis } from '../fem/contact.js';
 import { generateMesh, triangleMinAngle } from '../mesh/generate.js';
 import type { SizeField } from '../mesh/sizefield.js';
 import type { HardPoint } from '../mesh/boundary.js';
@@ -73,6 +75,8 @@ export interface Analysis {
   equilibriumError: number;
   timeMs: { mesh: number; assemble: number; solve: number; recover: number; total: number };
   warnings: string[];
+  /** pins in holes (bearing loads, rigid pins) and the contact of the rigid ones; null without pins */
+  pins: PinsOfAnalysis | null;
 }
 
 /** What every mesh of one model shares: the model checked, its domain, units and options. */
@@ -143,18 +147,27 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
 
   const supports = compileSupports(model, domain, mesh, warnings);
   const loads = compileLoads(model, domain, mesh, supports, warnings, prep.extraTractions);
-  checkRigidMotion(mesh, supports.constraints.fixed, domain.scale);
+  // --- pins in holes: a fixed rigid pin holds the part at the hole's centre (src/fem/contact.ts) ---
+  const contactPins = supports.pins.filter((p) => p.kind === 'rigid-pin');
+  checkRigidMotion(mesh, supports.constraints.fixed, domain.scale, pinSupportCentres(contactPins));
+  // --- end of pins ---
   const D = constitutiveMatrix(model.material.E, model.material.nu, state);
   const nodeGraph = meshNodeGraph(mesh);
   const system = assembleSystem(mesh, D, model.thickness, loads.f, supports.constraints, nodeGraph);
   const t2 = performance.now();
 
   let solved;
+  let contact: ContactSolution | null = null;
   try {
     // The direct factor may use what the memory limit leaves beside the rest of the analysis;
     // beyond that the solver switches to conjugate gradients.
     const maxFactorBytes = Math.max(0, prep.maxMemoryBytes - estimateAnalysisBytes(meshStats.triangles, mesh.order as 1 | 2, 'iterative'));
-    solved = solveSpd(system.K, system.f, { coords: mesh.nodes, nodeAdjacency: nodeGraph, dofsPerNode: 2, fullDofOfRow: system.freeDof, maxFactorBytes });
+    const solveOptions = { coords: mesh.nodes, nodeAdjacency: nodeGraph, dofsPerNode: 2, fullDofOfRow: system.freeDof, maxFactorBytes };
+    // --- pins in holes: rigid pins in frictionless contact replace the linear solve ---
+    const planeModulus = state === 'plane-strain' ? model.material.E / (1 - model.material.nu ** 2) : model.material.E;
+    if (contactPins.length > 0) solved = contact = solveContact(mesh, system, contactPins, { thickness: model.thickness, planeModulus }, solveOptions);
+    else solved = solveSpd(system.K, system.f, solveOptions);
+    // --- end of pins ---
   } catch (err) {
     if (err instanceof SolverPivotError) {
       const dof = system.freeDof[err.originalIndex];
@@ -181,6 +194,11 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
   for (let d = 0; d < nDof; d++) {
     if (!Number.isFinite(u[d])) throw new AnalysisError('the solution is not finite: the stiffness matrix is too badly conditioned to solve', 'check for parts joined by a very thin ligament or extreme dimensions');
   }
+  // --- pins in holes: pushed pins' contact forces are applied loads, fixed pins' are reactions ---
+  if (contact) addContactForces(contact, loads.f, supports.constraints.fixed);
+  const pins: PinsOfAnalysis | null =
+    supports.pins.length === 0 ? null : { holes: supports.pins, contact: contact && { pins: contact.pins, iterations: contact.iterations, activeHistory: contact.activeHistory, tolerance: contact.tolerance } };
+  // --- end of pins ---
   const t3 = performance.now();
 
   const r = internalForces(mesh, D, model.thickness, u);
@@ -211,7 +229,7 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
     const l = Math.hypot(a, b);
     dir = [a / l, b / l];
   } else {
-    dir = loadDirection(loads, domain, bendingOnly);
+    dir = loadDirection(loads, domain, bendingOnly, mesh, supports.pins);
   }
   const kind = bendingOnly ? 'bending' : 'tension';
   const trace = traceLoops(domain);
@@ -292,6 +310,7 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
     equilibriumError,
     timeMs: { mesh: t1 - t0, assemble: t2 - t1, solve: t3 - t2, recover: t4 - t3, total: t4 - t0 },
     warnings,
+    pins,
   };
 }
 
@@ -342,7 +361,7 @@ function resultant(mesh: Mesh, f: Float64Array): { fx: number; fy: number; m: nu
  * normal of the loaded edge (the beam axis); otherwise the dominant direction of the applied
  * nodal forces (the leading eigenvector of sum f f^T, so loads pulling both ends agree).
  */
-function loadDirection(loads: CompiledLoads, domain: Domain, bendingOnly: boolean): [number, number] {
+function loadDirection(loads: CompiledLoads, domain: Domain, bendingOnly: boolean, mesh: Mesh, pins: readonly PinHole[]): [number, number] {
   if (loads.remote) {
     const { sxx, syy, sxy } = loads.remote;
     const s1 = principalMax(sxx, syy, sxy);
@@ -365,16 +384,8 @@ function loadDirection(loads: CompiledLoads, domain: Domain, bendingOnly: boolea
   }
   // Every applied nodal force counts, so loads that pull both ends (and cancel as a
   // resultant) still give their axis.
-  let a = 0;
-  let b = 0;
-  let c = 0;
-  for (let i = 0; i < loads.f.length; i += 2) {
-    const fx = loads.f[i];
-    const fy = loads.f[i + 1];
-    a += fx * fx;
-    b += fx * fy;
-    c += fy * fy;
-  }
+  // (a pin's forces fanned out over its hole count as their resultant: src/fem/pins.ts)
+  const [a, b, c] = forceMoments(loads.f, mesh, pins);
   const tr = 0.5 * (a + c);
   const rr = Math.hypot(0.5 * (a - c), b);
   const lam = tr + rr;
