@@ -52,7 +52,7 @@
  */
 import type { Mesh } from '../mesh/types.js';
 import { AnalysisError, InternalError } from '../model/errors.js';
-import { multiplySymmetric, type SolveOptions, type SolveStats, type SymmetricCsc } from '../solve/index.js';
+import type { SolveOptions, SolveStats, SymmetricCsc } from '../solve/index.js';
 import { RepeatedSolver } from '../solve/repeated.js';
 import { solveSymmetricSmall } from '../solve/small.js';
 import type { FeSystem } from './assemble.js';
@@ -218,7 +218,6 @@ export function solveContact(
   const rotValues = K.values.slice();
   rotateMatrix(K, rotValues, rot, pairOfRow);
   leftEntries(K, rot, pairOfRow);
-  const Krot: SymmetricCsc = { ...K, values: rotValues };
   const fRot = system.f.slice();
   for (let k = 0; k < nPairs; k++) {
     const j = rot.row[k];
@@ -249,9 +248,10 @@ export function solveContact(
     const F = Math.hypot(fx, fy);
     for (let i = 0; i < h.nodes.length; i++) {
       const c = (h.normal[2 * i] * fx + h.normal[2 * i + 1] * fy) / F;
-      // at least the node nearest the force, so the arc is never empty
-      active[first[pi] + i] = c > 0 && c >= cosHalf * (1 - 1e-12) ? 1 : 0;
+      // the ends of the half hole (c = 0) count in, whatever the sign of their round-off
+      active[first[pi] + i] = c > -1e-9 && c >= cosHalf - 1e-9 ? 1 : 0;
     }
+    // at least the node nearest the force, so the arc is never empty
     let best = first[pi];
     for (let i = 0; i < h.nodes.length; i++) if (h.normal[2 * i] * fx + h.normal[2 * i + 1] * fy > h.normal[2 * (best - first[pi])] * fx + h.normal[2 * (best - first[pi]) + 1] * fy) best = first[pi] + i;
     active[best] = 1;
@@ -267,7 +267,6 @@ export function solveContact(
   const history: number[] = [];
   const lambda = new Float64Array(nPairs);
   const gap = new Float64Array(nPairs);
-  const y = new Float64Array(n);
   let delta: Float64Array = new Float64Array(2 * loadPins.length);
   let u: Float64Array = new Float64Array(n);
   let modValues = rotValues;
@@ -331,11 +330,19 @@ export function solveContact(
     }
     const X = solver.solve(modValues, B, nrhs);
 
-    // Contact forces of each solution at the active nodes: (K_rot x - f_rot) on the normal rows.
+    // Contact forces of each solution at the active nodes: (K_rot x - f_rot) on the normal rows,
+    // row by row (the column below the diagonal and the entries left of it).
     const lam = new Float64Array(nrhs * nPairs);
-    for (let m = 0; m < nrhs; m++) {
-      multiplySymmetric(Krot, X.subarray(m * n, (m + 1) * n), y);
-      for (let k = 0; k < nPairs; k++) if (active[k]) lam[m * nPairs + k] = y[rot.row[k]] - (m === 0 ? fRot[rot.row[k]] : 0);
+    for (let k = 0; k < nPairs; k++) {
+      if (!active[k]) continue;
+      const j = rot.row[k];
+      for (let m = 0; m < nrhs; m++) {
+        const o = m * n;
+        let sum = m === 0 ? -fRot[j] : 0;
+        for (let p = K.colPtr[j]; p < K.colPtr[j + 1]; p++) sum += rotValues[p] * X[o + K.rowIndex[p]];
+        for (let e = rot.leftPtr[k]; e < rot.leftPtr[k + 1]; e++) sum += rotValues[rot.leftPos[e]] * X[o + rot.leftCol[e]];
+        lam[m * nPairs + k] = sum;
+      }
     }
     // Equilibrium of the pushed pins fixes their displacements.
     const P = loadPins.length;

@@ -8,7 +8,7 @@ import { describeSelector } from '../geometry/select.js';
 import type { Load, Selector, Support } from '../model/schema.js';
 import { formatValue } from '../render/ticks.js';
 import { measureName } from './pictures.js';
-import { describePinLoad, describePinSupport } from './pins.js';
+import { describePinLoad, describePinSupport, pinsHtml } from './pins.js';
 import type { PlotSource } from './saved.js';
 
 function esc(t: unknown): string {
@@ -173,6 +173,7 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
   parts.push(figure(png, 'section', 'Stress along the net section: the stress measure and the stress along the load direction, with the net nominal stress.'));
   parts.push(figure(png, 'deformed', 'Deformed shape, displacements magnified by the factor printed on the picture.'));
 
+  parts.push(pinsHtml(r));
   parts.push('<h2 class="page">Convergence</h2>');
   if (c.status === 'single-mesh') parts.push('<p>One mesh only: the discretisation error is not estimated. Solve without --single-mesh for a certified Kt.</p>');
   else {
@@ -219,7 +220,7 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
     `<div class="caution" id="cautions"><strong>Cautions</strong><ul>${r.cautions.map((x) => `<li>${esc(x)}</li>`).join('')}</ul></div>
 <ul class="plain">
 <li>Plane ${esc(r.analysis.state === 'plane-strain' ? 'strain' : 'stress')}, isotropic homogeneous material, one thickness; no through-thickness effects.</li>
-<li>Supports hold displacements at zero; loads act as described in the inputs. Contact at holes, friction and residual stresses are not modelled.</li>
+<li>Supports hold displacements at zero; loads act as described in the inputs. Friction and residual stresses are not modelled, nor contact other than that of rigid pins in holes.</li>
 <li>Stresses are recovered nodal values (superconvergent patch recovery); the peak is searched on the boundary between nodes.</li>
 <li>The error band covers the discretisation only, not whether the model represents the real part.</li>
 <li>A peak at a sharp re-entrant corner has no converged value; model the real corner radius.</li>

@@ -1,5 +1,6 @@
 /** The console summary of one analysis: the same facts as the JSON, laid out for a person. */
 import type { ResultJson } from './result.js';
+import { formatPinsSummary } from './pins.js';
 
 /** A number with `digits` significant figures, without exponent for everyday magnitudes. */
 export function fmt(v: number, digits = 4): string {
@@ -99,6 +100,7 @@ export function formatSummary(r: ResultJson): string {
       `  yield  peak is ${fmt(100 * (r.safety.peakOverYield ?? 0), 3)}% of the yield strength ${fmt(r.safety.yield)} ${u.stress}${r.safety.localPlasticity ? ': LOCAL PLASTICITY EXPECTED' : ''}`,
     );
   }
+  out.push(...formatPinsSummary(r));
   if (r.warnings.length > 0) {
     out.push('');
     out.push('  warnings');
