@@ -69,7 +69,8 @@ export function loopCircle(domain: Domain, loop: number): { cx: number; cy: numb
   return { cx: first.cx, cy: first.cy, radius: first.r };
 }
 
-function holeLoop(domain: Domain, h: number | string): number {
+/** The domain loop of a hole named as in a "hole" selector (number from 1, or name), or -1. */
+export function holeLoop(domain: Domain, h: number | string): number {
   const loop = domain.loops.find((l) => l.hole > 0 && (typeof h === 'number' ? l.hole === h : l.name === h));
   return loop ? loop.index : -1;
 }

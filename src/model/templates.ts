@@ -642,7 +642,8 @@ export function lug(p: LugParams = {}): Model {
     `${GENERATED} "lug" (W = ${fmt(W)}, d = ${fmt(d)}, e = ${fmt(e)}, L = ${fmt(L)} ${u.length}, ${end} end; pin force ${fmt(F)} ${u.force} at ${fmt(angle)} deg from the axis, ${pinWords}). ` +
     'Full model: the shank runs along -x and is held fixed at its end x = -L (tag "held"); the hole (named "pin", tag "hole") is centred at the origin. ' +
     `The force is F = stress (W - d) t with stress = ${fmt(stress)} ${u.stress}: the net nominal stress of an axial pull, F / ((W - d) t); the bearing stress is F / (d t) = ${fmt(F / (d * t))} ${u.stress}.` +
-    (loadKind === 'pin' && clearance > 0 ? ' With clearance the contact arc, and so Kt, depends on the size of the load.' : '');
+    (loadKind === 'pin' && clearance > 0 ? ' With clearance the contact arc, and so Kt, depends on the size of the load.' : '') +
+    (angle !== 0 ? ' At an angle the pin bends the shank: the corners of the held end then carry a stress of the clamping, singular in theory and nothing to do with the lug; read the peak on the hole (the pins of the result).' : '');
   const loadItem: Model['loads'][number] =
     loadKind === 'pin' ? { type: 'rigid-pin', on: { hole: 'pin' }, force, clearance } : { type: 'bearing', on: { hole: 'pin' }, force };
   return finish({

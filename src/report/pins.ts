@@ -18,6 +18,12 @@ import type { ResultJson } from './result.js';
 
 const DEG = 180 / Math.PI;
 
+/** Degrees from radians, with round-off about zero (1e-14 of a turn) shown as 0. */
+function degrees(radians: number): number {
+  const v = radians * DEG;
+  return Math.abs(v) < 1e-9 ? 0 : v;
+}
+
 /** Plain numbers for text meant for a terminal (no typographic minus). */
 function fmt(v: number, digits = 4): string {
   if (!Number.isFinite(v)) return String(v);
@@ -105,7 +111,7 @@ export function pinsResult(a: Analysis) {
             stress: bestValue,
             x: bx,
             y: by,
-            angle: Math.atan2(by - pin.cy, bx - pin.cx) * DEG,
+            angle: degrees(Math.atan2(by - pin.cy, bx - pin.cx)),
             overBearingStress: bearingStress > 0 ? Math.abs(bestValue) / bearingStress : null,
           };
     let contactJson = null;
@@ -117,8 +123,8 @@ export function pinsResult(a: Analysis) {
         return Math.min(dA, 2 * Math.PI - dA) * DEG;
       };
       const arcs = contactRuns(c.active).map(([i0, i1]) => {
-        let from = angle[i0] * DEG;
-        let to = angle[i1] * DEG;
+        let from = degrees(angle[i0]);
+        let to = degrees(angle[i1]);
         if (to < from) to += 360;
         if (from > 180) {
           from -= 360;
@@ -131,7 +137,7 @@ export function pinsResult(a: Analysis) {
       for (let i = 0; i < m; i++) {
         if (c.pressure[i] > peak) {
           peak = c.pressure[i];
-          peakAt = angle[i] * DEG;
+          peakAt = degrees(angle[i]);
         }
       }
       contactJson = {
@@ -140,7 +146,7 @@ export function pinsResult(a: Analysis) {
         peakPressure: peak,
         peakPressureAngle: peakAt,
         pinDisplacement: pin.role === 'load' ? [c.displacement[0], c.displacement[1]] : null,
-        pressure: { angle: Array.from(angle, (v) => v * DEG), value: Array.from(c.pressure) },
+        pressure: { angle: Array.from(angle, degrees), value: Array.from(c.pressure) },
       };
     }
     return {
