@@ -18,6 +18,8 @@ interface Expect {
   /** a published value the result must lie near, with the reason */
   bound?: { value: number; within: number; why: string };
   plasticity: boolean;
+  /** pins in holes: how many, and that the contact was solved */
+  pins?: number;
 }
 
 const EXPECTED: Record<string, Expect> = {
@@ -36,6 +38,11 @@ const EXPECTED: Record<string, Expect> = {
   },
   'notched-bar-bending.json': {
     ktNet: 2.146, ktGross: 2.803, feature: /notch/, plasticity: false,
+  },
+  'link-plate-pins.json': {
+    // a fixed pin and a pulling pin, both with 0.1 mm clearance: the peak sits on a pin hole
+    // beside its contact arc, and no held edge leaves a singular point
+    ktNet: 3.963, ktGross: 7.925, feature: /pin hole/, plasticity: false, pins: 2,
   },
 };
 
@@ -64,6 +71,12 @@ describe('examples', () => {
       if (e.bound) expect(Math.abs(r.kt.net / e.bound.value - 1), e.bound.why).toBeLessThan(e.bound.within);
       expect(r.mesh.minAngleDeg).toBeGreaterThan(25 - 1e-6);
       expect(r.load.equilibriumError).toBeLessThan(1e-9);
+      expect(r.peak.atSharpCorner).toBe(false);
+      if (e.pins) {
+        expect(r.pins.items).toHaveLength(e.pins);
+        for (const p of r.pins.items) expect(p.contact.arcs.length).toBe(1);
+        expect(r.pins.contactIterations).toBeGreaterThanOrEqual(1);
+      } else expect(r.pins).toBeNull();
 
       const text = raiser(['solve', `examples/${file}`]);
       expect(text.code).toBe(0);
@@ -72,6 +85,7 @@ describe('examples', () => {
       expect(text.stdout).toContain(`${fmt(r.peak.stress)} ${r.units.stress}`);
       expect(text.stdout).toContain('qualified engineer');
       if (e.plasticity) expect(text.stdout).toContain('LOCAL PLASTICITY EXPECTED');
+      if (e.pins) expect(text.stdout).toContain(`contact found in ${r.pins.contactIterations} active-set iteration`);
     });
   }
 

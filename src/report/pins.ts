@@ -197,22 +197,22 @@ export function formatPinsSummary(r: ResultJson): string[] {
           ? `rigid pin in ${it.hole.label}, pushed`
           : `fixed rigid pin in ${it.hole.label}`;
     const fitWords = it.clearance === null ? '' : it.clearance === 0 ? ', close fit' : `, clearance ${fmt(it.clearance)} ${u.length}`;
-    out.push(`${k === 0 ? '  pins' : '      '}   ${it.item} ${what}${fitWords}: force on the part (${fmt(it.force[0])}, ${fmt(it.force[1])}) ${u.force}`);
+    out.push(`${k === 0 ? '  pins   ' : '         '}${it.item} ${what}${fitWords}: force on the part (${fmt(it.force[0])}, ${fmt(it.force[1])}) ${u.force}`);
     const peak = it.holePeak
       ? `; peak on the hole ${fmt(it.holePeak.stress)} ${u.stress} at ${fmt(it.holePeak.angle, 4)} deg${it.holePeak.overBearingStress === null ? '' : ` = ${fmt(it.holePeak.overBearingStress, 4)} x the bearing stress`}`
       : '';
-    out.push(`        bearing stress F/(d t) ${fmt(it.bearingStress)} ${u.stress} (d ${fmt(it.hole.diameter)} ${u.length})${peak}`);
-    if (it.bearingPressurePeak !== null) out.push(`        cosine bearing pressure, peak p0 = 4F/(pi d t) = ${fmt(it.bearingPressurePeak)} ${u.stress}`);
+    out.push(`           bearing stress F/(d t) ${fmt(it.bearingStress)} ${u.stress} (d ${fmt(it.hole.diameter)} ${u.length})${peak}`);
+    if (it.bearingPressurePeak !== null) out.push(`           cosine bearing pressure, peak p0 = 4F/(pi d t) = ${fmt(it.bearingPressurePeak)} ${u.stress}`);
     if (it.contact) {
       const c = it.contact;
-      out.push(`        contact arc ${arcWords(c.arcs)}, ${c.nodesInContact} nodes`);
+      out.push(`           contact arc ${arcWords(c.arcs)}, ${c.nodesInContact} nodes`);
       out.push(
-        `        peak contact pressure ${fmt(c.peakPressure)} ${u.stress} at ${fmt(c.peakPressureAngle, 4)} deg${c.pinDisplacement ? `; the pin moved (${fmt(c.pinDisplacement[0])}, ${fmt(c.pinDisplacement[1])}) ${u.length}` : ''}`,
+        `           peak contact pressure ${fmt(c.peakPressure)} ${u.stress} at ${fmt(c.peakPressureAngle, 4)} deg${c.pinDisplacement ? `; the pin moved (${fmt(c.pinDisplacement[0])}, ${fmt(c.pinDisplacement[1])}) ${u.length}` : ''}`,
       );
     }
   });
-  if (p.contactIterations !== null) out.push(`        contact found in ${p.contactIterations} active-set iteration${p.contactIterations === 1 ? '' : 's'} (frictionless; no tension and no overlap beyond round-off)`);
-  for (const n of p.notes) out.push(`        ${n}`);
+  if (p.contactIterations !== null) out.push(`         contact found in ${p.contactIterations} active-set iteration${p.contactIterations === 1 ? '' : 's'} (frictionless; no tension and no overlap beyond round-off)`);
+  for (const n of p.notes) out.push(`         ${n}`);
   return out;
 }
 
