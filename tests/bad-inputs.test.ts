@@ -106,6 +106,21 @@ const CASES: Case[] = [
   ['a misspelt plane state', (m) => (m.state = 'plane strain'), 'model', /state/],
   ['an ellipse with a negative semi-axis', (m) => m.geometry.holes.push({ shape: 'ellipse', center: [20, 20], a: -3, b: 2 }), 'model', /\.a/],
   ['a point with three coordinates', (m) => (m.geometry.holes[0].center = [50, 20, 0]), 'model', /center/],
+  ['a bearing load on a hole that is not circular', (m) => ((m.geometry.holes[0] = { shape: 'slot', center: [50, 20], length: 16, width: 8, name: 'bore' }), (m.loads[0] = { type: 'bearing', on: { hole: 'bore' }, force: [1000, 0] })), 'model', /loads\[0\]\.on\.hole.*not circular/],
+  ['a bearing load selecting edges by tag instead of a hole', (m) => (m.loads[0] = { type: 'bearing', on: 'pull', force: [1000, 0] }), 'model', /loads\[0\]\.on/],
+  ['a bearing load of zero', (m) => (m.loads[0] = { type: 'bearing', on: { hole: 1 }, force: [0, 0] }), 'model', /every load is zero/],
+  ['a rigid pin in a hole that is not circular', (m) => ((m.geometry.holes[0] = { shape: 'ellipse', center: [50, 20], a: 6, b: 4, name: 'bore' }), (m.loads[0] = { type: 'rigid-pin', on: { hole: 'bore' }, force: [1000, 0] })), 'model', /loads\[0\]\.on\.hole.*not circular/],
+  ['a fixed rigid pin in a hole that is not circular', (m) => ((m.geometry.holes[0] = { shape: 'rounded-rect', center: [50, 20], width: 10, height: 10, radius: 4, name: 'bore' }), m.supports.push({ type: 'rigid-pin', on: { hole: 'bore' } })), 'model', /supports\[1\]\.on\.hole.*not circular/],
+  ['a pin larger than its hole', (m) => (m.loads[0] = { type: 'rigid-pin', on: { hole: 1 }, force: [1000, 0], diameter: 10.5 }), 'model', /loads\[0\]\.diameter.*larger than its hole/],
+  ['a negative pin clearance', (m) => (m.loads[0] = { type: 'rigid-pin', on: { hole: 1 }, force: [1000, 0], clearance: -0.1 }), 'model', /loads\[0\]\.clearance/],
+  ['a clearance as large as the hole', (m) => (m.loads[0] = { type: 'rigid-pin', on: { hole: 1 }, force: [1000, 0], clearance: 10 }), 'model', /loads\[0\]\.clearance.*leaves no pin/],
+  ['a pin clearance and diameter that disagree', (m) => (m.loads[0] = { type: 'rigid-pin', on: { hole: 1 }, force: [1000, 0], clearance: 0.1, diameter: 9.8 }), 'model', /loads\[0\]\.clearance.*disagrees/],
+  ['a pin load no contact can carry: no force, so the pin has no position', (m) => m.loads.push({ type: 'rigid-pin', on: { hole: 1 }, force: [0, 0] }), 'model', /loads\[1\]\.force.*no force/],
+  ['two pins in one hole', (m) => ((m.loads[0] = { type: 'rigid-pin', on: { hole: 1 }, force: [1000, 0] }), m.supports.push({ type: 'rigid-pin', on: { hole: 'bore' } })), 'model', /loads\[0\]\.on\.hole.*already has a pin \(supports\[1\]\)/],
+  ['another load on the hole of a rigid pin', (m) => m.loads.push({ type: 'rigid-pin', on: { hole: 1 }, force: [1000, 0] }, { type: 'pressure', on: { hole: 1 }, p: 5 }), 'model', /loads\[2\]\.on.*rigid pin/],
+  ['a point support on the hole of a rigid pin', (m) => ((m.loads[0] = { type: 'rigid-pin', on: { hole: 1 }, force: [1000, 0] }), m.supports.push({ type: 'pin', at: [55, 20], fix: 'y' })), 'model', /supports\[1\]\.at.*rigid pin/],
+  ['a part held only by a fixed rigid pin: free to turn about it', (m) => (m.supports = [{ type: 'rigid-pin', on: { hole: 1 } }]), 'analysis', /free to rotate about \(50, 20\)/],
+  ['a bearing load on a hole a fixed support holds', (m) => ((m.loads = [{ type: 'bearing', on: { hole: 1 }, force: [1000, 0] }]), m.supports.push({ type: 'fixed', on: { hole: 1 } })), 'model', /supports\[1\]\.on.*has a pin/],
 ];
 
 function attempt(input: Case[1]): unknown {

@@ -16,12 +16,14 @@ interface Expect {
   governing: RegExp;
   kind: 'net' | 'gross' | 'remote' | 'given';
   /** regression values of every raiser's Kt, to 1% (null: withheld) */
-  raisers: { name: RegExp; kt: Partial<Record<'net' | 'gross' | 'remote', number | null>> }[];
+  raisers: { name: RegExp; kt: Partial<Record<'net' | 'gross' | 'remote' | 'bearing', number | null>> }[];
   /** a published value the headline must lie near, with the reason */
   bound?: { value: number; within: number; why: string };
   plasticity: boolean;
   /** singular points the summary must report */
   singular?: RegExp[];
+  /** pins in holes: how many, and that the contact was solved */
+  pins?: number;
 }
 
 const EXPECTED: Record<string, Expect> = {
@@ -67,6 +69,17 @@ const EXPECTED: Record<string, Expect> = {
     governing: /fillet at corner 3/, kind: 'net', plasticity: true,
     raisers: [{ name: /fillet at corner 3/, kt: { net: 1.977 } }],
   },
+  'link-plate-pins.json': {
+    // a fixed pin and a pulling pin, both with 0.1 mm clearance: the peak sits on a pin hole
+    // beside its contact arc, and no held edge leaves a singular point
+    // d = W - d here (36 wide, 18 mm holes), so the net and bearing nominal stresses agree
+    governing: /held pin hole/, kind: 'net', plasticity: false, pins: 2,
+    raisers: [
+      { name: /held pin hole/, kt: { net: 3.963, bearing: 3.963 } },
+      { name: /pulled pin hole/, kt: { net: 3.957, bearing: 3.957 } },
+      { name: /lightening slot/, kt: { net: 1.656, gross: 2.292 } },
+    ],
+  },
 };
 
 describe('examples', () => {
@@ -106,6 +119,12 @@ describe('examples', () => {
       if (e.bound) expect(Math.abs(r.kt.value / e.bound.value - 1), e.bound.why).toBeLessThan(e.bound.within);
       expect(r.mesh.minAngleDeg).toBeGreaterThan(25 - 1e-6);
       expect(r.load.equilibriumError).toBeLessThan(1e-9);
+      expect(r.peak.atSharpCorner).toBe(false);
+      if (e.pins) {
+        expect(r.pins.items).toHaveLength(e.pins);
+        for (const p of r.pins.items) expect(p.contact.arcs.length).toBe(1);
+        expect(r.pins.contactIterations).toBeGreaterThanOrEqual(1);
+      } else expect(r.pins).toBeNull();
 
       const text = raiser(['solve', `examples/${file}`]);
       expect(text.code).toBe(0);
@@ -120,6 +139,7 @@ describe('examples', () => {
       expect(text.stdout).toContain(`${fmt(r.peak.stress)} ${r.units.stress}`);
       expect(text.stdout).toContain('qualified engineer');
       if (e.plasticity) expect(text.stdout).toContain('LOCAL PLASTICITY EXPECTED');
+      if (e.pins) expect(text.stdout).toContain(`contact found in ${r.pins.contactIterations} active-set iteration`);
     });
   }
 

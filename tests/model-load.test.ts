@@ -181,7 +181,7 @@ describe('schema problems, in plain words', () => {
       'must be at least 0 and less than 0.5; found 0.5',
       'must be a positive number (greater than 0); found 0',
       '"circel" is not one of "path", "circle", "ellipse", "slot" or "rounded-rect": did you mean "circle"?',
-      '"fixd" is not one of "fixed", "roller", "symmetry" or "pin": did you mean "fixed"?',
+      '"fixd" is not one of "fixed", "roller", "symmetry", "pin" or "rigid-pin": did you mean "fixed"?',
       'must be a number; found the text "50"',
     ]);
     expect(err.problems[4].hint).toBe('remove the quotes: 50');

@@ -16,6 +16,8 @@ import {
   TEMPLATES,
   edgeNotchedBar,
   expandTemplate,
+  link,
+  lug,
   plateWithEllipticalHole,
   plateWithHole,
   steppedBar,
@@ -214,9 +216,61 @@ describe('edge-notched-bar', () => {
   });
 });
 
+describe('lug', () => {
+  it('round end: area (L + e - W/2) W + pi W^2/8 - pi d^2/4; square end: (L + e) W - pi d^2/4', () => {
+    for (const [W, d, e, L] of [
+      [40, 20, 20, 120],
+      [40, 10, 35, 100],
+      [60, 45, 30, 180],
+    ]) {
+      const round = lug({ W, d, e, L });
+      expectValid(round);
+      expect(Math.abs(area(round) / ((L + e - W / 2) * W + (PI * W * W) / 8 - (PI * d * d) / 4) - 1)).toBeLessThan(1e-12);
+      const square = lug({ W, d, e, L, end: 'square' });
+      expectValid(square);
+      expect(Math.abs(area(square) / ((L + e) * W - (PI * d * d) / 4) - 1)).toBeLessThan(1e-12);
+      expect(square.chart!.family).toBe('pin-loaded-lug-square');
+      expect(square.chart!.dims).toMatchObject({ W, d, e, L, clearance: 0, angle: 0 });
+    }
+  });
+  it('pulls with F = stress (W - d) t at the given angle, through a rigid pin or as a bearing pressure', () => {
+    const m = lug({ W: 40, d: 20, stress: 50, angle: 90, thickness: 4, clearance: 0.2 });
+    const load = m.loads[0] as { type: string; force: [number, number]; clearance: number };
+    expect(load.type).toBe('rigid-pin');
+    expect(Math.abs(load.force[0])).toBeLessThan(1e-9);
+    expect(load.force[1]).toBeCloseTo(50 * 20 * 4, 9);
+    expect(load.clearance).toBe(0.2);
+    const b = lug({ W: 40, d: 20, load: 'bearing' });
+    expect(b.loads[0].type).toBe('bearing');
+    expect(b.chart!.family).toBe('bearing-loaded-lug');
+  });
+  it('refuses a hole as wide as the lug, a hole past the end, a round end shorter than W/2, a clearance with a bearing pressure', () => {
+    expect(() => lug({ W: 20, d: 20 })).toThrow(/d = 20 must be less than/);
+    expect(() => lug({ W: 40, d: 20, e: 10, end: 'square' })).toThrow(/reaches past the end/);
+    expect(() => lug({ W: 40, d: 10, e: 15 })).toThrow(/round end.*needs e >= W\/2/);
+    expect(() => lug({ load: 'bearing', clearance: 0.1 })).toThrow(/bearing pressure has no clearance/);
+  });
+});
+
+describe('link', () => {
+  it('area p W + pi W^2/4 - 2 pi d^2/4, holes A and B a pitch apart, held by one pin and pulled by the other', () => {
+    for (const [W, d, p] of [
+      [40, 20, 120],
+      [30, 12, 50],
+    ]) {
+      const m = link({ W, d, p });
+      expectValid(m);
+      expect(Math.abs(area(m) / (p * W + (PI * W * W) / 4 - (PI * d * d) / 2) - 1)).toBeLessThan(1e-12);
+      expect(m.supports[0]).toMatchObject({ type: 'rigid-pin', on: { hole: 'A' } });
+      expect(m.loads[0]).toMatchObject({ type: 'rigid-pin', on: { hole: 'B' } });
+    }
+    expect(() => link({ W: 40, d: 20, p: 20 })).toThrow(/overlap/);
+  });
+});
+
 describe('registry and expandTemplate', () => {
   it('lists every template with described parameters, and each expands with its defaults', () => {
-    expect(TEMPLATES.map((t) => t.name)).toEqual(['plate-with-hole', 'plate-with-elliptical-hole', 'stepped-bar', 'u-notched-bar', 'edge-notched-bar']);
+    expect(TEMPLATES.map((t) => t.name)).toEqual(['plate-with-hole', 'plate-with-elliptical-hole', 'stepped-bar', 'u-notched-bar', 'edge-notched-bar', 'lug', 'link']);
     for (const t of TEMPLATES) {
       expect(t.description.length).toBeGreaterThan(10);
       for (const p of t.params) {

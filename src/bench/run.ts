@@ -16,6 +16,7 @@ import { analyseModel, type Analysis } from '../pipeline/analyse.js';
 import type { MeshStats } from '../mesh/types.js';
 import { runSolveBench } from './solve.js';
 import { runAdaptiveBench } from './adaptive.js';
+import { runContactBench } from './contact.js';
 import { benchAssembly, benchMesherAt, benchScaling, benchWholeMillion } from './scale.js';
 
 export { benchModel };
@@ -84,6 +85,8 @@ export function runBench(args: string[], log: (s: string) => void = console.log)
   benchAssembly(large ? [1e5, 5e5, 1e6] : [1e5], runs, log);
   log('\nCertified Kt: adaptive series against uniform refinement (same accuracy, true error against the reference)');
   runAdaptiveBench(log);
+  log('\nPin contact: a lug (lug template, W 40, d 20 mm) with a rigid pin, against one linear solve of the same mesh');
+  runContactBench(log, runs);
   log('\nSparse Cholesky on plane-stress stiffness matrices of a jittered rectangle, left edge fixed');
   runSolveBench({ sizes: large ? [1e4, 1e5, 5e5, 1e6] : [1e4, 1e5], runs, log });
   if (large) benchWholeMillion(log);

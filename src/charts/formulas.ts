@@ -146,3 +146,30 @@ export function ktNeuberOppositeNotchesTension(H: number, t: number, r: number):
   const b = (kd - 1) ** 2;
   return 1 + Math.sqrt((a * b) / (a + b));
 }
+
+/**
+ * Pin bearing on a circular hole in an infinite plate, idealised as the cosine pressure
+ * p0 cos(phi), p0 = 4 F / (pi d t): the hoop stress on the hole is
+ * p0 [2/pi + (3 - nu)/4 cos(phi)] - p(phi), largest at 90 degrees from the force, 8 F / (pi^2 d t),
+ * so Kt = 8 / pi^2 = 0.8106 on the bearing stress F / (d t), for any nu. Derived here [D] from
+ * J.H. Michell, Proc. London Math. Soc. 31 (1899) 100 (the derivation is in tests/bearing.test.ts).
+ */
+export function ktBearingInfinitePlate(): number {
+  return 8 / (Math.PI * Math.PI);
+}
+
+/**
+ * A plate pulled through a close-fitting pin in a hole of diameter d, width W, the hole at least W
+ * from the end the pin pulls towards; net nominal stress P / ((W - d) t). The curve of M.M. Frocht
+ * and H.N. Hill, J. Appl. Mech. 7 (1940) A5 (strain gauges on aluminium plates and
+ * photoelasticity on bakelite, 2r/D = 0.086 to 0.76) as charted in Pilkey & Pilkey, Peterson's
+ * Stress Concentration Factors, 3rd ed. (2008), chapter 5 (lug joints), fitted as
+ * Ktn = 12.882 - 52.714 x + 89.762 x^2 - 51.667 x^3, x = d/W, for 0.15 <= x <= 0.75 [M: the
+ * coefficients are recalled, not checked against the book]. The experiments had real pins, with
+ * friction and some play; the design-table note that clearance raises Kt by 35 to 50 percent
+ * [V: REFERENCES.md section 11] is about the same tests.
+ */
+export function ktPinInPlateCloseFitNet(dOverW: number): number {
+  const x = dOverW;
+  return 12.882 - 52.714 * x + 89.762 * x * x - 51.667 * x * x * x;
+}

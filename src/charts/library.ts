@@ -4,6 +4,8 @@
  * model built from a template. The formulas themselves live in formulas.ts.
  */
 import {
+  ktBearingInfinitePlate,
+  ktPinInPlateCloseFitNet,
   ktHoleInStripGross,
   ktHoleInStripHeywood,
   ktHoleInStripNet,
@@ -27,7 +29,8 @@ export interface Chart {
   source: string;
   /** [V], [D], [M], [M+]: see ../shared/REFERENCES.md */
   provenance: string;
-  nominal: 'net' | 'gross';
+  /** which nominal stress: net or gross section, or the bearing stress F / (d t) of a pin */
+  nominal: 'net' | 'gross' | 'bearing';
   nominalDefinition: string;
   params: ChartParam[];
   /** the range in words */
@@ -220,6 +223,42 @@ export const CHARTS: Chart[] = [
     evaluate: (p) => edgeNotchPeakStress(1, p.t, p.r, p.H).ktGross,
     spread: 0.12,
   },
+  {
+    id: 'pin-bearing-infinite-plate',
+    title: 'cosine bearing pressure of a pin on a hole in an infinite plate: peak hoop stress on the hole',
+    source: "derived here from J.H. Michell, Proc. London Math. Soc. 31 (1899) 100: Kt = 8/pi^2 on F/(d t), at 90 deg from the force",
+    provenance: 'D',
+    nominal: 'bearing',
+    nominalDefinition: 'F / (d t), the bearing stress',
+    params: [
+      { name: 'W', meaning: 'width of the part' },
+      { name: 'd', meaning: 'hole diameter' },
+    ],
+    range: 'a hole far from every edge, d/W <= 0.01: a finite part adds about 1.85 d/W (measured on lugs in tests/bearing.test.ts)',
+    outside: (p) => between(p.d / p.W, 0, 0.01, 'd/W'),
+    evaluate: () => ktBearingInfinitePlate(),
+    // exact as d/W -> 0; at the edge of the range the finite part adds about 2%
+    spread: 0.02,
+  },
+  {
+    id: 'pin-in-plate-close-fit',
+    title: 'plate pulled through a close-fitting pin in a hole (Frocht and Hill)',
+    source: 'M.M. Frocht and H.N. Hill, J. Appl. Mech. 7 (1940) A5, as charted in Pilkey & Pilkey (2008) ch. 5; cubic fit in d/W; experiments with real pins (friction, some play): clearance raises Kt 35 to 50%',
+    provenance: 'M',
+    nominal: 'net',
+    nominalDefinition: 'P / ((W - d) t)',
+    params: [
+      { name: 'W', meaning: 'plate width' },
+      { name: 'd', meaning: 'hole diameter' },
+      { name: 'e', meaning: 'distance from the hole centre to the end the pin pulls towards' },
+    ],
+    range: '0.15 <= d/W <= 0.75, e >= W (a long end), close fit, axial pull',
+    outside: (p) => [...between(p.d / p.W, 0.15, 0.75, 'd/W'), ...(p.e === undefined || p.e >= p.W * (1 - 1e-12) ? [] : [`e/W = ${Number((p.e / p.W).toPrecision(3))} is below 1`])],
+    evaluate: (p) => ktPinInPlateCloseFitNet(p.d / p.W),
+    // [M] the recalled coefficients, two independent experimental series, and real pins (friction,
+    // a little play) against an ideal rigid frictionless one: 15%
+    spread: 0.15,
+  },
 ];
 
 export function findChart(id: string): Chart | undefined {
@@ -242,6 +281,12 @@ export function chartForFamily(family: string, dims: Record<string, number>): { 
       return { chart: findChart('fillet-bending')!, params: { D: dims.D, d: dims.d, r: dims.r } };
     case 'u-notched-bar-tension':
       return { chart: findChart('u-notches-tension')!, params: { H: dims.H, t: dims.t, r: dims.r } };
+    case 'pin-loaded-lug':
+    case 'pin-loaded-lug-square':
+      return { chart: findChart('pin-in-plate-close-fit')!, params: { W: dims.W, d: dims.d, e: dims.e } };
+    case 'bearing-loaded-lug':
+    case 'bearing-loaded-lug-square':
+      return { chart: findChart('pin-bearing-infinite-plate')!, params: { W: dims.W, d: dims.d } };
     case 'edge-notched-bar-tension': {
       const shallow = dims.t === dims.r && dims.r / dims.H <= 0.02;
       return shallow ? { chart: findChart('edge-notch-semicircular')!, params: { H: dims.H, r: dims.r } } : { chart: findChart('edge-notch-slender')!, params: { H: dims.H, t: dims.t, r: dims.r } };
@@ -255,7 +300,7 @@ export interface ChartComparison {
   title: string;
   source: string;
   provenance: string;
-  nominal: 'net' | 'gross';
+  nominal: 'net' | 'gross' | 'bearing';
   value: number;
   /** the computed Kt on the chart's nominal stress (null when withheld) */
   computed: number | null;
@@ -275,6 +320,9 @@ export function compareWithChart(family: string, dims: Record<string, number>, k
   if (!found) return null;
   const { chart, params } = found;
   const outside = chart.outside(params);
+  // a pin chart holds for a close fit pulled along the axis
+  if (dims.clearance) outside.push(`the pin has a clearance of ${Number(dims.clearance.toPrecision(4))}; the chart is for a close fit (clearance raises Kt)`);
+  if (dims.angle) outside.push(`the pin pulls at ${Number(dims.angle.toPrecision(4))} deg from the axis; the chart is for an axial pull`);
   let value: number;
   try {
     value = chart.evaluate(params);
@@ -282,7 +330,9 @@ export function compareWithChart(family: string, dims: Record<string, number>, k
     outside.push((err as Error).message);
     value = NaN;
   }
-  const computed = chart.nominal === 'net' ? kt.net : kt.gross;
+  // the bearing stress F/(d t) of a pin pulling along the axis is the net stress F/((W - d) t) times (W - d)/d,
+  // so Kt on it is Kt net times d/(W - d)
+  const computed = chart.nominal === 'net' ? kt.net : chart.nominal === 'gross' ? kt.gross : kt.net === null ? null : (kt.net * dims.d) / (dims.W - dims.d);
   const difference = computed === null || outside.length > 0 || !Number.isFinite(value) ? null : computed / value - 1;
   return { id: chart.id, title: chart.title, source: chart.source, provenance: chart.provenance, nominal: chart.nominal, value, computed, difference, spread: chart.spread, outside };
 }

@@ -10,7 +10,7 @@ function listCharts(): string {
   const out = ['published Kt formulas (raiser charts <id> --<parameter> <value> ...):', ''];
   for (const c of CHARTS) {
     out.push(`  ${c.id}: ${c.title}`);
-    out.push(`      Kt on ${c.nominal} section: ${c.nominalDefinition}; range ${c.range}`);
+    out.push(`      Kt on ${c.nominal === 'bearing' ? 'the bearing stress' : `${c.nominal} section`}: ${c.nominalDefinition}; range ${c.range}`);
     if (c.params.length) out.push(`      parameters: ${c.params.map((p) => `--${p.name} (${p.meaning})`).join(', ')}`);
     out.push(`      source [${c.provenance}]: ${c.source}`);
     out.push('');

@@ -14,6 +14,8 @@ import type { Mesh } from '../mesh/types.js';
 import { ModelError } from '../model/errors.js';
 import type { Load, Model, Support, Target } from '../model/schema.js';
 import type { Constraints } from './assemble.js';
+import { addBearingLoad } from './bearing.js';
+import { checkPinNeighbours, compilePins, type PinHole } from './pins.js';
 
 const GL4_S = [0.5 - 0.5 * 0.8611363115940526, 0.5 - 0.5 * 0.3399810435848563, 0.5 + 0.5 * 0.3399810435848563, 0.5 + 0.5 * 0.8611363115940526];
 const GL4_W = [0.5 * 0.3478548451374538, 0.5 * 0.6521451548625461, 0.5 * 0.6521451548625461, 0.5 * 0.3478548451374538];
@@ -86,7 +88,10 @@ export interface CompiledSupports {
   constraints: Constraints;
   /** per domain edge: 1 when a support acts on it */
   supported: Uint8Array;
-  /** per domain edge: 1 when the support is a symmetry plane */
+  /**
+   * per domain edge: 1 when the edge carries no shear and its normal traction is not known in
+   * advance: a symmetry plane, or the hole of a frictionless rigid pin (load or support)
+   */
   symmetry: Uint8Array;
   /** per domain edge: the index of a fixed support holding it, or -1 */
   fixedBy: Int32Array;
@@ -98,6 +103,8 @@ export interface CompiledSupports {
   hold: Uint8Array;
   /** point supports (pins): where they are and which support of the model they are */
   points: { x: number; y: number; support: number; node: number }[];
+  /** the pins in holes (bearing loads, rigid-pin loads and supports), checked (src/fem/pins.ts) */
+  pins: PinHole[];
 }
 
 export const HOLD_FREE = 0;
@@ -205,6 +212,16 @@ export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports:
         apply(mask, (_x, _y, nx, ny, out) => ((out[0] = sxx * nx + sxy * ny), (out[1] = sxy * nx + syy * ny)));
         break;
       }
+      case 'bearing': {
+        const pin = supports.pins.find((p) => p.role === 'load' && p.index === index)!;
+        const bearing = addBearingLoad(mesh, pin, domain.edges.length, t, f);
+        for (let e = 0; e < mask.length; e++) if (mask[e]) fields[e].push(bearing.traction);
+        break;
+      }
+      case 'rigid-pin':
+        // The pin's force reaches the part through the contact, which the solve finds
+        // (src/fem/contact.ts); nothing is applied here.
+        break;
       case 'moment': {
         if (edges.length === 0) break;
         const line = collinearLine(domain, edges, path);
@@ -230,6 +247,7 @@ export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports:
       fx += f[i] - before[i];
       fy += f[i + 1] - before[i + 1];
     }
+    if (load.type === 'rigid-pin') [fx, fy] = load.force;
     for (const e of edges) loaded[e] = 1;
     items.push({ index, type: load.type, fx, fy, edges });
   });
@@ -239,7 +257,7 @@ export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports:
     for (const e of x.edges) loaded[e] = 1;
     items.push({ index: -1, type: 'traction', fx: NaN, fy: NaN, edges: x.edges });
   }
-  let any = false;
+  let any = supports.pins.some((p) => p.kind === 'rigid-pin' && p.role === 'load');
   for (let i = 0; i < f.length; i++) if (f[i] !== 0) any = true;
   if (!any) throw new ModelError('loads', 'no load acts on the model: every load is zero or matched no edge', 'check the load values and the edges they name');
   const edgeTraction = fields.map((qs): TractionField | null => {
@@ -318,10 +336,17 @@ export function compileSupports(model: Model, domain: Domain, mesh: Mesh, warnin
     }
     return set;
   };
+  const pins = compilePins(model, domain);
+  const supportEdges: number[][] = [];
   model.supports.forEach((sup: Support, i) => {
     const path = `supports[${i}]`;
+    if (sup.type !== 'pin') supportEdges[i] = selectTarget(domain, sup.on).edges;
     if (sup.type === 'pin') {
       const node = nearestBoundaryNode(mesh, sup.at[0], sup.at[1]);
+      const onPin = pins.find((p) => p.kind === 'rigid-pin' && p.edges.includes(mesh.nodeEdge[node]));
+      if (onPin) {
+        throw new ModelError(`${path}.at`, `the pin support at (${sup.at.join(', ')}) is on ${onPin.label}, where the rigid pin ${onPin.path} decides how the hole is held`, 'hold the part at a point away from the pin holes');
+      }
       const fix = sup.fix ?? 'xy';
       if (fix.includes('x')) fixed[2 * node] = 1;
       if (fix.includes('y')) fixed[2 * node + 1] = 1;
@@ -333,6 +358,11 @@ export function compileSupports(model: Model, domain: Domain, mesh: Mesh, warnin
     const edges = resolve(domain, sup.on, `${path}.on`, warnings);
     const mask = edgeMask(domain, edges);
     for (const e of edges) supported[e] = 1;
+    if (sup.type === 'rigid-pin') {
+      // Held only where the hole presses on the pin: the contact solve decides (src/fem/contact.ts).
+      for (const e of edges) symmetry[e] = 1;
+      return;
+    }
     if (sup.type === 'fixed') for (const e of edges) fixedBy[e] = i;
     for (const e of edges) hold[e] = Math.max(hold[e], holdKind(domain, e, sup));
     if (sup.type === 'fixed' || sup.type === 'roller') {
@@ -360,13 +390,22 @@ export function compileSupports(model: Model, domain: Domain, mesh: Mesh, warnin
       for (const n of nodesOf(one)) fixed[2 * n + comp] = 1;
     }
   });
-  return { constraints: { fixed, value }, supported, symmetry, fixedBy, hold, points };
+  // The hole of a rigid pin pushed by a force is shear-free too (frictionless contact).
+  for (const p of pins) if (p.kind === 'rigid-pin' && p.role === 'load') for (const e of p.edges) symmetry[e] = 1;
+  checkPinNeighbours(
+    pins,
+    model,
+    supportEdges,
+    model.loads.map((l) => (l.on === undefined ? [] : selectTarget(domain, l.on).edges)),
+  );
+  return { constraints: { fixed, value }, supported, symmetry, fixedBy, hold, points, pins };
 }
 
 /** How a support holds one edge: a roller holding a straight edge's normal motion acts as a mirror plane. */
 function holdKind(domain: Domain, edge: number, sup: Exclude<Support, { type: 'pin' }>): number {
   if (sup.type === 'fixed') return HOLD_FIXED;
   if (sup.type === 'symmetry') return HOLD_MIRROR;
+  if (sup.type !== 'roller') return HOLD_FREE;
   const c = domain.edges[edge].curve;
   if (c.kind !== 'line') return HOLD_SLIDE;
   const len = Math.hypot(c.x1 - c.x0, c.y1 - c.y0);

@@ -4,11 +4,16 @@
  * no prescribed degree of freedom is a free motion, and the stiffness matrix is singular. The
  * test forms the 3x3 Gram matrix of the motions restricted to the prescribed DOFs (rotation
  * scaled by the model size so the three are comparable) and looks for a near-zero eigenvalue.
+ *
+ * A fixed rigid pin in a round hole (src/fem/contact.ts) holds the part in both directions at
+ * the hole's centre, wherever the part pushes it, but not against turning about that centre
+ * (without friction the pin's forces all pass through it): it counts as a point held in x and y
+ * at the centre, `heldPoints`.
  */
 import { AnalysisError } from '../model/errors.js';
 import type { Mesh } from '../mesh/types.js';
 
-export function checkRigidMotion(mesh: Mesh, fixed: Uint8Array, scale: number): void {
+export function checkRigidMotion(mesh: Mesh, fixed: Uint8Array, scale: number, heldPoints: readonly { x: number; y: number }[] = []): void {
   let cx = 0;
   let cy = 0;
   for (let i = 0; i < mesh.nNodes; i++) {
@@ -29,8 +34,17 @@ export function checkRigidMotion(mesh: Mesh, fixed: Uint8Array, scale: number): 
       for (let a = 0; a < 3; a++) for (let b = 0; b < 3; b++) G[3 * a + b] += v[a] * v[b];
     }
   }
+  for (const p of heldPoints) {
+    for (const v of [
+      [1, 0, -(p.y - cy) / scale],
+      [0, 1, (p.x - cx) / scale],
+    ]) {
+      count++;
+      for (let a = 0; a < 3; a++) for (let b = 0; b < 3; b++) G[3 * a + b] += v[a] * v[b];
+    }
+  }
   if (count === 0) {
-    throw new AnalysisError('the model has no supports: it is free to move as a rigid body', 'add supports (fixed, roller, symmetry or pin) that stop motion in x, in y and rotation');
+    throw new AnalysisError('the model has no supports: it is free to move as a rigid body', 'add supports (fixed, roller, symmetry, pin or rigid-pin) that stop motion in x, in y and rotation');
   }
   const { values, vectors } = symmetricEigen3(G);
   // Smallest eigenvalue against the largest: relative rank test.

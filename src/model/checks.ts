@@ -147,6 +147,9 @@ function loadIsZero(load: Load): boolean {
       return !load.p;
     case 'remote':
       return !load.sxx && !load.syy && !load.sxy;
+    case 'bearing':
+    case 'rigid-pin':
+      return !load.force[0] && !load.force[1];
   }
 }
 

@@ -202,6 +202,22 @@ export type Material = z.infer<typeof Material>;
 
 const itemNote = () => z.string().optional().describe('free text about this item');
 
+// Pins in holes (src/fem/pins.ts): the hole is named as in a "hole" selector; it must be circular.
+const HoleOnly = z
+  .strictObject({
+    hole: z.union([z.number().int().positive(), z.string().min(1)]).describe('the hole, by its number (from 1) or name; it must be circular'),
+  })
+  .describe('the circular hole the pin sits in');
+const PinForce = z.tuple([finite(), finite()]).describe('the force [fx, fy] the pin puts on the part, force units');
+const pinFit = {
+  clearance: z
+    .number()
+    .nonnegative()
+    .optional()
+    .describe('diametral clearance: hole diameter minus pin diameter, length units (default 0, a close fit); give clearance or diameter'),
+  diameter: positive().optional().describe('the pin diameter, length units, at most the hole diameter (instead of clearance)'),
+};
+
 export const Support = z.discriminatedUnion('type', [
   z.strictObject({ type: z.literal('fixed').describe('held in x and in y'), on: Target, note: itemNote() }).describe('both displacement components zero'),
   z.strictObject({
@@ -217,6 +233,12 @@ export const Support = z.discriminatedUnion('type', [
     type: z.literal('pin').describe('one boundary point held'),
     at: Point.describe('the boundary node nearest this point is held'),
     fix: z.enum(['x', 'y', 'xy']).optional().describe('components held (default xy)'),
+    note: itemNote(),
+  }),
+  z.strictObject({
+    type: z.literal('rigid-pin').describe('a fixed rigid round pin in a circular hole: it holds the part only where the hole presses on it, without friction'),
+    on: HoleOnly,
+    ...pinFit,
     note: itemNote(),
   }),
 ]).describe('how part of the boundary is held, chosen by "type"');
@@ -257,6 +279,19 @@ export const Load = z.discriminatedUnion('type', [
     on: Target.optional().describe('edges it acts on (default: every outline edge without a support)'),
     note: itemNote(),
   }).describe('a remote plane stress state, applied as traction sigma . n on the outer edges'),
+  z.strictObject({
+    type: z.literal('bearing').describe('a pin bearing on a circular hole, as a pressure p0 cos(phi) on the half of the hole facing the force'),
+    on: HoleOnly,
+    force: PinForce,
+    note: itemNote(),
+  }),
+  z.strictObject({
+    type: z.literal('rigid-pin').describe('a rigid round pin in a circular hole, pushed with a force: it presses on the hole without friction where contact is found'),
+    on: HoleOnly,
+    force: PinForce,
+    ...pinFit,
+    note: itemNote(),
+  }),
 ]).describe('a load on part of the boundary, chosen by "type"');
 export type Load = z.infer<typeof Load>;
 

@@ -50,6 +50,11 @@ export const CHART_FAMILIES = {
   'stepped-bar-bending': 'flat bar stepping from width D to width d with shoulder fillets of radius r, in-plane bending',
   'u-notched-bar-tension': 'flat bar of width H with two opposite U-notches of depth t and root radius r, axial tension',
   'edge-notched-bar-tension': 'flat bar of width H with one U-notch of depth t and root radius r on one edge, axial tension',
+  'pin-loaded-lug': 'lug of width W with a round end, hole of diameter d at distance e from its end, pulled through a rigid pin in the hole',
+  'pin-loaded-lug-square': 'lug of width W with a square end, hole of diameter d at distance e from its end, pulled through a rigid pin in the hole',
+  'bearing-loaded-lug': 'lug of width W with a round end, hole of diameter d at distance e from its end, loaded by the cosine bearing pressure of a close-fitting pin',
+  'bearing-loaded-lug-square': 'lug of width W with a square end, hole of diameter d at distance e from its end, loaded by the cosine bearing pressure of a close-fitting pin',
+  'pin-link': 'link plate of width W with two holes of diameter d a pitch p apart, pulled apart through rigid pins in the holes',
 } as const;
 export type ChartFamily = keyof typeof CHART_FAMILIES;
 
@@ -553,6 +558,179 @@ export function edgeNotchedBar(p: NotchedBarParams = {}): Model {
   });
 }
 
+
+// ---------------------------------------------------------------------------------------------
+// lug and link: parts loaded through pins in holes (src/fem/pins.ts, src/fem/contact.ts)
+
+export interface LugParams extends CommonParams {
+  /** width of the shank and the end */
+  W?: number;
+  /** hole diameter */
+  d?: number;
+  /** distance from the hole centre to the end of the lug (default W/2: a round end concentric with the hole) */
+  e?: number;
+  /** shank length from the hole centre to the held end (default 3 W) */
+  L?: number;
+  end?: 'round' | 'square';
+  /** diametral clearance of the pin, hole diameter less pin diameter (default 0) */
+  clearance?: number;
+  /** direction of the pin force from the lug axis, degrees counter-clockwise (default 0: straight away from the shank) */
+  angle?: number;
+  /** net-section nominal stress F / ((W - d) t) that sets the pin force (default 100) */
+  stress?: number;
+  /** 'pin': a rigid pin in frictionless contact (default); 'bearing': the cosine bearing pressure */
+  load?: 'pin' | 'bearing';
+}
+
+/**
+ * A lug: a straight shank of width W along -x, held at x = -L, ending at x = e beyond the
+ * centre of a hole of diameter d at the origin, in a round end (a half circle of radius W/2
+ * centred at x = e - W/2; e = W/2 makes it concentric with the hole) or a square one. A rigid pin
+ * in the hole pulls it with the force F at `angle` from the axis; F = stress (W - d) t, so that
+ * the net nominal stress F / ((W - d) t) of an axial pull is `stress`.
+ *
+ *        +-------------------------.
+ *  held  |                   _      \     round end (or square, to x = e)
+ *  x=-L  |                  (  )-> F  )
+ *        |                            /
+ *        +-------------------------'
+ *                           0      e
+ */
+export function lug(p: LugParams = {}): Model {
+  const c = resolveCommon(p);
+  const W = p.W ?? 40;
+  const d = p.d ?? 20;
+  requirePositive('W', 'lug width', W);
+  requirePositive('d', 'hole diameter', d);
+  const e = p.e ?? W / 2;
+  const L = p.L ?? 3 * W;
+  requirePositive('e', 'distance from the hole centre to the end', e);
+  requirePositive('L', 'shank length', L);
+  const end = p.end ?? 'round';
+  const clearance = p.clearance ?? 0;
+  const angle = p.angle ?? 0;
+  const stress = p.stress ?? 100;
+  const loadKind = p.load ?? 'pin';
+  if (d >= W) throw new ModelError('d', `the hole diameter d = ${d} must be less than the lug width W = ${W}`, 'make d smaller or W larger');
+  if (e <= d / 2) throw new ModelError('e', `the hole (radius ${fmt(d / 2)}) reaches past the end of the lug at e = ${e}`, `use e > d/2 = ${fmt(d / 2)}`);
+  if (end === 'round' && e < W / 2) throw new ModelError('e', `a round end of radius W/2 = ${fmt(W / 2)} needs e >= W/2; found e = ${e}`, 'use --end square for a shorter end, or a larger e');
+  if (L <= d / 2) throw new ModelError('L', `the shank length L = ${L} must exceed the hole radius ${fmt(d / 2)}`, 'the default L = 3 W keeps the held end far from the hole');
+  if (!(clearance >= 0)) throw new ModelError('clearance', `the clearance ${clearance} must be at least 0`, 'the diametral clearance is the hole diameter less the pin diameter; 0 for a close fit');
+  if (clearance >= d) throw new ModelError('clearance', `a clearance of ${clearance} leaves no pin in a hole of diameter ${d}`, 'the clearance is usually a small fraction of d');
+  if (loadKind === 'bearing' && clearance > 0) throw new ModelError('clearance', 'a bearing pressure has no clearance: it is the idealised pressure of a close fit', 'use --load pin for a pin with clearance');
+  const t = c.thickness;
+  const F = stress * (W - d) * t;
+  const a = (angle * Math.PI) / 180;
+  const force: [number, number] = [F * Math.cos(a), F * Math.sin(a)];
+  const u = c.units;
+  const path: PathVertex[] =
+    end === 'round'
+      ? [
+          { at: [-L, -W / 2], edge: 'side' },
+          { at: [e - W / 2, -W / 2], edge: 'end', arc: { center: [e - W / 2, 0], turn: 'ccw' } },
+          { at: [e - W / 2, W / 2], edge: 'side' },
+          { at: [-L, W / 2], edge: 'held' },
+        ]
+      : [
+          { at: [-L, -W / 2], edge: 'side' },
+          { at: [e, -W / 2], edge: 'end' },
+          { at: [e, W / 2], edge: 'side' },
+          { at: [-L, W / 2], edge: 'held' },
+        ];
+  const pinWords = loadKind === 'pin' ? `a rigid pin in frictionless contact (${clearance > 0 ? `diametral clearance ${fmt(clearance)} ${u.length}` : 'close fit'})` : 'the cosine bearing pressure of an idealised close-fitting pin';
+  const note =
+    `${GENERATED} "lug" (W = ${fmt(W)}, d = ${fmt(d)}, e = ${fmt(e)}, L = ${fmt(L)} ${u.length}, ${end} end; pin force ${fmt(F)} ${u.force} at ${fmt(angle)} deg from the axis, ${pinWords}). ` +
+    'Full model: the shank runs along -x and is held fixed at its end x = -L (tag "held"); the hole (named "pin", tag "hole") is centred at the origin. ' +
+    `The force is F = stress (W - d) t with stress = ${fmt(stress)} ${u.stress}: the net nominal stress of an axial pull, F / ((W - d) t); the bearing stress is F / (d t) = ${fmt(F / (d * t))} ${u.stress}.` +
+    (loadKind === 'pin' && clearance > 0 ? ' With clearance the contact arc, and so Kt, depends on the size of the load.' : '') +
+    (angle !== 0 ? ' At an angle the pin bends the shank: the corners of the held end then carry a stress of the clamping, singular in theory and nothing to do with the lug; read the peak on the hole (the pins of the result).' : '');
+  const loadItem: Model['loads'][number] =
+    loadKind === 'pin' ? { type: 'rigid-pin', on: { hole: 'pin' }, force, clearance } : { type: 'bearing', on: { hole: 'pin' }, force };
+  return finish({
+    ...baseModel(c, `Lug loaded through a pin, d/W = ${fmt(d / W)}, e/W = ${fmt(e / W)}`, note),
+    geometry: {
+      outline: { shape: 'path', path },
+      holes: [{ shape: 'circle', center: [0, 0], diameter: d, name: 'pin', tag: 'hole' }],
+    },
+    supports: [{ type: 'fixed', on: 'held' }],
+    loads: [loadItem],
+    chart: {
+      family: `${loadKind === 'pin' ? 'pin' : 'bearing'}-loaded-lug${end === 'square' ? '-square' : ''}`,
+      dims: { W, d, e, L, thickness: t, clearance, angle, stress },
+    },
+  });
+}
+
+export interface LinkParams extends CommonParams {
+  W?: number;
+  d?: number;
+  /** pitch: distance between the hole centres (default 3 W) */
+  p?: number;
+  clearance?: number;
+  /** net-section nominal stress F / ((W - d) t) that sets the pull (default 100) */
+  stress?: number;
+}
+
+/**
+ * A link plate: width W, round ends concentric with two holes of diameter d a pitch p apart
+ * on the x axis. A fixed rigid pin holds hole "A" at the origin; a rigid pin in hole "B" at
+ * (p, 0) pulls the link along +x with F = stress (W - d) t. Both pins are frictionless and in
+ * contact only where the holes press on them. One point support at the tip (p + W/2, 0), held
+ * in y, stops the link turning about pin A; the pull passes through both pin centres, so it
+ * carries no force.
+ *
+ *      .------------------------------.
+ *     (  (A)                     (B)-> )  F
+ *      '------------------------------'
+ *        0                        p
+ */
+export function link(q: LinkParams = {}): Model {
+  const c = resolveCommon(q);
+  const W = q.W ?? 40;
+  const d = q.d ?? 20;
+  requirePositive('W', 'link width', W);
+  requirePositive('d', 'hole diameter', d);
+  const p = q.p ?? 3 * W;
+  requirePositive('p', 'pitch of the holes', p);
+  const clearance = q.clearance ?? 0;
+  const stress = q.stress ?? 100;
+  if (d >= W) throw new ModelError('d', `the hole diameter d = ${d} must be less than the link width W = ${W}`, 'make d smaller or W larger');
+  if (p <= d) throw new ModelError('p', `holes ${fmt(p)} apart overlap: the pitch must exceed d = ${d}`, 'use a larger pitch p');
+  if (!(clearance >= 0)) throw new ModelError('clearance', `the clearance ${clearance} must be at least 0`, 'the diametral clearance is the hole diameter less the pin diameter; 0 for a close fit');
+  if (clearance >= d) throw new ModelError('clearance', `a clearance of ${clearance} leaves no pin in a hole of diameter ${d}`, 'the clearance is usually a small fraction of d');
+  const t = c.thickness;
+  const F = stress * (W - d) * t;
+  const u = c.units;
+  const note =
+    `${GENERATED} "link" (W = ${fmt(W)}, d = ${fmt(d)}, pitch p = ${fmt(p)} ${u.length}; pull ${fmt(F)} ${u.force}, ${clearance > 0 ? `diametral clearance ${fmt(clearance)} ${u.length}` : 'close-fitting pins'}). ` +
+    'Full model: a fixed rigid pin holds hole "A" at the origin, a rigid pin pulls hole "B" at (p, 0) along +x; both frictionless, in contact only where the holes press on them. ' +
+    `A point support at (p + W/2, 0) held in y stops the link turning about pin A and carries no force. The pull is F = stress (W - d) t with stress = ${fmt(stress)} ${u.stress}, the net nominal stress F / ((W - d) t) at either hole.`;
+  return finish({
+    ...baseModel(c, `Link plate pulled through two pins, d/W = ${fmt(d / W)}`, note),
+    geometry: {
+      outline: {
+        shape: 'path',
+        path: [
+          { at: [0, -W / 2], edge: 'side' },
+          { at: [p, -W / 2], edge: 'end', arc: { center: [p, 0], turn: 'ccw' } },
+          { at: [p, W / 2], edge: 'side' },
+          { at: [0, W / 2], edge: 'end', arc: { center: [0, 0], turn: 'ccw' } },
+        ],
+      },
+      holes: [
+        { shape: 'circle', center: [0, 0], diameter: d, name: 'A', tag: 'hole' },
+        { shape: 'circle', center: [p, 0], diameter: d, name: 'B', tag: 'hole' },
+      ],
+    },
+    supports: [
+      { type: 'rigid-pin', on: { hole: 'A' }, clearance },
+      { type: 'pin', at: [p + W / 2, 0], fix: 'y' },
+    ],
+    loads: [{ type: 'rigid-pin', on: { hole: 'B' }, force: [F, 0], clearance }],
+    chart: { family: 'pin-link', dims: { W, d, p, thickness: t, clearance, stress } },
+  });
+}
+
 // ---------------------------------------------------------------------------------------------
 // Registry.
 
@@ -649,6 +827,48 @@ const ENTRIES: readonly TemplateEntry[] = [
       ...COMMON_PARAMS,
     ],
     build: (v) => edgeNotchedBar({ ...common(v), H: v.H as number, t: v.t as number, r: v.r as number, L: v.L as number, stress: v.stress as number }),
+  },
+  {
+    name: 'lug',
+    description: 'lug with a straight shank and a round or square end, pulled through a rigid pin in its hole (full model)',
+    params: [
+      LEN('W', 'width of the shank and end', 40, ['width']),
+      LEN('d', 'hole diameter, less than W', 20, ['diameter']),
+      LEN('e', 'distance from the hole centre to the end of the lug', 'W/2'),
+      LEN('L', 'shank length from the hole centre to the held end', '3 W', ['length']),
+      { name: 'end', meaning: 'shape of the end: a half circle of radius W/2, or square', default: 'round', quantity: 'choice', unit: '', choices: ['round', 'square'] },
+      LEN('clearance', 'diametral clearance of the pin (hole diameter less pin diameter)', 0),
+      { name: 'angle', meaning: 'direction of the pin force from the lug axis, degrees counter-clockwise', default: 0, quantity: 'ratio', unit: 'deg' },
+      { name: 'load', meaning: 'a rigid pin in frictionless contact, or the cosine bearing pressure', default: 'pin', quantity: 'choice', unit: '', choices: ['pin', 'bearing'] },
+      STRESS('net nominal stress F / ((W - d) t) that sets the pin force'),
+      ...COMMON_PARAMS,
+    ],
+    build: (v) =>
+      lug({
+        ...common(v),
+        W: v.W as number,
+        d: v.d as number,
+        e: v.e as number,
+        L: v.L as number,
+        end: v.end as 'round' | 'square',
+        clearance: v.clearance as number,
+        angle: v.angle as number,
+        load: v.load as 'pin' | 'bearing',
+        stress: v.stress as number,
+      }),
+  },
+  {
+    name: 'link',
+    description: 'link plate with two pin holes, held by one pin and pulled by the other (full model)',
+    params: [
+      LEN('W', 'width of the link', 40, ['width']),
+      LEN('d', 'hole diameter, less than W', 20, ['diameter']),
+      LEN('p', 'pitch: distance between the hole centres', '3 W', ['pitch']),
+      LEN('clearance', 'diametral clearance of the pins', 0),
+      STRESS('net nominal stress F / ((W - d) t) that sets the pull'),
+      ...COMMON_PARAMS,
+    ],
+    build: (v) => link({ ...common(v), W: v.W as number, d: v.d as number, p: v.p as number, clearance: v.clearance as number, stress: v.stress as number }),
   },
 ];
 

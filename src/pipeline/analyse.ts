@@ -12,6 +12,7 @@ import { assembleSystem, internalForces, meshNodeGraph } from '../fem/assemble.j
 import { compileLoads, compileSupports, HOLD_FREE, HOLD_MIRROR, type CompiledLoads, type ExtraTraction } from '../fem/boundary-conditions.js';
 import { constitutiveMatrix, type PlaneState } from '../fem/material.js';
 import { checkRigidMotion } from '../fem/rigid.js';
+import { addContactForces, pinSupportCentres, solveContact, type ContactSolution, type PinsOfAnalysis } from '../fem/contact.js';
 import { generateMesh, triangleMinAngle } from '../mesh/generate.js';
 import type { SizeField } from '../mesh/sizefield.js';
 import type { HardPoint } from '../mesh/boundary.js';
@@ -79,6 +80,8 @@ export interface Analysis {
   equilibriumError: number;
   timeMs: { mesh: number; assemble: number; solve: number; recover: number; total: number };
   warnings: string[];
+  /** pins in holes (bearing loads, rigid pins) and the contact of the rigid ones; null without pins */
+  pins: PinsOfAnalysis | null;
 }
 
 /** What every mesh of one model shares: the model checked, its domain, units and options. */
@@ -189,6 +192,24 @@ function resolveRaiserSettings(model: Model, domain: Domain, raisers: readonly R
   return { named, reported, given };
 }
 
+/**
+ * The nominal stresses the model gives per raiser, with the bearing stress F / (d t) of every
+ * pin in a hole added to its raiser (a fixed pin's force is the resultant of its contact).
+ */
+function withBearing(prep: PreparedModel, pins: PinsOfAnalysis | null, contact: ContactSolution | null, thickness: number): Map<number, RaiserNominalInput> {
+  if (!pins) return prep.given;
+  const out = new Map(prep.given);
+  for (const pin of pins.holes) {
+    const r = prep.raisers.find((x) => x.kind === 'hole' && x.loop === pin.loop);
+    if (!r) continue;
+    const c = contact?.pins.find((x) => x.pin.path === pin.path);
+    const f = c && pin.role === 'support' ? c.resultant : pin.force;
+    const F = Math.hypot(f[0], f[1]);
+    if (F > 0) out.set(r.index, { ...out.get(r.index), bearing: F / (2 * pin.radius * thickness) });
+  }
+  return out;
+}
+
 /** A given section must cross material. */
 function checkSectionCrossesMaterial(domain: Domain, sec: { from: readonly [number, number]; to: readonly [number, number] }, path: string, thickness: number): void {
   if (!cutBetween(domain, sec.from[0], sec.from[1], sec.to[0], sec.to[1], thickness)) {
@@ -238,18 +259,27 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
 
   const supports = compileSupports(model, domain, mesh, warnings);
   const loads = compileLoads(model, domain, mesh, supports, warnings, prep.extraTractions);
-  checkRigidMotion(mesh, supports.constraints.fixed, domain.scale);
+  // --- pins in holes: a fixed rigid pin holds the part at the hole's centre (src/fem/contact.ts) ---
+  const contactPins = supports.pins.filter((p) => p.kind === 'rigid-pin');
+  checkRigidMotion(mesh, supports.constraints.fixed, domain.scale, pinSupportCentres(contactPins));
+  // --- end of pins ---
   const D = constitutiveMatrix(model.material.E, model.material.nu, state);
   const nodeGraph = meshNodeGraph(mesh);
   const system = assembleSystem(mesh, D, model.thickness, loads.f, supports.constraints, nodeGraph);
   const t2 = performance.now();
 
   let solved;
+  let contact: ContactSolution | null = null;
   try {
     // The direct factor may use what the memory limit leaves beside the rest of the analysis;
     // beyond that the solver switches to conjugate gradients.
     const maxFactorBytes = Math.max(0, prep.maxMemoryBytes - estimateAnalysisBytes(meshStats.triangles, mesh.order as 1 | 2, 'iterative'));
-    solved = solveSpd(system.K, system.f, { coords: mesh.nodes, nodeAdjacency: nodeGraph, dofsPerNode: 2, fullDofOfRow: system.freeDof, maxFactorBytes });
+    const solveOptions = { coords: mesh.nodes, nodeAdjacency: nodeGraph, dofsPerNode: 2, fullDofOfRow: system.freeDof, maxFactorBytes };
+    // --- pins in holes: rigid pins in frictionless contact replace the linear solve ---
+    const planeModulus = state === 'plane-strain' ? model.material.E / (1 - model.material.nu ** 2) : model.material.E;
+    if (contactPins.length > 0) solved = contact = solveContact(mesh, system, contactPins, { thickness: model.thickness, planeModulus }, solveOptions);
+    else solved = solveSpd(system.K, system.f, solveOptions);
+    // --- end of pins ---
   } catch (err) {
     if (err instanceof SolverPivotError) {
       const dof = system.freeDof[err.originalIndex];
@@ -276,6 +306,11 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
   for (let d = 0; d < nDof; d++) {
     if (!Number.isFinite(u[d])) throw new AnalysisError('the solution is not finite: the stiffness matrix is too badly conditioned to solve', 'check for parts joined by a very thin ligament or extreme dimensions');
   }
+  // --- pins in holes: pushed pins' contact forces are applied loads, fixed pins' are reactions ---
+  if (contact) addContactForces(contact, loads.f, supports.constraints.fixed);
+  const pins: PinsOfAnalysis | null =
+    supports.pins.length === 0 ? null : { holes: supports.pins, contact: contact && { pins: contact.pins, iterations: contact.iterations, activeHistory: contact.activeHistory, tolerance: contact.tolerance } };
+  // --- end of pins ---
   const t3 = performance.now();
 
   const r = internalForces(mesh, D, model.thickness, u);
@@ -304,6 +339,8 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
     mirrorEdge[e] = supports.hold[e] === HOLD_MIRROR ? 1 : 0;
     edgeRole[e] = supports.hold[e] !== HOLD_FREE && supports.hold[e] !== HOLD_MIRROR ? 1 : loads.loaded[e] ? 2 : 0;
   }
+  // A rigid pin in its hole is modelled as it is: its hole is neither held nor loaded in the sense of an idealised edge.
+  for (const p of supports.pins) if (p.kind === 'rigid-pin') for (const e of p.edges) edgeRole[e] = 0;
   const evaluation = evaluateMesh({
     domain,
     mesh,
@@ -319,7 +356,7 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
     edgeRole,
     remote: loads.remote ?? prep.extraRemote,
     direction: model.results?.direction,
-    given: prep.given,
+    given: withBearing(prep, pins, contact, model.thickness),
     units: { stress: units.stress },
   });
   const y = model.material.yield;
@@ -359,6 +396,7 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
     equilibriumError,
     timeMs: { mesh: t1 - t0, assemble: t2 - t1, solve: t3 - t2, recover: t4 - t3, total: t4 - t0 },
     warnings,
+    pins,
   };
 }
 

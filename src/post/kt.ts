@@ -11,7 +11,9 @@
  *               outer fibre on the raiser's side: P / (W t) in tension, 6 M / (t H^2) in bending;
  *   Kt remote = peak / s1, s1 the largest principal value of an applied remote stress state
  *               (so Kirsch's cases read 3, 2 and 4);
- *   Kt given  = peak / the nominal stress given in the model for this raiser.
+ *   Kt given  = peak / the nominal stress given in the model for this raiser;
+ *   Kt bearing = peak / F / (d t), for a hole a pin loads or holds: F the pin's force, d the
+ *               hole's diameter (the second definition of the lug charts, Pilkey & Pilkey ch. 5).
  *
  * A Kt is withheld, with the reason, when its nominal stress
  *  - is zero or of the other sign than the peak (the section is not loaded the way the peak is);
@@ -43,7 +45,7 @@ export const KT_LIMIT = 30;
 /** Above this ratio of the second to the first nominal (or remote principal) stress, the state is biaxial (our choice: 10% changes Kirsch's 3 by 0.1). */
 export const BIAXIAL_RATIO = 0.1;
 
-export type KtKind = 'net' | 'gross' | 'remote' | 'given';
+export type KtKind = 'net' | 'gross' | 'remote' | 'given' | 'bearing';
 
 export interface KtValue {
   kind: KtKind;
@@ -102,6 +104,8 @@ export interface RaiserNominalInput {
   section?: { from: readonly [number, number]; to: readonly [number, number] };
   /** a nominal stress given for this raiser */
   stress?: number;
+  /** the bearing stress F / (d t) of the pin in this hole, when one loads or holds it */
+  bearing?: number;
 }
 
 const UNSIGNED: readonly StressMeasure[] = ['von-mises', 'tresca'];
@@ -346,6 +350,9 @@ export function evaluateRaiserKt(ctx: KtContext, raiser: Raiser, peak: RaiserPea
   if (ctx.remote) {
     const [s1] = principals(ctx.remote.sxx, ctx.remote.syy, ctx.remote.sxy);
     kt.push({ kind: 'remote', nominal: s1, definition: 'the largest principal value of the applied remote stress state', ...decide(ratio(measure, peakValue, s1, units)) });
+  }
+  if (given.bearing !== undefined) {
+    kt.push({ kind: 'bearing', nominal: given.bearing, definition: 'the bearing stress F / (d t) of the pin in the hole: its force over the hole diameter times the thickness', ...decide(ratio('von-mises', Math.abs(peakValue), given.bearing, units)) });
   }
   if (given.stress !== undefined) {
     kt.push({ kind: 'given', nominal: given.stress, definition: 'the nominal stress given in the model for this raiser', ...decide(ratio(measure, peakValue, given.stress, units)) });

@@ -58,7 +58,7 @@ export interface Settlement {
   singular: SettledSingular[];
 }
 
-const PRIMARY_ORDER: readonly KtKind[] = ['given', 'remote', 'net', 'gross'];
+const PRIMARY_ORDER: readonly KtKind[] = ['given', 'remote', 'net', 'bearing', 'gross'];
 /** The least rise of the last refinement step that counts as growth (our choice, 0.5%: see growsUnderRefinement). */
 const GROWTH_FLOOR = 0.005;
 /** A rise of the last refinement step above which a peak grows whatever the order seen (our choice, 3%). */

@@ -20,6 +20,7 @@ import { toPixel, type View } from './field.js';
 import type { Rgb } from './raster.js';
 import { textWidth } from './font.js';
 import { addText, type Scene } from './scene.js';
+import { drawRigidPin, type SolvedPin } from './pins.js';
 
 /** Okabe & Ito's colour-blind-safe bluish green and reddish purple [M]. */
 export const LOAD_COLOUR: Rgb = [0, 140, 100];
@@ -140,6 +141,14 @@ function loadDirection(load: Load, nx: number, ny: number): [number, number] | n
     }
     case 'moment':
       return null;
+    case 'bearing': {
+      // p0 cos(phi) on the half facing the force: cos(phi) = -n . F / |F| (n points into the hole)
+      const [fx, fy] = load.force;
+      const c = -(nx * fx + ny * fy) / (Math.hypot(fx, fy) || 1);
+      return c > 0 ? [-c * nx, -c * ny] : [0, 0];
+    }
+    case 'rigid-pin':
+      return null;
   }
 }
 
@@ -155,7 +164,9 @@ function remoteDefaultEdges(domain: Domain, supports: readonly Support[]): numbe
 
 /**
  * Draws the model's loads and supports over the plate. `size` is the picture's text size in
- * pixels; the arrows are 2.6 sizes long. Returns how many loads and supports it drew.
+ * pixels; the arrows are 2.6 sizes long. Rigid pins are drawn as discs in their holes
+ * (src/render/pins.ts), with the contact arcs of `pins` (result.json's pins.items) when given.
+ * Returns how many loads and supports it drew.
  */
 export function drawBoundaryConditions(
   s: Scene,
@@ -165,12 +176,18 @@ export function drawBoundaryConditions(
   supports: readonly Support[],
   view: View,
   size: number,
+  pins?: readonly SolvedPin[] | null,
 ): { loads: number; supports: number } {
   const len = 2.6 * size;
   const head = 0.75 * size;
   let nLoads = 0;
   let nSupports = 0;
+  const pinArrow = (x0: number, y0: number, x1: number, y1: number) => arrow(s, x0, y0, x1, y1, head, LOAD_COLOUR, 0.16 * size);
   supports.forEach((sp, i) => {
+    if (sp.type === 'rigid-pin') {
+      if (drawRigidPin(s, domain, sp, i, view, size, SUPPORT_COLOUR, pinArrow, pins)) nSupports++;
+      return;
+    }
     if (sp.type === 'pin') {
       const [px, py] = toPixel(view, sp.at[0], sp.at[1]);
       const h = 0.9 * size;
@@ -203,6 +220,10 @@ export function drawBoundaryConditions(
     label(s, `S${i + 1}${word}`, lx + 1.6 * size * f0.nx, ly - 1.6 * size * f0.ny + 0.35 * size, 0.8 * size, SUPPORT_COLOUR, anchorFor(f0.nx), `support ${i + 1}`);
   });
   loads.forEach((ld, i) => {
+    if (ld.type === 'rigid-pin') {
+      if (drawRigidPin(s, domain, ld, i, view, size, LOAD_COLOUR, pinArrow, pins)) nLoads++;
+      return;
+    }
     const edges = new Set(ld.on !== undefined ? selectTarget(domain, ld.on).edges : remoteDefaultEdges(domain, supports));
     const all = edgeFrames(mesh, edges);
     if (all.length === 0) return;

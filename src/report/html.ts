@@ -8,6 +8,7 @@ import { describeSelector } from '../geometry/select.js';
 import type { Load, Selector, Support } from '../model/schema.js';
 import { formatValue } from '../render/ticks.js';
 import { measureName } from './pictures.js';
+import { describePinLoad, describePinSupport, pinsHtml } from './pins.js';
 import type { PlotSource } from './saved.js';
 import type { ResultJson } from './result.js';
 
@@ -23,7 +24,7 @@ function target(on: Selector | Selector[] | undefined): string {
   return (Array.isArray(on) ? on : [on]).map(describeSelector).join(', ');
 }
 
-function describeLoad(l: Load, stress: string, force: string, moment: string): string {
+function describeLoad(l: Load, stress: string, force: string, moment: string, length: string): string {
   switch (l.type) {
     case 'traction':
       return `traction on ${target(l.on)}: ${[l.normal !== undefined ? `normal ${f(l.normal)} ${stress}` : '', l.shear !== undefined ? `shear ${f(l.shear)} ${stress}` : ''].filter(Boolean).join(', ')}`;
@@ -35,10 +36,12 @@ function describeLoad(l: Load, stress: string, force: string, moment: string): s
       return `pressure on ${target(l.on)}: ${f(l.p)} ${stress}`;
     case 'remote':
       return `remote stress on ${target(l.on)}: sxx ${f(l.sxx ?? 0)}, syy ${f(l.syy ?? 0)}, sxy ${f(l.sxy ?? 0)} ${stress}`;
+    default:
+      return describePinLoad(l, force, length);
   }
 }
 
-function describeSupport(s: Support): string {
+function describeSupport(s: Support, length: string): string {
   switch (s.type) {
     case 'fixed':
       return `fixed (both components held) on ${target(s.on)}`;
@@ -48,6 +51,8 @@ function describeSupport(s: Support): string {
       return `symmetry (normal displacement held) on ${target(s.on)}`;
     case 'pin':
       return `pin at (${s.at.join(', ')}) holding ${s.fix ?? 'xy'}`;
+    default:
+      return describePinSupport(s, length);
   }
 }
 
@@ -131,8 +136,8 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
       ['yield strength', mat.yield === undefined ? 'not given' : `${f(mat.yield)} ${esc(u.stress)}`],
       ['ultimate strength', mat.ultimate === undefined ? 'not given' : `${f(mat.ultimate)} ${esc(u.stress)}`],
       ['stress measure', esc(measureName(r.analysis.measure))],
-      ['supports', `<ul class="plain">${m.supports.map((s) => `<li>${esc(describeSupport(s))}${s.note ? ` (${esc(s.note)})` : ''}</li>`).join('')}</ul>`],
-      ['loads', `<ul class="plain">${m.loads.map((l) => `<li>${esc(describeLoad(l, u.stress, u.force, u.moment))}${l.note ? ` (${esc(l.note)})` : ''}</li>`).join('')}</ul>`],
+      ['supports', `<ul class="plain">${m.supports.map((s) => `<li>${esc(describeSupport(s, u.length))}${s.note ? ` (${esc(s.note)})` : ''}</li>`).join('')}</ul>`],
+      ['loads', `<ul class="plain">${m.loads.map((l) => `<li>${esc(describeLoad(l, u.stress, u.force, u.moment, u.length))}${l.note ? ` (${esc(l.note)})` : ''}</li>`).join('')}</ul>`],
     ])}</tbody></table>`,
   );
   parts.push(figure(png, 'geometry', 'Geometry with each stress raiser\'s net section (solid) and gross section (dashed) on which its nominal stresses are taken, the raisers\' peaks, and the loads (L, arrows not to scale) and supports (S).'));
@@ -171,6 +176,7 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
   parts.push(figure(png, 'section', 'Stress along the governing raiser\'s net section: the stress measure and the stress across the section (along the flow), with the beam-formula nominal stress.'));
   parts.push(figure(png, 'deformed', 'Deformed shape, displacements magnified by the factor printed on the picture.'));
 
+  parts.push(pinsHtml(r));
   parts.push('<h2 class="page">Convergence</h2>');
   if (c.status === 'single-mesh') parts.push('<p>One mesh only: the discretisation error is not estimated. Solve without --single-mesh for a certified Kt.</p>');
   else {
@@ -221,7 +227,7 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
     `<div class="caution" id="cautions"><strong>Cautions</strong><ul>${r.cautions.map((x) => `<li>${esc(x)}</li>`).join('')}</ul></div>
 <ul class="plain">
 <li>Plane ${esc(r.analysis.state === 'plane-strain' ? 'strain' : 'stress')}, isotropic homogeneous material, one thickness; no through-thickness effects.</li>
-<li>Supports hold displacements at zero; loads act as described in the inputs. Contact at holes, friction and residual stresses are not modelled.</li>
+<li>Supports hold displacements at zero; loads act as described in the inputs. Friction and residual stresses are not modelled, nor contact other than that of rigid pins in holes.</li>
 <li>Stresses are recovered nodal values (superconvergent patch recovery); the peak is searched on the boundary between nodes.</li>
 <li>The error band covers the discretisation only, not whether the model represents the real part.</li>
 <li>A peak at a singular point (a sharp re-entrant corner, the end of a rigid support, a point support) has no converged value and no Kt; model the real corner radius or support.</li>
@@ -251,7 +257,7 @@ ${parts.filter(Boolean).join('\n')}
 function raisersTable(r: ResultJson): string {
   const u = r.units;
   if (r.raisers.length === 0) return '<p>The part has no stress raiser (no hole, notch, fillet or other concave curved edge), so no Kt is given.</p>';
-  const kinds = ['net', 'gross', 'remote', 'given'] as const;
+  const kinds = ['net', 'bearing', 'gross', 'remote', 'given'] as const;
   const body = r.raisers
     .map((x) => {
       const sec = x.section;

@@ -358,7 +358,7 @@ export function geometryScene(src: PlotSource, opts: PictureOptions = {}): Scene
     const carried = x.section.mirror ? 'half of a symmetric section' : `N ${formatValue(x.section.N ?? NaN)} ${r.units.force}, M ${formatValue(x.section.M ?? NaN)} ${r.units.moment}`;
     sec(x.section, NET_COLOUR, undefined, `${x.name}: net ${formatValue(x.section.length)} ${r.units.length}; ${carried}`, false);
   }
-  const drawn = domain ? drawBoundaryConditions(s, src.mesh, domain, src.model.loads, src.model.supports, view, fr.size) : { loads: 0, supports: 0 };
+  const drawn = domain ? drawBoundaryConditions(s, src.mesh, domain, src.model.loads, src.model.supports, view, fr.size, r.pins?.items) : { loads: 0, supports: 0 };
   const [px, py] = toPixel(view, r.peak.x, r.peak.y);
   drawMarker(s, px, py, `peak, ${r.peak.feature}`, fr.size * 0.9, fr.draw, 'peak');
   drawScaleBar(s, fr.draw[0] + fr.size * 0.6, fr.draw[3] - fr.size * 0.6, view.s, 0.22 * (fr.draw[2] - fr.draw[0]), r.units.length, fr.size * 0.9);

@@ -11,12 +11,13 @@ import type { KtKind } from '../post/kt.js';
 import type { SettledKt, Settlement } from '../post/settle.js';
 import { compareWithChart } from '../charts/library.js';
 import { estimateFatigue, neuberLocal, notchRadiusAt } from '../post/design.js';
+import { pinsResult } from './pins.js';
 
 export const TOOL_VERSION = '0.1.0';
 
 /** The cautions every result carries, in plain words. */
 export const CAUTIONS = [
-  'Linear elastic, small-strain analysis: stresses are proportional to the loads; yielding, contact, buckling and large deflection are not modelled.',
+  'Linear elastic, small-strain analysis: stresses are proportional to the loads; yielding, contact (but that of rigid frictionless pins in holes, when the model has them), buckling and large deflection are not modelled.',
   'A peak stress above the yield strength means local plastic flow: the real peak stress is lower and the local strain higher than this elastic result.',
   'Kt is the elastic (theoretical) stress concentration factor. For fatigue use the fatigue notch factor Kf = 1 + q (Kt - 1), with the notch sensitivity q of the material and notch radius.',
   'The result depends on the model (geometry, loads, supports, material) and on the mesh; it must be checked by a qualified engineer under the applicable codes and standards before it is used for design.',
@@ -272,6 +273,7 @@ function buildResultUnchecked(a: Analysis, file?: string, cert: Certified | null
       peakOverYield: y !== undefined ? Math.abs(a.peak.stress) / y : null,
       localPlasticity: y !== undefined ? Math.abs(a.peak.stress) > y : null,
     },
+    pins: pinsResult(a),
     warnings,
     cautions: CAUTIONS,
   };

@@ -1,5 +1,6 @@
 /** The console summary of one analysis: the same facts as the JSON, laid out for a person. */
 import type { ResultJson } from './result.js';
+import { formatPinsSummary } from './pins.js';
 
 /** A number with `digits` significant figures, without exponent for everyday magnitudes. */
 export function fmt(v: number, digits = 4): string {
@@ -49,7 +50,7 @@ export function formatSummary(r: ResultJson): string {
         const what = sec.mirror ? 'half of a symmetric section: N / A' : `N ${fmt(sec.N ?? NaN)} ${u.force}, V ${fmt(sec.V ?? NaN)} ${u.force}, M ${fmt(sec.M ?? NaN)} ${u.moment} about its centroid`;
         out.push(`      ${sec.given ? 'given section' : 'net section'} ${pt(sec.from)} to ${pt(sec.to)}, ${fmt(sec.length)} ${u.length} of material in ${lig} ligament${lig > 1 ? 's' : ''}; ${what}`);
       }
-      for (const kind of ['net', 'gross', 'remote', 'given'] as const) {
+      for (const kind of ['net', 'bearing', 'gross', 'remote', 'given'] as const) {
         const k = x.kt[kind];
         if (!k) continue;
         const label = `Kt ${kind}`.padEnd(10);
@@ -126,6 +127,7 @@ export function formatSummary(r: ResultJson): string {
       `  yield  peak is ${fmt(100 * (r.safety.peakOverYield ?? 0), 3)}% of the yield strength ${fmt(r.safety.yield)} ${u.stress}${r.safety.localPlasticity ? ': LOCAL PLASTICITY EXPECTED' : ''}`,
     );
   }
+  out.push(...formatPinsSummary(r));
   if (r.warnings.length > 0) {
     out.push('');
     out.push('  warnings');

@@ -53,6 +53,11 @@ const FAMILY_TEMPLATE: Record<string, { template: string; extra?: Record<string,
   'stepped-bar-bending': { template: 'stepped-bar', extra: { loading: 'bending' } },
   'u-notched-bar-tension': { template: 'u-notched-bar' },
   'edge-notched-bar-tension': { template: 'edge-notched-bar' },
+  'pin-loaded-lug': { template: 'lug', extra: { end: 'round', load: 'pin' } },
+  'pin-loaded-lug-square': { template: 'lug', extra: { end: 'square', load: 'pin' } },
+  'bearing-loaded-lug': { template: 'lug', extra: { end: 'round', load: 'bearing' } },
+  'bearing-loaded-lug-square': { template: 'lug', extra: { end: 'square', load: 'bearing' } },
+  'pin-link': { template: 'link' },
 };
 
 const kebab = (s: string) => s.replace(/[A-Z]/g, (c, i) => (i > 0 && /[a-z]/.test(s[i - 1]) ? `-${c.toLowerCase()}` : c));
