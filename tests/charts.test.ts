@@ -11,6 +11,7 @@ import {
   ktInglis,
   ktNeuberDeepTension,
   ktNeuberOppositeNotchesTension,
+  ktOppositeSemicircularNotchesTension,
   ktOppositeUNotchesTension,
   ktSteppedBarBending,
   ktSteppedBarTension,
@@ -66,6 +67,17 @@ describe('chart formulas reproduce their published evaluations', () => {
       const p = ktOppositeUNotchesTension(H, t, r);
       const n = ktNeuberOppositeNotchesTension(H, t, r);
       expect(Math.abs(p / n - 1)).toBeLessThan(0.01);
+    }
+  });
+
+  it('opposite semicircular notches (chart 2.3, recalled): Ling\'s 3.065 for a shallow notch, about 1 when the notches meet, falling in between', () => {
+    expect(ktOppositeSemicircularNotchesTension(1e6, 1)).toBeCloseTo(3.065, 4);
+    expect(ktOppositeSemicircularNotchesTension(2, 1)).toBeCloseTo(1.007, 10);
+    let prev = Infinity;
+    for (let x = 0; x <= 1.0001; x += 0.05) {
+      const k = ktOppositeSemicircularNotchesTension(2, x);
+      expect(k).toBeLessThan(prev);
+      prev = k;
     }
   });
 });

@@ -216,3 +216,30 @@ describe('a link plate with a slot', () => {
     expect(r.raisers.find((x) => x.name.includes('"A"'))!.status).toBe('singular');
   });
 });
+
+describe('charts per raiser on any model', () => {
+  const strip = (cy: number): Model => ({
+    material: steel,
+    thickness: 4,
+    geometry: {
+      outline: { shape: 'path', path: [[0, 0], { at: [240, 0], edge: 'end' }, [240, 60], { at: [0, 60], edge: 'held' }] },
+      holes: [{ shape: 'circle', center: [120, cy], diameter: 18, name: 'hole' }],
+    },
+    supports: [{ type: 'fixed', on: 'held' }],
+    loads: [{ type: 'force', on: 'end', fx: 20000 }],
+  });
+
+  it('a centred circular hole in a strip, written by hand, is compared with the hole-in-strip chart (Pilkey chart 4.1 fit, d/W = 0.3) within its spread', () => {
+    const a = analyseModel(strip(30));
+    const r = buildResult(a);
+    const x = r.raisers[0];
+    expect(x.chart!.id).toBe('hole-in-strip');
+    expect(Math.abs(x.chart!.difference!)).toBeLessThanOrEqual(x.chart!.spread);
+  });
+
+  it('an off-centre hole is no chart\'s shape: no comparison', () => {
+    const r = buildResult(analyseModel(strip(36)));
+    expect(r.raisers[0].chart).toBeNull();
+  });
+});
+

@@ -129,6 +129,19 @@ export function ktOppositeUNotchesTension(H: number, t: number, r: number): numb
 }
 
 /**
+ * Opposite semicircular notches of radius r (notch depth = r) in a strip of full width H,
+ * tension; nominal stress P / ((H - 2r) thickness). Pilkey & Pilkey (2008) chart 2.3, after
+ * Ling (1947) and Isida: Kt = 3.065 - 3.472 x + 1.009 x^2 + 0.405 x^3, x = 2r/H, 0 <= x <= 1
+ * [M+: coefficients recalled; checked by its limits: 3.065 at x = 0, Ling's semicircular edge
+ * notch in a semi-infinite plate (J. Math. Phys. 26 (1948) 284), and 1.007 at x = 1, where the
+ * notches meet and the net section has nothing left to concentrate in].
+ */
+export function ktOppositeSemicircularNotchesTension(H: number, r: number): number {
+  const x = (2 * r) / H;
+  return 3.065 - 3.472 * x + 1.009 * x * x + 0.405 * x * x * x;
+}
+
+/**
  * Neuber's combination for notches in tension (H. Neuber, Kerbspannungslehre, 1958) [M]:
  * shallow-notch Ke = 1 + 2 sqrt(t/r), deep-notch Kd (half net width a = d/2)
  * = 2 (a/r + 1) sqrt(a/r) / [(a/r + 1) atan sqrt(a/r) + sqrt(a/r)], combined

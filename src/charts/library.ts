@@ -12,6 +12,7 @@ import {
   ktInglis,
   ktKirsch,
   ktNeuberOppositeNotchesTension,
+  ktOppositeSemicircularNotchesTension,
   ktOppositeUNotchesTension,
   ktSteppedBarBending,
   ktSteppedBarTension,
@@ -174,6 +175,22 @@ export const CHARTS: Chart[] = [
     spread: 0.08,
   },
   {
+    id: 'semicircular-notches-tension',
+    title: 'flat bar with opposite semicircular notches, tension',
+    source: 'Pilkey & Pilkey (2008) chart 2.3, after C.-B. Ling (1947) and M. Isida: 3.065 - 3.472 x + 1.009 x^2 + 0.405 x^3, x = 2r/H (coefficients recalled; 3.065 at x = 0 is Ling\'s semi-infinite value)',
+    provenance: 'M+',
+    nominal: 'net',
+    nominalDefinition: 'P / ((H - 2r) thickness)',
+    params: [
+      { name: 'H', meaning: 'full width' },
+      { name: 'r', meaning: 'notch radius (= depth)' },
+    ],
+    range: '0 <= 2r/H <= 1',
+    outside: (p) => between((2 * p.r) / p.H, 0, 1, '2r/H'),
+    evaluate: (p) => ktOppositeSemicircularNotchesTension(p.H, p.r),
+    spread: 0.02,
+  },
+  {
     id: 'u-notches-neuber',
     title: 'opposite notches in tension by Neuber\'s combination rule',
     source: 'H. Neuber, Kerbspannungslehre (1958)',
@@ -280,6 +297,8 @@ export function chartForFamily(family: string, dims: Record<string, number>): { 
     case 'stepped-bar-bending':
       return { chart: findChart('fillet-bending')!, params: { D: dims.D, d: dims.d, r: dims.r } };
     case 'u-notched-bar-tension':
+      // A notch as deep as its radius is a half circle: it has its own chart.
+      if (Math.abs(dims.t - dims.r) <= 1e-9 * dims.r) return { chart: findChart('semicircular-notches-tension')!, params: { H: dims.H, r: dims.r } };
       return { chart: findChart('u-notches-tension')!, params: { H: dims.H, t: dims.t, r: dims.r } };
     case 'pin-loaded-lug':
     case 'pin-loaded-lug-square':

@@ -60,6 +60,27 @@ function ktEntry(k: SettledKt) {
   };
 }
 
+/**
+ * The chart family a raiser's own shape belongs to, on any model: a circular hole centred in a
+ * prismatic strip whose net section carries tension alone (its two ligaments equal within 1% of
+ * the width, the bending part of its nominal stress under 1%) is Howland's hole in a strip.
+ * Null when no family's shape and loading hold.
+ */
+function recogniseChart(a: Analysis, ev: Analysis['evaluation']['raisers'][number]): { family: string; dims: Record<string, number> } | null {
+  if (ev.raiser.kind !== 'hole' || ev.raiser.edges.length !== 1 || !ev.section || !ev.gross || !ev.loads || ev.section.mirror) return null;
+  const c = a.domain.edges[ev.raiser.edges[0]].curve;
+  if (c.kind !== 'arc' || Math.abs(Math.abs(c.sweep) - 2 * Math.PI) > 1e-9) return null;
+  const lig = ev.section.ligaments;
+  if (lig.length !== 4) return null;
+  const W = ev.gross.cut.length;
+  if (Math.abs(lig[1] - lig[0] - (lig[3] - lig[2])) > 0.01 * W) return null;
+  const net = ev.kt.find((k) => k.kind === 'net');
+  if (!net || net.value === null) return null;
+  const membrane = ev.loads.N / ev.section.area;
+  if (Math.abs(net.nominal - membrane) > 0.01 * Math.abs(net.nominal)) return null;
+  return { family: 'plate-with-hole-tension', dims: { W, d: 2 * c.r } };
+}
+
 /** Every raiser of the last mesh with what the series settled about it, highest peak first. */
 function raisers(a: Analysis, s: Settlement, scale: number, cert: Certified | null, reported: ReadonlySet<number> | null) {
   const chartFor = a.model.chart;
@@ -74,8 +95,11 @@ function raisers(a: Analysis, s: Settlement, scale: number, cert: Certified | nu
     const big = loads && ev.section ? Math.max(Math.abs(loads.N), Math.abs(loads.V), Math.abs(loads.M) / ev.section.length) : 0;
     const tidy = (v: number) => (Math.abs(v) <= 1e-9 * big ? 0 : v);
     const governing = i === s.governing;
-    // The published chart of a template model belongs to the raiser it was built around.
-    const chart = governing && chartFor && st.status === 'ok' ? compareWithChart(chartFor.family, chartFor.dims, { net: kt.net?.value ?? null, gross: kt.gross?.value ?? null }) : null;
+    // The published chart of a template model belongs to the raiser it was built around; on any
+    // model, a raiser that is a chart's shape gets that chart.
+    const kts = { net: kt.net?.value ?? null, gross: kt.gross?.value ?? null };
+    const family = st.status !== 'ok' ? null : governing && chartFor ? chartFor : recogniseChart(a, ev);
+    const chart = family ? compareWithChart(family.family, family.dims, kts) : null;
     return {
       index: i,
       name: ev.raiser.name,

@@ -10,7 +10,7 @@ import { buildDomain } from '../geometry/domain.js';
 import { selectEdges } from '../geometry/select.js';
 import type { TractionField } from '../fem/boundary-conditions.js';
 import { constitutiveMatrix } from '../fem/material.js';
-import { ktHoleInStripNet, ktOppositeUNotchesTension, ktSteppedBarBending, ktSteppedBarTension } from '../charts/formulas.js';
+import { ktHoleInStripNet, ktOppositeSemicircularNotchesTension, ktOppositeUNotchesTension, ktSteppedBarBending, ktSteppedBarTension } from '../charts/formulas.js';
 import { fatigueNotchFactor, neuberNotchSensitivity, neuberSqrtASteelSI } from '../charts/fatigue.js';
 import { parseModelText } from '../model/load.js';
 import type { Model } from '../model/schema.js';
@@ -174,6 +174,33 @@ function certifiedKt(model: Model, target: number, which: 'net' | 'gross' = 'net
   };
 }
 
+/**
+ * A strip 1000 x 40, clamped at x = 0, a force of 2 kN down at x = 1000; with a hole, or with
+ * opposite semicircular notches of radius 4 at x = 200, where the moment is 800 times the shear.
+ */
+function cantilever(holes: Model['geometry']['holes'], notched: boolean): Model {
+  const H = 40;
+  const path: any = notched // the two outlines are plain data of different vertex kinds
+    ? [
+        { at: [0, 0] },
+        { at: [196, 0], arc: { center: [200, 0], turn: 'cw' } },
+        { at: [204, 0] },
+        { at: [1000, 0], edge: 'tip' },
+        { at: [1000, H] },
+        { at: [204, H], arc: { center: [200, H], turn: 'cw' } },
+        { at: [196, H] },
+        { at: [0, H], edge: 'clamp' },
+      ]
+    : [[0, 0], { at: [1000, 0], edge: 'tip' }, [1000, H], { at: [0, H], edge: 'clamp' }];
+  return {
+    material: STEEL,
+    thickness: 5,
+    geometry: { outline: { shape: 'path', path }, holes },
+    supports: [{ type: 'fixed', on: 'clamp' }],
+    loads: [{ type: 'force', on: 'tip', fy: -2000 }],
+  };
+}
+
 // ---------------------------------------------------------------------------------------------
 
 export function verifyCases(): VerifyCase[] {
@@ -324,10 +351,10 @@ export function verifyCases(): VerifyCase[] {
     {
       id: 'u-notches-semicircular',
       title: 'opposite semicircular notches, t = r, 2t/H = 0.1, tension',
-      source: 'Pilkey & Pilkey (2008) chart 2.4 fit [M+: agrees with Neuber (1958)]',
+      source: 'Pilkey & Pilkey (2008) chart 2.3, after Ling (1947) [M+: recalled; its limit 3.065 is Ling\'s semi-infinite value]',
       quantity: 'Kt net',
-      reference: ktOppositeUNotchesTension(100, 5, 5),
-      tolerance: 0.08,
+      reference: ktOppositeSemicircularNotchesTension(100, 5),
+      tolerance: 0.02,
       toleranceKind: 'relative',
       run: () => certifiedKt(expandTemplate('u-notched-bar', { H: 100, t: 5, r: 5 }), 0.005),
     },
@@ -340,6 +367,60 @@ export function verifyCases(): VerifyCase[] {
       tolerance: 0.02,
       toleranceKind: 'relative',
       run: () => certifiedKt(expandTemplate('edge-notched-bar', { H: 400, t: 5, r: 5 }), 0.005, 'gross'),
+    },
+    {
+      id: 'two-holes-biaxial',
+      title: 'two equal holes two diameters apart (centres), equal biaxial tension, each its own raiser',
+      source: 'C.-B. Ling, J. Appl. Phys. 19 (1948) 77-82: Kt 2.372 at the inner edge, as digitised at second hand [V]; an independent series solution gives 2.411 [computed, not published]',
+      quantity: 'Kt remote of each hole (the lower of the two)',
+      reference: 2.372,
+      tolerance: 0.025,
+      toleranceKind: 'relative',
+      run: () => {
+        const d = 10;
+        const B = 40 * d;
+        const c = certifyModel(
+          {
+            material: STEEL,
+            thickness: 1,
+            geometry: {
+              outline: { shape: 'path', path: [[-B, -B], [B, -B], [B, B], [-B, B]] },
+              holes: [
+                { shape: 'circle', center: [-d, 0], diameter: d },
+                { shape: 'circle', center: [d, 0], diameter: d },
+              ],
+            },
+            supports: [
+              { type: 'pin', at: [-B, 0] },
+              { type: 'pin', at: [B, 0], fix: 'y' },
+            ],
+            loads: [{ type: 'remote', sxx: S, syy: S }],
+          },
+          { target: 0.005 },
+        );
+        const kts = c.settlement.raisers.map((r) => r.kt.find((k) => k.kind === 'remote')?.value ?? NaN);
+        return { computed: Math.min(...kts), detail: `${c.status}, ${c.meshes.length} meshes; the two holes ${kts.map((k) => k.toPrecision(5)).join(' and ')}` };
+      },
+    },
+    {
+      id: 'hole-in-beam-by-force',
+      title: 'central hole d/H = 0.2 in a cantilever strip, 20 depths from a tip force: Kt on M (d/2) / I_net from the section\'s own moment',
+      source: 'Roark\'s Formulas (Young & Budynas), Table 17.1, central circular hole in in-plane bending: Kt = 2 [V]; an exact finite-beam evaluation gives 1.989 [computed, not published]',
+      quantity: 'Kt net',
+      reference: 2,
+      tolerance: 0.05,
+      toleranceKind: 'relative',
+      run: () => certifiedKt(cantilever([{ shape: 'circle', center: [200, 20], diameter: 8 }], false), 0.005),
+    },
+    {
+      id: 'notches-in-beam-by-force',
+      title: 'opposite semicircular notches, h/r = 1, 2h/D = 0.2, in a cantilever strip, 20 depths from a tip force: Kt on 6 M / (t d^2)',
+      source: 'Roark\'s Formulas (Young & Budynas), Table 17.1, two U-notches in in-plane bending, fit evaluated: 2.069 [V for the fit]',
+      quantity: 'Kt net',
+      reference: 2.069,
+      tolerance: 0.05,
+      toleranceKind: 'relative',
+      run: () => certifiedKt(cantilever([], true), 0.005),
     },
     {
       id: 'kf-shigley-6-6',
