@@ -329,7 +329,7 @@ export function evaluateRaiserKt(ctx: KtContext, raiser: Raiser, peak: RaiserPea
         if (across && acrossLoads) {
           const sAcross = acrossLoads.N / across.area;
           if (Math.abs(sAcross) > BIAXIAL_RATIO * Math.abs(nominal)) {
-            biaxial = `the part is loaded across the flow as well (mean stress ${fmt(sAcross)} ${units.stress} across, ${fmt(nominal)} ${units.stress} along): a one-direction nominal stress does not describe a biaxial state; compare the peak with the applied stresses`;
+            biaxial = `the part is loaded across the flow as well (mean stress ${fmt(sAcross)} ${units.stress} across, ${fmt(nominal)} ${units.stress} along): a one-direction nominal stress does not describe a biaxial state; give the loading as a \`remote\` stress state for Kt against its largest principal stress`;
           }
         }
       }
