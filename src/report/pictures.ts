@@ -440,6 +440,17 @@ export function lineScene(src: PlotSource, opts: PictureOptions = {}): Scene {
     { name: measureName(measure), points: pm, colour: NET_COLOUR },
     { name: 'stress normal to the section', points: pn, colour: GROSS_COLOUR, dash: [8, 5] },
   ];
+  // The nominal stress distribution the Kt refers to: the beam formula on the net section.
+  if (isNet && govSec && govSec.N !== null && govSec.M !== null) {
+    const ex = (x1 - x0) / L;
+    const ey = (y1 - y0) / L;
+    const beam: number[] = [];
+    for (const d of [0, L]) {
+      const v = (x0 + d * ex - govSec.centroid[0]) * ex + (y0 + d * ey - govSec.centroid[1]) * ey;
+      beam.push(d, govSec.N / govSec.area - (govSec.mirror ? 0 : (govSec.M * v) / govSec.inertia));
+    }
+    series.push({ name: govSec.mirror ? 'nominal stress N / A (half of a symmetric section)' : 'nominal stress N / A - M y / I (beam formula)', points: beam, colour: SOFT, dash: [2, 4] });
+  }
   const net = gov?.kt.net;
   const refLines = isNet && net && net.nominal !== null ? [{ y: net.nominal, label: `net nominal stress at the raiser ${formatValue(net.nominal)} ${unit}`, colour: SOFT }] : [];
   const res = drawChart(s, fr.draw, { xLabel: `distance along the line (${r.units.length})`, yLabel: `stress (${unit})`, series, refLines, yInclude: [0] }, fr.size);
