@@ -214,6 +214,12 @@ export function certifyPrepared(prep: PreparedModel, opts: CertifyOptions = {}):
     }
   }
   if (status === 'not-converged' && meshes.length >= maxMeshes) notes.push(`stopped after ${maxMeshes} meshes`);
+  // The ends of a contact arc are kinks in the pressure, which lower the order of convergence
+  // near them: the band then rests on the order observed, as the grid convergence index does.
+  const last = runs[runs.length - 1];
+  if (last?.pins?.contact && gci && Number.isFinite(gci.observedOrder) && gci.observedOrder < pTh) {
+    notes.push(`pins in contact: the ends of the contact arcs lower the order of convergence (observed ${gci.observedOrder.toFixed(2)} against ${pTh}); the band uses ${gci.orderUsed === pTh ? 'the theoretical order with the safety factor 3, the observed one being out of range' : 'the observed order'}`);
+  }
   if (marked > 0) notes.push(`the error indicator on the first mesh marked ${marked} of ${first.mesh.nElements} elements for refinement beyond the geometric grading`);
   return {
     analysis: runs[runs.length - 1],
