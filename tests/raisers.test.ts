@@ -32,6 +32,7 @@ import { analyseModel } from '../src/pipeline/analyse.js';
 import { certifyModel } from '../src/pipeline/certify.js';
 import { buildResult } from '../src/report/result.js';
 import { formatSummary } from '../src/report/summary.js';
+import { cantilever } from '../src/verify/suite.js';
 
 const steel = { E: 210000, nu: 0.3 };
 
@@ -91,31 +92,11 @@ describe('raisers in a cantilever under a tip force: Kt from the moment its own 
   const H = 40;
   const t = 5;
   const P = 2000;
-  const beam = (holes: Model['geometry']['holes'], notched: boolean): Model => {
-    // A strip 1000 long, clamped at x = 0, the force at x = 1000; the raiser at x = 200, twenty
-    // depths from the tip, where the moment is 800 P and the shear P: the mean shear stress
-    // there is 6% of the bending stress at a central hole's edge, so the chart's pure bending
-    // holds to about 1%.
-    const path: any = notched
-      ? [
-          { at: [0, 0] },
-          { at: [196, 0], arc: { center: [200, 0], turn: 'cw' } },
-          { at: [204, 0] },
-          { at: [1000, 0], edge: 'tip' },
-          { at: [1000, H] },
-          { at: [204, H], arc: { center: [200, H], turn: 'cw' } },
-          { at: [196, H] },
-          { at: [0, H], edge: 'clamp' },
-        ]
-      : [[0, 0], { at: [1000, 0], edge: 'tip' }, [1000, H], { at: [0, H], edge: 'clamp' }];
-    return {
-      material: steel,
-      thickness: t,
-      geometry: { outline: { shape: 'path', path }, holes },
-      supports: [{ type: 'fixed', on: 'clamp' }],
-      loads: [{ type: 'force', on: 'tip', fy: -P }],
-    };
-  };
+  // the strip of the verification suite: 1000 x 40 x 5, clamped at x = 0, 2 kN down at x = 1000,
+  // the raiser at x = 200, twenty depths from the tip, where the moment is 800 P and the shear P:
+  // the mean shear stress there is 6% of the bending stress at a central hole's edge, so the
+  // chart's pure bending holds to about 1%
+  const beam = cantilever;
 
   it('a central hole, d/H = 0.2: Kt on M (d/2) / I_net is Roark\'s 2 (-5% +1%); the section carries M = 800 P', () => {
     const c = certifyModel(beam([{ shape: 'circle', center: [200, H / 2], diameter: 8, name: 'hole' }], false));

@@ -5,6 +5,7 @@
  * calls this once per mesh; src/post/settle.ts reads a series of them.
  */
 import type { Domain } from '../geometry/domain.js';
+import { nearestBoundaryNode } from '../fem/boundary-conditions.js';
 import type { Mesh } from '../mesh/types.js';
 import type { StressMeasure } from '../model/schema.js';
 import { evaluateRaiserKt, type KtContext, type RaiserKt, type RaiserNominalInput } from './kt.js';
@@ -74,27 +75,10 @@ function localSize(mesh: Mesh, nodes: readonly number[]): number[] {
   return nodes.map((n) => want.get(n) ?? 0);
 }
 
-function nearestBoundaryNodeTo(mesh: Mesh, x: number, y: number): number {
-  let best = 0;
-  let bd = Infinity;
-  for (let s = 0; s < mesh.nBEdges; s++) {
-    for (let k = 0; k < 3; k++) {
-      const n = mesh.bEdges[3 * s + k];
-      if (n < 0) continue;
-      const d = Math.hypot(mesh.nodes[2 * n] - x, mesh.nodes[2 * n + 1] - y);
-      if (d < bd) {
-        bd = d;
-        best = n;
-      }
-    }
-  }
-  return best;
-}
-
 export function evaluateMesh(input: EvaluateInput): MeshEvaluation {
   const { mesh, stress, measure, szzFactor, raisers, candidates } = input;
   const field = measureField(stress, measure, szzFactor);
-  const candNodes = candidates.map((c) => nearestBoundaryNodeTo(mesh, c.x, c.y));
+  const candNodes = candidates.map((c) => nearestBoundaryNode(mesh, c.x, c.y));
   const candidateStress = candNodes.map((n) => field[n]);
   const candidateSize = localSize(mesh, candNodes);
   const peaks = findRaiserPeaks(mesh, raisers, stress, measure, szzFactor);

@@ -175,10 +175,11 @@ function certifiedKt(model: Model, target: number, which: 'net' | 'gross' = 'net
 }
 
 /**
- * A strip 1000 x 40, clamped at x = 0, a force of 2 kN down at x = 1000; with a hole, or with
- * opposite semicircular notches of radius 4 at x = 200, where the moment is 800 times the shear.
+ * A strip 1000 x 40, 5 thick, clamped at x = 0, a force of 2 kN down at x = 1000; with the given
+ * holes, or with opposite semicircular notches of radius 4 at x = 200, where the moment is 800
+ * times the shear.
  */
-function cantilever(holes: Model['geometry']['holes'], notched: boolean): Model {
+export function cantilever(holes: Model['geometry']['holes'], notched: boolean): Model {
   const H = 40;
   const path: any = notched // the two outlines are plain data of different vertex kinds
     ? [
