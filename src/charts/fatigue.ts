@@ -1,6 +1,6 @@
 /**
  * Notch sensitivity q and the fatigue notch factor Kf, each with its source. Provenance tags
- * follow ../shared/REFERENCES.md section 8: [V] found in the named text, [D] derived, [M]
+ * are [V] found in the named text, [D] derived, [M]
  * recalled. These are estimates from curve fits of scattered fatigue data: Shigley notes that
  * Kf = Kt is always safe when q is in doubt [V: Shigley 9th ed., p. 296].
  *

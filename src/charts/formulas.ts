@@ -1,6 +1,6 @@
 /**
  * Published stress concentration formulas, each with its source, its nominal-stress definition
- * and its range. Provenance tags follow ../shared/REFERENCES.md: [V] found in the named text,
+ * and its range. Provenance tags: [V] found in the named text,
  * [D] derived from a closed-form solution, [M] recalled (coefficients not checked against the
  * book; cross-checks are stated where they exist).
  */

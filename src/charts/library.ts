@@ -28,7 +28,7 @@ export interface Chart {
   id: string;
   title: string;
   source: string;
-  /** [V], [D], [M], [M+]: see ../shared/REFERENCES.md */
+  /** [V] found in the text, [D] derived, [M] recalled, [M+] recalled with an independent check */
   provenance: string;
   /** which nominal stress: net or gross section, or the bearing stress F / (d t) of a pin */
   nominal: 'net' | 'gross' | 'bearing';

@@ -1,6 +1,6 @@
 /**
  * Closed-form elastic fields used to verify the finite element results, and a derived peak
- * stress for slender edge notches. Provenance tags follow ../shared/REFERENCES.md: [V] found in
+ * stress for slender edge notches. Provenance tags: [V] found in
  * the named text, [D] derived from a published closed form and checked, [M] recalled.
  *
  * Stress fields are functions (x, y) -> [sxx, syy, sxy] in the units of the remote stress; y up,

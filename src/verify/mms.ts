@@ -1,7 +1,7 @@
 /**
  * Code verification by the method of manufactured solutions (P. J. Roache, "Code verification
  * by the method of manufactured solutions", J. Fluids Eng. 124 (2002) 4-10 [M]; ASME V&V 20-2009
- * [V: reader's guide], as in ../shared/REFERENCES.md section 10): a smooth displacement field is
+ * [V: reader's guide]): a smooth displacement field is
  * chosen, the body force that makes it an exact solution is applied, the exact displacements
  * are prescribed on the whole boundary, and the errors of the finite element solution are
  * measured on a series of quasi-uniform meshes. Their slopes against h are the observed orders
