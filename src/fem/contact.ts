@@ -76,6 +76,36 @@ export interface PinContact {
   resultant: [number, number];
 }
 
+/**
+ * Where a pin's contact was on an earlier mesh of the same model: the direction of the force
+ * the pin put on the part and the half-angle of its arc about it (radians). A series of meshes
+ * starts each solve there, which saves the iterations of finding the arc again.
+ */
+export interface ContactHint {
+  fx: number;
+  fy: number;
+  halfAngle: number;
+}
+
+/** The hints of a solved contact, by pin path. */
+export function hintsFromContact(pins: readonly PinContact[]): Map<string, ContactHint> {
+  const out = new Map<string, ContactHint>();
+  for (const p of pins) {
+    const [fx, fy] = p.resultant;
+    const F = Math.hypot(fx, fy);
+    if (!(F > 0)) continue;
+    // The widest angle from the force's line among the nodes in contact.
+    let half = 0;
+    for (let i = 0; i < p.active.length; i++) {
+      if (!p.active[i]) continue;
+      const c = (p.hole.normal[2 * i] * fx + p.hole.normal[2 * i + 1] * fy) / F;
+      half = Math.max(half, Math.acos(Math.max(-1, Math.min(1, c))));
+    }
+    out.set(p.pin.path, { fx, fy, halfAngle: half });
+  }
+  return out;
+}
+
 export interface ContactSolution {
   /** displacements of the free DOFs, x-y axes, as solveSpd returns them */
   x: Float64Array;
@@ -191,6 +221,7 @@ export function solveContact(
   material: { thickness: number; planeModulus: number },
   options: SolveOptions = {},
   maxIterations = 50,
+  hints: ReadonlyMap<string, ContactHint> = new Map(),
 ): ContactSolution {
   const thickness = material.thickness;
   const K = system.K;
@@ -241,9 +272,9 @@ export function solveContact(
 
   // Starting set: a pushed pin's estimated arc about its force; a fixed pin's whole hole.
   const active = new Uint8Array(nPairs);
-  const seed = (pi: number, fx: number, fy: number) => {
+  const seed = (pi: number, fx: number, fy: number, halfGiven?: number) => {
     const h = holes[pi];
-    const half = estimatedHalfAngle(pins[pi], Math.hypot(fx, fy), material);
+    const half = halfGiven ?? estimatedHalfAngle(pins[pi], Math.hypot(fx, fy), material);
     const cosHalf = Math.cos(half);
     const F = Math.hypot(fx, fy);
     for (let i = 0; i < h.nodes.length; i++) {
@@ -256,9 +287,16 @@ export function solveContact(
     for (let i = 0; i < h.nodes.length; i++) if (h.normal[2 * i] * fx + h.normal[2 * i + 1] * fy > h.normal[2 * (best - first[pi])] * fx + h.normal[2 * (best - first[pi]) + 1] * fy) best = first[pi] + i;
     active[best] = 1;
   };
+  // With a hint from an earlier mesh of the same model, each pin starts on that solution's arc.
+  const bonded = new Uint8Array(pins.length);
   holes.forEach((h, pi) => {
-    if (pins[pi].role === 'load') seed(pi, pins[pi].force[0], pins[pi].force[1]);
-    else active.fill(1, first[pi], first[pi] + h.nodes.length);
+    const hint = hints.get(pins[pi].path);
+    if (hint && Math.hypot(hint.fx, hint.fy) > 0) seed(pi, hint.fx, hint.fy, hint.halfAngle);
+    else if (pins[pi].role === 'load') seed(pi, pins[pi].force[0], pins[pi].force[1]);
+    else {
+      active.fill(1, first[pi], first[pi] + h.nodes.length);
+      bonded[pi] = 1;
+    }
   });
 
   const solver = new RepeatedSolver(K, options);
@@ -409,7 +447,7 @@ export function solveContact(
     if (iterations === 1) {
       // A fixed pin started bonded to its hole: start again on the estimated arc about the force it carries.
       holes.forEach((h, pi) => {
-        if (pins[pi].role !== 'support') return;
+        if (!bonded[pi]) return;
         let rx = 0;
         let ry = 0;
         for (let i = 0; i < h.nodes.length; i++) {

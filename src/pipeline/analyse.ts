@@ -12,7 +12,7 @@ import { assembleSystem, internalForces, meshNodeGraph } from '../fem/assemble.j
 import { compileLoads, compileSupports, HOLD_FREE, HOLD_MIRROR, type CompiledLoads, type ExtraTraction } from '../fem/boundary-conditions.js';
 import { constitutiveMatrix, type PlaneState } from '../fem/material.js';
 import { checkRigidMotion } from '../fem/rigid.js';
-import { addContactForces, pinSupportCentres, solveContact, type ContactSolution, type PinsOfAnalysis } from '../fem/contact.js';
+import { addContactForces, pinSupportCentres, solveContact, type ContactHint, type ContactSolution, type PinsOfAnalysis } from '../fem/contact.js';
 import { generateMesh, triangleMinAngle } from '../mesh/generate.js';
 import type { SizeField } from '../mesh/sizefield.js';
 import type { HardPoint } from '../mesh/boundary.js';
@@ -238,7 +238,7 @@ export function analyseModel(model: Model, opts: AnalyseOptions = {}): Analysis 
 }
 
 /** Meshes (with the given scaling and size limit), solves and evaluates. */
-export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: number; limit?: SizeLimit } = {}): Analysis {
+export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: number; limit?: SizeLimit; contactHints?: ReadonlyMap<string, ContactHint> } = {}): Analysis {
   const t0 = performance.now();
   const warnings: string[] = [];
   const { model, units, state, measure, domain, order, hardPoints } = prep;
@@ -277,7 +277,7 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
     const solveOptions = { coords: mesh.nodes, nodeAdjacency: nodeGraph, dofsPerNode: 2, fullDofOfRow: system.freeDof, maxFactorBytes };
     // --- pins in holes: rigid pins in frictionless contact replace the linear solve ---
     const planeModulus = state === 'plane-strain' ? model.material.E / (1 - model.material.nu ** 2) : model.material.E;
-    if (contactPins.length > 0) solved = contact = solveContact(mesh, system, contactPins, { thickness: model.thickness, planeModulus }, solveOptions);
+    if (contactPins.length > 0) solved = contact = solveContact(mesh, system, contactPins, { thickness: model.thickness, planeModulus }, solveOptions, undefined, meshing.contactHints);
     else solved = solveSpd(system.K, system.f, solveOptions);
     // --- end of pins ---
   } catch (err) {

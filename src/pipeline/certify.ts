@@ -18,6 +18,7 @@
  * spent. A raiser whose peak sits at a singular point is kept out of the stopping rule, so a
  * clamp's end that never converges does not drive the series to its budget.
  */
+import { hintsFromContact } from '../fem/contact.js';
 import { MeshSizeLimit, type SizeLimit } from '../mesh/background.js';
 import { gridConvergence, type GciResult } from '../post/convergence.js';
 import { estimateErrors } from '../post/estimate.js';
@@ -172,7 +173,10 @@ export function certifyPrepared(prep: PreparedModel, opts: CertifyOptions = {}):
     const f = Math.pow(RATIO, -k);
     let a: Analysis;
     try {
-      a = k === 0 && !limit ? first : analyseOnMesh(prep, { sizeFactor: s0 * f, limit: scaled(limit, f) });
+      // Pins in contact start where the previous mesh found their arcs.
+      const prev = runs.length > 0 ? runs[runs.length - 1] : first;
+      const contactHints = prev.pins?.contact ? hintsFromContact(prev.pins.contact.pins) : undefined;
+      a = k === 0 && !limit ? first : analyseOnMesh(prep, { sizeFactor: s0 * f, limit: scaled(limit, f), contactHints });
     } catch (err) {
       // The next mesh would not fit in memory: stop with what the series has.
       if (err instanceof ModelError && err.path === 'mesh' && runs.length > 0) {
