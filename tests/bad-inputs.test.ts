@@ -4,7 +4,8 @@
  * right kind: bad input (exit 2, ModelError) or a model that cannot be analysed as given (exit 3,
  * AnalysisError). Each case lists the message it must give.
  */
-import { mkdtempSync, writeFileSync, mkdirSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, mkdirSync, symlinkSync, truncateSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -12,6 +13,8 @@ import { AnalysisError, ModelError } from '../src/model/errors.js';
 import { loadModelText } from '../src/model/load.js';
 import { analyseOnMesh, prepareModel } from '../src/pipeline/analyse.js';
 import { raiser } from './support/cli.js';
+import { runBounded } from './support/bounded.js';
+import { DXF_RECT, drawingModel, dxf, dxfLine, dxfSpline, manyFields, nestedBlocks, svgDeepGroups, svgEntityDeclarations, svgEntityExpansion, svgUseFanOut } from './support/hostile.js';
 
 /** A valid plate with a hole: 100 x 40, clamped at x = 0, pulled at x = 100. */
 function base(): any {
@@ -101,6 +104,25 @@ const CASES: Case[] = [
   ['a misspelt plane state', (m) => (m.state = 'plane strain'), 'model', /state/],
   ['an ellipse with a negative semi-axis', (m) => m.geometry.holes.push({ shape: 'ellipse', center: [20, 20], a: -3, b: 2 }), 'model', /\.a/],
   ['a point with three coordinates', (m) => (m.geometry.holes[0].center = [50, 20, 0]), 'model', /center/],
+  // Hostile and careless text: refused before any object is built from it, in time and memory linear in the text.
+  ['a "__proto__" field (it would set the fields of the object it sits in)', JSON.stringify(base()).replace('"thickness":5', '"thickness":5,"__proto__":{"state":"plane-strain"}'), 'model', /1:\d+: at __proto__: unknown field "__proto__"/],
+  ['a "__proto__" field inside a hole', JSON.stringify(base()).replace('"diameter":10,', '"__proto__":{"diameter":20},'), 'model', /at geometry\.holes\[0\]\.__proto__: unknown field "__proto__"/],
+  ['"constructor" and "prototype" fields', JSON.stringify(base()).replace('"thickness":5', '"thickness":5,"constructor":1,"prototype":2'), 'model', /unknown field "constructor"[\s\S]*unknown field "prototype"/],
+  ['a parameter named "constructor"', (m) => ((m.parameters = { constructor: 4 }), (m.thickness = '=constructor')), 'model', /unknown field "constructor"/],
+  ['lists nested 2000 deep (once a stack overflow)', JSON.stringify(base()).replace('"thickness":5', `"thickness":5,"note":${'['.repeat(2000)}${']'.repeat(2000)}`), 'model', /nested 2001 deep here, more than the 32 levels/],
+  ['100,000 unknown fields: the first 20 are listed, the rest counted', manyFields(100_000, false), 'model', /100,000 problems in the model[\s\S]*unknown field "unknown0"[\s\S]*and 99,980 more problems/],
+  ['a field given 100,000 times', manyFields(100_000, true), 'model', /100,000 problems[\s\S]*"thickness" is given twice[\s\S]*and 99,980 more problems/],
+  ['an expression calling "constructor"', (m) => (m.thickness = '=constructor(1)'), 'model', /"constructor" is not a function raiser knows/],
+  ['an expression of 100,000 nested parentheses, quoted short', (m) => ((m.parameters = { d: 10 }), (m.geometry.holes[0].diameter = `=${'('.repeat(100_000)}d${')'.repeat(100_000)}`)), 'model', /^(?![\s\S]{3000})[\s\S]*200,001 characters\)" is longer than the 1000 characters/],
+  ['an expression nesting parentheses 40 deep', (m) => ((m.parameters = { d: 10 }), (m.geometry.holes[0].diameter = `=${'('.repeat(40)}d${')'.repeat(40)}`)), 'model', /nests parentheses more than 32 deep/],
+  ['a function given 150 arguments', (m) => ((m.parameters = { d: 10 }), (m.geometry.holes[0].diameter = `=max(${Array(150).fill('d').join(',')})`)), 'model', /max is given more than 100 arguments/],
+  ['an expression of 300,000 arguments', (m) => ((m.parameters = { d: 10 }), (m.geometry.holes[0].diameter = `=max(${Array(300_000).fill('d').join(',')})`)), 'model', /longer than the 1000 characters/],
+  ['a run of 50 minus signs', (m) => (m.thickness = `=${'-'.repeat(50)}5`), 'model', /more than 32 signs in a row/],
+  ['a bad expression of 400,000 characters is not echoed whole', (m) => (m.thickness = `=${'x'.repeat(400_000)}`), 'model', /^(?![\s\S]{3000})[\s\S]*400,000 characters/],
+  ['division by zero, with a fix', (m) => ((m.parameters = { gap: 0 }), (m.thickness = '=10/gap')), 'model', /division by zero in "10\/gap"\n[\s\S]*fix: check the divisor/],
+  ['the square root of a negative number, with a fix', (m) => (m.thickness = '=sqrt(-1)'), 'model', /square root of a negative number[\s\S]*fix: check the sign/],
+  ['a power that overflows, with a fix', (m) => (m.thickness = '=10^400'), 'model', /10\^400[\s\S]*does not give a finite number[\s\S]*fix: the power is too large/],
+  ['a NUL character in the text, placed', JSON.stringify(base()).replace('"thickness":5', '"thickness":5\u0000'), 'model', /1:\d+: not valid JSON: a NUL character/],
 ];
 
 function attempt(input: Case[1]): unknown {
@@ -167,5 +189,101 @@ describe('bad inputs at the command line', () => {
     writeFileSync(f, JSON.stringify(m));
     expect(raiser(['solve', f, '--single-mesh']).code).toBe(3);
     expect(raiser(['solve', f, '--single-mesh', '--debug']).stderr).toMatch(/at .*\.js:\d+/);
+  });
+});
+
+/**
+ * Hostile and careless files, each run through the command line in a child process with a heap
+ * of 512 MB. Every one once hung raiser, exhausted its memory or crashed it; now each must exit
+ * with 2 and a message naming the file, the place and the limit, within a bounded peak memory
+ * (the child's own high-water mark). No time is asserted: a file that still hung would be stopped
+ * by the child's time-out and fail on its missing exit code.
+ */
+describe('hostile files at the command line, each in a child with a bounded heap', () => {
+  const dir = mkdtempSync(join(tmpdir(), 'raiser-hostile-'));
+  /** Peak resident memory allowed for a refusal (node itself takes about 60 MB). */
+  const PEAK_BYTES = 400 * 2 ** 20;
+  type FileCase = [name: string, files: Record<string, string>, message: RegExp];
+  const drawing = (name: string, content: string): Record<string, string> => ({ [name]: content, [`${name}.json`]: drawingModel(name) });
+  const FILES: FileCase[] = [
+    ['a DXF ARC whose end angle is 1e300 (once an endless loop)', drawing('arc.dxf', dxf(`${DXF_RECT}0\nARC\n8\n0\n10\n50\n20\n20\n40\n5\n50\n0\n51\n1e300\n`)), /ARC on layer "0".*start and end angles in degrees \(0, 1e\+300\) are not usable/],
+    ['an SVG of <use> elements fanning out 10 ways 10 deep (once 3.7 GB)', drawing('fan.svg', svgUseFanOut(10, 10)), /expands into more than 200,000 elements \(counting every copy that a <use> makes\)/],
+    ['a DXF of block INSERTs nested 10 ways 12 deep (once 4 GB)', drawing('nest.dxf', dxf(`${DXF_RECT}0\nINSERT\n2\nB12\n10\n0\n20\n0\n`, nestedBlocks(12, 10))), /expands into more than 200,000 entities \(counting every copy that a block INSERT makes\)/],
+    ['a DXF INSERT arrayed 30,000 x 30,000', drawing('array.dxf', dxf(`${DXF_RECT}0\nINSERT\n2\nB0\n10\n0\n20\n0\n70\n30000\n71\n30000\n44\n1\n45\n1\n`, nestedBlocks(0, 1))), /an array of 30000 columns x 30000 rows, more than the 10,000 copies/],
+    ['an SVG document type of 120,000 entity declarations (once minutes)', drawing('decl.svg', svgEntityDeclarations(120_000)), /document type declares more than 256 entities/],
+    ['an SVG document type of unterminated entity declarations (once quadratic)', drawing('broken-decl.svg', svgEntityDeclarations(30_000, true)), /declares more than 256 entities|not well-formed/],
+    ['an SVG entity of 4,000 characters used 1,000 times', drawing('bomb.svg', svgEntityExpansion(4000, 1000)), /expand to more than 1,048,576 characters/],
+    ['an SVG nested 100,000 groups deep', drawing('deep.svg', svgDeepGroups(100_000)), /nested more than 256 deep/],
+    ['a DXF SPLINE of degree 60 (once degree x knots x points)', drawing('degree.dxf', dxf(dxfLine(0, 0, 100, 0) + dxfLine(100, 0, 100, 40) + dxfLine(0, 40, 0, 0) + dxfSpline(60, 200))), /SPLINE on layer "0".*its degree 60 is above the highest raiser reads, 25/],
+    ['a DXF SPLINE of 60,000 control points', drawing('points.dxf', dxf(dxfLine(0, 0, 100, 0) + dxfLine(100, 0, 100, 40) + dxfLine(0, 40, 0, 0) + dxfSpline(3, 60_000))), /60000 control points of degree 3 are more than raiser reads in one spline/],
+    ['DXF coordinates "nan"', drawing('nan.dxf', dxf(DXF_RECT.replace('10\n100\n20\n0\n11', '10\nnan\n20\n0\n11'))), /LINE on layer "0", handle \w+: a coordinate or size is not a finite number/],
+    ['DXF coordinates "inf"', drawing('inf.dxf', dxf(DXF_RECT.replace('10\n100\n20\n0\n11', '10\ninf\n20\n0\n11'))), /not a finite number/],
+    ['a model file in UTF-32 (once called UTF-16)', { 'utf32.json': '' }, /saved as UTF-32 text/],
+  ];
+  // Written as bytes: UTF-32 little-endian with its byte-order mark.
+  const utf32 = (text: string) => {
+    const b = Buffer.alloc(4 * (text.length + 1));
+    b.writeUInt32LE(0xfeff, 0);
+    for (let i = 0; i < text.length; i++) b.writeUInt32LE(text.charCodeAt(i), 4 * (i + 1));
+    return b;
+  };
+  for (const [name, files, message] of FILES) {
+    it(`${name}: exit 2, saying ${message}`, () => {
+      let model = '';
+      for (const [f, text] of Object.entries(files)) {
+        writeFileSync(join(dir, f), f === 'utf32.json' ? utf32(JSON.stringify(base())) : text);
+        if (f.endsWith('.json')) model = f;
+      }
+      const r = runBounded(['solve', model, '--single-mesh'], { cwd: dir });
+      expect(r.code, r.stderr).toBe(2);
+      expect(r.stderr).toMatch(message);
+      expect(r.stderr).toContain(model);
+      expect(r.peakBytes).toBeLessThan(PEAK_BYTES);
+    });
+  }
+
+  it('a drawing that is a link to /dev/zero, a FIFO, an absolute path or a path out of the folder: refused before reading', () => {
+    const sub = join(dir, 'models');
+    mkdirSync(sub, { recursive: true });
+    const cases: [string, RegExp][] = [
+      ['zero.svg', /"zero\.svg" is a link to \/dev\/zero, outside the folder of the model file[\s\S]*--allow-drawing-outside/],
+      ['pipe.dxf', /"pipe\.dxf" is a named pipe \(FIFO\), not a drawing file/],
+      ['/etc/hostname.svg', /is an absolute path; raiser reads only drawings inside the model file's folder/],
+      ['../outside.svg', /"\.\.\/outside\.svg" leaves the folder of the model file/],
+    ];
+    symlinkSync('/dev/zero', join(sub, 'zero.svg'));
+    spawnSync('mkfifo', [join(sub, 'pipe.dxf')]);
+    writeFileSync(join(dir, 'outside.svg'), svgDeepGroups(1));
+    for (const [from, message] of cases) {
+      if (from === 'pipe.dxf' && !existsSync(join(sub, from))) continue; // no mkfifo here
+      writeFileSync(join(sub, 'm.json'), drawingModel(from));
+      const r = runBounded(['solve', 'm.json', '--single-mesh'], { cwd: sub, killAfterMs: 60_000 });
+      expect(r.code, `${from}: ${r.stderr}`).toBe(2);
+      expect(r.stderr).toMatch(message);
+      expect(r.peakBytes).toBeLessThan(PEAK_BYTES);
+    }
+    // Allowed by the option, the link is still not a regular file.
+    writeFileSync(join(sub, 'm.json'), drawingModel('zero.svg'));
+    const r = runBounded(['solve', 'm.json', '--single-mesh', '--allow-drawing-outside'], { cwd: sub, killAfterMs: 60_000 });
+    expect(r.code, r.stderr).toBe(2);
+    expect(r.stderr).toMatch(/"zero\.svg" is a character device, not a drawing file/);
+  });
+
+  it('a drawing or model file beyond the size limit is refused without reading it', () => {
+    const big = join(dir, 'big.svg');
+    writeFileSync(big, '');
+    truncateSync(big, 65 * 2 ** 20); // sparse: no disk, no time
+    writeFileSync(join(dir, 'big.json'), drawingModel('big.svg'));
+    const r = runBounded(['solve', 'big.json', '--single-mesh'], { cwd: dir });
+    expect(r.code, r.stderr).toBe(2);
+    expect(r.stderr).toMatch(/the drawing "big\.svg" is 65 MiB, more than the 64 MiB raiser reads/);
+    expect(r.peakBytes).toBeLessThan(PEAK_BYTES);
+    const model = join(dir, 'huge-model.json');
+    writeFileSync(model, '');
+    truncateSync(model, 17 * 2 ** 20);
+    const m = runBounded(['solve', model, '--single-mesh'], { cwd: dir });
+    expect(m.code, m.stderr).toBe(2);
+    expect(m.stderr).toMatch(/is 17 MiB, more than the 16 MiB a model file may be/);
+    expect(m.peakBytes).toBeLessThan(PEAK_BYTES);
   });
 });

@@ -34,6 +34,7 @@ interface SolveFlags {
   measure?: StressMeasure;
   element?: 'linear' | 'quadratic';
   debug?: boolean;
+  allowDrawingOutside?: boolean;
 }
 
 /** "8", "8GB", "512MB" -> bytes. */
@@ -45,7 +46,7 @@ function parseMemory(text: string): number {
 }
 
 function runSolve(file: string, flags: SolveFlags): number {
-  const { model, warnings } = loadModelFile(file);
+  const { model, warnings } = loadModelFile(file, { allowDrawingOutside: flags.allowDrawingOutside });
   const opts = { measure: flags.measure, element: flags.element, maxMemoryBytes: flags.maxMemory ? parseMemory(flags.maxMemory) : undefined };
   let analysis;
   let cert = null;
@@ -117,6 +118,7 @@ export async function main(argv: string[]): Promise<number> {
     .addOption(new Option('--measure <measure>', 'stress measure for the peak and Kt').choices(STRESS_MEASURES as unknown as string[]))
     .addOption(new Option('--element <type>', 'element type, overriding the model file').choices(['linear', 'quadratic']))
     .option('--debug', 'show internal details (stack traces) on errors')
+    .option('--allow-drawing-outside', 'let geometry.from read a drawing outside the model file\'s folder (an absolute path, or one through ..)')
     .action((file: string, flags: SolveFlags) => {
       debug = debug || !!flags.debug;
       code = runSolve(file, flags);

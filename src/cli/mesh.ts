@@ -19,6 +19,7 @@ interface MeshFlags {
   force?: boolean;
   element?: 'linear' | 'quadratic';
   json?: boolean;
+  allowDrawingOutside?: boolean;
 }
 
 function fmt(v: number): string {
@@ -26,7 +27,7 @@ function fmt(v: number): string {
 }
 
 export function runMesh(file: string, flags: MeshFlags): { text: string; json: object } {
-  const { model, warnings } = loadModelFile(file);
+  const { model, warnings } = loadModelFile(file, { allowDrawingOutside: flags.allowDrawingOutside });
   const prep = prepareModel(model, { element: flags.element });
   const { domain, order, hardPoints } = prep;
   const ms = model.mesh ?? {};
@@ -118,6 +119,7 @@ export function meshCommand(program: Command, setCode: (c: number) => void): voi
     .option('--force', 'replace picture files that already exist in the output folder')
     .addOption(new Option('--element <type>', 'element type, overriding the model file').choices(['linear', 'quadratic']))
     .option('--json', 'print the summary as one JSON object on stdout, nothing else')
+    .option('--allow-drawing-outside', 'let geometry.from read a drawing outside the model file\'s folder (an absolute path, or one through ..)')
     .action((file: string, flags: MeshFlags) => {
       const r = runMesh(file, flags);
       process.stdout.write((flags.json ? JSON.stringify(r.json, null, 2) : r.text) + '\n');

@@ -53,7 +53,7 @@ function optionsSignature(src: SweepSource, opts: CaseOptions): string {
 }
 
 export async function runSweep(file: string, opts: SweepOptions): Promise<SweepResult> {
-  const src = readSweepSource(file, opts.vary);
+  const src = readSweepSource(file, opts.vary, { allowDrawingOutside: opts.allowDrawingOutside });
   const cases = allCases(opts.vary).map((values) => ({ key: caseKey(values), values }));
   const dir = join(opts.outDir, 'cases');
   mkdirSync(dir, { recursive: true });
@@ -97,7 +97,7 @@ export async function runSweep(file: string, opts: SweepOptions): Promise<SweepR
       let next = 0;
       let active = 0;
       const start = () => {
-        const w = new Worker(workerFile, { workerData: { file, vary: opts.vary, options: caseOpts } });
+        const w = new Worker(workerFile, { workerData: { file, vary: opts.vary, options: { ...caseOpts, allowDrawingOutside: opts.allowDrawingOutside } } });
         active++;
         const feed = () => {
           if (next < todo.length) w.postMessage(todo[next++]);
