@@ -14,7 +14,7 @@ import { loadModelText } from '../src/model/load.js';
 import { analyseOnMesh, prepareModel } from '../src/pipeline/analyse.js';
 import { raiser } from './support/cli.js';
 import { runBounded } from './support/bounded.js';
-import { DXF_RECT, drawingModel, dxf, dxfLine, dxfSpline, manyFields, nestedBlocks, svgDeepGroups, svgEntityDeclarations, svgEntityExpansion, svgUseFanOut } from './support/hostile.js';
+import { DXF_RECT, drawingModel, dxf, dxfLine, dxfSpline, lwPolylineCircle, manyCircles, manyFields, nestedBlocks, svgDeepGroups, svgEntityDeclarations, svgEntityExpansion, svgUseFanOut } from './support/hostile.js';
 
 /** A valid plate with a hole: 100 x 40, clamped at x = 0, pulled at x = 100. */
 function base(): any {
@@ -122,6 +122,12 @@ const CASES: Case[] = [
   ['division by zero, with a fix', (m) => ((m.parameters = { gap: 0 }), (m.thickness = '=10/gap')), 'model', /division by zero in "10\/gap"\n[\s\S]*fix: check the divisor/],
   ['the square root of a negative number, with a fix', (m) => (m.thickness = '=sqrt(-1)'), 'model', /square root of a negative number[\s\S]*fix: check the sign/],
   ['a power that overflows, with a fix', (m) => (m.thickness = '=10^400'), 'model', /10\^400[\s\S]*does not give a finite number[\s\S]*fix: the power is too large/],
+  // Geometry that once hung the mesher or grew it without bound.
+  ['an arc of radius a hair over half its chord, "large", leaving its corner along the edge (once a mesh that never finished)', (m) => (path(m)[1] = { at: [100, 0], edge: 'pull', arc: { radius: 20 + 1e-10, turn: 'cw', large: true } }), 'model', /at geometry\.outline\.path\[1\]\.arc: .*meet at \(100, 0\) running back along each other.*less than the 1 degree/],
+  ['the same arc at exactly half its chord (once an internal fault)', (m) => (path(m)[3] = { at: [0, 40], edge: 'held', arc: { radius: 20, turn: 'cw', large: true } }), 'model', /running back along each other/],
+  ['a wedge of material of half a degree', (m) => ((path(m)[2].at = [100, 100 * Math.tan(Math.PI / 360)]), path(m).pop(), (m.geometry.holes = []), (m.supports = [{ type: 'fixed', on: 'pull' }]), (m.loads = [{ type: 'traction', on: 'top', normal: 1 }])), 'model', /0\.5 degrees from a full reversal/],
+  ['6,000 holes', (m) => (m.geometry.holes = Array.from({ length: 6000 }, (_, k) => ({ shape: 'circle', center: [1 + (k % 100), 1 + Math.floor(k / 100) * 0.5], diameter: 0.1 }))), 'model', /the part has 6000 holes, more than the 4999/],
+  ['an outline of 60,000 edges not in line', (m) => (m.geometry.outline.path = Array.from({ length: 60_000 }, (_, k) => ({ at: [50 + 45 * Math.cos((2 * Math.PI * k) / 60_000), 20 + 18 * Math.sin((2 * Math.PI * k) / 60_000)], edge: k === 0 ? 'pull' : k === 30_000 ? 'held' : undefined }))), 'model', /more than 50,000 edges/],
   ['a NUL character in the text, placed', JSON.stringify(base()).replace('"thickness":5', '"thickness":5\u0000'), 'model', /1:\d+: not valid JSON: a NUL character/],
 ];
 
@@ -219,6 +225,8 @@ describe('hostile files at the command line, each in a child with a bounded heap
     ['DXF coordinates "nan"', drawing('nan.dxf', dxf(DXF_RECT.replace('10\n100\n20\n0\n11', '10\nnan\n20\n0\n11'))), /LINE on layer "0", handle \w+: a coordinate or size is not a finite number/],
     ['DXF coordinates "inf"', drawing('inf.dxf', dxf(DXF_RECT.replace('10\n100\n20\n0\n11', '10\ninf\n20\n0\n11'))), /not a finite number/],
     ['a model file in UTF-32 (once called UTF-16)', { 'utf32.json': '' }, /saved as UTF-32 text/],
+    ['a DXF of 10,000 circles (once "Set maximum size exceeded")', drawing('circles.dxf', dxf(DXF_RECT.replace(/100/g, '1000').replace(/\n40\n/g, '\n1000\n') + manyCircles(100))), /the drawing has 10001 closed loops, more than the 5000/],
+    ['a DXF polyline of 250,000 vertices (once "Set maximum size exceeded" at a million)', drawing('poly.dxf', dxf(lwPolylineCircle(250_000))), /more than 200,000 lines, arcs and curves/],
   ];
   // Written as bytes: UTF-32 little-endian with its byte-order mark.
   const utf32 = (text: string) => {

@@ -8,7 +8,7 @@
 import { ModelError } from '../model/errors.js';
 import { curveBendBound, curveTurn, evaluateCurve } from './curve.js';
 import type { Domain } from './domain.js';
-import { findContacts, pointInLoop, type Polylines } from './intersect.js';
+import { findContacts, indexLoops, pointInLoop, type LoopIndex, type Polylines } from './intersect.js';
 
 const CHORD_TURN = (2 * Math.PI) / 180;
 
@@ -53,8 +53,31 @@ function fmt(v: number): string {
   return Number(v.toPrecision(5)).toString();
 }
 
+/**
+ * The narrowest wedge of material a corner may make, and the widest (radians). A corner sharper
+ * than a degree (a cusp: an arc of radius half its chord meeting an edge along its tangent, say)
+ * cannot be meshed with elements of bounded shape in bounded number: the mesh of a 1 degree
+ * wedge takes about a second, of 0.1 degree it did not finish. A material angle within a degree
+ * of a full turn is a slit of no width.
+ */
+export const MIN_CORNER_ANGLE = Math.PI / 180;
+
 /** Throws a ModelError for the first problem found; returns quietly for a valid domain. */
 export function validateDomain(domain: Domain): void {
+  // A wedge drawn at exactly one degree passes: the limit allows for its rounding.
+  const least = MIN_CORNER_ANGLE * (1 - 1e-6);
+  for (const c of domain.corners) {
+    if (c.materialAngle >= least && c.materialAngle <= 2 * Math.PI - least) continue;
+    const ein = domain.edges[c.edgeIn];
+    const eout = domain.edges[c.edgeOut];
+    // Near a reversal the sign of the turn is rounding: a cusp of material and a slit of no width look alike.
+    const fromReversal = (Math.min(c.materialAngle, 2 * Math.PI - c.materialAngle) * 180) / Math.PI;
+    throw new ModelError(
+      eout.curve.kind !== 'line' || ein.curve.kind === 'line' ? eout.source : ein.source,
+      `${ein.label} and ${eout.label} meet at (${fmt(c.x)}, ${fmt(c.y)}) running back along each other (${Number(fromReversal.toPrecision(3))} degrees from a full reversal, less than the 1 degree a corner may have): a cusp of material or a slit of no width, which no mesh can fill`,
+      'check the arc\'s radius, "turn" and "large" (an arc of radius half its chord leaves its ends along the chord), round the corner, or give a slit a width',
+    );
+  }
   const pl = traceLoops(domain);
   const tol = 1e-9 * domain.scale;
   const contacts = findContacts(pl, tol, 4);
@@ -79,22 +102,22 @@ export function validateDomain(domain: Domain): void {
     );
   }
   const outline = domain.loops[0];
+  const index = indexLoops(pl);
   for (const loop of domain.loops.slice(1)) {
-    const x = pl.xy[2 * firstPoint(pl, loop.index)];
-    const y = pl.xy[2 * firstPoint(pl, loop.index) + 1];
-    if (!pointInLoop(pl, outline.index, x, y)) {
+    const x = pl.xy[2 * firstPoint(pl, loop.index, index)];
+    const y = pl.xy[2 * firstPoint(pl, loop.index, index) + 1];
+    if (!pointInLoop(pl, outline.index, x, y, index)) {
       throw new ModelError(loop.source, `${loop.label} lies outside the outline`, 'holes must lie inside the outline; check its centre and size');
     }
     for (const other of domain.loops.slice(1)) {
       if (other === loop) continue;
-      if (pointInLoop(pl, other.index, x, y)) {
+      if (pointInLoop(pl, other.index, x, y, index)) {
         throw new ModelError(loop.source, `${loop.label} lies inside ${other.label}`, 'a hole inside a hole is not a plate; remove one of them');
       }
     }
   }
 }
 
-function firstPoint(pl: Polylines, loop: number): number {
-  for (let s = 0; s < pl.segLoop.length; s++) if (pl.segLoop[s] === loop) return pl.segs[2 * s];
-  return 0;
+function firstPoint(pl: Polylines, loop: number, index: LoopIndex): number {
+  return index.start[loop] >= 0 ? pl.segs[2 * index.start[loop]] : 0;
 }

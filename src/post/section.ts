@@ -179,7 +179,7 @@ export function findSections(input: SectionInput): { net: Cut; gross: Cut } {
     return Math.abs(makeCut(input, c.u, c.vs, c.s).moment);
   };
   const carry = cands.map(carried);
-  const maxCarry = Math.max(...carry);
+  const maxCarry = carry.reduce((m, c) => Math.max(m, c), -Infinity); // no spread: a long trace overflowed the call stack
   const loaded = cands.filter((_c, i) => carry[i] >= 0.5 * maxCarry);
   const peakU = input.peakX * dx + input.peakY * dy;
   const pick = (better: (a: number, b: number) => boolean) => {

@@ -99,3 +99,17 @@ export function manyFields(count: number, duplicate: boolean): string {
   const extra = Array.from({ length: count }, (_, i) => (duplicate ? `"thickness": 5` : `"unknown${i}": 1`)).join(',\n');
   return `{${m},\n${extra}}`;
 }
+
+/** n x n small CIRCLEs, 10 apart, inside a 1000 x 1000 square. */
+export function manyCircles(n: number): string {
+  let s = '';
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) s += `0\nCIRCLE\n8\n0\n10\n${5 + 10 * i}\n20\n${5 + 10 * j}\n40\n1\n`;
+  return s;
+}
+
+/** A closed LWPOLYLINE of n vertices on a circle of radius 40 about (50, 50). */
+export function lwPolylineCircle(n: number): string {
+  let s = `0\nLWPOLYLINE\n8\n0\n90\n${n}\n70\n1\n`;
+  for (let i = 0; i < n; i++) s += `10\n${(50 + 40 * Math.cos((2 * Math.PI * i) / n)).toFixed(6)}\n20\n${(50 + 40 * Math.sin((2 * Math.PI * i) / n)).toFixed(6)}\n`;
+  return s;
+}

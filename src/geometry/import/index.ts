@@ -18,10 +18,11 @@ import { extname, isAbsolute, relative, resolve, sep } from 'node:path';
 import { formatBytes, readRegularFile } from '../../model/read-file.js';
 import type { DrawingGeometry } from '../../model/schema.js';
 import { type Curve, curveAreaTerm, curveLength, curveTangent, evaluateCurve, splitBezier } from '../curve.js';
-import { findContacts, pointInLoop, type Polylines } from '../intersect.js';
+import { findContacts, indexLoops, pointInLoop, type Polylines } from '../intersect.js';
 import { readDxf } from './dxf.js';
 import { joinPieces, type DrawnLoop, type OpenEnd } from './join.js';
 import { MAX_DRAWING_BYTES } from './limits.js';
+import { MAX_LOOPS } from '../limits.js';
 import { readSvg } from './svg.js';
 import { DrawingError, type DrawnCurve, type ReadDrawing, type ReadOptions } from './types.js';
 
@@ -225,6 +226,9 @@ function sortLoops(read: ReadDrawing, g: DrawingGeometry, path: string, format: 
   if (joined.openEnds.length || joined.branches.length) throw joinError(joined.openEnds, joined.branches, tol, size, g);
   const notes = [...read.notes];
   if (joined.duplicates.length) notes.push(`${joined.duplicates.length} duplicate entit${joined.duplicates.length === 1 ? 'y' : 'ies'} (the same curve drawn twice) left out: ${joined.duplicates.slice(0, 3).map((d) => d.origin).join('; ')}`);
+  if (joined.loops.length > MAX_LOOPS) {
+    throw new DrawingError(`the drawing has ${joined.loops.length} closed loops, more than the ${MAX_LOOPS} (an outline and its holes) raiser analyses in one model`, 'model a representative piece of the part (a strip of holes with symmetry supports), or leave out what is not the plate with "ignore"');
+  }
   const loops = joined.loops.map((l) => ({ ...l, curves: splitInflections(l.curves, size) }));
   if (loops.length === 0) throw new DrawingError('the drawing has no closed loop', 'a plate needs a closed outline');
 
@@ -256,6 +260,7 @@ function sortLoops(read: ReadDrawing, g: DrawingGeometry, path: string, format: 
   }
   let outline = candidates[0];
   for (const i of candidates) if (areas[i] > areas[outline]) outline = i;
+  const index = indexLoops(pl);
   const holes: number[] = [];
   const outside: number[] = [];
   const firstPoint = (i: number) => {
@@ -266,13 +271,13 @@ function sortLoops(read: ReadDrawing, g: DrawingGeometry, path: string, format: 
   for (let i = 0; i < loops.length; i++) {
     if (i === outline) continue;
     const [x, y] = firstPoint(i);
-    if (pointInLoop(pl, outline, x, y)) holes.push(i);
+    if (pointInLoop(pl, outline, x, y, index)) holes.push(i);
     else outside.push(i);
   }
   for (const h of holes) {
     const [x, y] = firstPoint(h);
     for (const o of holes) {
-      if (o !== h && pointInLoop(pl, o, x, y)) {
+      if (o !== h && pointInLoop(pl, o, x, y, index)) {
         throw new DrawingError(
           `${names[h]} lies inside ${names[o]}, which lies inside the outline (${names[outline]}, the largest closed loop${g.outline !== undefined ? ` with "${g.outline}"` : ''}) and so is a hole: a loop inside a hole is not a plate`,
           'if the outline is a frame or a title block, leave it out with "ignore" or name the real outline with "outline"; otherwise remove the loop inside the hole',
