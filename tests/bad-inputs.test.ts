@@ -4,14 +4,16 @@
  * right kind: bad input (exit 2, ModelError) or a model that cannot be analysed as given (exit 3,
  * AnalysisError). Each case lists the message it must give.
  */
-import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, mkdirSync, symlinkSync, truncateSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { spawn, spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, mkdirSync, readdirSync, readFileSync, symlinkSync, truncateSync, writeFileSync } from 'node:fs';
+import { hostname, tmpdir } from 'node:os';
+import { fileURLToPath } from 'node:url';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { AnalysisError, ModelError } from '../src/model/errors.js';
 import { loadModelText } from '../src/model/load.js';
 import { analyseOnMesh, prepareModel } from '../src/pipeline/analyse.js';
+import { readSaved } from '../src/report/saved.js';
 import { raiser } from './support/cli.js';
 import { runBounded } from './support/bounded.js';
 import { DXF_RECT, drawingModel, dxf, dxfLine, dxfSpline, lwPolylineCircle, manyCircles, manyFields, nestedBlocks, svgDeepGroups, svgEntityDeclarations, svgEntityExpansion, svgUseFanOut } from './support/hostile.js';
@@ -30,6 +32,8 @@ function base(): any {
     loads: [{ type: 'traction', on: 'pull', normal: 100 }],
   };
 }
+
+const BIN = fileURLToPath(new URL('../dist/cli/raiser.js', import.meta.url));
 
 type Case = [name: string, input: string | ((m: any) => void), kind: 'model' | 'analysis', message: RegExp];
 
@@ -293,5 +297,76 @@ describe('hostile files at the command line, each in a child with a bounded heap
     expect(m.code, m.stderr).toBe(2);
     expect(m.stderr).toMatch(/is 17 MiB, more than the 16 MiB a model file may be/);
     expect(m.peakBytes).toBeLessThan(PEAK_BYTES);
+  });
+});
+
+/** Output folders: checked before any solving, and locked against a second run. */
+describe('the output folder', () => {
+  const dir = mkdtempSync(join(tmpdir(), 'raiser-out-'));
+  const model = join(dir, 'plate.json');
+  writeFileSync(model, JSON.stringify(base()));
+  writeFileSync(join(dir, 'a-file'), 'not a folder');
+  const refusals: [string, string[], RegExp][] = [
+    ['-o "" (once exit 0 with nothing written)', ['-o', ''], /at -o: the folder's name is empty/],
+    ['-o naming a file (once an internal fault after the whole solve)', ['-o', join(dir, 'a-file')], /at -o: .*a-file is a file, not a folder/],
+    ['-o /dev/null', ['-o', '/dev/null'], /at -o: \/dev\/null is a device, not a folder/],
+    ['--export-matrix naming a file', ['--export-matrix', join(dir, 'a-file')], /at --export-matrix: .*a-file is a file, not a folder/],
+    ['-o /proc/nonexistent/x (once a hang in the recursive mkdir)', ['-o', '/proc/nonexistent/x'], /cannot be made|not writable/],
+  ];
+  for (const [name, args, message] of refusals) {
+    it(`${name}: exit 2 before solving`, () => {
+      if (args[1].startsWith('/proc') && !existsSync('/proc/self')) return;
+      const r = runBounded(['solve', model, '--single-mesh', ...args], { killAfterMs: 60_000 });
+      expect(r.code, r.stderr).toBe(2);
+      expect(r.stderr).toMatch(message);
+      expect(r.stdout).toBe(''); // nothing was solved or summarised
+    });
+  }
+
+  it('two solves into one folder at once: one refuses naming the lock owner, the other writes only its own model', async () => {
+    const out = join(dir, 'shared');
+    const a = base();
+    a.title = 'run A (invented)';
+    const b = base();
+    b.title = 'run B (invented)';
+    b.geometry.holes[0].diameter = 16;
+    writeFileSync(join(dir, 'a.json'), JSON.stringify(a));
+    writeFileSync(join(dir, 'b.json'), JSON.stringify(b));
+    const run = (f: string) =>
+      new Promise<{ code: number | null; stderr: string }>((resolve) => {
+        const c = spawn(process.execPath, [BIN, 'solve', join(dir, f), '--single-mesh', '--no-pictures', '-o', out, '--force']);
+        let stderr = '';
+        c.stderr.on('data', (d) => (stderr += d));
+        c.on('exit', (code) => resolve({ code, stderr }));
+      });
+    const [ra, rb] = await Promise.all([run('a.json'), run('b.json')]);
+    const winners = [ra, rb].filter((r) => r.code === 0);
+    const losers = [ra, rb].filter((r) => r.code !== 0);
+    // Both may finish when the first ends before the second starts; never both write at once.
+    for (const l of losers) {
+      expect(l.code, l.stderr).toBe(2);
+      expect(l.stderr).toMatch(/the output folder .*shared is in use by another raiser run: pid \d+ on .*, started /);
+    }
+    expect(winners.length).toBeGreaterThanOrEqual(1);
+    const result = JSON.parse(readFileSync(join(out, 'result.json'), 'utf8'));
+    const title = result.model.title as string;
+    expect(['run A (invented)', 'run B (invented)']).toContain(title);
+    const saved = readSaved(out);
+    expect(saved.result.model.title).toBe(title);
+    const nodes = readFileSync(join(out, 'nodes.csv'), 'utf8').trim().split('\n').length - 1;
+    expect(nodes).toBe(saved.mesh.nNodes);
+    expect(readFileSync(join(out, 'result.vtu'), 'utf8')).toContain(`NumberOfPoints="${saved.mesh.nNodes}"`);
+    expect(existsSync(join(out, '.raiser-lock'))).toBe(false);
+  });
+
+  it('a lock left by a run that was killed is taken over', () => {
+    const out = join(dir, 'stale');
+    mkdirSync(out, { recursive: true });
+    const gone = spawnSync(process.execPath, ['-e', 'process.stdout.write(String(process.pid))'], { encoding: 'utf8' });
+    writeFileSync(join(out, '.raiser-lock'), JSON.stringify({ pid: Number(gone.stdout), host: hostname(), started: '2026-01-01T00:00:00Z', command: 'raiser solve' }));
+    writeFileSync(join(out, `nodes.csv.raiser-tmp-${gone.stdout}-0000`), 'half a file');
+    const r = runBounded(['solve', model, '--single-mesh', '--no-pictures', '-o', out]);
+    expect(r.code, r.stderr).toBe(0);
+    expect(readdirSync(out).filter((f) => f.startsWith('.raiser-lock') || f.includes('.raiser-tmp-'))).toEqual([]);
   });
 });

@@ -20,7 +20,7 @@ import { sweepCommands } from './sweep.js';
 import { meshCommand } from './mesh.js';
 import { benchSolveCommand } from './bench-solve.js';
 import { parseAccuracy } from './accuracy.js';
-import { addSolvePictureOptions, exportMatrixIfAsked, plotCommand, solveOutputOptions } from './plot.js';
+import { addSolvePictureOptions, exportMatrixIfAsked, plotCommand, prepareSolveOutputs, solveOutputOptions } from './plot.js';
 
 export const EXIT = { ok: 0, internal: 1, badInput: 2, cannotAnalyse: 3 } as const;
 
@@ -46,6 +46,8 @@ function parseMemory(text: string): number {
 }
 
 function runSolve(file: string, flags: SolveFlags): number {
+  // The output folders are checked, made and locked before anything is read or solved.
+  prepareSolveOutputs(flags);
   const { model, warnings } = loadModelFile(file, { allowDrawingOutside: flags.allowDrawingOutside });
   const opts = { measure: flags.measure, element: flags.element, maxMemoryBytes: flags.maxMemory ? parseMemory(flags.maxMemory) : undefined };
   let analysis;
@@ -62,7 +64,7 @@ function runSolve(file: string, flags: SolveFlags): number {
   analysis.warnings.unshift(...warnings.map((w) => w.describe()));
   const result = buildResult(analysis, file, cert);
   let written: string[] = [];
-  if (flags.out) written = writeResultFiles(flags.out, analysis, result, flags.force ?? false, solveOutputOptions(flags));
+  if (flags.out !== undefined) written = writeResultFiles(flags.out, analysis, result, flags.force ?? false, solveOutputOptions(flags));
   written.push(...exportMatrixIfAsked(flags, analysis));
   if (flags.json) {
     process.stdout.write(JSON.stringify(result, null, 2) + '\n');
@@ -75,19 +77,19 @@ function runSolve(file: string, flags: SolveFlags): number {
 
 function runVerifyCommand(flags: { json?: boolean; out?: string; force?: boolean; only?: string }): number {
   const only = flags.only ? flags.only.split(',').map((x) => x.trim()).filter(Boolean) : undefined;
-  if (flags.out) prepareOutputDir(flags.out, ['verify-report.md', 'verify.json'], flags.force ?? false);
+  if (flags.out !== undefined) prepareOutputDir(flags.out, ['verify-report.md', 'verify.json'], flags.force ?? false);
   if (!flags.json) process.stdout.write(`raiser ${TOOL_VERSION} verification suite\n`);
   const rows = runVerify(only, flags.json ? undefined : (r) => process.stdout.write(formatVerifyLine(r) + '\n'));
   if (rows.length === 0) throw new ModelError('--only', `no verification case starts with ${flags.only}`, `the cases are ${verifyCases().map((c) => c.id).join(', ')}`);
   const summary = { environment: environment(), pass: rows.every((r) => r.pass), rows };
-  if (flags.out) {
+  if (flags.out !== undefined) {
     writeAtomic(join(flags.out, 'verify-report.md'), verifyReportMarkdown(rows));
     writeAtomic(join(flags.out, 'verify.json'), JSON.stringify(summary, null, 2) + '\n');
   }
   if (flags.json) process.stdout.write(JSON.stringify(summary, null, 2) + '\n');
   else {
     process.stdout.write(formatVerifySummary(rows) + '\n');
-    if (flags.out) process.stdout.write(`  wrote ${join(flags.out, 'verify-report.md')} and ${join(flags.out, 'verify.json')}\n`);
+    if (flags.out !== undefined) process.stdout.write(`  wrote ${join(flags.out, 'verify-report.md')} and ${join(flags.out, 'verify.json')}\n`);
   }
   // A failed case means this installation does not reproduce a published value: a fault.
   return summary.pass ? EXIT.ok : EXIT.internal;

@@ -27,6 +27,7 @@ function fmt(v: number): string {
 }
 
 export function runMesh(file: string, flags: MeshFlags): { text: string; json: object } {
+  if (flags.out !== undefined) prepareOutputDir(flags.out, ['mesh-preview.png', 'mesh-preview.svg'], flags.force ?? false);
   const { model, warnings } = loadModelFile(file, { allowDrawingOutside: flags.allowDrawingOutside });
   const prep = prepareModel(model, { element: flags.element });
   const { domain, order, hardPoints } = prep;
@@ -80,7 +81,7 @@ export function runMesh(file: string, flags: MeshFlags): { text: string; json: o
   lines.push(`  mesh: ${mesh.nNodes} nodes, ${mesh.nElements} ${order === 2 ? 'quadratic triangles (6-node)' : 'linear triangles (3-node)'}, smallest angle ${stats.minAngleUnforcedDeg.toFixed(1)} deg`);
   for (const w of warnings) lines.push(`  warning: ${w.message}`);
   const written: string[] = [];
-  if (flags.out) {
+  if (flags.out !== undefined) {
     prepareOutputDir(flags.out, ['mesh-preview.png', 'mesh-preview.svg'], flags.force ?? false);
     const pic = drawGeometryPicture({
       domain,
