@@ -192,6 +192,22 @@ describe('bad inputs at the command line', () => {
     expect(r.stderr).not.toMatch(/\bat .*\.js:\d+/);
   });
 
+  it('a refusal raised while building the geometry or the mesh names the file and the line (once neither)', () => {
+    const m = base();
+    m.geometry.outline.path[1] = { at: [100, 0], edge: 'pull', arc: { radius: 20, turn: 'cw', large: true } };
+    const f = join(dir, 'cusp.json');
+    writeFileSync(f, JSON.stringify(m, null, 1));
+    for (const command of ['solve', 'mesh']) {
+      const r = raiser([command, f, ...(command === 'solve' ? ['--single-mesh'] : [])]);
+      expect(r.code, r.stderr).toBe(2);
+      expect(r.stderr).toMatch(/cusp\.json:\d+:\d+: at geometry\.outline\.path\[1\]\.arc: .*running back along each other/);
+    }
+    const big = base();
+    big.mesh = { size: 0.02, raiserSize: 0.02 };
+    writeFileSync(f, JSON.stringify(big, null, 1));
+    expect(raiser(['solve', f, '--single-mesh', '--max-memory', '1']).stderr).toMatch(/cusp\.json:\d+:\d+: at mesh(\.size)?: .*GB/);
+  });
+
   it('a model free to move: exit 3; with --debug the stack is shown', () => {
     const m = base();
     m.supports = [{ type: 'roller', fix: 'y', on: 'held' }];

@@ -48,14 +48,23 @@ function parseMemory(text: string): number {
 function runSolve(file: string, flags: SolveFlags): number {
   // The output folders are checked, made and locked before anything is read or solved.
   prepareSolveOutputs(flags);
-  const { model, warnings } = loadModelFile(file, { allowDrawingOutside: flags.allowDrawingOutside });
+  const loaded = loadModelFile(file, { allowDrawingOutside: flags.allowDrawingOutside });
+  const { model, warnings } = loaded;
   const opts = { measure: flags.measure, element: flags.element, maxMemoryBytes: flags.maxMemory ? parseMemory(flags.maxMemory) : undefined };
   let analysis;
   let cert = null;
+  // A problem found while building the geometry or the mesh is placed in the model file too.
+  const placed = <T>(work: () => T): T => {
+    try {
+      return work();
+    } catch (e) {
+      throw e instanceof ModelError ? loaded.locate(e) : e;
+    }
+  };
   if (flags.singleMesh) {
-    analysis = analyseModel(model, opts);
+    analysis = placed(() => analyseModel(model, opts));
   } else {
-    cert = certifyModel(model, { ...opts, target: parseAccuracy(flags.accuracy ?? '1%') });
+    cert = placed(() => certifyModel(model, { ...opts, target: parseAccuracy(flags.accuracy ?? '1%') }));
     analysis = cert.analysis;
     if (cert.status === 'not-converged') {
       analysis.warnings.push(`the accuracy target ${(100 * cert.target).toPrecision(2)}% was not met; the error band shown is what the meshes support`);

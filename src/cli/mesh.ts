@@ -9,6 +9,7 @@ import { curveLength } from '../geometry/curve.js';
 import { attachedDrawing } from '../geometry/import/index.js';
 import { selectTarget } from '../geometry/select.js';
 import { generateMesh } from '../mesh/generate.js';
+import { ModelError } from '../model/errors.js';
 import { loadModelFile } from '../model/load.js';
 import { prepareModel } from '../pipeline/analyse.js';
 import { drawGeometryPicture } from '../render/geometry-picture.js';
@@ -28,19 +29,28 @@ function fmt(v: number): string {
 
 export function runMesh(file: string, flags: MeshFlags): { text: string; json: object } {
   if (flags.out !== undefined) prepareOutputDir(flags.out, ['mesh-preview.png', 'mesh-preview.svg'], flags.force ?? false);
-  const { model, warnings } = loadModelFile(file, { allowDrawingOutside: flags.allowDrawingOutside });
-  const prep = prepareModel(model, { element: flags.element });
-  const { domain, order, hardPoints } = prep;
-  const ms = model.mesh ?? {};
-  const { mesh, stats } = generateMesh(domain, {
-    order,
-    size: ms.size,
-    raiserSize: ms.raiserSize,
-    grading: ms.grading,
-    minAngleDeg: ms.minAngle,
-    hardPoints,
-    maxBytes: prep.maxMemoryBytes,
-  });
+  const loaded = loadModelFile(file, { allowDrawingOutside: flags.allowDrawingOutside });
+  const { model, warnings } = loaded;
+  let prep;
+  let meshed;
+  try {
+    prep = prepareModel(model, { element: flags.element });
+    const ms = model.mesh ?? {};
+    meshed = generateMesh(prep.domain, {
+      order: prep.order,
+      size: ms.size,
+      raiserSize: ms.raiserSize,
+      grading: ms.grading,
+      minAngleDeg: ms.minAngle,
+      hardPoints: prep.hardPoints,
+      maxBytes: prep.maxMemoryBytes,
+    });
+  } catch (e) {
+    // A problem found while building the geometry or the mesh is placed in the model file too.
+    throw e instanceof ModelError ? loaded.locate(e) : e;
+  }
+  const { domain, order } = prep;
+  const { mesh, stats } = meshed;
   const u = prep.units.length;
   const g = model.geometry;
   const drawing = 'from' in g ? attachedDrawing(g) : undefined;

@@ -24,6 +24,12 @@ export interface LoadedModel {
   model: Model;
   /** legal but probably unintended settings, each placed in the file like an error */
   warnings: ModelError[];
+  /**
+   * Places a problem found later (building the geometry, meshing, compiling loads) in this
+   * file: its name, and the line and column of the field its path names (or the nearest
+   * enclosing field that is written in the file). Returns the same error.
+   */
+  locate(e: ModelError): ModelError;
 }
 
 const MODEL_FIELDS = Object.keys(Model.shape);
@@ -155,7 +161,15 @@ export function loadModelText(text: string, file?: string, options: LoadOptions 
     placer,
     file,
   );
-  return { model, warnings };
+  const locate = (e: ModelError): ModelError => {
+    if (e.file === undefined) e.file = file;
+    if (e.line === undefined && e.path && !e.path.startsWith('-')) {
+      const off = offsetOf(e.path, scan);
+      if (off !== undefined) placer.place(e, off);
+    }
+    return e;
+  };
+  return { model, warnings, locate };
 }
 
 /** As readModelFile, also returning the warnings. */
