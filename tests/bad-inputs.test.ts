@@ -5,6 +5,7 @@
  * AnalysisError). Each case lists the message it must give.
  */
 import { spawn, spawnSync } from 'node:child_process';
+import { createHash } from 'node:crypto';
 import { existsSync, mkdtempSync, mkdirSync, readdirSync, readFileSync, symlinkSync, truncateSync, writeFileSync } from 'node:fs';
 import { hostname, tmpdir } from 'node:os';
 import { fileURLToPath } from 'node:url';
@@ -384,5 +385,72 @@ describe('the output folder', () => {
     const r = runBounded(['solve', model, '--single-mesh', '--no-pictures', '-o', out]);
     expect(r.code, r.stderr).toBe(0);
     expect(readdirSync(out).filter((f) => f.startsWith('.raiser-lock') || f.includes('.raiser-tmp-'))).toEqual([]);
+  });
+});
+
+/** Files raiser wrote, read back: validated like model files, an edited or damaged one never trusted. */
+describe('saved solutions and sweep cases read back', () => {
+  const dir = mkdtempSync(join(tmpdir(), 'raiser-saved-'));
+  const model = join(dir, 'plate.json');
+  const m = base();
+  m.parameters = { d: 10 };
+  m.geometry.holes[0].diameter = '=d';
+  writeFileSync(model, JSON.stringify(m));
+  const out = join(dir, 'out');
+  const solved = raiser(['solve', model, '--single-mesh', '--no-pictures', '-o', out]);
+  const good = readFileSync(join(out, 'solution.raiser'));
+  /** The saved file with its header text changed in place (same length) and, if asked, its checksum made anew. */
+  const tampered = (from: string, to: string, reseal: boolean): string => {
+    const b = Buffer.from(good);
+    const hl = b.readUInt32LE(12);
+    const header = b.toString('utf8', 48, 48 + hl);
+    expect(header).toContain(from);
+    expect(to.length).toBe(from.length);
+    b.write(header.replace(from, to), 48, 'utf8');
+    if (reseal) createHash('sha256').update(b.subarray(48)).digest().copy(b, 16);
+    const f = join(dir, `tampered-${from.length}-${reseal}.raiser`);
+    writeFileSync(f, b);
+    return f;
+  };
+  const saved: [string, () => string, RegExp][] = [
+    ['a saved solution edited after it was written', () => tampered('"createdAt":"2', '"createdAt":"1', false), /checksum does not match its content/],
+    ['a saved solution whose header lacks the mesh (once a crash of plot)', () => tampered('"mesh":{"order"', '"mesx":{"order"', true), /header is incomplete: mesh/],
+    ['a saved solution whose counts do not fit its arrays', () => tampered(`"nNodes":${JSON.parse(good.toString('utf8', 48, 48 + good.readUInt32LE(12))).mesh.nNodes}`, `"nNodes":${'9'.repeat(String(JSON.parse(good.toString('utf8', 48, 48 + good.readUInt32LE(12))).mesh.nNodes).length)}`, true), /need more data|entries where the mesh counts ask for/],
+    ['a saved solution that is a link to /dev/zero', () => {
+      const f = join(dir, 'zero.raiser');
+      if (!existsSync(f)) symlinkSync('/dev/zero', f);
+      return f;
+    }, /a character device, not a saved solution/],
+  ];
+  for (const [name, make, message] of saved) {
+    it(`${name}: raiser plot exits 2, saying ${message}`, () => {
+      expect(solved.code, solved.stderr).toBe(0);
+      const r = runBounded(['plot', make(), '-o', join(dir, 'pictures'), '--force'], { killAfterMs: 60_000 });
+      expect(r.code, r.stderr).toBe(2);
+      expect(r.stderr).toMatch(message);
+      expect(r.peakBytes).toBeLessThan(400 * 2 ** 20);
+    });
+  }
+
+  it('a sweep case file edited, or without a field, is solved again on resume, not trusted', () => {
+    const sweepOut = join(dir, 'sweep');
+    const first = raiser(['sweep', model, '--vary', 'd=8,12', '--single-mesh', '--jobs', '1', '-o', sweepOut]);
+    expect(first.code, first.stderr).toBe(0);
+    const casesDir = join(sweepOut, 'cases');
+    const [a, b] = readdirSync(casesDir).filter((f) => f.endsWith('.json')).sort();
+    const fileA = JSON.parse(readFileSync(join(casesDir, a), 'utf8'));
+    const ktA = fileA.row.ktNet;
+    fileA.row.ktNet = 1.01; // an edit that a checksum over the content finds
+    writeFileSync(join(casesDir, a), JSON.stringify(fileA));
+    const fileB = JSON.parse(readFileSync(join(casesDir, b), 'utf8'));
+    delete fileB.row.peak;
+    writeFileSync(join(casesDir, b), JSON.stringify(fileB));
+    const again = raiser(['sweep', model, '--vary', 'd=8,12', '--single-mesh', '--jobs', '1', '-o', sweepOut]);
+    expect(again.code, again.stderr).toBe(0);
+    expect(again.stdout).toMatch(/2 cases \(0 kept from an earlier run\)/);
+    expect(again.stdout).toMatch(/solved again: the case file .* \(its checksum does not match its content/);
+    expect(again.stdout).toMatch(/solved again: the case file .* \(row\.peak: /);
+    const redone = JSON.parse(readFileSync(join(casesDir, a), 'utf8'));
+    expect(redone.row.ktNet).toBeCloseTo(ktA, 12);
   });
 });

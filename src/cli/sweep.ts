@@ -49,6 +49,8 @@ export function sweepCommands(program: Command, setCode: (c: number) => void): v
       if (flags.json) process.stdout.write(JSON.stringify({ rows: res.rows, failed: res.failed, x: res.xLabel }, null, 2) + '\n');
       else {
         process.stdout.write(`sweep of ${file}: ${res.rows.length} cases (${res.reused} kept from an earlier run) in ${fmt((performance.now() - t0) / 1000, 3)} s\n`);
+        for (const r of res.redone.slice(0, 10)) process.stdout.write(`  solved again: the case file ${r}\n`);
+        if (res.redone.length > 10) process.stdout.write(`  solved again: ${res.redone.length - 10} more case files that did not read back whole\n`);
         for (const f of res.files) process.stdout.write(`  wrote ${f}\n`);
         process.stdout.write(`  finished cases are kept in ${join(out, 'cases')}: a rerun solves only what is missing\n`);
       }
