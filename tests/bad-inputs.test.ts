@@ -133,6 +133,11 @@ const CASES: Case[] = [
   ['a wedge of material of half a degree', (m) => ((path(m)[2].at = [100, 100 * Math.tan(Math.PI / 360)]), path(m).pop(), (m.geometry.holes = []), (m.supports = [{ type: 'fixed', on: 'pull' }]), (m.loads = [{ type: 'traction', on: 'top', normal: 1 }])), 'model', /0\.5 degrees from a full reversal/],
   ['6,000 holes', (m) => (m.geometry.holes = Array.from({ length: 6000 }, (_, k) => ({ shape: 'circle', center: [1 + (k % 100), 1 + Math.floor(k / 100) * 0.5], diameter: 0.1 }))), 'model', /the part has 6000 holes, more than the 4999/],
   ['an outline of 60,000 edges not in line', (m) => (m.geometry.outline.path = Array.from({ length: 60_000 }, (_, k) => ({ at: [50 + 45 * Math.cos((2 * Math.PI * k) / 60_000), 20 + 18 * Math.sin((2 * Math.PI * k) / 60_000)], edge: k === 0 ? 'pull' : k === 30_000 ? 'held' : undefined }))), 'model', /more than 50,000 edges/],
+  // Numbers out of the range raiser computes with, and parts too far from the origin for their size.
+  ['a traction of 1e200 (once a crash in the section code)', (m) => (m.loads[0].normal = 1e200), 'model', /at loads\[0\]\.normal: the number 1e\+200 is outside the range raiser computes with/],
+  ['a modulus of 5e-324 (once "part of the model can move")', (m) => (m.material.E = 5e-324), 'model', /at material\.E: the number 5e-324 is outside the range/],
+  ['a part scaled by 1e-120 (once Kt 1.62 for 2.44, exit 0)', (m) => { for (const v of path(m)) v.at = v.at.map((x: number) => x * 1e-120); m.geometry.holes[0].center = [50e-120, 20e-120]; m.geometry.holes[0].diameter = 10e-120; }, 'model', /is outside the range raiser computes with[\s\S]*fix: write the model in units/],
+  ['a part 1e12 of its sizes from the origin', (m) => { for (const v of path(m)) v.at[0] += 1e14; m.geometry.holes[0].center[0] += 1e14; }, 'model', /the part lies 100000000000000 from the origin but is only 107\.7 across: its coordinates keep fewer than 4 digits/],
   ['a NUL character in the text, placed', JSON.stringify(base()).replace('"thickness":5', '"thickness":5\u0000'), 'model', /1:\d+: not valid JSON: a NUL character/],
 ];
 

@@ -20,7 +20,9 @@ import { generateMesh } from '../src/mesh/generate.js';
 import { AnalysisError, ModelError } from '../src/model/errors.js';
 import { loadModelText } from '../src/model/load.js';
 import { analyseOnMesh, prepareModel } from '../src/pipeline/analyse.js';
+import type { Model } from '../src/model/schema.js';
 import { plate, toModel } from './support/random-plate.js';
+import { transformModel } from './support/transform.js';
 
 const FACTOR = Math.max(1, Number(process.env.RAISER_FUZZ ?? 1) || 1);
 const runs = (n: number) => Math.round(n * FACTOR);
@@ -105,4 +107,67 @@ describe('random invalid input', () => {
       { numRuns: runs(2000) },
     );
   }, 240_000 * FACTOR);
+});
+
+/**
+ * Where a part lies and how large it is written change nothing: the mesher works in the part's
+ * own frame (src/mesh/frame.ts). The mesh of a copy scaled by a power of two is the same to the
+ * bit; a copy moved by 1e6 or scaled by 1e-6 or 1e6 has the same mesh node for node (relative
+ * coordinates within rounding) and Kt to 1e-9. Farther than 1e9 part sizes, or outside the
+ * number range, the model is refused (tests/bad-inputs.test.ts).
+ */
+describe('position and scale change nothing', () => {
+  /** An invented plate with a fillet, a hole and a slot, at numbers a translation keeps exact. */
+  const part = (): Model => ({
+    title: 'invariance plate (invented)',
+    material: { E: 210000, nu: 0.3 },
+    thickness: 5,
+    geometry: {
+      outline: { shape: 'path', path: [{ at: [0, 0], edge: 'bottom' }, { at: [100, 0], edge: 'pull', round: 4 }, { at: [100, 40], edge: 'top' }, { at: [0, 40], edge: 'held' }] },
+      holes: [
+        { shape: 'circle', center: [50, 20], diameter: 10 },
+        { shape: 'slot', center: [80, 20], length: 8, width: 4 },
+      ],
+    },
+    supports: [{ type: 'fixed', on: 'held' }],
+    loads: [{ type: 'traction', on: 'pull', normal: 100 }],
+  } as Model);
+  const solve = (m: Model) => analyseOnMesh(prepareModel(m, { maxMemoryBytes: 4 * 2 ** 30 }));
+
+  it('the same part at the origin, at x = 1e6 and scaled by 1e-6 and 1e6: the same mesh node for node and Kt to 1e-9', () => {
+    const ref = solve(part());
+    for (const t of [{ translate: [1e6, 0] as [number, number] }, { scale: 1e-6 }, { scale: 1e6 }]) {
+      const k = t.scale ?? 1;
+      const [tx] = t.translate ?? [0, 0];
+      const a = solve(transformModel(part(), t));
+      expect(a.mesh.nNodes).toBe(ref.mesh.nNodes);
+      expect(Array.from(a.mesh.elements)).toEqual(Array.from(ref.mesh.elements));
+      let worst = 0;
+      for (let i = 0; i < a.mesh.nodes.length; i++) {
+        const rel = (a.mesh.nodes[i] - (i % 2 === 0 ? tx : 0)) / k;
+        worst = Math.max(worst, Math.abs(rel - ref.mesh.nodes[i]));
+      }
+      // Relative coordinates agree to rounding of the part's size (1e-9 of it; 1e-10 at 1e6 is the ulp of 1e6).
+      expect(worst).toBeLessThan(1e-9 * 100);
+      expect(Math.abs(a.kt.net / ref.kt.net - 1)).toBeLessThan(1e-9);
+      expect(Math.abs(a.kt.gross / ref.kt.gross - 1)).toBeLessThan(1e-9);
+    }
+  });
+
+  it(`random plates scaled by a power of two mesh to the bit as at their own size, with the same Kt (${runs(12)} plates)`, () => {
+    fc.assert(
+      fc.property(plate, fc.integer({ min: -200, max: 200 }), (p, j) => {
+        const k = 2 ** j;
+        const model = toModel(p);
+        const ref = solve(model);
+        const a = solve(transformModel(model, { scale: k }));
+        expect(Array.from(a.mesh.elements)).toEqual(Array.from(ref.mesh.elements));
+        for (let i = 0; i < a.mesh.nodes.length; i++) expect(a.mesh.nodes[i] / k).toBe(ref.mesh.nodes[i]);
+        // The mesh is the same to the bit; the solve and recovery round a little differently
+        // (square roots, sums in the scaled units), well below the 1e-9 asked.
+        expect(Math.abs(a.kt.net / ref.kt.net - 1)).toBeLessThan(1e-10);
+      }),
+      { numRuns: runs(12), interruptAfterTimeLimit: 120_000 * FACTOR, markInterruptAsFailure: true },
+    );
+  }, 180_000 * FACTOR);
 });

@@ -345,17 +345,21 @@ function buildArc(ax: number, ay: number, bx: number, by: number, spec: ArcSpec,
   let cy: number;
   let ccw: boolean;
   if ('through' in spec) {
-    const [px, py] = spec.through;
-    const d = 2 * (ax * (py - by) + px * (by - ay) + bx * (ay - py));
+    // Relative to A: squares of coordinates far from the origin (a part at x = 1e9) would
+    // cancel away every digit of the centre.
+    const px = spec.through[0] - ax;
+    const py = spec.through[1] - ay;
+    const qx = bx - ax;
+    const qy = by - ay;
+    const d = 2 * (px * qy - qx * py);
     if (Math.abs(d) <= 1e-12 * scale * scale) {
       throw new ModelError(`${path}.through`, 'the three points of the arc lie on one line', 'move the "through" point off the chord, or make the edge straight');
     }
-    const a2 = ax * ax + ay * ay;
     const p2 = px * px + py * py;
-    const b2 = bx * bx + by * by;
-    cx = (a2 * (py - by) + p2 * (by - ay) + b2 * (ay - py)) / d;
-    cy = (a2 * (bx - px) + p2 * (ax - bx) + b2 * (px - ax)) / d;
-    ccw = (px - ax) * (by - ay) - (py - ay) * (bx - ax) > 0; // A -> P -> B turns left
+    const q2 = qx * qx + qy * qy;
+    cx = ax + (p2 * qy - q2 * py) / d;
+    cy = ay + (q2 * px - p2 * qx) / d;
+    ccw = px * qy - py * qx > 0; // A -> P -> B turns left
   } else if ('center' in spec) {
     [cx, cy] = spec.center;
     const ra = Math.hypot(ax - cx, ay - cy);
@@ -396,8 +400,19 @@ function buildArc(ax: number, ay: number, bx: number, by: number, spec: ArcSpec,
 function buildPath(vertices: Vertex[], path: string, loopTags: string[], isOutline: boolean, loopLabel: string): RawEdge[] {
   const vs = vertices.map(normaliseVertex);
   const n = vs.length;
-  let scale = 0;
-  for (const v of vs) scale = Math.max(scale, Math.abs(v.x), Math.abs(v.y));
+  // The loop's own extent, not the size of its coordinates: a part drawn at x = 1e9 keeps the
+  // tolerances of the same part at the origin.
+  let x0 = Infinity;
+  let y0 = Infinity;
+  let x1 = -Infinity;
+  let y1 = -Infinity;
+  for (const v of vs) {
+    x0 = Math.min(x0, v.x);
+    y0 = Math.min(y0, v.y);
+    x1 = Math.max(x1, v.x);
+    y1 = Math.max(y1, v.y);
+  }
+  const scale = Math.max(x1 - x0, y1 - y0);
   const where = (i: number) => (isOutline ? `corner ${i + 1}` : `corner ${i + 1} of ${loopLabel}`);
   const edgeName = (i: number) => (isOutline ? `outline edge ${i + 1}` : `edge ${i + 1} of ${loopLabel}`);
   // Zero-length edges.

@@ -62,6 +62,12 @@ function fmt(v: number): string {
  */
 export const MIN_CORNER_ANGLE = Math.PI / 180;
 
+/**
+ * Farthest a part may lie from the origin, in part sizes: a double holds about 16 digits, so a
+ * coordinate of 1e9 sizes keeps about 7 of the shape (Kt moves by 6e-7 there; by 3e-10 at 1e6).
+ */
+export const MAX_OFFSET = 1e9;
+
 /** Throws a ModelError for the first problem found; returns quietly for a valid domain. */
 export function validateDomain(domain: Domain): void {
   // A wedge drawn at exactly one degree passes: the limit allows for its rounding.
@@ -76,6 +82,16 @@ export function validateDomain(domain: Domain): void {
       eout.curve.kind !== 'line' || ein.curve.kind === 'line' ? eout.source : ein.source,
       `${ein.label} and ${eout.label} meet at (${fmt(c.x)}, ${fmt(c.y)}) running back along each other (${Number(fromReversal.toPrecision(3))} degrees from a full reversal, less than the 1 degree a corner may have): a cusp of material or a slit of no width, which no mesh can fill`,
       'check the arc\'s radius, "turn" and "large" (an arc of radius half its chord leaves its ends along the chord), round the corner, or give a slit a width',
+    );
+  }
+  // A part far from the origin beside its size keeps few digits of its shape in its coordinates.
+  const [bx0, by0, bx1, by1] = domain.bbox;
+  const far = Math.max(Math.abs(bx0), Math.abs(bx1), Math.abs(by0), Math.abs(by1));
+  if (far > MAX_OFFSET * domain.scale) {
+    throw new ModelError(
+      domain.loops[0].source,
+      `the part lies ${fmt(far)} from the origin but is only ${fmt(domain.scale)} across: its coordinates keep fewer than ${Math.floor(16 - Math.log10(far / domain.scale))} digits of its shape`,
+      'move the part near the origin (subtract a reference point from every coordinate); positions far beyond 1e9 times the part size are not resolved by double precision',
     );
   }
   const pl = traceLoops(domain);

@@ -107,6 +107,28 @@ export class SizeField {
     if (bbox && sources.length > 8) this.buildGrid(bbox);
   }
 
+  /**
+   * The same field for coordinates x = cx + s xi of a field built in a frame (sizes times s),
+   * so that callers in model coordinates can ask it; `limit` is the caller's own, unscaled.
+   */
+  fromFrame(cx: number, cy: number, s: number, bbox: readonly [number, number, number, number], limit?: SizeLimit): SizeField {
+    const sources = this.sources.map((meta, i) => {
+      const g = Array.from(this.data.subarray(STRIDE * i, STRIDE * (i + 1)));
+      g[1] *= s;
+      g[2] = cx + s * g[2];
+      g[3] = cy + s * g[3];
+      if (g[0] === ARC) g[4] *= s;
+      else if (g[0] === SEGMENT) {
+        g[4] = cx + s * g[4];
+        g[5] = cy + s * g[5];
+        g[6] *= s;
+        g[7] *= s;
+      }
+      return { meta: { ...meta, h: meta.h * s }, geom: g };
+    });
+    return new SizeField(this.hGlobal * s, this.grading, sources, bbox, limit);
+  }
+
   /** The value h_s + g dist of source i at (x, y). */
   private value(i: number, x: number, y: number): number {
     const d = this.data;

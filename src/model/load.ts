@@ -14,6 +14,7 @@ import { MAX_REPORTED_PROBLEMS, ModelError, ModelErrorList, formatPath, quoteTex
 import { type Problem, translateIssues } from './issues.js';
 import { LineIndex, excerptAt, scanJson, type JsonScan } from './json-text.js';
 import { formatBytes, readRegularFile } from './read-file.js';
+import { NUMBER_RANGE, inNumberRange } from './number-range.js';
 import { Model } from './schema.js';
 import { closest, quoteList } from './suggest.js';
 import { resolveUnits } from './units.js';
@@ -58,6 +59,21 @@ export const MAX_MODEL_BYTES = 16 * 2 ** 20;
 
 /** Deepest nesting of objects and lists in a model file (a model nests about 8 deep). */
 export const MAX_MODEL_DEPTH = 32;
+
+
+/** Every number in the data outside NUMBER_RANGE, with its JSON path (free text is not looked at). */
+function numbersOutOfRange(data: unknown): { path: string; value: number }[] {
+  const out: { path: string; value: number }[] = [];
+  const todo: [unknown, (string | number)[]][] = [[data, []]];
+  while (todo.length) {
+    const [v, parts] = todo.pop()!;
+    if (typeof v === 'number') {
+      if (Number.isFinite(v) && !inNumberRange(v)) out.push({ path: formatPath(parts), value: v });
+    } else if (Array.isArray(v)) v.forEach((x, i) => todo.push([x, [...parts, i]]));
+    else if (v && typeof v === 'object') for (const [k, x] of Object.entries(v)) todo.push([x, [...parts, k]]);
+  }
+  return out;
+}
 
 /** A problem found, and where in the text it is (placed only if it is reported). */
 interface Found {
@@ -124,6 +140,18 @@ export function loadModelText(text: string, file?: string, options: LoadOptions 
   for (const pr of sub.problems) problems.push({ e: new ModelError(pr.path, pr.message, pr.hint, file), offset: offsetOf(pr.path, scan) });
   throwAll(problems, placer, file);
   data = sub.data;
+  for (const r of numbersOutOfRange(data)) {
+    problems.push({
+      e: new ModelError(
+        r.path,
+        `the number ${r.value} is outside the range raiser computes with: every number of a model must be 0 or between ${NUMBER_RANGE[0]} and ${NUMBER_RANGE[1]} in size`,
+        'write the model in units that keep its numbers moderate (lengths in mm or m, stresses in MPa or Pa); a value this small or large is most likely a typing slip',
+        file,
+      ),
+      offset: offsetOf(r.path, scan),
+    });
+  }
+  throwAll(problems, placer, file);
   mixedGeometry(data, placer, scan, file);
 
   const parsed = Model.safeParse(data);

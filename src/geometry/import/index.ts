@@ -16,6 +16,7 @@
 import { realpathSync } from 'node:fs';
 import { extname, isAbsolute, relative, resolve, sep } from 'node:path';
 import { formatBytes, readRegularFile } from '../../model/read-file.js';
+import { NUMBER_RANGE, inNumberRange } from '../../model/number-range.js';
 import type { DrawingGeometry } from '../../model/schema.js';
 import { type Curve, curveAreaTerm, curveLength, curveTangent, evaluateCurve, splitBezier } from '../curve.js';
 import { findContacts, indexLoops, pointInLoop, type Polylines } from '../intersect.js';
@@ -189,6 +190,13 @@ function checkFinite(read: ReadDrawing): void {
         throw new DrawingError(
           `${dc.origin}: a coordinate or size is not a finite number (it reads as nan or inf, or overflows when converted to the model's unit)`,
           'correct the entity in the drawing program and save the drawing again',
+        );
+      }
+      const out = curveNumbers(dc.curve).find((v) => !inNumberRange(v));
+      if (out !== undefined) {
+        throw new DrawingError(
+          `${dc.origin}: the number ${out} (in the model's unit) is outside the range raiser computes with, 0 or between ${NUMBER_RANGE[0]} and ${NUMBER_RANGE[1]} in size`,
+          'check the drawing\'s unit and "scale"; a coordinate this small or large is most likely a slip',
         );
       }
     }
