@@ -138,6 +138,9 @@ const CASES: Case[] = [
   ['a modulus of 5e-324 (once "part of the model can move")', (m) => (m.material.E = 5e-324), 'model', /at material\.E: the number 5e-324 is outside the range/],
   ['a part scaled by 1e-120 (once Kt 1.62 for 2.44, exit 0)', (m) => { for (const v of path(m)) v.at = v.at.map((x: number) => x * 1e-120); m.geometry.holes[0].center = [50e-120, 20e-120]; m.geometry.holes[0].diameter = 10e-120; }, 'model', /is outside the range raiser computes with[\s\S]*fix: write the model in units/],
   ['a part 1e12 of its sizes from the origin', (m) => { for (const v of path(m)) v.at[0] += 1e14; m.geometry.holes[0].center[0] += 1e14; }, 'model', /the part lies 100000000000000 from the origin but is only 107\.7 across: its coordinates keep fewer than 4 digits/],
+  // Wrong but plausible: caught at the input.
+  ['a roller holding the loaded edge in the load\'s direction (once Kt 3104 with exit 0)', (m) => m.supports.push({ type: 'roller', fix: 'x', on: 'pull' }), 'model', /at loads\[0\]: the load acts only in directions in which supports\[1\] \(roller, holding x\) holds its edges/],
+  ['a nominal section drawn along an edge (once Kt 686)', (m) => (m.results = { section: { from: [0, 0], to: [100, 0] } }), 'model', /at results\.section: the nominal section runs along edge "bottom", a free edge of the part/],
   ['a NUL character in the text, placed', JSON.stringify(base()).replace('"thickness":5', '"thickness":5\u0000'), 'model', /1:\d+: not valid JSON: a NUL character/],
 ];
 
