@@ -141,6 +141,8 @@ const CASES: Case[] = [
   // Wrong but plausible: caught at the input.
   ['a roller holding the loaded edge in the load\'s direction (once Kt 3104 with exit 0)', (m) => m.supports.push({ type: 'roller', fix: 'x', on: 'pull' }), 'model', /at loads\[0\]: the load acts only in directions in which supports\[1\] \(roller, holding x\) holds its edges/],
   ['a nominal section drawn along an edge (once Kt 686)', (m) => (m.results = { section: { from: [0, 0], to: [100, 0] } }), 'model', /at results\.section: the nominal section runs along edge "bottom", a free edge of the part/],
+  ['a 1 nm hole in a 1 m plate (once "touches itself")', (m) => ((m.units = { length: 'm' }), (m.geometry.holes[0].diameter = 1e-9)), 'model', /hole 1 "bore" is 1\.4142e-9 across, less than a millionth of the part/],
+  ['an unknown field with a name of 100,000 characters is quoted short', (m) => (m['x'.repeat(100_000)] = 1), 'model', /^(?![\s\S]{3000})[\s\S]*unknown field "xxx[\s\S]*100,000 characters/],
   ['a NUL character in the text, placed', JSON.stringify(base()).replace('"thickness":5', '"thickness":5\u0000'), 'model', /1:\d+: not valid JSON: a NUL character/],
 ];
 
@@ -215,6 +217,18 @@ describe('bad inputs at the command line', () => {
     big.mesh = { size: 0.02, raiserSize: 0.02 };
     writeFileSync(f, JSON.stringify(big, null, 1));
     expect(raiser(['solve', f, '--single-mesh', '--max-memory', '1']).stderr).toMatch(/cusp\.json:\d+:\d+: at mesh(\.size)?: .*GB/);
+  });
+
+  it('--vary "d=5,,6": exit 2 naming the empty value (once a case of d = 0 was solved)', () => {
+    const m = base();
+    m.parameters = { d: 10 };
+    m.geometry.holes[0].diameter = '=d';
+    const f = join(dir, 'vary.json');
+    writeFileSync(f, JSON.stringify(m));
+    const r = raiser(['sweep', f, '--vary', 'd=5,,6', '-o', join(dir, 'vary-out')]);
+    expect(r.code, r.stderr).toBe(2);
+    expect(r.stderr).toMatch(/--vary d=5,,6 has an empty value/);
+    expect(raiser(['sweep', f, '--vary', 'd=5,0x10', '-o', join(dir, 'vary-out')]).stderr).toMatch(/"0x10" in --vary d=5,0x10 is not a decimal number/);
   });
 
   it('a model free to move: exit 3; with --debug the stack is shown', () => {

@@ -68,6 +68,9 @@ export const MIN_CORNER_ANGLE = Math.PI / 180;
  */
 export const MAX_OFFSET = 1e9;
 
+/** Smallest hole, as a fraction of the part (its box diagonal); mesh sizes have the same floor. */
+export const MIN_FEATURE = 1e-6;
+
 /** Throws a ModelError for the first problem found; returns quietly for a valid domain. */
 export function validateDomain(domain: Domain): void {
   // A wedge drawn at exactly one degree passes: the limit allows for its rounding.
@@ -95,6 +98,20 @@ export function validateDomain(domain: Domain): void {
     );
   }
   const pl = traceLoops(domain);
+  const index = indexLoops(pl);
+  // A loop too small to mesh beside the part (a 1 nm hole in a 1 m plate) would only be found
+  // to "touch itself" by the contact test below, whose tolerance is 1e-9 of the part.
+  for (const loop of domain.loops) {
+    const b = index.box;
+    const across = Math.hypot(b[4 * loop.index + 2] - b[4 * loop.index], b[4 * loop.index + 3] - b[4 * loop.index + 1]);
+    if (loop.hole > 0 && across < MIN_FEATURE * domain.scale) {
+      throw new ModelError(
+        loop.source,
+        `${loop.label} is ${fmt(across)} across, less than a millionth of the part (${fmt(domain.scale)}): it cannot be meshed`,
+        'leave it out (a feature this small beside the part does not change its stresses), or model a small piece of the part around it',
+      );
+    }
+  }
   const tol = 1e-9 * domain.scale;
   const contacts = findContacts(pl, tol, 4);
   if (contacts.length > 0) {
@@ -118,7 +135,6 @@ export function validateDomain(domain: Domain): void {
     );
   }
   const outline = domain.loops[0];
-  const index = indexLoops(pl);
   for (const loop of domain.loops.slice(1)) {
     const x = pl.xy[2 * firstPoint(pl, loop.index, index)];
     const y = pl.xy[2 * firstPoint(pl, loop.index, index) + 1];

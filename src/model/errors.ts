@@ -31,7 +31,7 @@ export class ModelError extends Error {
   describe(): string {
     let place = this.file ?? '';
     if (this.line !== undefined) place += `${place ? ':' : 'line '}${this.line}${this.column !== undefined ? `:${this.column}` : ''}`;
-    const where = [place, this.path ? `at ${this.path}` : ''].filter(Boolean).join(': ');
+    const where = [place, this.path ? `at ${quoteText(this.path, 160)}` : ''].filter(Boolean).join(': ');
     const excerpt = this.excerpt ? `\n${indent(this.excerpt, '    ')}` : '';
     return `${where ? where + ': ' : ''}${this.message}${excerpt}${this.hint ? `\n  fix: ${this.hint}` : ''}`;
   }
@@ -51,7 +51,7 @@ export class ModelErrorList extends ModelError {
     readonly omitted = 0,
   ) {
     if (problems.length === 0) throw new InternalError('ModelErrorList needs at least one problem');
-    const lines = problems.map((p) => `${p.path ? `${p.path}: ` : ''}${p.message}`);
+    const lines = problems.map((p) => `${p.path ? `${quoteText(p.path, 160)}: ` : ''}${p.message}`);
     if (omitted > 0) lines.push(omittedLine(problems.length, omitted));
     super('', `${problemCount(problems.length + omitted)} in the model:\n${lines.join('\n')}`, undefined, file);
     this.problems = problems;
