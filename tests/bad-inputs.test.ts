@@ -231,6 +231,22 @@ describe('bad inputs at the command line', () => {
     expect(raiser(['sweep', f, '--vary', 'd=5,0x10', '-o', join(dir, 'vary-out')]).stderr).toMatch(/"0x10" in --vary d=5,0x10 is not a decimal number/);
   });
 
+  it('under a virtual memory limit of 3 GB (ulimit -v) a model solves (once every solve was an internal fault), and a model too large is refused with the limit said', () => {
+    if (!existsSync('/proc/self/limits')) return;
+    const f = join(dir, 'limited.json');
+    writeFileSync(f, JSON.stringify(base()));
+    const run = (args: string) => spawnSync('bash', ['-c', `ulimit -v 3000000 && exec "${process.execPath}" "${BIN}" ${args}`], { encoding: 'utf8', timeout: 120_000 });
+    const ok = run(`solve "${f}" --single-mesh`);
+    expect(ok.status, ok.stderr).toBe(0);
+    expect(ok.stdout).toMatch(/Kt net\s+2\.4/);
+    const big = base();
+    big.mesh = { size: 0.1, raiserSize: 0.05 };
+    writeFileSync(f, JSON.stringify(big));
+    const refused = run(`solve "${f}" --single-mesh`);
+    expect(refused.status, refused.stderr).toBe(2);
+    expect(refused.stderr).toMatch(/more than the limit of 1\.\d GB/);
+  });
+
   it('a model free to move: exit 3; with --debug the stack is shown', () => {
     const m = base();
     m.supports = [{ type: 'roller', fix: 'y', on: 'held' }];

@@ -14,12 +14,14 @@ import { prepareOutputDir, writeAtomic, writeResultFiles } from '../report/files
 import { environment, formatVerifyLine, formatVerifySummary, verifyReportMarkdown } from '../report/verify-report.js';
 import { runVerify, verifyCases } from '../verify/suite.js';
 import { join } from 'node:path';
+import { totalmem } from 'node:os';
 import { newCommand } from './new.js';
 import { chartsCommand } from './charts.js';
 import { sweepCommands } from './sweep.js';
 import { meshCommand } from './mesh.js';
 import { benchSolveCommand } from './bench-solve.js';
 import { parseAccuracy } from './accuracy.js';
+import { addressSpaceLimit } from './address-space.js';
 import { addSolvePictureOptions, exportMatrixIfAsked, plotCommand, prepareSolveOutputs, solveOutputOptions } from './plot.js';
 
 export const EXIT = { ok: 0, internal: 1, badInput: 2, cannotAnalyse: 3 } as const;
@@ -37,6 +39,16 @@ interface SolveFlags {
   allowDrawingOutside?: boolean;
 }
 
+/**
+ * The default memory limit under a virtual memory limit (ulimit -v): 60% of it when that is
+ * less than 60% of the machine, so a model too large is refused up front with its size said,
+ * rather than failing in an allocation part way. Undefined: the analysis's own default.
+ */
+function defaultMemoryLimit(): number | undefined {
+  const limit = addressSpaceLimit();
+  return limit !== undefined && 0.6 * limit < 0.6 * totalmem() ? 0.6 * limit : undefined;
+}
+
 /** "8", "8GB", "512MB" -> bytes. */
 function parseMemory(text: string): number {
   const m = /^\s*(\d*\.?\d+)\s*(GB|G|MB|M)?\s*$/i.exec(text);
@@ -50,7 +62,7 @@ function runSolve(file: string, flags: SolveFlags): number {
   prepareSolveOutputs(flags);
   const loaded = loadModelFile(file, { allowDrawingOutside: flags.allowDrawingOutside });
   const { model, warnings } = loaded;
-  const opts = { measure: flags.measure, element: flags.element, maxMemoryBytes: flags.maxMemory ? parseMemory(flags.maxMemory) : undefined };
+  const opts = { measure: flags.measure, element: flags.element, maxMemoryBytes: flags.maxMemory ? parseMemory(flags.maxMemory) : defaultMemoryLimit() };
   let analysis;
   let cert = null;
   // A problem found while building the geometry or the mesh is placed in the model file too.
@@ -162,6 +174,11 @@ export async function main(argv: string[]): Promise<number> {
   return code;
 }
 
+/** An allocation that the engine or the system refused: not a bug, a model too large for the memory allowed. */
+function outOfMemory(err: unknown): boolean {
+  return err instanceof RangeError && /could not allocate memory|Array buffer allocation failed|Invalid typed array length|out of memory/i.test(err.message);
+}
+
 function reportError(err: unknown, debug: boolean): number {
   if (err instanceof CommanderError) {
     // commander has already printed its message (help and version exit with code 0).
@@ -175,6 +192,14 @@ function reportError(err: unknown, debug: boolean): number {
   if (err instanceof AnalysisError) {
     process.stderr.write(`raiser: cannot analyse: ${err.describe()}\n`);
     if (debug && err.stack) process.stderr.write(err.stack + '\n');
+    return EXIT.cannotAnalyse;
+  }
+  if (outOfMemory(err)) {
+    const limit = addressSpaceLimit();
+    process.stderr.write(
+      `raiser: cannot analyse: the analysis needs more memory than this process may use (${(err as Error).message})${limit !== undefined ? `; its address space is limited to ${(limit / 2 ** 30).toFixed(1)} GB (ulimit -v)` : ''}\n  fix: coarsen the mesh (mesh.size, mesh.raiserSize), lower --max-memory so the model is refused or solved iteratively, or raise the limit\n`,
+    );
+    if (debug && (err as Error).stack) process.stderr.write((err as Error).stack + '\n');
     return EXIT.cannotAnalyse;
   }
   const e = err as Error;
