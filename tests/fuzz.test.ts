@@ -13,11 +13,19 @@
  * The run counts are sized for CI; RAISER_FUZZ=10 multiplies them by ten for a long search.
  */
 import fc from 'fast-check';
+import { existsSync, mkdirSync, mkdtempSync, utimesSync, writeFileSync } from 'node:fs';
+import { hostname, tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { buildDomain } from '../src/geometry/domain.js';
 import { validateDomain } from '../src/geometry/validate.js';
 import { generateMesh } from '../src/mesh/generate.js';
+import { DrawingError } from '../src/geometry/import/types.js';
+import { readDxf } from '../src/geometry/import/dxf.js';
+import { readSvg } from '../src/geometry/import/svg.js';
 import { AnalysisError, ModelError } from '../src/model/errors.js';
+import { lockOutputDir, releaseOutputLock } from '../src/report/output-dir.js';
+import { DXF_RECT, dxf, nestedBlocks, svgUseFanOut } from './support/hostile.js';
 import { loadModelText } from '../src/model/load.js';
 import { analyseOnMesh, prepareModel } from '../src/pipeline/analyse.js';
 import type { Model } from '../src/model/schema.js';
@@ -170,4 +178,120 @@ describe('position and scale change nothing', () => {
       { numRuns: runs(12), interruptAfterTimeLimit: 120_000 * FACTOR, markInterruptAsFailure: true },
     );
   }, 180_000 * FACTOR);
+});
+
+/**
+ * Hostile input of every kind, generated: each gives a model or a clear error (ModelError,
+ * AnalysisError, or for a drawing reader a DrawingError), never another exception, and the
+ * work stays bounded by the limits (src/geometry/import/limits.ts, src/model/load.ts).
+ */
+describe('hostile input, generated', () => {
+  const DRAWING = { modelUnitMetres: 0.001, modelUnitName: 'mm', scale: 1, ignore: [] as string[], file: 'fuzz' };
+  const clearOrDrawing = (e: unknown) => clearError(e) || e instanceof DrawingError;
+  const baseText = JSON.stringify(toModel({ W: 100, H: 40, scale: 1, angle: 0, fillets: [0, 0, 0, 0], holes: [] }));
+
+  it(`lists and objects nested to any depth give a model or a clear error (${runs(60)} cases)`, () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 20_000 }), fc.constantFrom('[', '{"a":'), fc.constantFrom('note', 'material', 'geometry', 'zzz'), (depth, open, field) => {
+        const close = open === '[' ? ']' : '}';
+        const nested = open.repeat(depth) + (open === '[' ? '' : '1') + close.repeat(depth);
+        const text = baseText.replace(/^\{/, `{"${field}":${nested},`);
+        try {
+          loadModelText(text, 'nested.json');
+        } catch (e) {
+          expect(clearError(e), String((e as Error)?.stack)).toBe(true);
+          if (depth > 32) expect((e as Error).message).toMatch(/nested \d+ deep|given twice|unknown field|must be|problems/);
+        }
+      }),
+      { numRuns: runs(60) },
+    );
+  });
+
+  it(`"__proto__", "constructor" and "prototype" anywhere are refused as unknown fields (${runs(200)} cases)`, () => {
+    const key = fc.constantFrom('__proto__', 'constructor', 'prototype');
+    fc.assert(
+      fc.property(key, fc.jsonValue({ maxDepth: 2 }), fc.nat(), (k, v, at) => {
+        // Put the field into one of the model's objects, chosen by position.
+        const objects = [...baseText.matchAll(/\{/g)].map((m) => m.index!);
+        const pos = objects[at % objects.length] + 1;
+        const text = `${baseText.slice(0, pos)}${JSON.stringify(k)}:${JSON.stringify(v)},${baseText.slice(pos)}`;
+        let err: unknown = null;
+        try {
+          loadModelText(text, 'proto.json');
+        } catch (e) {
+          err = e;
+        }
+        expect(err, 'a reserved field was accepted').not.toBeNull();
+        expect(clearError(err), String((err as Error)?.stack)).toBe(true);
+        expect((err as ModelError).describe()).toContain(`unknown field "${k}"`);
+      }),
+      { numRuns: runs(200) },
+    );
+  });
+
+  it(`SVG <use> fan-out and nesting of any shape is read or refused, within the expansion limit (${runs(25)} cases)`, () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 12 }), fc.integer({ min: 1, max: 12 }), (depth, fan) => {
+        try {
+          const r = readSvg(svgUseFanOut(depth, fan), DRAWING);
+          expect(r.pieces.length).toBeLessThanOrEqual(200_000);
+        } catch (e) {
+          expect(clearOrDrawing(e), String((e as Error)?.stack)).toBe(true);
+        }
+      }),
+      { numRuns: runs(25) },
+    );
+  });
+
+  it(`DXF block INSERTs nested and fanned out of any shape are read or refused, within the expansion limit (${runs(25)} cases)`, () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 0, max: 20 }), fc.integer({ min: 1, max: 12 }), (depth, fan) => {
+        try {
+          const r = readDxf(dxf(`${DXF_RECT}0\nINSERT\n2\nB${depth}\n10\n0\n20\n0\n`, nestedBlocks(depth, fan)), DRAWING);
+          expect(r.pieces.length).toBeLessThanOrEqual(200_000);
+        } catch (e) {
+          expect(clearOrDrawing(e), String((e as Error)?.stack)).toBe(true);
+        }
+      }),
+      { numRuns: runs(25) },
+    );
+  });
+
+  it(`any expression text gives a finite number or a clear error (${runs(2000)} cases)`, () => {
+    const piece = fc.constantFrom('(', ')', '+', '-', '*', '/', '^', ',', '1', '0', '1e308', 'd', 'pi', 'sqrt(', 'max(', 'tand(', 'constructor(', '__proto__', ' ', '.', 'e');
+    fc.assert(
+      fc.property(fc.array(piece, { maxLength: 60 }), (parts) => {
+        const text = JSON.stringify({ ...JSON.parse(baseText), parameters: { d: 2 }, thickness: `=${parts.join('')}` });
+        try {
+          loadModelText(text, 'expr.json');
+        } catch (e) {
+          expect(clearError(e), String((e as Error)?.stack)).toBe(true);
+        }
+      }),
+      { numRuns: runs(2000) },
+    );
+  });
+
+  it(`an output folder's lock file of any content is taken over when its owner is gone, or refused naming why (${runs(100)} cases)`, () => {
+    const root = mkdtempSync(join(tmpdir(), 'raiser-lockfuzz-'));
+    let n = 0;
+    fc.assert(
+      fc.property(fc.oneof(fc.string(), fc.jsonValue().map((v) => JSON.stringify(v)), fc.record({ pid: fc.integer({ min: -5, max: 2 ** 22 }), host: fc.constantFrom(hostname(), 'elsewhere'), started: fc.string() }).map((o) => JSON.stringify(o))), fc.boolean(), (content, old) => {
+        const dir = join(root, String(n++));
+        mkdirSync(dir);
+        const lock = join(dir, '.raiser-lock');
+        writeFileSync(lock, content);
+        if (old) utimesSync(lock, new Date(0), new Date(0));
+        try {
+          lockOutputDir(dir);
+          releaseOutputLock(dir);
+          expect(existsSync(lock)).toBe(false);
+        } catch (e) {
+          expect(e).toBeInstanceOf(ModelError);
+          expect((e as ModelError).message).toMatch(/in use by another raiser run|being locked by another raiser run/);
+        }
+      }),
+      { numRuns: runs(100) },
+    );
+  });
 });
