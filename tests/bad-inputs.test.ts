@@ -285,6 +285,8 @@ describe('hostile files at the command line, each in a child with a bounded heap
     ['DXF coordinates "inf"', drawing('inf.dxf', dxf(DXF_RECT.replace('10\n100\n20\n0\n11', '10\ninf\n20\n0\n11'))), /not a finite number/],
     ['a model file in UTF-32 (once called UTF-16)', { 'utf32.json': '' }, /saved as UTF-32 text/],
     ['a DXF of 10,000 circles (once "Set maximum size exceeded")', drawing('circles.dxf', dxf(DXF_RECT.replace(/100/g, '1000').replace(/\n40\n/g, '\n1000\n') + manyCircles(100))), /the drawing has 10001 closed loops, more than the 5000/],
+    ['a DXF of 250,000 LINEs (10 MB; once 2.3 GB for 60 MB), refused before parsing', drawing('lines.dxf', dxf(DXF_RECT + dxfLine(1, 1, 2, 2).repeat(250_000))), /holds 250,00\d records \(entities and table entries\), more than the 200,000/],
+    ['an SVG of 250,000 elements, refused while parsing', drawing('rects.svg', svgDeepGroups(1).replace('</svg>', '<rect x="1" y="1" width="1" height="1"/>'.repeat(250_000) + '</svg>')), /the SVG file holds more than 200,000 elements/],
     ['a DXF polyline of 250,000 vertices (once "Set maximum size exceeded" at a million)', drawing('poly.dxf', dxf(lwPolylineCircle(250_000))), /more than 200,000 lines, arcs and curves/],
   ];
   // Written as bytes: UTF-32 little-endian with its byte-order mark.

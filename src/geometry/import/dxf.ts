@@ -21,7 +21,7 @@
 import dxfParserModule, { type DxfParser as DxfParserClass } from 'dxf-parser';
 import type { Curve } from '../curve.js';
 import { type Affine, IDENTITY, compose, mapCurve, rotation, scaling, translation } from './affine.js';
-import { ExpansionBudget, MAX_ARRAY_COPIES, MAX_SPLINE_DEGREE, MAX_SPLINE_POINTS, MAX_SPLINE_WORK, ccwSweep, usableAngle } from './limits.js';
+import { ExpansionBudget, MAX_ARRAY_COPIES, MAX_EXPANDED_ITEMS, MAX_SPLINE_DEGREE, MAX_SPLINE_POINTS, MAX_SPLINE_WORK, ccwSweep, usableAngle } from './limits.js';
 import { DRAWING_UNIT_METRES, DrawingError, type DrawnCurve, type Piece, type ReadDrawing, type ReadOptions } from './types.js';
 
 /**
@@ -92,11 +92,33 @@ function rawHandler(name: string) {
   };
 }
 
-/** The names that follow group code 0 anywhere in the file (entity types among them). */
-function zeroNames(lines: string[]): Set<string> {
+/**
+ * The names that follow group code 0 anywhere in the file (entity types among them), and how
+ * many records there are: one pass over the text without splitting it, so a large file is
+ * counted, and refused when it holds too many records, before the parser builds an object for
+ * each (60 MB of LINEs took 2.3 GB there).
+ */
+function zeroNames(text: string): { names: Set<string>; records: number } {
   const names = new Set<string>();
-  for (let i = 0; i + 1 < lines.length; i += 2) if (lines[i].trim() === '0') names.add(lines[i + 1].trim());
-  return names;
+  let records = 0;
+  const n = text.length;
+  let pos = 0;
+  let even = true; // group code lines and value lines alternate
+  let code = '';
+  while (pos < n) {
+    let end = text.indexOf('\n', pos);
+    if (end < 0) end = n;
+    let line = text.slice(pos, end);
+    if (line.endsWith('\r')) line = line.slice(0, -1);
+    if (even) code = line.trim();
+    else if (code === '0') {
+      records++;
+      if (names.size < 10_000) names.add(line.trim());
+    }
+    even = !even;
+    pos = end + 1;
+  }
+  return { names, records };
 }
 
 interface Entity {
@@ -120,9 +142,15 @@ function fmt(v: number): string {
 /** Reads a DXF document into pieces in model coordinates. */
 export function readDxf(text: string, opts: ReadOptions): ReadDrawing {
   if (text.startsWith('AutoCAD Binary DXF')) throw new DrawingError('this is a binary DXF file', 'save the drawing as ASCII DXF');
-  const lines = text.split(/\r\n|\r|\n/);
+  const { names, records } = zeroNames(text);
+  if (records > MAX_EXPANDED_ITEMS) {
+    throw new DrawingError(
+      `the drawing holds ${records.toLocaleString('en-US')} records (entities and table entries), more than the ${MAX_EXPANDED_ITEMS.toLocaleString('en-US')} raiser reads`,
+      'a plate profile needs far fewer: export only the part (without title block, hatching and other parts), or simplify it',
+    );
+  }
   const parser = new DxfParser();
-  for (const name of zeroNames(lines)) {
+  for (const name of names) {
     if (STRUCTURE.has(name) || LIBRARY.has(name) || !/^[A-Z0-9_]+$/i.test(name)) continue;
     parser.registerEntityHandler(rawHandler(name) as never);
   }

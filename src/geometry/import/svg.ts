@@ -19,7 +19,7 @@ import { SaxesParser, type SaxesTagNS } from 'saxes';
 import svgpath from 'svgpath';
 import { type Curve } from '../curve.js';
 import { type Affine, IDENTITY, compose, mapCurve, scaling, translation } from './affine.js';
-import { ExpansionBudget, MAX_XML_DEPTH, MAX_XML_ENTITIES, MAX_XML_ENTITY_LENGTH, MAX_XML_EXPANSION } from './limits.js';
+import { ExpansionBudget, MAX_EXPANDED_ITEMS, MAX_XML_DEPTH, MAX_XML_ENTITIES, MAX_XML_ENTITY_LENGTH, MAX_XML_EXPANSION } from './limits.js';
 import { DRAWING_UNIT_METRES, DrawingError, type DrawnCurve, type Piece, type ReadDrawing, type ReadOptions } from './types.js';
 
 const SVG_NS = 'http://www.w3.org/2000/svg';
@@ -41,6 +41,7 @@ interface XmlElement {
 function parseXml(text: string): XmlElement {
   const parser = new SaxesParser({ xmlns: true, position: true });
   const stack: XmlElement[] = [];
+  let elements = 0;
   let root: XmlElement | undefined;
   let failure: Error | undefined;
   parser.on('error', (e) => {
@@ -79,6 +80,9 @@ function parseXml(text: string): XmlElement {
       else if (a.uri === XLINK_NS && a.local === 'href') xlinkHref = a.value;
     }
     const el: XmlElement = { local: tag.local, uri: tag.uri, attrs, inkscapeLabel, xlinkHref, children: [], line: parser.line };
+    if (++elements > MAX_EXPANDED_ITEMS) {
+      throw new DrawingError(`the SVG file holds more than ${MAX_EXPANDED_ITEMS.toLocaleString('en-US')} elements (the limit was passed at line ${parser.line})`, 'a plate profile needs far fewer: export only the part, or simplify the drawing');
+    }
     if (stack.length >= MAX_XML_DEPTH) {
       throw new DrawingError(`${describe(el)}: elements nested more than ${MAX_XML_DEPTH} deep`, 'a drawing of a plate needs far fewer levels: ungroup the drawing in the drawing program and save it again');
     }
