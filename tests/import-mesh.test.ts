@@ -3,7 +3,7 @@
  * before anything is solved. Runs the built command line on models around the invented test
  * drawings in meshes/.
  */
-import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { PNG } from 'pngjs';
@@ -26,7 +26,9 @@ function modelFile(dir: string, geometry: object, loads: object[]): string {
 describe('raiser mesh', () => {
   it('prints the drawing, its loops, tags and what each load selects, and writes mesh-preview.png and mesh-preview.svg', () => {
     const dir = mkdtempSync(join(tmpdir(), 'raiser-mesh-'));
-    const file = modelFile(dir, { from: join(MESHES, 'import-plate-hole.dxf') }, [{ type: 'traction', on: 'PULL', normal: 100 }]);
+    // A drawing is read from the model file's folder (or, with --allow-drawing-outside, from anywhere).
+    copyFileSync(join(MESHES, 'import-plate-hole.dxf'), join(dir, 'import-plate-hole.dxf'));
+    const file = modelFile(dir, { from: 'import-plate-hole.dxf' }, [{ type: 'traction', on: 'PULL', normal: 100 }]);
     const r = raiser(['mesh', file, '-o', join(dir, 'out')]);
     expect(r.stderr).toBe('');
     expect(r.code).toBe(0);
@@ -46,8 +48,8 @@ describe('raiser mesh', () => {
   it('--json prints the summary as JSON only', () => {
     const dir = mkdtempSync(join(tmpdir(), 'raiser-mesh-'));
     const file = modelFile(dir, { from: join(MESHES, 'import-plate-hole.svg') }, [{ type: 'traction', on: 'pull', normal: 100 }]);
-    const r = raiser(['mesh', file, '--json', '--element', 'linear']);
-    expect(r.code).toBe(0);
+    const r = raiser(['mesh', file, '--json', '--element', 'linear', '--allow-drawing-outside']);
+    expect(r.code, r.stderr).toBe(0);
     const j = JSON.parse(r.stdout);
     expect(j.loops.map((l: { label: string }) => l.label)).toEqual(['outline', 'hole 1 "bore"']);
     expect(j.mesh.order).toBe(1);
@@ -56,7 +58,8 @@ describe('raiser mesh', () => {
   });
   it('a bad drawing exits 2 with the place in the model file', () => {
     const dir = mkdtempSync(join(tmpdir(), 'raiser-mesh-'));
-    const file = modelFile(dir, { from: join(MESHES, 'import-bad-gap.dxf') }, [{ type: 'traction', on: { x: 100 }, normal: 100 }]);
+    copyFileSync(join(MESHES, 'import-bad-gap.dxf'), join(dir, 'import-bad-gap.dxf'));
+    const file = modelFile(dir, { from: 'import-bad-gap.dxf' }, [{ type: 'traction', on: { x: 100 }, normal: 100 }]);
     const r = raiser(['mesh', file]);
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/model\.json:\d+:\d+: at geometry\.from: .*open contour/);

@@ -14,13 +14,15 @@ import { prepareOutputDir, writeAtomic, writeResultFiles } from '../report/files
 import { environment, formatVerifyLine, formatVerifySummary, verifyReportMarkdown } from '../report/verify-report.js';
 import { runVerify, verifyCases } from '../verify/suite.js';
 import { join } from 'node:path';
+import { totalmem } from 'node:os';
 import { newCommand } from './new.js';
 import { chartsCommand } from './charts.js';
 import { sweepCommands } from './sweep.js';
 import { meshCommand } from './mesh.js';
 import { benchSolveCommand } from './bench-solve.js';
 import { parseAccuracy } from './accuracy.js';
-import { addSolvePictureOptions, exportMatrixIfAsked, plotCommand, solveOutputOptions } from './plot.js';
+import { addressSpaceLimit } from './address-space.js';
+import { addSolvePictureOptions, exportMatrixIfAsked, plotCommand, prepareSolveOutputs, solveOutputOptions } from './plot.js';
 import { probeCommand } from './probe.js';
 
 export const EXIT = { ok: 0, internal: 1, badInput: 2, cannotAnalyse: 3 } as const;
@@ -35,6 +37,17 @@ interface SolveFlags {
   measure?: StressMeasure;
   element?: 'linear' | 'quadratic';
   debug?: boolean;
+  allowDrawingOutside?: boolean;
+}
+
+/**
+ * The default memory limit under a virtual memory limit (ulimit -v): 60% of it when that is
+ * less than 60% of the machine, so a model too large is refused up front with its size said,
+ * rather than failing in an allocation part way. Undefined: the analysis's own default.
+ */
+function defaultMemoryLimit(): number | undefined {
+  const limit = addressSpaceLimit();
+  return limit !== undefined && 0.6 * limit < 0.6 * totalmem() ? 0.6 * limit : undefined;
 }
 
 /** "8", "8GB", "512MB" -> bytes. */
@@ -46,14 +59,25 @@ function parseMemory(text: string): number {
 }
 
 function runSolve(file: string, flags: SolveFlags): number {
-  const { model, warnings } = loadModelFile(file);
-  const opts = { measure: flags.measure, element: flags.element, maxMemoryBytes: flags.maxMemory ? parseMemory(flags.maxMemory) : undefined };
+  // The output folders are checked, made and locked before anything is read or solved.
+  prepareSolveOutputs(flags);
+  const loaded = loadModelFile(file, { allowDrawingOutside: flags.allowDrawingOutside });
+  const { model, warnings } = loaded;
+  const opts = { measure: flags.measure, element: flags.element, maxMemoryBytes: flags.maxMemory ? parseMemory(flags.maxMemory) : defaultMemoryLimit() };
   let analysis;
   let cert = null;
+  // A problem found while building the geometry or the mesh is placed in the model file too.
+  const placed = <T>(work: () => T): T => {
+    try {
+      return work();
+    } catch (e) {
+      throw e instanceof ModelError ? loaded.locate(e) : e;
+    }
+  };
   if (flags.singleMesh) {
-    analysis = analyseModel(model, opts);
+    analysis = placed(() => analyseModel(model, opts));
   } else {
-    cert = certifyModel(model, { ...opts, target: parseAccuracy(flags.accuracy ?? '1%') });
+    cert = placed(() => certifyModel(model, { ...opts, target: parseAccuracy(flags.accuracy ?? '1%') }));
     analysis = cert.analysis;
     if (cert.status === 'not-converged') {
       analysis.warnings.push(`the accuracy target ${(100 * cert.target).toPrecision(2)}% was not met; the error band shown is what the meshes support`);
@@ -62,7 +86,7 @@ function runSolve(file: string, flags: SolveFlags): number {
   analysis.warnings.unshift(...warnings.map((w) => w.describe()));
   const result = buildResult(analysis, file, cert);
   let written: string[] = [];
-  if (flags.out) written = writeResultFiles(flags.out, analysis, result, flags.force ?? false, solveOutputOptions(flags));
+  if (flags.out !== undefined) written = writeResultFiles(flags.out, analysis, result, flags.force ?? false, solveOutputOptions(flags));
   written.push(...exportMatrixIfAsked(flags, analysis));
   if (flags.json) {
     process.stdout.write(JSON.stringify(result, null, 2) + '\n');
@@ -75,19 +99,19 @@ function runSolve(file: string, flags: SolveFlags): number {
 
 function runVerifyCommand(flags: { json?: boolean; out?: string; force?: boolean; only?: string }): number {
   const only = flags.only ? flags.only.split(',').map((x) => x.trim()).filter(Boolean) : undefined;
-  if (flags.out) prepareOutputDir(flags.out, ['verify-report.md', 'verify.json'], flags.force ?? false);
+  if (flags.out !== undefined) prepareOutputDir(flags.out, ['verify-report.md', 'verify.json'], flags.force ?? false);
   if (!flags.json) process.stdout.write(`raiser ${TOOL_VERSION} verification suite\n`);
   const rows = runVerify(only, flags.json ? undefined : (r) => process.stdout.write(formatVerifyLine(r) + '\n'));
   if (rows.length === 0) throw new ModelError('--only', `no verification case starts with ${flags.only}`, `the cases are ${verifyCases().map((c) => c.id).join(', ')}`);
   const summary = { environment: environment(), pass: rows.every((r) => r.pass), rows };
-  if (flags.out) {
+  if (flags.out !== undefined) {
     writeAtomic(join(flags.out, 'verify-report.md'), verifyReportMarkdown(rows));
     writeAtomic(join(flags.out, 'verify.json'), JSON.stringify(summary, null, 2) + '\n');
   }
   if (flags.json) process.stdout.write(JSON.stringify(summary, null, 2) + '\n');
   else {
     process.stdout.write(formatVerifySummary(rows) + '\n');
-    if (flags.out) process.stdout.write(`  wrote ${join(flags.out, 'verify-report.md')} and ${join(flags.out, 'verify.json')}\n`);
+    if (flags.out !== undefined) process.stdout.write(`  wrote ${join(flags.out, 'verify-report.md')} and ${join(flags.out, 'verify.json')}\n`);
   }
   // A failed case means this installation does not reproduce a published value: a fault.
   return summary.pass ? EXIT.ok : EXIT.internal;
@@ -118,6 +142,7 @@ export async function main(argv: string[]): Promise<number> {
     .addOption(new Option('--measure <measure>', 'stress measure for the peak and Kt').choices(STRESS_MEASURES as unknown as string[]))
     .addOption(new Option('--element <type>', 'element type, overriding the model file').choices(['linear', 'quadratic']))
     .option('--debug', 'show internal details (stack traces) on errors')
+    .option('--allow-drawing-outside', 'let geometry.from read a drawing outside the model file\'s folder (an absolute path, or one through ..)')
     .action((file: string, flags: SolveFlags) => {
       debug = debug || !!flags.debug;
       code = runSolve(file, flags);
@@ -151,6 +176,11 @@ export async function main(argv: string[]): Promise<number> {
   return code;
 }
 
+/** An allocation that the engine or the system refused: not a bug, a model too large for the memory allowed. */
+function outOfMemory(err: unknown): boolean {
+  return err instanceof RangeError && /could not allocate memory|Array buffer allocation failed|Invalid typed array length|out of memory/i.test(err.message);
+}
+
 function reportError(err: unknown, debug: boolean): number {
   if (err instanceof CommanderError) {
     // commander has already printed its message (help and version exit with code 0).
@@ -164,6 +194,14 @@ function reportError(err: unknown, debug: boolean): number {
   if (err instanceof AnalysisError) {
     process.stderr.write(`raiser: cannot analyse: ${err.describe()}\n`);
     if (debug && err.stack) process.stderr.write(err.stack + '\n');
+    return EXIT.cannotAnalyse;
+  }
+  if (outOfMemory(err)) {
+    const limit = addressSpaceLimit();
+    process.stderr.write(
+      `raiser: cannot analyse: the analysis needs more memory than this process may use (${(err as Error).message})${limit !== undefined ? `; its address space is limited to ${(limit / 2 ** 30).toFixed(1)} GB (ulimit -v)` : ''}\n  fix: coarsen the mesh (mesh.size, mesh.raiserSize), lower --max-memory so the model is refused or solved iteratively, or raise the limit\n`,
+    );
+    if (debug && (err as Error).stack) process.stderr.write((err as Error).stack + '\n');
     return EXIT.cannotAnalyse;
   }
   const e = err as Error;

@@ -9,6 +9,7 @@ import { curveLength } from '../geometry/curve.js';
 import { attachedDrawing } from '../geometry/import/index.js';
 import { selectTarget } from '../geometry/select.js';
 import { generateMesh } from '../mesh/generate.js';
+import { ModelError } from '../model/errors.js';
 import { loadModelFile } from '../model/load.js';
 import { prepareModel } from '../pipeline/analyse.js';
 import { drawGeometryPicture } from '../render/geometry-picture.js';
@@ -19,6 +20,7 @@ interface MeshFlags {
   force?: boolean;
   element?: 'linear' | 'quadratic';
   json?: boolean;
+  allowDrawingOutside?: boolean;
 }
 
 function fmt(v: number): string {
@@ -26,19 +28,29 @@ function fmt(v: number): string {
 }
 
 export function runMesh(file: string, flags: MeshFlags): { text: string; json: object } {
-  const { model, warnings } = loadModelFile(file);
-  const prep = prepareModel(model, { element: flags.element });
-  const { domain, order, hardPoints } = prep;
-  const ms = model.mesh ?? {};
-  const { mesh, stats } = generateMesh(domain, {
-    order,
-    size: ms.size,
-    raiserSize: ms.raiserSize,
-    grading: ms.grading,
-    minAngleDeg: ms.minAngle,
-    hardPoints,
-    maxBytes: prep.maxMemoryBytes,
-  });
+  if (flags.out !== undefined) prepareOutputDir(flags.out, ['mesh-preview.png', 'mesh-preview.svg'], flags.force ?? false);
+  const loaded = loadModelFile(file, { allowDrawingOutside: flags.allowDrawingOutside });
+  const { model, warnings } = loaded;
+  let prep;
+  let meshed;
+  try {
+    prep = prepareModel(model, { element: flags.element });
+    const ms = model.mesh ?? {};
+    meshed = generateMesh(prep.domain, {
+      order: prep.order,
+      size: ms.size,
+      raiserSize: ms.raiserSize,
+      grading: ms.grading,
+      minAngleDeg: ms.minAngle,
+      hardPoints: prep.hardPoints,
+      maxBytes: prep.maxMemoryBytes,
+    });
+  } catch (e) {
+    // A problem found while building the geometry or the mesh is placed in the model file too.
+    throw e instanceof ModelError ? loaded.locate(e) : e;
+  }
+  const { domain, order } = prep;
+  const { mesh, stats } = meshed;
   const u = prep.units.length;
   const g = model.geometry;
   const drawing = 'from' in g ? attachedDrawing(g) : undefined;
@@ -79,7 +91,7 @@ export function runMesh(file: string, flags: MeshFlags): { text: string; json: o
   lines.push(`  mesh: ${mesh.nNodes} nodes, ${mesh.nElements} ${order === 2 ? 'quadratic triangles (6-node)' : 'linear triangles (3-node)'}, smallest angle ${stats.minAngleUnforcedDeg.toFixed(1)} deg`);
   for (const w of warnings) lines.push(`  warning: ${w.message}`);
   const written: string[] = [];
-  if (flags.out) {
+  if (flags.out !== undefined) {
     prepareOutputDir(flags.out, ['mesh-preview.png', 'mesh-preview.svg'], flags.force ?? false);
     const pic = drawGeometryPicture({
       domain,
@@ -118,6 +130,7 @@ export function meshCommand(program: Command, setCode: (c: number) => void): voi
     .option('--force', 'replace picture files that already exist in the output folder')
     .addOption(new Option('--element <type>', 'element type, overriding the model file').choices(['linear', 'quadratic']))
     .option('--json', 'print the summary as one JSON object on stdout, nothing else')
+    .option('--allow-drawing-outside', 'let geometry.from read a drawing outside the model file\'s folder (an absolute path, or one through ..)')
     .action((file: string, flags: MeshFlags) => {
       const r = runMesh(file, flags);
       process.stdout.write((flags.json ? JSON.stringify(r.json, null, 2) : r.text) + '\n');

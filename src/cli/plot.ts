@@ -10,9 +10,9 @@ import { Command, Option } from 'commander';
 import { ModelError } from '../model/errors.js';
 import { STRESS_MEASURES, type StressMeasure } from '../model/schema.js';
 import type { Analysis } from '../pipeline/analyse.js';
-import { prepareOutputDir, writeAtomic, type OutputOptions } from '../report/files.js';
+import { prepareOutputDir, RESULT_FILES, writeAtomic, type OutputOptions } from '../report/files.js';
 import { reportHtml } from '../report/html.js';
-import { writeMatrixFiles } from '../report/matrix.js';
+import { MATRIX_FILES, writeMatrixFiles } from '../report/matrix.js';
 import {
   closeupScene,
   contourScene,
@@ -21,6 +21,7 @@ import {
   geometryScene,
   lineScene,
   meshScene,
+  pictureFileNames,
   standardPictures,
   writePictures,
   type PictureOptions,
@@ -86,6 +87,21 @@ export function solveOutputOptions(flags: object): OutputOptions {
   const f = flags as PictureFlags & { pictures?: boolean };
   // --measure on solve picks the analysis measure; the pictures follow the analysis.
   return { pictures: f.pictures !== false, pictureOptions: pictureOptions({ size: f.size }) };
+}
+
+/**
+ * Readies the output folders of `raiser solve` before anything is solved: -o and
+ * --export-matrix checked, made and locked, and files there not replaced without --force, so a
+ * bad folder is said at once rather than after the solve.
+ */
+export function prepareSolveOutputs(flags: object): void {
+  const f = flags as { out?: string; exportMatrix?: string; force?: boolean; pictures?: boolean };
+  const force = f.force ?? false;
+  if (f.out !== undefined) {
+    const names = [...RESULT_FILES, SAVED_FILE, 'result.vtu', ...(f.pictures !== false ? [...pictureFileNames(false), 'report.html'] : [])];
+    prepareOutputDir(f.out, names, force, '-o');
+  }
+  if (f.exportMatrix !== undefined) prepareOutputDir(f.exportMatrix, MATRIX_FILES, force, '--export-matrix');
 }
 
 /** --export-matrix DIR of `raiser solve`. */

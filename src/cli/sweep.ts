@@ -24,7 +24,8 @@ export function sweepCommands(program: Command, setCode: (c: number) => void): v
     .option('--single-mesh', 'one mesh per case, no convergence study')
     .option('--x <expression>', 'the plot\'s x axis as an expression of the names (default: the family\'s dimensionless ratio, or the first name)')
     .option('--json', 'print the rows as JSON on stdout at the end')
-    .action(async (file: string, flags: { vary: string[]; out?: string; jobs?: string; accuracy?: string; singleMesh?: boolean; x?: string; json?: boolean }) => {
+    .option('--allow-drawing-outside', 'let geometry.from read a drawing outside the model file\'s folder (an absolute path, or one through ..)')
+    .action(async (file: string, flags: { vary: string[]; out?: string; jobs?: string; accuracy?: string; singleMesh?: boolean; x?: string; json?: boolean; allowDrawingOutside?: boolean }) => {
       const vary = flags.vary.map(parseVary);
       if (vary.length > 2) throw new ModelError('--vary', 'a sweep varies one or two names', 'drop the extra --vary');
       const jobs = flags.jobs === undefined ? undefined : Number(flags.jobs);
@@ -38,6 +39,7 @@ export function sweepCommands(program: Command, setCode: (c: number) => void): v
         jobs,
         target: flags.accuracy ? parseAccuracy(flags.accuracy) : undefined,
         singleMesh: flags.singleMesh,
+        allowDrawingOutside: flags.allowDrawingOutside,
         x: flags.x,
         onProgress: (row, done, total) => {
           if ('failed' in row) process.stderr.write(`  [${done}/${total}] ${row.key}: failed: ${row.failed}\n`);
@@ -47,6 +49,8 @@ export function sweepCommands(program: Command, setCode: (c: number) => void): v
       if (flags.json) process.stdout.write(JSON.stringify({ rows: res.rows, failed: res.failed, x: res.xLabel }, null, 2) + '\n');
       else {
         process.stdout.write(`sweep of ${file}: ${res.rows.length} cases (${res.reused} kept from an earlier run) in ${fmt((performance.now() - t0) / 1000, 3)} s\n`);
+        for (const r of res.redone.slice(0, 10)) process.stdout.write(`  solved again: the case file ${r}\n`);
+        if (res.redone.length > 10) process.stdout.write(`  solved again: ${res.redone.length - 10} more case files that did not read back whole\n`);
         for (const f of res.files) process.stdout.write(`  wrote ${f}\n`);
         process.stdout.write(`  finished cases are kept in ${join(out, 'cases')}: a rerun solves only what is missing\n`);
       }
@@ -68,7 +72,8 @@ export function sweepCommands(program: Command, setCode: (c: number) => void): v
     .option('--accuracy <target>', 'accuracy of each solution (default 0.5%)')
     .addOption(new Option('--measure <measure>', 'stress measure').choices(STRESS_MEASURES as unknown as string[]))
     .option('--json', 'print the result as JSON')
-    .action((file: string, flags: { vary: string; ktMax?: string; stressMax?: string; kt: 'net' | 'gross'; largest?: boolean; accuracy?: string; measure?: StressMeasure; json?: boolean }) => {
+    .option('--allow-drawing-outside', 'let geometry.from read a drawing outside the model file\'s folder (an absolute path, or one through ..)')
+    .action((file: string, flags: { vary: string; ktMax?: string; stressMax?: string; kt: 'net' | 'gross'; largest?: boolean; accuracy?: string; measure?: StressMeasure; json?: boolean; allowDrawingOutside?: boolean }) => {
       const m = /^\s*([A-Za-z_][A-Za-z0-9_-]*)\s*=\s*([^:]+):([^:]+)\s*$/.exec(flags.vary);
       if (!m) throw new ModelError('--vary', `"${flags.vary}" is not a range`, 'write --vary name=low:high');
       const num = (s: string | undefined, what: string) => {
@@ -86,6 +91,7 @@ export function sweepCommands(program: Command, setCode: (c: number) => void): v
         kt: flags.kt,
         largest: flags.largest,
         measure: flags.measure,
+        allowDrawingOutside: flags.allowDrawingOutside,
         target: flags.accuracy ? parseAccuracy(flags.accuracy) : undefined,
         onStep: (row, meets) => process.stderr.write(`  ${row.key}: Kt net ${row.ktNet === null ? '-' : fmt(row.ktNet, 4)}${row.error !== null ? ` +- ${fmt(100 * row.error, 2)}%` : ''}, peak ${fmt(row.peak)}: ${meets ? 'meets' : 'fails'} the limit\n`),
       });

@@ -152,6 +152,7 @@ export interface ExtraTraction {
 }
 
 export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports: CompiledSupports, warnings: string[], extra: readonly ExtraTraction[] = []): CompiledLoads {
+
   const t = model.thickness;
   const f = new Float64Array(2 * mesh.nNodes);
   const loaded = new Uint8Array(domain.edges.length);
@@ -248,6 +249,7 @@ export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports:
       fy += f[i + 1] - before[i + 1];
     }
     if (load.type === 'rigid-pin') [fx, fy] = load.force;
+    checkLoadPath(model, domain, supports, f, before, edges, index, warnings);
     for (const e of edges) loaded[e] = 1;
     items.push({ index, type: load.type, fx, fy, edges });
   });
@@ -257,6 +259,7 @@ export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports:
     for (const e of x.edges) loaded[e] = 1;
     items.push({ index: -1, type: 'traction', fx: NaN, fy: NaN, edges: x.edges });
   }
+  checkUserSection(model, domain, (e) => !loaded[e] && !supports.supported[e]);
   let any = supports.pins.some((p) => p.kind === 'rigid-pin' && p.role === 'load');
   for (let i = 0; i < f.length; i++) if (f[i] !== 0) any = true;
   if (!any) throw new ModelError('loads', 'no load acts on the model: every load is zero or matched no edge', 'check the load values and the edges they name');
@@ -275,6 +278,72 @@ export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports:
     };
   });
   return { f, loaded, items, remote, moment, edgeTraction };
+}
+
+/**
+ * A load whose nodal forces fall on held degrees of freedom goes straight into the support and
+ * never strains the part: a roller that holds a loaded edge in the direction of its load gave
+ * Kt 3104 with exit 0. All of it held: an error naming the support; more than a hundredth: a
+ * warning saying how much.
+ */
+function checkLoadPath(model: Model, domain: Domain, supports: CompiledSupports, f: Float64Array, before: Float64Array, edges: number[], index: number, warnings: string[]): void {
+  let total = 0;
+  let held = 0;
+  const fixed = supports.constraints.fixed;
+  for (let d = 0; d < f.length; d++) {
+    const v = Math.abs(f[d] - before[d]);
+    total += v;
+    if (fixed[d]) held += v;
+  }
+  if (!(total > 0) || held <= 0.01 * total) return;
+  const onEdges = new Set(edges);
+  const holders = model.supports
+    .map((sup, i) => ({ sup, i }))
+    .filter(({ sup }) => sup.type !== 'pin' && selectTarget(domain, sup.on).edges.some((e) => onEdges.has(e)))
+    .map(({ sup, i }) => `supports[${i}] (${sup.type}${sup.type === 'roller' ? `, holding ${sup.fix}` : ''})`);
+  const by = holders.length ? holders.join(' and ') : 'the supports';
+  if (held >= (1 - 1e-9) * total) {
+    throw new ModelError(
+      `loads[${index}]`,
+      `the load acts only in directions in which ${by} hold${holders.length === 1 ? 's' : ''} its edges: it would go straight into the support and never load the part`,
+      'load an edge that is free to move in the load\'s direction, or hold the part elsewhere (a roller is free along the direction it does not hold)',
+    );
+  }
+  warnings.push(`loads[${index}]: ${Math.round((100 * held) / total)}% of the load acts in directions in which ${by} hold${holders.length === 1 ? 's' : ''} its edges; that part goes straight into the support and does not load the part`);
+}
+
+/**
+ * A nominal section given in the model must not run along a free edge of the part: no force
+ * crosses a free edge, and the nominal stress near zero on one gave Kt 686. (Along a symmetry
+ * plane, a support or a loaded end the force does pass.)
+ */
+export function checkUserSection(model: Model, domain: Domain, free: (edge: number) => boolean): void {
+  const sec = model.results?.section;
+  if (!sec || sec === 'auto') return;
+  const [[ax, ay], [bx, by]] = [sec.from, sec.to];
+  const len = Math.hypot(bx - ax, by - ay);
+  if (!(len > 0)) return;
+  const tx = (bx - ax) / len;
+  const ty = (by - ay) / len;
+  const tol = 1e-6 * domain.scale;
+  for (const e of domain.edges) {
+    const c = e.curve;
+    if (c.kind !== 'line' || !free(e.id)) continue;
+    // Both ends of the edge on the cut's line, and the overlap more than half the cut.
+    const off0 = Math.abs((c.x0 - ax) * ty - (c.y0 - ay) * tx);
+    const off1 = Math.abs((c.x1 - ax) * ty - (c.y1 - ay) * tx);
+    if (off0 > tol || off1 > tol) continue;
+    const s0 = (c.x0 - ax) * tx + (c.y0 - ay) * ty;
+    const s1 = (c.x1 - ax) * tx + (c.y1 - ay) * ty;
+    const overlap = Math.min(len, Math.max(s0, s1)) - Math.max(0, Math.min(s0, s1));
+    if (overlap > 0.5 * len) {
+      throw new ModelError(
+        'results.section',
+        `the nominal section runs along ${e.label}, a free edge of the part, not across it: no force passes through it, so a nominal stress on it means nothing`,
+        'give a cut across the part, from one edge to the opposite one, through the material that carries the load; or "auto"',
+      );
+    }
+  }
 }
 
 /** The line that straight, collinear edges lie on, with the second moment of their length about its centroid. */

@@ -7,6 +7,7 @@
 import { ModelError, formatPath } from '../model/errors.js';
 import type { ArcSpec, DrawingGeometry, Geometry, Loop, Vertex } from '../model/schema.js';
 import { attachedDrawing } from './import/index.js';
+import { MAX_EDGES, MAX_LOOPS } from './limits.js';
 import { type Curve, curveAreaTerm, curveTangent, evaluateCurve, reverseCurve } from './curve.js';
 
 export interface DomainEdge {
@@ -68,6 +69,7 @@ interface RawEdge {
 
 const DEG = Math.PI / 180;
 
+
 /** Builds the domain; throws ModelError naming the field when a loop cannot be built. */
 export function buildDomain(geometry: Geometry, basePath = 'geometry'): Domain {
   const built: { raw: RawEdge[]; path: string; name?: string; label: string }[] = [];
@@ -105,9 +107,18 @@ function drawingLoops(geometry: DrawingGeometry, basePath: string): { raw: RawEd
 function assembleDomain(built: { raw: RawEdge[]; path: string; name?: string; label: string }[]): Domain {
   const loops: DomainLoop[] = [];
   const edges: DomainEdge[] = [];
-  built.forEach(({ raw, path, name, label }, li) => {
+  if (built.length > MAX_LOOPS) {
+    throw new ModelError(built[MAX_LOOPS].path, `the part has ${built.length - 1} holes, more than the ${MAX_LOOPS - 1} raiser analyses in one model`, 'model a representative piece of the part (a strip of holes with symmetry supports), not the whole perforated plate');
+  }
+  let edgeCount = 0;
+  built.forEach(({ raw: written, path, name, label }, li) => {
     const hole = li;
-    if (raw.length === 0) throw new ModelError(path, `${label}: the loop has no edges`);
+    if (written.length === 0) throw new ModelError(path, `${label}: the loop has no edges`);
+    const raw = mergeCollinear(written);
+    edgeCount += raw.length;
+    if (edgeCount > MAX_EDGES) {
+      throw new ModelError(path, `the part has more than ${MAX_EDGES.toLocaleString('en-US')} edges (${label} passes the limit), after straight edges in line are merged`, 'simplify the profile: join short segments into arcs, or model a representative piece of the part');
+    }
     let signed = 0;
     for (const e of raw) signed += curveAreaTerm(e.curve);
     const wantPositive = li === 0;
@@ -145,6 +156,44 @@ function assembleDomain(built: { raw: RawEdge[]; path: string; name?: string; la
   }
   const area = loops.reduce((s, l) => s + l.signedArea, 0);
   return { loops, edges, corners, bbox: [xmin, ymin, xmax, ymax], scale: Math.hypot(xmax - xmin, ymax - ymin), area };
+}
+
+/**
+ * Runs of straight edges in line, with the same tags, become one edge (labelled as the first of
+ * the run). A straight edge written as thousands of vertices is the same boundary as one edge,
+ * and must cost and mesh the same: otherwise every vertex forces a node, the mesh is refined
+ * along the whole edge, and a singular point there (the end of a clamp, say) takes the peak.
+ * A vertex is in line when it lies within 1e-10 of the merged edge's length from it, between its ends.
+ */
+export function mergeCollinear<E extends { curve: Curve; tags: string[] }>(edges: E[]): E[] {
+  const inLine = (a: E, b: E): boolean => {
+    const ca = a.curve;
+    const cb = b.curve;
+    if (ca.kind !== 'line' || cb.kind !== 'line') return false;
+    if (ca.x1 !== cb.x0 || ca.y1 !== cb.y0) return false;
+    if (a.tags.length !== b.tags.length || a.tags.some((t, i) => t !== b.tags[i])) return false;
+    const dx = cb.x1 - ca.x0;
+    const dy = cb.y1 - ca.y0;
+    const len = Math.hypot(dx, dy);
+    if (!(len > 0)) return false;
+    const off = Math.abs(dx * (ca.y1 - ca.y0) - dy * (ca.x1 - ca.x0)) / len;
+    const along = (dx * (ca.x1 - ca.x0) + dy * (ca.y1 - ca.y0)) / (len * len);
+    return off <= 1e-10 * len && along > 0 && along < 1;
+  };
+  const join = (a: E, b: E): E => {
+    const ca = a.curve as Extract<Curve, { kind: 'line' }>;
+    const cb = b.curve as Extract<Curve, { kind: 'line' }>;
+    return { ...a, curve: { kind: 'line', x0: ca.x0, y0: ca.y0, x1: cb.x1, y1: cb.y1 } };
+  };
+  const out: E[] = [];
+  for (const e of edges) {
+    const last = out[out.length - 1];
+    if (last && inLine(last, e)) out[out.length - 1] = join(last, e);
+    else out.push(e);
+  }
+  // The run may go on across the loop's start.
+  while (out.length > 2 && inLine(out[out.length - 1], out[0])) out[0] = join(out.pop()!, out[0]);
+  return out;
 }
 
 function findCorners(loops: DomainLoop[], edges: DomainEdge[]): DomainCorner[] {
@@ -296,17 +345,21 @@ function buildArc(ax: number, ay: number, bx: number, by: number, spec: ArcSpec,
   let cy: number;
   let ccw: boolean;
   if ('through' in spec) {
-    const [px, py] = spec.through;
-    const d = 2 * (ax * (py - by) + px * (by - ay) + bx * (ay - py));
+    // Relative to A: squares of coordinates far from the origin (a part at x = 1e9) would
+    // cancel away every digit of the centre.
+    const px = spec.through[0] - ax;
+    const py = spec.through[1] - ay;
+    const qx = bx - ax;
+    const qy = by - ay;
+    const d = 2 * (px * qy - qx * py);
     if (Math.abs(d) <= 1e-12 * scale * scale) {
       throw new ModelError(`${path}.through`, 'the three points of the arc lie on one line', 'move the "through" point off the chord, or make the edge straight');
     }
-    const a2 = ax * ax + ay * ay;
     const p2 = px * px + py * py;
-    const b2 = bx * bx + by * by;
-    cx = (a2 * (py - by) + p2 * (by - ay) + b2 * (ay - py)) / d;
-    cy = (a2 * (bx - px) + p2 * (ax - bx) + b2 * (px - ax)) / d;
-    ccw = (px - ax) * (by - ay) - (py - ay) * (bx - ax) > 0; // A -> P -> B turns left
+    const q2 = qx * qx + qy * qy;
+    cx = ax + (p2 * qy - q2 * py) / d;
+    cy = ay + (q2 * px - p2 * qx) / d;
+    ccw = px * qy - py * qx > 0; // A -> P -> B turns left
   } else if ('center' in spec) {
     [cx, cy] = spec.center;
     const ra = Math.hypot(ax - cx, ay - cy);
@@ -347,8 +400,19 @@ function buildArc(ax: number, ay: number, bx: number, by: number, spec: ArcSpec,
 function buildPath(vertices: Vertex[], path: string, loopTags: string[], isOutline: boolean, loopLabel: string): RawEdge[] {
   const vs = vertices.map(normaliseVertex);
   const n = vs.length;
-  let scale = 0;
-  for (const v of vs) scale = Math.max(scale, Math.abs(v.x), Math.abs(v.y));
+  // The loop's own extent, not the size of its coordinates: a part drawn at x = 1e9 keeps the
+  // tolerances of the same part at the origin.
+  let x0 = Infinity;
+  let y0 = Infinity;
+  let x1 = -Infinity;
+  let y1 = -Infinity;
+  for (const v of vs) {
+    x0 = Math.min(x0, v.x);
+    y0 = Math.min(y0, v.y);
+    x1 = Math.max(x1, v.x);
+    y1 = Math.max(y1, v.y);
+  }
+  const scale = Math.max(x1 - x0, y1 - y0);
   const where = (i: number) => (isOutline ? `corner ${i + 1}` : `corner ${i + 1} of ${loopLabel}`);
   const edgeName = (i: number) => (isOutline ? `outline edge ${i + 1}` : `edge ${i + 1} of ${loopLabel}`);
   // Zero-length edges.

@@ -58,6 +58,7 @@ export function findContacts(pl: Polylines, gapTol: number, limit = 16): Contact
   cell = Math.max((xmax - xmin) / Math.max(1, nx - 1), (ymax - ymin) / Math.max(1, ny - 1), cell);
   // Bucket segments by the cells their (padded) boxes cover.
   const buckets = new Map<number, number[]>();
+  const first = new Int32Array(2 * ns); // per segment: the first cell (i0, j0) its box covers
   for (let s = 0; s < ns; s++) {
     const a = segs[2 * s];
     const b = segs[2 * s + 1];
@@ -66,6 +67,8 @@ export function findContacts(pl: Polylines, gapTol: number, limit = 16): Contact
     const i1 = Math.floor((Math.max(xy[2 * a], xy[2 * b]) + pad - xmin) / cell);
     const j0 = Math.floor((Math.min(xy[2 * a + 1], xy[2 * b + 1]) - pad - ymin) / cell);
     const j1 = Math.floor((Math.max(xy[2 * a + 1], xy[2 * b + 1]) + pad - ymin) / cell);
+    first[2 * s] = i0;
+    first[2 * s + 1] = j0;
     for (let i = i0; i <= i1; i++) {
       for (let j = j0; j <= j1; j++) {
         const k = i * 4099 + j;
@@ -76,15 +79,15 @@ export function findContacts(pl: Polylines, gapTol: number, limit = 16): Contact
     }
   }
   const out: Contact[] = [];
-  const seen = new Set<number>();
-  for (const list of buckets.values()) {
+  // A pair of segments shares several cells when their boxes overlap over more than one: it is
+  // tested only in the first cell of that overlap, so no set of pairs seen is kept (one grew past
+  // the 2^24 entries a Set may hold on an outline of a million vertices).
+  for (const [k, list] of buckets) {
     for (let p = 0; p < list.length; p++) {
       for (let q = p + 1; q < list.length; q++) {
         const s1 = Math.min(list[p], list[q]);
         const s2 = Math.max(list[p], list[q]);
-        const key = s1 * ns + s2;
-        if (seen.has(key)) continue;
-        seen.add(key);
+        if (Math.max(first[2 * s1], first[2 * s2]) * 4099 + Math.max(first[2 * s1 + 1], first[2 * s2 + 1]) !== k) continue;
         const c = testPair(pl, s1, s2, gapTol);
         if (c) {
           out.push(c);
@@ -163,11 +166,53 @@ function testPair(pl: Polylines, s1: number, s2: number, gapTol: number): Contac
   return null;
 }
 
-/** Crossing-number test: is (x, y) inside the closed loop made of the listed segments? */
-export function pointInLoop(pl: Polylines, loop: number, x: number, y: number): boolean {
+/** Where each loop's segments are (they are consecutive, loop by loop), and each loop's bounding box. */
+export interface LoopIndex {
+  start: Int32Array;
+  end: Int32Array;
+  /** xmin, ymin, xmax, ymax per loop */
+  box: Float64Array;
+}
+
+export function indexLoops(pl: Polylines): LoopIndex {
+  const { xy, segs, segLoop } = pl;
+  let nl = 0;
+  for (let s = 0; s < segLoop.length; s++) nl = Math.max(nl, segLoop[s] + 1);
+  const start = new Int32Array(nl).fill(-1);
+  const end = new Int32Array(nl).fill(-1);
+  const box = new Float64Array(4 * nl);
+  for (let l = 0; l < nl; l++) box.set([Infinity, Infinity, -Infinity, -Infinity], 4 * l);
+  for (let s = 0; s < segLoop.length; s++) {
+    const l = segLoop[s];
+    if (start[l] < 0) start[l] = s;
+    else if (end[l] !== s) throw new RangeError('indexLoops: the segments of a loop are not consecutive');
+    end[l] = s + 1;
+    const a = segs[2 * s];
+    box[4 * l] = Math.min(box[4 * l], xy[2 * a]);
+    box[4 * l + 1] = Math.min(box[4 * l + 1], xy[2 * a + 1]);
+    box[4 * l + 2] = Math.max(box[4 * l + 2], xy[2 * a]);
+    box[4 * l + 3] = Math.max(box[4 * l + 3], xy[2 * a + 1]);
+  }
+  return { start, end, box };
+}
+
+/**
+ * Crossing-number test: is (x, y) inside the closed loop made of the listed segments? With an
+ * index, only the loop's own segments are read, and a point outside its box is outside at once
+ * (so testing every hole against every other costs little more than the number of pairs).
+ */
+export function pointInLoop(pl: Polylines, loop: number, x: number, y: number, index?: LoopIndex): boolean {
   const { xy, segs, segLoop } = pl;
   let inside = false;
-  for (let s = 0; s < segLoop.length; s++) {
+  let from = 0;
+  let to = segLoop.length;
+  if (index) {
+    const b = index.box;
+    if (x < b[4 * loop] || x > b[4 * loop + 2] || y < b[4 * loop + 1] || y > b[4 * loop + 3]) return false;
+    from = Math.max(0, index.start[loop]);
+    to = Math.max(from, index.end[loop]);
+  }
+  for (let s = from; s < to; s++) {
     if (segLoop[s] !== loop) continue;
     const a = segs[2 * s];
     const b = segs[2 * s + 1];

@@ -13,6 +13,7 @@ import { checkMesh } from './check.js';
 import { refineMesh, SharpCorners } from './refine.js';
 import { buildSizeField, type SizeField, type SizeOptions } from './sizefield.js';
 import { TriMesh } from './trimesh.js';
+import { domainToFrame, nodesFromFrame, partFrame } from './frame.js';
 import type { Mesh, MeshStats } from './types.js';
 
 export interface MeshOptions extends SizeOptions {
@@ -30,7 +31,74 @@ export interface MeshResult {
   size: SizeField;
 }
 
-export function generateMesh(domain: Domain, opts: MeshOptions): MeshResult {
+/**
+ * Meshes the domain in the part's own frame (src/mesh/frame.ts), so that where the part lies and
+ * how large it is written change nothing; the mesh and size field come back in model coordinates.
+ */
+export function generateMesh(model: Domain, modelOpts: MeshOptions): MeshResult {
+  const frame = partFrame(model);
+  const { s } = frame;
+  // The model point of frame point (x, y).
+  const mx = (x: number) => frame.ax + (frame.cx + s * x);
+  const my = (y: number) => frame.ay + (frame.cy + s * y);
+  const domain = domainToFrame(model, frame);
+  const limit = modelOpts.limit;
+  const opts: MeshOptions = {
+    ...modelOpts,
+    size: modelOpts.size === undefined ? undefined : modelOpts.size / s,
+    raiserSize: modelOpts.raiserSize === undefined ? undefined : modelOpts.raiserSize / s,
+    limit: limit ? { at: (x: number, y: number) => limit.at(mx(x), my(y)) / s } : undefined,
+  };
+  const r = meshInFrame(domain, opts);
+  nodesFromFrame(r.mesh.nodes, frame);
+  placeBoundaryNodes(r.mesh, model);
+  return { ...r, size: r.size.fromFrame(frame.ax + frame.cx, frame.ay + frame.cy, s, model.bbox, limit) };
+}
+
+/**
+ * Boundary nodes placed again on the model's own curves, at their curve parameters: a node of
+ * an edge on x = 0 then has x = 0 exactly, and a junction of two straight edges is exactly their
+ * shared vertex, as they were written (mapping back from the frame would leave a last-bit
+ * rounding). Curves first, straight edges last, so a junction of a line and an arc takes the
+ * line's exact end. A midside node of a straight boundary edge is the midpoint of its ends.
+ */
+function placeBoundaryNodes(mesh: Mesh, model: Domain): void {
+  const p = [0, 0];
+  const n = mesh.nodes;
+  for (const lines of [false, true]) {
+    for (let s = 0; s < mesh.nBEdges; s++) {
+      const c = model.edges[mesh.bEdgeDomain[s]].curve;
+      if ((c.kind === 'line') !== lines) continue;
+      const a = mesh.bEdges[3 * s];
+      const b = mesh.bEdges[3 * s + 1];
+      const m = mesh.bEdges[3 * s + 2];
+      const ta = mesh.bEdgeT[2 * s];
+      const tb = mesh.bEdgeT[2 * s + 1];
+      evaluateCurve(c, ta, p);
+      n[2 * a] = p[0];
+      n[2 * a + 1] = p[1];
+      evaluateCurve(c, tb, p);
+      n[2 * b] = p[0];
+      n[2 * b + 1] = p[1];
+      if (m >= 0 && !lines) {
+        evaluateCurve(c, 0.5 * (ta + tb), p);
+        n[2 * m] = p[0];
+        n[2 * m + 1] = p[1];
+      }
+    }
+  }
+  // Midside nodes of straight boundary edges, from their (now exact) ends.
+  for (let s = 0; s < mesh.nBEdges; s++) {
+    const m = mesh.bEdges[3 * s + 2];
+    if (m < 0 || model.edges[mesh.bEdgeDomain[s]].curve.kind !== 'line') continue;
+    const a = mesh.bEdges[3 * s];
+    const b = mesh.bEdges[3 * s + 1];
+    n[2 * m] = 0.5 * (n[2 * a] + n[2 * b]);
+    n[2 * m + 1] = 0.5 * (n[2 * a + 1] + n[2 * b + 1]);
+  }
+}
+
+function meshInFrame(domain: Domain, opts: MeshOptions): MeshResult {
   const t0 = performance.now();
   const size = buildSizeField(domain, opts);
   const estimated = estimateTriangles(domain, size);

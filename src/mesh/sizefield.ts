@@ -107,6 +107,28 @@ export class SizeField {
     if (bbox && sources.length > 8) this.buildGrid(bbox);
   }
 
+  /**
+   * The same field for coordinates x = cx + s xi of a field built in a frame (sizes times s),
+   * so that callers in model coordinates can ask it; `limit` is the caller's own, unscaled.
+   */
+  fromFrame(cx: number, cy: number, s: number, bbox: readonly [number, number, number, number], limit?: SizeLimit): SizeField {
+    const sources = this.sources.map((meta, i) => {
+      const g = Array.from(this.data.subarray(STRIDE * i, STRIDE * (i + 1)));
+      g[1] *= s;
+      g[2] = cx + s * g[2];
+      g[3] = cy + s * g[3];
+      if (g[0] === ARC) g[4] *= s;
+      else if (g[0] === SEGMENT) {
+        g[4] = cx + s * g[4];
+        g[5] = cy + s * g[5];
+        g[6] *= s;
+        g[7] *= s;
+      }
+      return { meta: { ...meta, h: meta.h * s }, geom: g };
+    });
+    return new SizeField(this.hGlobal * s, this.grading, sources, bbox, limit);
+  }
+
   /** The value h_s + g dist of source i at (x, y). */
   private value(i: number, x: number, y: number): number {
     const d = this.data;
@@ -320,12 +342,19 @@ function addLigamentSources(domain: Domain, hGlobal: number, across: number, sou
   const d = [0, 0];
   for (const loop of domain.loops) {
     let s = 0;
+    // A straight edge shorter than step / 4 gives its samples only where the last one lies more
+    // than step / 8 back along the loop: an outline of thousands of tiny segments is then sampled
+    // as finely as its length asks, not twice per segment (which made the search quadratic).
+    let last = -Infinity;
     for (const id of loop.edges) {
       const c = domain.edges[id].curve;
       const len = curveLength(c);
       const n = Math.max(2, Math.ceil(len / step), c.kind === 'line' ? 0 : Math.ceil(curveTurn(c) / (Math.PI / 36)));
+      const thin = c.kind === 'line' && len < step / 4;
       for (let j = 0; j < n; j++) {
         const t = (j + 0.5) / n;
+        if (thin && s + t * len - last < step / 8) continue;
+        last = s + t * len;
         evaluateCurve(c, t, p);
         curveDerivative(c, t, d);
         const l = Math.hypot(d[0], d[1]);
@@ -337,17 +366,15 @@ function addLigamentSources(domain: Domain, hGlobal: number, across: number, sou
   }
   const loopLength = domain.loops.map((l) => l.edges.reduce((a, id) => a + curveLength(domain.edges[id].curve), 0));
   const m = xs.length / 6;
-  const cell = reach;
-  const grid = new Map<number, number[]>();
-  const key = (i: number, j: number) => i * 1_000_003 + j;
-  for (let k = 0; k < m; k++) {
-    const i = Math.floor(xs[6 * k] / cell);
-    const j = Math.floor(xs[6 * k + 1] / cell);
-    let l = grid.get(key(i, j));
-    if (!l) grid.set(key(i, j), (l = []));
-    l.push(k);
-  }
-  const kept: number[] = [];
+  // Samples and kept sources are found through grids of cells much smaller than the reach,
+  // searched ring by ring outward until the ring lies beyond what is still wanted: the cost stays
+  // near linear when many holes sit within one reach (a grid of cells one reach wide made every
+  // sample visit every other, minutes for a few hundred holes).
+  const cell = Math.max(reach / 32, step);
+  const [bx0, by0] = domain.bbox;
+  const samples = new PointGrid(cell, bx0, by0);
+  for (let k = 0; k < m; k++) samples.add(k, xs[6 * k], xs[6 * k + 1]);
+  const keptGrid = new PointGrid(cell, bx0, by0);
   for (let k = 0; k < m; k++) {
     const x = xs[6 * k];
     const y = xs[6 * k + 1];
@@ -355,43 +382,75 @@ function addLigamentSources(domain: Domain, hGlobal: number, across: number, sou
     const ny = xs[6 * k + 3];
     const loop = xs[6 * k + 4];
     const s = xs[6 * k + 5];
-    const ci = Math.floor(x / cell);
-    const cj = Math.floor(y / cell);
     let gap = reach;
-    for (let i = ci - 1; i <= ci + 1; i++) {
-      for (let j = cj - 1; j <= cj + 1; j++) {
-        const list = grid.get(key(i, j));
-        if (!list) continue;
-        for (const q of list) {
-          const dx = xs[6 * q] - x;
-          const dy = xs[6 * q + 1] - y;
-          const dist = Math.hypot(dx, dy);
-          if (dist >= gap || dist === 0) continue;
-          if (dx * nx + dy * ny <= 0.5 * dist) continue; // not across the material
-          if (xs[6 * q + 4] === loop) {
-            const L = loopLength[loop];
-            let along = Math.abs(xs[6 * q + 5] - s);
-            along = Math.min(along, L - along);
-            if (along < 1.5 * dist) continue; // a neighbour along the boundary
-          }
-          gap = dist;
-        }
+    samples.visit(x, y, () => gap, (q) => {
+      const dx = xs[6 * q] - x;
+      const dy = xs[6 * q + 1] - y;
+      const dist = Math.hypot(dx, dy);
+      if (dist >= gap || dist === 0) return;
+      if (dx * nx + dy * ny <= 0.5 * dist) return; // not across the material
+      if (xs[6 * q + 4] === loop) {
+        const L = loopLength[loop];
+        let along = Math.abs(xs[6 * q + 5] - s);
+        along = Math.min(along, L - along);
+        if (along < 1.5 * dist) return; // a neighbour along the boundary
       }
-    }
+      gap = dist;
+    });
     if (gap >= reach) continue;
     const h = gap / across;
     // Thin the sources: skip one whose wish an earlier source already covers.
     let covered = false;
-    for (const o of kept) {
+    keptGrid.visit(x, y, () => (covered ? -1 : 4 * h), (o) => {
       const dd = Math.hypot(sources[o].geom[2] - x, sources[o].geom[3] - y);
-      if (sources[o].meta.h + 0.25 * dd <= h * 1.05 && dd < 4 * h) {
-        covered = true;
-        break;
+      if (sources[o].meta.h + 0.25 * dd <= h * 1.05 && dd < 4 * h) covered = true;
+    });
+    if (covered) continue;
+    keptGrid.add(sources.length, x, y);
+    sources.push({ meta: { kind: 'point', edge: -1, h }, geom: [POINT, h, x, y] });
+  }
+}
+
+/** Points in square cells, visited ring by ring outward from a query point. */
+class PointGrid {
+  private readonly cells = new Map<number, number[]>();
+  constructor(
+    private readonly cell: number,
+    private readonly x0: number,
+    private readonly y0: number,
+  ) {}
+
+  private key(i: number, j: number): number {
+    return i * 2_097_152 + j;
+  }
+
+  add(id: number, x: number, y: number): void {
+    const k = this.key(Math.floor((x - this.x0) / this.cell), Math.floor((y - this.y0) / this.cell));
+    const list = this.cells.get(k);
+    if (list) list.push(id);
+    else this.cells.set(k, [id]);
+  }
+
+  /**
+   * Calls f for every point in rings of cells around (x, y), ring r after ring r - 1, while the
+   * ring can hold a point nearer than radius() (read again after each ring, so a search that
+   * finds something near stops early; a negative radius stops it).
+   */
+  visit(x: number, y: number, radius: () => number, f: (id: number) => void): void {
+    const ci = Math.floor((x - this.x0) / this.cell);
+    const cj = Math.floor((y - this.y0) / this.cell);
+    for (let r = 0; ; r++) {
+      const R = radius();
+      if (R < 0 || (r - 1) * this.cell >= R) return;
+      for (let i = ci - r; i <= ci + r; i++) {
+        const edge = i === ci - r || i === ci + r;
+        for (let j = cj - r; j <= cj + r; j += edge ? 1 : 2 * r) {
+          const list = this.cells.get(this.key(i, j));
+          if (list) for (const id of list) f(id);
+          if (r === 0) break;
+        }
       }
     }
-    if (covered) continue;
-    kept.push(sources.length);
-    sources.push({ meta: { kind: 'point', edge: -1, h }, geom: [POINT, h, x, y] });
   }
 }
 

@@ -8,7 +8,7 @@
  * change the result and are for the command line to print.
  */
 import { attachedDrawing } from '../geometry/import/index.js';
-import { ModelError, formatPath } from './errors.js';
+import { ModelError, formatPath, quoteText } from './errors.js';
 import type { Load, Loop, Model, Selector, Target } from './schema.js';
 import { didYouMean, quoteList } from './suggest.js';
 import { resolveUnits } from './units.js';
@@ -71,7 +71,7 @@ function checkSelector(sel: Selector, parts: Part[], names: Declared, errors: Mo
     if (names.tags.has(sel)) return;
     const tags = [...names.tags.keys()];
     if (names.holeNames.includes(sel)) {
-      errors.push(new ModelError(path, `no edge or loop has the tag "${sel}"; "${sel}" is the name of a hole`, `to select that hole write {"hole": "${sel}"}`));
+      errors.push(new ModelError(path, `no edge or loop has the tag "${quoteText(sel)}"; "${quoteText(sel)}" is the name of a hole`, `to select that hole write {"hole": "${sel}"}`));
       return;
     }
     const hint = names.drawing
@@ -81,7 +81,7 @@ function checkSelector(sel: Selector, parts: Part[], names: Declared, errors: Mo
       : tags.length === 0
         ? 'no tags are declared: tag an edge with "edge": "name" on the vertex where the edge starts, or a whole loop with "tag": "name"'
         : `the tags declared are ${quoteList(tags, 'and')}`;
-    errors.push(new ModelError(path, `no edge or loop has the tag "${sel}"${didYouMean(sel, tags)}`, hint));
+    errors.push(new ModelError(path, `no edge or loop has the tag "${quoteText(sel)}"${didYouMean(sel, tags)}`, hint));
     return;
   }
   if ('hole' in sel) {
@@ -99,7 +99,7 @@ function checkSelector(sel: Selector, parts: Part[], names: Declared, errors: Mo
       const count = names.holeNames.filter((n) => n === h).length;
       if (count === 0) {
         const hint = names.holeNames.length ? `the holes are named ${quoteList(names.holeNames, 'and')}` : 'no hole has a name; give one with "name" on the hole, or select it by number';
-        errors.push(new ModelError(formatPath([...parts, 'hole']), `no hole is named "${h}"${didYouMean(h, names.holeNames)}`, hint));
+        errors.push(new ModelError(formatPath([...parts, 'hole']), `no hole is named "${quoteText(String(h))}"${didYouMean(h, names.holeNames)}`, hint));
       } else if (count > 1) {
         errors.push(new ModelError(formatPath([...parts, 'hole']), `${count} holes are named "${h}", so the selector is ambiguous`, 'give the holes different names, or select by number'));
       }

@@ -31,7 +31,7 @@ export class ModelError extends Error {
   describe(): string {
     let place = this.file ?? '';
     if (this.line !== undefined) place += `${place ? ':' : 'line '}${this.line}${this.column !== undefined ? `:${this.column}` : ''}`;
-    const where = [place, this.path ? `at ${this.path}` : ''].filter(Boolean).join(': ');
+    const where = [place, this.path ? `at ${quoteText(this.path, 160)}` : ''].filter(Boolean).join(': ');
     const excerpt = this.excerpt ? `\n${indent(this.excerpt, '    ')}` : '';
     return `${where ? where + ': ' : ''}${this.message}${excerpt}${this.hint ? `\n  fix: ${this.hint}` : ''}`;
   }
@@ -44,18 +44,46 @@ export class ModelError extends Error {
  */
 export class ModelErrorList extends ModelError {
   readonly problems: readonly ModelError[];
-  constructor(problems: readonly ModelError[], file?: string) {
+  constructor(
+    problems: readonly ModelError[],
+    file?: string,
+    /** further problems found but not listed (only the first MAX_REPORTED_PROBLEMS are) */
+    readonly omitted = 0,
+  ) {
     if (problems.length === 0) throw new InternalError('ModelErrorList needs at least one problem');
-    const lines = problems.map((p) => `${p.path ? `${p.path}: ` : ''}${p.message}`);
-    super('', `${problems.length} problem${problems.length === 1 ? '' : 's'} in the model:\n${lines.join('\n')}`, undefined, file);
+    const lines = problems.map((p) => `${p.path ? `${quoteText(p.path, 160)}: ` : ''}${p.message}`);
+    if (omitted > 0) lines.push(omittedLine(problems.length, omitted));
+    super('', `${problemCount(problems.length + omitted)} in the model:\n${lines.join('\n')}`, undefined, file);
     this.problems = problems;
     for (const p of problems) if (file !== undefined && p.file === undefined) p.file = file;
   }
 
   override describe(): string {
-    const head = `${this.file ? `${this.file}: ` : ''}${this.problems.length} problem${this.problems.length === 1 ? '' : 's'} in the model`;
-    return [head, ...this.problems.map((p) => indent(p.describe(), '  '))].join('\n');
+    const head = `${this.file ? `${this.file}: ` : ''}${problemCount(this.problems.length + this.omitted)} in the model`;
+    const tail = this.omitted > 0 ? [`  ${omittedLine(this.problems.length, this.omitted)}`] : [];
+    return [head, ...this.problems.map((p) => indent(p.describe(), '  ')), ...tail].join('\n');
   }
+}
+
+/** How many problems of one file are listed; the rest are counted. */
+export const MAX_REPORTED_PROBLEMS = 20;
+
+function problemCount(n: number): string {
+  return `${n.toLocaleString('en-US')} problem${n === 1 ? '' : 's'}`;
+}
+
+function omittedLine(shown: number, omitted: number): string {
+  return `... and ${problemCount(omitted).replace('problem', 'more problem')} (the first ${shown} are listed; correct these and run again)`;
+}
+
+/**
+ * Text from a file quoted in a message: as it is when short, otherwise its start and end with
+ * the number of characters left out, so a message never echoes a whole file.
+ */
+export function quoteText(text: string, max = 60): string {
+  if (text.length <= max) return text;
+  const keep = Math.floor((max - 5) / 2);
+  return `${text.slice(0, keep)} ... ${text.slice(-keep)} (${text.length.toLocaleString('en-US')} characters)`;
 }
 
 function indent(text: string, by: string): string {

@@ -14,6 +14,7 @@
 import type { z } from 'zod';
 import { ArcSpec, Load, Loop, Selector, Support, Target, Vertex } from './schema.js';
 import { closest, didYouMean, quoteList } from './suggest.js';
+import { quoteText } from './errors.js';
 
 type Part = string | number;
 
@@ -489,7 +490,7 @@ export function translateIssue(issue: z.core.$ZodIssue, base: readonly Part[], b
         return [{ parts, at: 'value', message: `must be ${JSON.stringify(issue.values[0])}; found ${showValue(v)}`, hint: hintFor() }];
       }
       if (typeof v === 'string') {
-        return [{ parts, at: 'value', message: `"${v}" is not one of ${quoteList(vals)}${didYouMean(v, vals)}`, hint: hintFor() }];
+        return [{ parts, at: 'value', message: `"${quoteText(v)}" is not one of ${quoteList(vals)}${didYouMean(v, vals)}`, hint: hintFor() }];
       }
       return [{ parts, at: 'value', message: `must be one of ${quoteList(vals)}; found ${showValue(v)}`, hint: hintFor() }];
     }
@@ -501,7 +502,7 @@ export function translateIssue(issue: z.core.$ZodIssue, base: readonly Part[], b
         return {
           parts: [...parts, key],
           at: 'key' as const,
-          message: `unknown field "${key}"${c ? `: did you mean "${c}"?` : ''}`,
+          message: `unknown field "${quoteText(key)}"${c ? `: did you mean "${c}"?` : ''}`,
           hint: c ? undefined : allowed.length ? `the fields allowed here are ${quoteList(allowed, 'and')}` : 'remove it',
           suggested: c,
         };
@@ -549,7 +550,7 @@ function translateUnion(issue: z.core.$ZodIssueInvalidUnion, base: readonly Part
       ];
     }
     if (typeof tag === 'string') {
-      return [{ parts: [...objParts, disc], at: 'value', message: `"${tag}" is not one of ${quoteList(options)}${didYouMean(tag, options)}`, hint: `"${disc}" chooses the kind; use one of ${quoteList(options)}` }];
+      return [{ parts: [...objParts, disc], at: 'value', message: `"${quoteText(tag)}" is not one of ${quoteList(options)}${didYouMean(tag, options)}`, hint: `"${disc}" chooses the kind; use one of ${quoteList(options)}` }];
     }
     return [{ parts: [...objParts, disc], at: 'value', message: `must be one of ${quoteList(options)}; found ${showValue(tag)}` }];
   }
@@ -587,7 +588,7 @@ function translateUnion(issue: z.core.$ZodIssueInvalidUnion, base: readonly Part
     return unknown.map((k) => ({
       parts: [...parts, k],
       at: 'key' as const,
-      message: `is not ${words.noun}: unknown field "${k}"${didYouMean(k, allKeys)}`,
+      message: `is not ${words.noun}: unknown field "${quoteText(k)}"${didYouMean(k, allKeys)}`,
       hint: words.forms,
     }));
   }

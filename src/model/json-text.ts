@@ -38,6 +38,13 @@ export interface JsonDuplicate {
   offset: number;
 }
 
+/**
+ * Field names that name the machinery of JavaScript objects rather than data. No model field
+ * has one of these names; a file that uses one is refused (as an unknown field) before any
+ * object is built from it, so it can never reach an object's prototype.
+ */
+export const RESERVED_KEYS: ReadonlySet<string> = new Set(['__proto__', 'constructor', 'prototype']);
+
 export interface JsonScan {
   /** the first syntax error, if the text is not JSON */
   error?: JsonSyntaxProblem;
@@ -48,6 +55,10 @@ export interface JsonScan {
   duplicates: JsonDuplicate[];
   /** numbers that overflow to Infinity */
   hugeNumbers: { path: string; offset: number; text: string }[];
+  /** field names in RESERVED_KEYS, where they are */
+  reservedKeys: { path: string; key: string; offset: number }[];
+  /** the deepest nesting of objects and lists, and where it is first reached */
+  deepest: { depth: number; offset: number };
 }
 
 interface Frame {
@@ -88,7 +99,7 @@ function isWordChar(c: string | undefined): boolean {
 
 /** Scans text as JSON; never throws. */
 export function scanJson(text: string): JsonScan {
-  const scan: JsonScan = { valueAt: new Map(), keyAt: new Map(), duplicates: [], hugeNumbers: [] };
+  const scan: JsonScan = { valueAt: new Map(), keyAt: new Map(), duplicates: [], hugeNumbers: [], reservedKeys: [], deepest: { depth: 0, offset: 0 } };
   const stack: Frame[] = [];
   let pos = 0;
   let expect: Expect = Expect.Value as Expect;
@@ -239,6 +250,14 @@ export function scanJson(text: string): JsonScan {
         );
       }
       if (ch === '/' && (text[pos + 1] === '/' || text[pos + 1] === '*')) fail(pos, 'JSON does not allow comments', 'remove the comment; put free text in a "note" field');
+      const code = text.charCodeAt(pos);
+      if (code < 0x20 || code === 0x7f) {
+        fail(
+          pos,
+          code === 0 ? 'a NUL character (a zero byte) in the text: JSON text cannot hold one' : `a control character (code ${code}) in the text, where JSON allows only spaces, tabs and line breaks`,
+          'remove it; such characters come from a damaged copy, a file saved in another encoding, or a binary file',
+        );
+      }
       switch (expect) {
         case Expect.Nothing:
           fail(pos, 'there is more text after the end of the JSON value', 'a model file holds one object; check for a "}" that closes the model too early, or for a second object');
@@ -255,6 +274,7 @@ export function scanJson(text: string): JsonScan {
           if (stack.length <= PLACED_DEPTH) scan.valueAt.set(path, pos);
           if (ch === '{' || ch === '[') {
             stack.push({ kind: ch === '{' ? 'object' : 'array', open: pos, path, keys: new Map(), index: 0, comma: -1 });
+            if (stack.length > scan.deepest.depth) scan.deepest = { depth: stack.length, offset: pos };
             pos++;
             expect = ch === '{' ? Expect.KeyOrEnd : Expect.ValueOrEnd;
           } else if (ch === '"') {
@@ -297,6 +317,7 @@ export function scanJson(text: string): JsonScan {
             const first = f.keys.get(key);
             const placed = stack.length <= PLACED_DEPTH;
             const member = placed ? memberPath(f.path, key) : f.path;
+            if (RESERVED_KEYS.has(key)) scan.reservedKeys.push({ path: member, key, offset: at });
             if (first !== undefined) scan.duplicates.push({ path: member, key, firstOffset: first, offset: at });
             else f.keys.set(key, at);
             f.key = key;
@@ -345,6 +366,31 @@ export function scanJson(text: string): JsonScan {
   return scan;
 }
 
+/**
+ * Line and column of many offsets into one text: the line starts are found in one pass, then
+ * each offset is placed by binary search, so placing k problems in a text of n characters
+ * costs n + k log n rather than k n.
+ */
+export class LineIndex {
+  private readonly starts: number[] = [0];
+  constructor(private readonly text: string) {
+    for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) this.starts.push(i + 1);
+  }
+
+  /** 1-based line and column of a 0-based offset, as lineColumn gives them. */
+  place(offset: number): { line: number; column: number } {
+    const end = Math.max(0, Math.min(offset, this.text.length));
+    let lo = 0;
+    let hi = this.starts.length - 1;
+    while (lo < hi) {
+      const mid = (lo + hi + 1) >> 1;
+      if (this.starts[mid] <= end) lo = mid;
+      else hi = mid - 1;
+    }
+    return { line: lo + 1, column: end - this.starts[lo] + 1 };
+  }
+}
+
 /** 1-based line and column of a 0-based offset; a line ends at \n (a \r before it is part of the break). */
 export function lineColumn(text: string, offset: number): { line: number; column: number } {
   let line = 1;
@@ -368,17 +414,31 @@ export function lineColumn(text: string, offset: number): { line: number; column
  * Tabs print as single spaces so the caret lines up; long lines are cut around the column.
  */
 export function excerptAt(text: string, offset: number, width = 76): string {
-  const s = offset <= 0 ? 0 : text.lastIndexOf('\n', offset - 1) + 1;
-  let e = text.indexOf('\n', offset);
-  if (e < 0) e = text.length;
-  if (offset > e) offset = e;
-  let line = text.slice(s, e).replace(/\r$/, '').replace(/\t/g, ' ');
+  // Only a window of the line around the offset is read, so quoting many places of a file
+  // written on one very long line stays linear in the number of places.
+  const n = text.length;
+  offset = Math.max(0, Math.min(offset, n));
+  let s = offset;
+  const sMin = Math.max(0, offset - width);
+  while (s > sMin && text.charCodeAt(s - 1) !== 0x0a) s--;
+  const moreLeft = s > 0 && text.charCodeAt(s - 1) !== 0x0a;
+  let e = offset;
+  const eMax = Math.min(n, offset + width);
+  while (e < eMax && text.charCodeAt(e) !== 0x0a) e++;
+  const moreRight = e < n && text.charCodeAt(e) !== 0x0a;
+  // Other control characters (a NUL, say) are shown by their control pictures (U+2400 + code).
+  let line = text
+    .slice(s, e)
+    .replace(/\r$/, '')
+    .replace(/\t/g, ' ')
+    .replace(/[\u0000-\u001f\u007f]/g, (c) => String.fromCharCode(c === '\u007f' ? 0x2421 : 0x2400 + c.charCodeAt(0)));
   let col = offset - s;
-  if (line.length > width) {
+  if (line.length > width || moreLeft || moreRight) {
     const from = Math.max(0, Math.min(col - Math.floor(width / 2), line.length - width));
     const cut = line.slice(from, from + width);
-    line = (from > 0 ? '...' : '') + cut + (from + width < line.length ? '...' : '');
-    col = col - from + (from > 0 ? 3 : 0);
+    const left = from > 0 || moreLeft;
+    line = (left ? '...' : '') + cut + (from + width < line.length || moreRight ? '...' : '');
+    col = col - from + (left ? 3 : 0);
   }
   return `${line}\n${' '.repeat(Math.max(0, col))}^`;
 }

@@ -7,12 +7,14 @@
  * (a ModelError carrying the list). A file with a JSON syntax error stops at that error, since
  * nothing after it can be read reliably.
  */
-import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { readdirSync } from 'node:fs';
 import { basename, dirname, extname } from 'node:path';
 import { checkModel } from './checks.js';
-import { ModelError, ModelErrorList, formatPath } from './errors.js';
+import { MAX_REPORTED_PROBLEMS, ModelError, ModelErrorList, formatPath, quoteText } from './errors.js';
 import { type Problem, translateIssues } from './issues.js';
-import { excerptAt, lineColumn, scanJson, type JsonScan } from './json-text.js';
+import { LineIndex, excerptAt, scanJson, type JsonScan } from './json-text.js';
+import { formatBytes, readRegularFile } from './read-file.js';
+import { NUMBER_RANGE, inNumberRange } from './number-range.js';
 import { Model } from './schema.js';
 import { closest, quoteList } from './suggest.js';
 import { resolveUnits } from './units.js';
@@ -23,6 +25,12 @@ export interface LoadedModel {
   model: Model;
   /** legal but probably unintended settings, each placed in the file like an error */
   warnings: ModelError[];
+  /**
+   * Places a problem found later (building the geometry, meshing, compiling loads) in this
+   * file: its name, and the line and column of the field its path names (or the nearest
+   * enclosing field that is written in the file). Returns the same error.
+   */
+  locate(e: ModelError): ModelError;
 }
 
 const MODEL_FIELDS = Object.keys(Model.shape);
@@ -38,44 +46,113 @@ export function readModelFile(path: string): Model {
   return loadModelFile(path).model;
 }
 
+/** How a model is loaded. */
+export interface LoadOptions {
+  /** values that override declared parameters (a sweep's case) */
+  parameters?: Readonly<Record<string, number>>;
+  /** let geometry.from name a drawing outside the model file's folder (see importDrawing) */
+  allowDrawingOutside?: boolean;
+}
+
+/** Largest model file read, in bytes (16 MiB): a model of one plate is a few kilobytes. */
+export const MAX_MODEL_BYTES = 16 * 2 ** 20;
+
+/** Deepest nesting of objects and lists in a model file (a model nests about 8 deep). */
+export const MAX_MODEL_DEPTH = 32;
+
+
+/** Every number in the data outside NUMBER_RANGE, with its JSON path (free text is not looked at). */
+function numbersOutOfRange(data: unknown): { path: string; value: number }[] {
+  const out: { path: string; value: number }[] = [];
+  const todo: [unknown, (string | number)[]][] = [[data, []]];
+  while (todo.length) {
+    const [v, parts] = todo.pop()!;
+    if (typeof v === 'number') {
+      if (Number.isFinite(v) && !inNumberRange(v)) out.push({ path: formatPath(parts), value: v });
+    } else if (Array.isArray(v)) v.forEach((x, i) => todo.push([x, [...parts, i]]));
+    else if (v && typeof v === 'object') for (const [k, x] of Object.entries(v)) todo.push([x, [...parts, k]]);
+  }
+  return out;
+}
+
+/** A problem found, and where in the text it is (placed only if it is reported). */
+interface Found {
+  e: ModelError;
+  offset?: number;
+}
+
+/** Places problems in one text: line starts found once, excerpts read from a window. */
+class Placer {
+  private index?: LineIndex;
+  constructor(readonly src: string) {}
+  lines(): LineIndex {
+    return (this.index ??= new LineIndex(this.src));
+  }
+  place(e: ModelError, offset: number): ModelError {
+    const { line, column } = this.lines().place(offset);
+    e.line = line;
+    e.column = column;
+    e.excerpt = excerptAt(this.src, offset);
+    return e;
+  }
+}
+
 /** As parseModelText, also returning the warnings. `parameters` override declared parameter values. */
-export function loadModelText(text: string, file?: string, options: { parameters?: Readonly<Record<string, number>> } = {}): LoadedModel {
+export function loadModelText(text: string, file?: string, options: LoadOptions = {}): LoadedModel {
   // A byte-order mark is not part of the JSON; editors do not count it as a column.
   const src = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  const placer = new Placer(src);
+  // The scan is one pass with its own stack: syntax, depth and where every value is, before
+  // anything (JSON.parse, the schema, the parameter walk) recurses into the data.
+  const scan = scanJson(src);
+  if (scan.error) throw syntaxError(src, scan, placer, file);
+  if (scan.deepest.depth > MAX_MODEL_DEPTH) {
+    throw placer.place(
+      new ModelError('', `objects and lists are nested ${scan.deepest.depth} deep here, more than the ${MAX_MODEL_DEPTH} levels a model file may have`, 'a model nests about 8 levels deep: check for brackets opened by mistake, or for data that is not a model', file),
+      scan.deepest.offset,
+    );
+  }
   let data: unknown;
   try {
     data = JSON.parse(src);
   } catch (e) {
-    throw syntaxError(src, e, file);
+    // The scan accepts exactly what JSON.parse accepts; this is the fallback if they ever differ.
+    throw new ModelError('', `not valid JSON (${e instanceof Error ? e.message : String(e)})`, undefined, file);
   }
-  const scan = scanJson(src);
-  const problems: ModelError[] = [];
+  const problems: Found[] = [];
+  for (const r of scan.reservedKeys) {
+    problems.push({ e: new ModelError(r.path, `unknown field "${r.key}": no model field has this name`, 'remove it (it is a name reserved by the JavaScript language, never model data)', file), offset: r.offset });
+  }
   for (const d of scan.duplicates) {
-    const first = lineColumn(src, d.firstOffset);
-    problems.push(
-      place(
-        new ModelError(d.path, `the field "${d.key}" is given twice in the same object (first on line ${first.line}); only the last would count`, 'remove one of them', file),
-        src,
-        d.offset,
-      ),
-    );
+    const first = placer.lines().place(d.firstOffset);
+    problems.push({ e: new ModelError(d.path, `the field "${quoteText(d.key)}" is given twice in the same object (first on line ${first.line}); only the last would count`, 'remove one of them', file), offset: d.offset });
   }
   for (const h of scan.hugeNumbers) {
-    problems.push(place(new ModelError(h.path, `the number ${h.text} is too large to represent`, 'check the value and its unit', file), src, h.offset));
+    problems.push({ e: new ModelError(h.path, `the number ${quoteText(h.text)} is too large to represent`, 'check the value and its unit', file), offset: h.offset });
   }
+  // Reserved names go no further: an object built from them could change its own prototype.
+  if (scan.reservedKeys.length) throwAll(problems, placer, file);
 
-  notAModel(data, src, file);
+  notAModel(data, placer, file);
 
   // Parameters: "=expression" strings become numbers before the schema sees them.
   const sub = substituteParameters(data, options.parameters);
-  for (const pr of sub.problems) {
-    const e = new ModelError(pr.path, pr.message, pr.hint, file);
-    const off = offsetOf(pr.path, scan);
-    problems.push(off !== undefined ? place(e, src, off) : e);
-  }
-  throwAll(problems, file);
+  for (const pr of sub.problems) problems.push({ e: new ModelError(pr.path, pr.message, pr.hint, file), offset: offsetOf(pr.path, scan) });
+  throwAll(problems, placer, file);
   data = sub.data;
-  mixedGeometry(data, src, scan, file);
+  for (const r of numbersOutOfRange(data)) {
+    problems.push({
+      e: new ModelError(
+        r.path,
+        `the number ${r.value} is outside the range raiser computes with: every number of a model must be 0 or between ${NUMBER_RANGE[0]} and ${NUMBER_RANGE[1]} in size`,
+        'write the model in units that keep its numbers moderate (lengths in mm or m, stresses in MPa or Pa); a value this small or large is most likely a typing slip',
+        file,
+      ),
+      offset: offsetOf(r.path, scan),
+    });
+  }
+  throwAll(problems, placer, file);
+  mixedGeometry(data, placer, scan, file);
 
   const parsed = Model.safeParse(data);
   if (!parsed.success) {
@@ -83,69 +160,87 @@ export function loadModelText(text: string, file?: string, options: { parameters
     const found = translateIssues(parsed.error.issues, { root: Model, data, units });
     // A number too large for a double is already reported; zod would only add "found Infinity".
     const huge = new Set(scan.hugeNumbers.map((h) => h.path));
-    for (const p of found) if (!huge.has(formatPath(p.parts))) problems.push(placeProblem(p, src, scan, file));
-    throwAll(problems, file);
+    for (const p of found) if (!huge.has(formatPath(p.parts))) problems.push(foundProblem(p, scan, file));
+    throwAll(problems, placer, file);
   }
-  throwAll(problems, file);
+  throwAll(problems, placer, file);
   const model = parsed.data!;
   // A drawing named by geometry.from is read now, so its problems are placed in the file and
   // its tags are known to the checks.
   let drawingWarnings: ModelError[];
   try {
-    drawingWarnings = readDrawing(model, file);
+    drawingWarnings = readDrawing(model, file, options.allowDrawingOutside ?? false);
   } catch (e) {
     if (e instanceof ModelError) {
       const off = offsetOf(e.path, scan);
-      if (off !== undefined) place(e, src, off);
+      if (off !== undefined) placer.place(e, off);
     }
     throw e;
   }
   const { errors, warnings } = checkModel(model);
   warnings.unshift(...drawingWarnings);
-  for (const e of [...errors, ...warnings]) {
+  for (const e of warnings) {
     e.file = file;
     const off = offsetOf(e.path, scan);
-    if (off !== undefined) place(e, src, off);
+    if (off !== undefined) placer.place(e, off);
   }
-  throwAll(errors, file);
-  return { model, warnings };
+  throwAll(
+    errors.map((e) => ({ e, offset: offsetOf(e.path, scan) })),
+    placer,
+    file,
+  );
+  const locate = (e: ModelError): ModelError => {
+    if (e.file === undefined) e.file = file;
+    if (e.line === undefined && e.path && !e.path.startsWith('-')) {
+      const off = offsetOf(e.path, scan);
+      if (off !== undefined) placer.place(e, off);
+    }
+    return e;
+  };
+  return { model, warnings, locate };
 }
 
 /** As readModelFile, also returning the warnings. */
-export function loadModelFile(path: string, options: { parameters?: Readonly<Record<string, number>> } = {}): LoadedModel {
-  let st;
-  try {
-    st = statSync(path);
-  } catch (e) {
-    throw fileError(path, e);
-  }
-  if (st.isDirectory()) {
-    let jsons: string[] = [];
-    try {
-      jsons = readdirSync(path).filter((f) => f.toLowerCase().endsWith('.json'));
-    } catch {
-      // The listing is only a hint.
+export function loadModelFile(path: string, options: LoadOptions = {}): LoadedModel {
+  return loadModelText(readModelText(path), path, options);
+}
+
+/**
+ * The text of a model file: a regular file (not a folder, pipe or device) of at most
+ * MAX_MODEL_BYTES, in UTF-8; otherwise a ModelError saying what the file is instead.
+ */
+export function readModelText(path: string): string {
+  const got = readRegularFile(path, MAX_MODEL_BYTES);
+  if (got.ok) return decodeText(got.bytes, path);
+  switch (got.kind) {
+    case 'missing':
+      throw missingFile(path);
+    case 'folder': {
+      let jsons: string[] = [];
+      try {
+        jsons = readdirSync(path).filter((f) => f.toLowerCase().endsWith('.json'));
+      } catch {
+        // The listing is only a hint.
+      }
+      const hint =
+        jsons.length === 0
+          ? 'give the path of a model file (.json), not of a folder'
+          : `give the path of a model file; this folder holds ${jsons.length > 6 ? `${jsons.slice(0, 6).join(', ')} and ${jsons.length - 6} more` : jsons.join(', ')}`;
+      throw new ModelError('', `"${path}" is a folder, not a model file`, hint, path);
     }
-    const hint =
-      jsons.length === 0
-        ? 'give the path of a model file (.json), not of a folder'
-        : `give the path of a model file; this folder holds ${jsons.length > 6 ? `${jsons.slice(0, 6).join(', ')} and ${jsons.length - 6} more` : jsons.join(', ')}`;
-    throw new ModelError('', `"${path}" is a folder, not a model file`, hint, path);
+    case 'not-regular':
+      throw new ModelError('', `"${path}" is ${got.what}, not a regular file`, 'give the path of a model file (.json)', path);
+    case 'too-large':
+      throw new ModelError('', `"${path}" is ${formatBytes(got.bytes)}, more than the ${formatBytes(MAX_MODEL_BYTES)} a model file may be`, 'a model of one plate is a few kilobytes: check that this is the model file; a long outline can come from a drawing with "geometry": { "from": ... }', path);
+    case 'unreadable':
+      throw new ModelError('', `"${path}" cannot be read: ${got.reason}`, got.reason === 'permission denied' ? 'check the file permissions' : undefined, path);
   }
-  if (!st.isFile()) throw new ModelError('', `"${path}" is not a regular file`, 'give the path of a model file (.json)', path);
-  let bytes: Buffer;
-  try {
-    bytes = readFileSync(path);
-  } catch (e) {
-    throw fileError(path, e);
-  }
-  return loadModelText(decodeText(bytes, path), path, options);
 }
 
 // ---------------------------------------------------------------------------------------------
 
 /** A geometry that gives both a drawing and loops written out: said plainly, before the schema would call "from" unknown. */
-function mixedGeometry(data: unknown, src: string, scan: JsonScan, file: string | undefined): void {
+function mixedGeometry(data: unknown, placer: Placer, scan: JsonScan, file: string | undefined): void {
   const g = (data as { geometry?: unknown })?.geometry as Record<string, unknown> | undefined;
   if (!g || typeof g !== 'object' || Array.isArray(g) || !('from' in g)) return;
   const written = ['outline', 'holes'].filter((k) => k in g && (k === 'holes' || typeof g[k] === 'object'));
@@ -157,7 +252,7 @@ function mixedGeometry(data: unknown, src: string, scan: JsonScan, file: string 
     file,
   );
   const off = offsetOf('geometry.from', scan, 'key');
-  throw off !== undefined ? place(e, src, off) : e;
+  throw off !== undefined ? placer.place(e, off) : e;
 }
 
 /** Reads the drawing of a `"geometry": { "from": ... }` model (relative to the model file) and attaches it; returns its warnings. */
@@ -176,12 +271,12 @@ export function reattachDrawing(model: Model, file: string | undefined): boolean
   }
 }
 
-function readDrawing(model: Model, file: string | undefined): ModelError[] {
+function readDrawing(model: Model, file: string | undefined, allowOutside = false): ModelError[] {
   const g = model.geometry;
   if (!('from' in g)) return [];
   const units = resolveUnits(model.units);
   try {
-    const d = importDrawing(g, { baseDir: file ? dirname(file) : process.cwd(), modelUnitMetres: units.toSI.length, modelUnitName: units.length });
+    const d = importDrawing(g, { baseDir: file ? dirname(file) : process.cwd(), modelUnitMetres: units.toSI.length, modelUnitName: units.length, allowOutside });
     attachDrawing(g, d);
     return d.warnings.map((w) => new ModelError('geometry.from', w, undefined, file));
   } catch (e) {
@@ -190,22 +285,23 @@ function readDrawing(model: Model, file: string | undefined): ModelError[] {
   }
 }
 
-function throwAll(problems: ModelError[], file?: string): void {
-  if (problems.length === 0) return;
-  const sorted = problems
-    .map((p, i) => ({ p, i }))
-    .sort((a, b) => (a.p.line ?? Infinity) - (b.p.line ?? Infinity) || (a.p.column ?? 0) - (b.p.column ?? 0) || a.i - b.i)
-    .map((x) => x.p);
-  if (sorted.length === 1) throw sorted[0];
-  throw new ModelErrorList(sorted, file);
-}
-
-function place(e: ModelError, src: string, offset: number): ModelError {
-  const { line, column } = lineColumn(src, offset);
-  e.line = line;
-  e.column = column;
-  e.excerpt = excerptAt(src, offset);
-  return e;
+/**
+ * Throws the problems found, in the order they occur in the file: one as itself, several as a
+ * ModelErrorList. Only the first MAX_REPORTED_PROBLEMS are placed and listed; the rest are
+ * counted, so a file with a hundred thousand mistakes costs no more to report than one with twenty.
+ */
+function throwAll(found: Found[], placer: Placer, file?: string): void {
+  if (found.length === 0) return;
+  const sorted = found
+    .map((f, i) => ({ f, i }))
+    .sort((a, b) => (a.f.offset ?? Infinity) - (b.f.offset ?? Infinity) || a.i - b.i)
+    .map((x) => x.f);
+  const shown = sorted.slice(0, MAX_REPORTED_PROBLEMS).map(({ e, offset }) => {
+    if (file !== undefined) e.file ??= file;
+    return offset !== undefined ? placer.place(e, offset) : e;
+  });
+  if (shown.length === 1) throw shown[0];
+  throw new ModelErrorList(shown, file, sorted.length - shown.length);
 }
 
 /** Offset of the value at a path, or of its nearest enclosing value that is in the file. */
@@ -223,11 +319,11 @@ function offsetOf(path: string, scan: JsonScan, prefer: 'key' | 'value' = 'value
   return scan.valueAt.get('');
 }
 
-function placeProblem(p: Problem, src: string, scan: JsonScan, file?: string): ModelError {
+function foundProblem(p: Problem, scan: JsonScan, file?: string): Found {
   const path = formatPath(p.parts);
   const e = new ModelError(path, p.message, p.hint, file);
-  const off = p.at === 'parent' ? offsetOf(formatPath(p.parts.slice(0, -1)), scan) : offsetOf(path, scan, p.at);
-  return off === undefined ? e : place(e, src, off);
+  const offset = p.at === 'parent' ? offsetOf(formatPath(p.parts.slice(0, -1)), scan) : offsetOf(path, scan, p.at);
+  return { e, offset };
 }
 
 function unitsOf(data: unknown): { length: string; force: string; stress: string } {
@@ -238,12 +334,12 @@ function unitsOf(data: unknown): { length: string; force: string; stress: string
 }
 
 /** Throws when the JSON value is plainly not a model at all (rather than a model with mistakes). */
-function notAModel(data: unknown, src: string, file?: string): void {
+function notAModel(data: unknown, placer: Placer, file?: string): void {
   const required = quoteList(REQUIRED_FIELDS, 'and');
   const fail = (message: string, hint: string) => {
     const e = new ModelError('', message, hint, file);
-    const first = src.search(/\S/);
-    throw first >= 0 ? place(e, src, first) : e;
+    const first = placer.src.search(/\S/);
+    throw first >= 0 ? placer.place(e, first) : e;
   };
   if (Array.isArray(data)) {
     const looksLikeModels = data.length > 0 && data.every((d) => d && typeof d === 'object' && !Array.isArray(d) && 'geometry' in d);
@@ -260,7 +356,7 @@ function notAModel(data: unknown, src: string, file?: string): void {
   const related = keys.filter((k) => MODEL_FIELDS.includes(k) || closest(k, MODEL_FIELDS) !== undefined);
   if (related.length === 0) {
     fail(
-      `this JSON file is not a raiser model: none of its fields (${quoteList(keys.slice(0, 8), 'and')}${keys.length > 8 ? ', ...' : ''}) belongs to a model`,
+      `this JSON file is not a raiser model: none of its fields (${quoteList(keys.slice(0, 8).map((k) => quoteText(k, 40)), 'and')}${keys.length > 8 ? ', ...' : ''}) belongs to a model`,
       `a model file has the fields ${required}, and may have ${quoteList(
         MODEL_FIELDS.filter((k) => !REQUIRED_FIELDS.includes(k)),
         'and',
@@ -279,64 +375,69 @@ function guessFormat(src: string): string | undefined {
   return undefined;
 }
 
-function syntaxError(src: string, cause: unknown, file?: string): ModelError {
+function syntaxError(src: string, scan: JsonScan, placer: Placer, file?: string): ModelError {
   const first = src.search(/\S/);
   if (first < 0) return new ModelError('', 'the file is empty', 'a model file is one JSON object: { "material": ..., "geometry": ..., ... }', file);
   if (!/[{["\-0-9tfn]/.test(src[first])) {
     const kind = guessFormat(src);
     if (kind) {
-      return place(new ModelError('', `this is not a JSON model file: it looks like ${kind}`, 'a model file is JSON text that starts with "{"', file), src, first);
+      return placer.place(new ModelError('', `this is not a JSON model file: it looks like ${kind}`, 'a model file is JSON text that starts with "{"', file), first);
     }
   }
-  const scan = scanJson(src);
-  if (scan.error) {
-    return place(new ModelError('', `not valid JSON: ${scan.error.message}`, scan.error.hint, file), src, scan.error.offset);
-  }
-  // The scan accepts exactly what JSON.parse accepts; this is the fallback if they ever differ.
-  const msg = cause instanceof Error ? cause.message : String(cause);
-  const m = /position (\d+)/.exec(msg);
-  const e = new ModelError('', `not valid JSON (${msg})`, undefined, file);
-  return m ? place(e, src, Number(m[1])) : e;
+  const err = scan.error!;
+  return placer.place(new ModelError('', `not valid JSON: ${err.message}`, err.hint, file), err.offset);
 }
 
-function fileError(path: string, e: unknown): ModelError {
-  const code = (e as { code?: string }).code;
-  if (code === 'ENOENT') {
-    let hint = 'check the path and the current folder';
-    try {
-      const dir = dirname(path);
-      const names = readdirSync(dir);
-      const near = closest(basename(path), names) ?? closest(basename(path, extname(path)), names.map((n) => basename(n, extname(n))));
-      if (near !== undefined) {
-        const full = names.find((n) => n === near || basename(n, extname(n)) === near) ?? near;
-        hint = `did you mean "${dir === '.' ? full : `${dir}/${full}`}"?`;
-      }
-    } catch {
-      // The folder itself may be missing; the plain hint stands.
+function missingFile(path: string): ModelError {
+  let hint = 'check the path and the current folder';
+  try {
+    const dir = dirname(path);
+    const names = readdirSync(dir);
+    const near = closest(basename(path), names) ?? closest(basename(path, extname(path)), names.map((n) => basename(n, extname(n))));
+    if (near !== undefined) {
+      const full = names.find((n) => n === near || basename(n, extname(n)) === near) ?? near;
+      hint = `did you mean "${dir === '.' ? full : `${dir}/${full}`}"?`;
     }
-    return new ModelError('', `no such file: "${path}"`, hint, path);
+  } catch {
+    // The folder itself may be missing; the plain hint stands.
   }
-  if (code === 'ENOTDIR') return new ModelError('', `"${path}": a part of this path is a file, not a folder`, 'check the path', path);
-  if (code === 'EACCES' || code === 'EPERM') return new ModelError('', `"${path}" cannot be read: permission denied`, 'check the file permissions', path);
-  return new ModelError('', `"${path}" cannot be read (${e instanceof Error ? e.message : String(e)})`, undefined, path);
+  return new ModelError('', `no such file: "${path}"`, hint, path);
 }
 
 /** UTF-8 text of a file, or a ModelError saying what the file is instead. */
 function decodeText(bytes: Buffer, path: string): string {
-  const starts = (...b: number[]) => b.every((x, i) => bytes[i] === x);
-  if (starts(0xff, 0xfe) || starts(0xfe, 0xff)) {
-    throw new ModelError('', `"${path}" is saved as UTF-16 text`, 'save it as UTF-8 (most editors offer this under "encoding")', path);
-  }
+  const starts = (...b: number[]) => b.length <= bytes.length && b.every((x, i) => bytes[i] === x);
+  const encoding = (name: string, how: string) =>
+    new ModelError('', `"${path}" is saved as ${name} text${how}`, 'save it as UTF-8 (most editors offer this under "encoding")', path);
+  // UTF-32 first: its little-endian mark begins with UTF-16's.
+  if (starts(0xff, 0xfe, 0, 0) || starts(0, 0, 0xfe, 0xff)) throw encoding('UTF-32', '');
+  if (starts(0xff, 0xfe) || starts(0xfe, 0xff)) throw encoding('UTF-16', '');
   const binary = (kind: string) => new ModelError('', `"${path}" is ${kind}, not a model file`, 'a model file is JSON text; give the path of the .json file', path);
   if (starts(0x89, 0x50, 0x4e, 0x47)) throw binary('a PNG image');
   if (starts(0x25, 0x50, 0x44, 0x46)) throw binary('a PDF document');
   if (starts(0x50, 0x4b, 0x03, 0x04)) throw binary('a ZIP archive (or an office document)');
   if (starts(0x1f, 0x8b)) throw binary('a gzip-compressed file');
+  // Without a mark, JSON text in UTF-32 or UTF-16 starts with an ASCII character padded by zero bytes.
+  if (bytes.length >= 4 && bytes[0] !== 0 && bytes[1] === 0 && bytes[2] === 0 && bytes[3] === 0) throw encoding('UTF-32', ' (little-endian, without a byte-order mark)');
+  if (bytes.length >= 4 && bytes[0] === 0 && bytes[1] === 0 && bytes[2] === 0 && bytes[3] !== 0) throw encoding('UTF-32', ' (big-endian, without a byte-order mark)');
+  if (bytes.length >= 2 && bytes[0] !== 0 && bytes[1] === 0) throw encoding('UTF-16', ' (little-endian, without a byte-order mark)');
+  if (bytes.length >= 2 && bytes[0] === 0 && bytes[1] !== 0) throw encoding('UTF-16', ' (big-endian, without a byte-order mark)');
   const probe = bytes.subarray(0, 8192);
-  if (probe.includes(0)) throw binary('a binary file');
+  let zeros = 0;
+  for (const b of probe) if (b === 0) zeros++;
+  if (zeros > probe.length / 16) throw binary('a binary file');
+  let text: string;
   try {
-    return new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+    text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
   } catch {
     throw new ModelError('', `"${path}" is not UTF-8 text`, 'save it as UTF-8 (most editors offer this under "encoding")', path);
   }
+  const nul = text.indexOf('\u0000');
+  if (nul >= 0) {
+    throw new Placer(text).place(
+      new ModelError('', 'a NUL character (a zero byte) in the text: JSON text cannot hold one', 'remove it; zero bytes come from a damaged copy, a file saved in another encoding, or a binary file', path),
+      nul,
+    );
+  }
+  return text;
 }

@@ -7,6 +7,7 @@
  * atan2d (degrees). Nothing else is evaluated. A parameter's own value may be an expression of
  * the parameters declared before it.
  */
+import { quoteText } from './errors.js';
 import { closest } from './suggest.js';
 
 export interface ParameterProblem {
@@ -26,6 +27,13 @@ const FUNCTIONS: Record<string, { arity: number | 'any'; fn: (...a: number[]) =>
   atan2d: { arity: 2, fn: (y, x) => (Math.atan2(y, x) * 180) / Math.PI },
 };
 
+/** Longest expression read (characters), deepest nesting of parentheses and calls, and most arguments of one call. */
+export const MAX_EXPRESSION_LENGTH = 1000;
+export const MAX_EXPRESSION_DEPTH = 32;
+export const MAX_EXPRESSION_ARGUMENTS = 100;
+
+const SYNTAX_HINT = 'expressions take numbers, parameter names, + - * / ^, parentheses and sqrt abs min max sind cosd tand atan2d pi';
+
 class ExprError extends Error {
   constructor(
     message: string,
@@ -39,6 +47,19 @@ class ExprError extends Error {
 export function evaluateExpression(text: string, params: Readonly<Record<string, number>>): number {
   let i = 0;
   const src = text;
+  const shown = quoteText(src);
+  if (src.length > MAX_EXPRESSION_LENGTH) {
+    throw new ExprError(`the expression "${shown}" is longer than the ${MAX_EXPRESSION_LENGTH} characters an expression may have`, 'write a shorter expression, with parameters for its parts');
+  }
+  // Nesting is counted before the recursive descent, so its depth is bounded.
+  let open = 0;
+  for (let k = 0; k < src.length; k++) {
+    if (src[k] === '(') open++;
+    else if (src[k] === ')') open--;
+    if (open > MAX_EXPRESSION_DEPTH) {
+      throw new ExprError(`the expression "${shown}" nests parentheses more than ${MAX_EXPRESSION_DEPTH} deep`, 'write it with fewer parentheses, or split it into parameters');
+    }
+  }
   const skip = () => {
     while (i < src.length && /\s/.test(src[i])) i++;
   };
@@ -47,8 +68,14 @@ export function evaluateExpression(text: string, params: Readonly<Record<string,
     return src[i];
   };
   const fail = (what: string): never => {
-    throw new ExprError(`${what} at position ${i + 1} of "${src}"`, 'expressions take numbers, parameter names, + - * / ^, parentheses and sqrt abs min max sind cosd tand atan2d pi');
+    throw new ExprError(`${what} at position ${i + 1} of "${shown}"`, SYNTAX_HINT);
   };
+  /** A finite result, or an error that says which operation left the numbers and what to do. */
+  const finite = (v: number, what: string, hint: string): number => {
+    if (!Number.isFinite(v)) throw new ExprError(`${what} in "${shown}" does not give a finite number`, hint);
+    return v;
+  };
+  const depth = { unary: 0 };
   const expr = (): number => {
     let v = term();
     for (;;) {
@@ -72,20 +99,20 @@ export function evaluateExpression(text: string, params: Readonly<Record<string,
       } else if (c === '/') {
         i++;
         const d = unary();
-        if (d === 0) throw new ExprError(`division by zero in "${src}"`);
-        v /= d;
+        if (d === 0) throw new ExprError(`division by zero in "${shown}"`, 'check the divisor: a parameter it uses may be 0, or a value is missing');
+        v = finite(v / d, 'a division', 'the quotient is too large for a number: check the values and their units');
       } else return v;
     }
   };
   const unary = (): number => {
     const c = peek();
-    if (c === '-') {
+    if (c === '-' || c === '+') {
+      // Signs are the one repetition that is not a parenthesis: bound their run too.
+      if (++depth.unary > MAX_EXPRESSION_DEPTH) fail(`more than ${MAX_EXPRESSION_DEPTH} signs in a row`);
       i++;
-      return -unary();
-    }
-    if (c === '+') {
-      i++;
-      return unary();
+      const v = unary();
+      depth.unary--;
+      return c === '-' ? -v : v;
     }
     return power();
   };
@@ -93,7 +120,10 @@ export function evaluateExpression(text: string, params: Readonly<Record<string,
     const base = primary();
     if (peek() === '^') {
       i++;
-      return Math.pow(base, unary());
+      const e = unary();
+      const v = Math.pow(base, e);
+      if (Number.isNaN(v)) throw new ExprError(`${base}^${e} in "${shown}" is not a real number`, 'a negative number has no real power with a fractional exponent: check the sign of the base');
+      return finite(v, `${base}^${e}`, 'the power is too large for a number: check the exponent');
     }
     return base;
   };
@@ -117,10 +147,10 @@ export function evaluateExpression(text: string, params: Readonly<Record<string,
     i += name[0].length;
     const id = name[0];
     if (peek() === '(') {
-      const f = FUNCTIONS[id];
+      const f = Object.hasOwn(FUNCTIONS, id) ? FUNCTIONS[id] : undefined;
       if (!f) {
         const near = closest(id, Object.keys(FUNCTIONS));
-        throw new ExprError(`"${id}" is not a function raiser knows${near ? `; did you mean "${near}"?` : ''}`, `the functions are ${Object.keys(FUNCTIONS).join(', ')}`);
+        throw new ExprError(`"${quoteText(id, 40)}" is not a function raiser knows${near ? `; did you mean "${near}"?` : ''}`, `the functions are ${Object.keys(FUNCTIONS).join(', ')}`);
       }
       i++;
       const args: number[] = [];
@@ -128,6 +158,7 @@ export function evaluateExpression(text: string, params: Readonly<Record<string,
         args.push(expr());
         while (peek() === ',') {
           i++;
+          if (args.length >= MAX_EXPRESSION_ARGUMENTS) throw new ExprError(`${id} is given more than ${MAX_EXPRESSION_ARGUMENTS} arguments in "${shown}"`, 'give it fewer arguments; nest calls such as max(max(a, b), c) for long lists');
           args.push(expr());
         }
       }
@@ -135,17 +166,17 @@ export function evaluateExpression(text: string, params: Readonly<Record<string,
       i++;
       if (f.arity !== 'any' && args.length !== f.arity) throw new ExprError(`${id} takes ${f.arity} argument${f.arity === 1 ? '' : 's'}, not ${args.length}`);
       if (f.arity === 'any' && args.length === 0) throw new ExprError(`${id} needs at least one argument`);
-      return f.fn(...args);
+      if (id === 'sqrt' && args[0] < 0) throw new ExprError(`sqrt(${args[0]}) in "${shown}": the square root of a negative number`, 'check the sign of what is under the root');
+      return finite(f.fn(...args), `${id}(${args.join(', ')})`, id === 'tand' ? 'the tangent of 90 degrees (and of odd multiples of it) is infinite: check the angle' : 'check the arguments');
     }
     if (id === 'pi') return Math.PI;
     if (Object.prototype.hasOwnProperty.call(params, id)) return params[id];
     const near = closest(id, [...Object.keys(params), 'pi']);
-    throw new ExprError(`"${id}" is not a declared parameter${near ? `; did you mean "${near}"?` : ''}`, Object.keys(params).length ? `the parameters are ${Object.keys(params).join(', ')}` : 'declare it under "parameters" at the top of the model');
+    throw new ExprError(`"${quoteText(id, 40)}" is not a declared parameter${near ? `; did you mean "${near}"?` : ''}`, Object.keys(params).length ? `the parameters are ${Object.keys(params).join(', ')}` : 'declare it under "parameters" at the top of the model');
   };
   const v = expr();
   if (peek() !== undefined) fail(`"${peek()}" is unexpected`);
-  if (!Number.isFinite(v)) throw new ExprError(`"${src}" does not give a finite number`);
-  return v;
+  return finite(v, 'the expression', 'check the values and their units');
 }
 
 const NAME = /^[A-Za-z_][A-Za-z0-9_]*$/;
@@ -171,7 +202,7 @@ export function substituteParameters(data: unknown, overrides: Readonly<Record<s
           problems.push({ path, message: `"${name}" is not a usable parameter name`, hint: 'names start with a letter or _ and hold letters, digits and _' });
           continue;
         }
-        if (name in FUNCTIONS || name === 'pi') {
+        if (Object.hasOwn(FUNCTIONS, name) || name === 'pi') {
           problems.push({ path, message: `"${name}" is a built-in name and cannot be a parameter`, hint: 'choose another name' });
           continue;
         }

@@ -3,7 +3,8 @@
  * so an interrupted run never leaves a half-written file under the final name; existing
  * results are not replaced unless the caller says so. A solution's result.json is written last.
  */
-import { existsSync, mkdirSync, readdirSync, renameSync, writeFileSync, rmSync } from 'node:fs';
+import { randomBytes } from 'node:crypto';
+import { existsSync, readdirSync, renameSync, writeFileSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { InternalError, ModelError } from '../model/errors.js';
 import type { Analysis } from '../pipeline/analyse.js';
@@ -13,9 +14,15 @@ import { reportHtml } from './html.js';
 import { pictureFileNames, standardPictures, writePictures, type PictureOptions } from './pictures.js';
 import { encodeSaved, plotSource, SAVED_FILE, type PlotSource } from './saved.js';
 import { vtuText } from './vtu.js';
+import { checkOutputDir, lockOutputDir, makeOutputDir, processAlive } from './output-dir.js';
+
+/** The mark of a temporary file: `<name>.raiser-tmp-<pid>-<random>`. */
+const TMP_MARK = '.raiser-tmp-';
 
 export function writeAtomic(path: string, data: string | Uint8Array): void {
-  const tmp = `${path}.raiser-tmp-${process.pid}`;
+  // Named per run (pid) and per write (random), so no two writers share a temporary file, and
+  // cleaning can tell a dead run's leftovers from a live run's work.
+  const tmp = `${path}${TMP_MARK}${process.pid}-${randomBytes(4).toString('hex')}`;
   try {
     writeFileSync(tmp, data);
     renameSync(tmp, path);
@@ -25,15 +32,30 @@ export function writeAtomic(path: string, data: string | Uint8Array): void {
   }
 }
 
-/** Refuses to overwrite unless `force`; creates the folder. */
-export function prepareOutputDir(dir: string, names: string[], force: boolean): void {
-  mkdirSync(dir, { recursive: true });
+/** Removes the temporary files in dir left by runs that have ended (a live run's are its own). */
+function removeStaleTemporaries(dir: string): void {
+  for (const f of readdirSync(dir)) {
+    const at = f.indexOf(TMP_MARK);
+    if (at < 0) continue;
+    const pid = Number(/^(\d+)/.exec(f.slice(at + TMP_MARK.length))?.[1]);
+    if (!processAlive(pid)) rmSync(join(dir, f), { force: true });
+  }
+}
+
+/**
+ * Readies an output folder before any work: checks it (a writable folder, or one that can be
+ * made), makes it, locks it against another run, and refuses to overwrite `names` unless `force`.
+ */
+export function prepareOutputDir(dir: string, names: string[], force: boolean, option = '-o'): void {
+  checkOutputDir(dir, option);
+  makeOutputDir(dir, option);
+  lockOutputDir(dir, option);
   // Temporary files left by an interrupted run are never results: remove them.
-  for (const f of readdirSync(dir)) if (f.includes('.raiser-tmp-')) rmSync(join(dir, f), { force: true });
+  removeStaleTemporaries(dir);
   if (force) return;
   const taken = names.filter((n) => existsSync(join(dir, n)));
   if (taken.length > 0) {
-    throw new ModelError('', `the output folder ${dir} already holds ${taken.join(', ')}`, 'pass --force to replace them, or choose another folder with -o');
+    throw new ModelError(option, `the output folder ${dir} already holds ${taken.join(', ')}`, `pass --force to replace them, or choose another folder with ${option}`);
   }
 }
 

@@ -14,7 +14,7 @@ import { prepareOutputDir, writeAtomic } from './files.js';
 export const MATRIX_FILES = ['stiffness.mtx', 'load.mtx', 'dofs.csv'];
 
 export function writeMatrixFiles(dir: string, a: Analysis, force: boolean): string[] {
-  prepareOutputDir(dir, MATRIX_FILES, force);
+  prepareOutputDir(dir, MATRIX_FILES, force, '--export-matrix');
   const warnings: string[] = [];
   const supports = compileSupports(a.model, a.domain, a.mesh, warnings);
   const loads = compileLoads(a.model, a.domain, a.mesh, supports, warnings);

@@ -414,7 +414,16 @@ export class WasmHeap {
     if (wasmApi === undefined) return null;
     const bytes = wasmModuleBytes();
     if (!wasmApi.validate(bytes)) return null;
-    const memory = new wasmApi.Memory({ initial: 1 });
+    let memory: WasmMemory;
+    try {
+      memory = new wasmApi.Memory({ initial: 1 });
+    } catch (e) {
+      // V8 reserves about 10 GB of address space for every WebAssembly memory (guard pages that
+      // spare it bounds checks); under a smaller virtual memory limit (ulimit -v) that fails.
+      // The JavaScript kernel computes the same factor, more slowly.
+      heapProblem = `the WebAssembly kernel could not reserve its address space (${(e as Error).message}); the slower JavaScript kernel was used`;
+      return null;
+    }
     const instance = new wasmApi.Instance(new wasmApi.Module(bytes), { env: { mem: memory } });
     return new WasmHeap(memory, instance.exports);
   }
@@ -437,6 +446,13 @@ export class WasmHeap {
     if (this.view.buffer !== this.memory.buffer) this.view = new Float64Array(this.memory.buffer);
     return this.view;
   }
+}
+
+let heapProblem: string | undefined;
+
+/** Why the WebAssembly kernel could not be used in this process, if it could not. */
+export function wasmHeapProblem(): string | undefined {
+  return heapProblem;
 }
 
 let shared: WasmHeap | null | undefined;

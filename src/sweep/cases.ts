@@ -11,9 +11,8 @@
  * thickness, units, mesh and result settings are kept.
  */
 import { createHash } from 'node:crypto';
-import { readFileSync } from 'node:fs';
-import { ModelError } from '../model/errors.js';
-import { loadModelText } from '../model/load.js';
+import { ModelError, quoteText } from '../model/errors.js';
+import { loadModelText, readModelText, type LoadOptions } from '../model/load.js';
 import type { Model } from '../model/schema.js';
 import { closest } from '../model/suggest.js';
 import { expandTemplate } from '../model/templates.js';
@@ -29,8 +28,10 @@ export function parseVary(spec: string): Vary {
   const name = m[1];
   const body = m[2].trim();
   const num = (t: string) => {
-    const v = Number(t.trim());
-    if (!Number.isFinite(v)) throw new ModelError('--vary', `"${t}" in --vary ${spec} is not a number`, 'write --vary name=from:to:count');
+    const w = t.trim();
+    if (w === '') throw new ModelError('--vary', `--vary ${quoteText(spec)} has an empty value (two separators in a row, or one at an end)`, 'write --vary name=v1,v2,v3 or --vary name=from:to:count, with a number between each pair of separators');
+    const v = /^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(w) ? Number(w) : NaN;
+    if (!Number.isFinite(v)) throw new ModelError('--vary', `"${quoteText(w)}" in --vary ${quoteText(spec)} is not a ${Number.isNaN(v) ? 'decimal number' : 'finite number'}`, 'write --vary name=from:to:count or --vary name=v1,v2,v3 with plain decimal numbers');
     return v;
   };
   if (body.includes(':')) {
@@ -42,7 +43,9 @@ export function parseVary(spec: string): Vary {
     if (!Number.isInteger(n) || n < 2 || n > 1000) throw new ModelError('--vary', `the count ${parts[2]} in --vary ${spec} must be a whole number from 2 to 1000`);
     return { name, values: Array.from({ length: n }, (_, k) => a + ((b - a) * k) / (n - 1)) };
   }
-  return { name, values: body.split(',').map(num) };
+  const values = body.split(',').map(num);
+  if (values.length > 1000) throw new ModelError('--vary', `--vary ${name} lists ${values.length} values, more than the 1000 one sweep may solve`, 'give fewer values');
+  return { name, values };
 }
 
 /** The template behind a chart family, and its parameter names for the recorded dimensions. */
@@ -71,16 +74,13 @@ export interface SweepSource {
   names: string[];
   /** a short hash of the model text, so a resumed sweep only reuses cases of the same model */
   signature: string;
+  /** how each case's model is loaded (a drawing outside the model's folder allowed, say) */
+  load: Omit<LoadOptions, 'parameters'>;
 }
 
-export function readSweepSource(file: string, vary: Vary[]): SweepSource {
-  let text: string;
-  try {
-    text = readFileSync(file, 'utf8');
-  } catch {
-    throw new ModelError('', `cannot read the model file ${file}`, 'check the path', file);
-  }
-  const { model } = loadModelText(text, file);
+export function readSweepSource(file: string, vary: Vary[], load: Omit<LoadOptions, 'parameters'> = {}): SweepSource {
+  const text = readModelText(file);
+  const { model } = loadModelText(text, file, load);
   const names = vary.map((v) => v.name);
   if (new Set(names).size !== names.length) throw new ModelError('--vary', 'the same name is varied twice', 'give each --vary a different name');
   const declared = Object.keys(model.parameters ?? {});
@@ -98,12 +98,12 @@ export function readSweepSource(file: string, vary: Vary[]): SweepSource {
       file,
     );
   }
-  return { text, file, model, kind: isParam ? 'parameters' : 'template', names, signature: createHash('sha256').update(text).digest('hex').slice(0, 16) };
+  return { text, file, model, kind: isParam ? 'parameters' : 'template', names, signature: createHash('sha256').update(text).digest('hex').slice(0, 16), load };
 }
 
 /** The model of one case. */
 export function caseModel(src: SweepSource, values: Record<string, number>): Model {
-  if (src.kind === 'parameters') return loadModelText(src.text, src.file, { parameters: values }).model;
+  if (src.kind === 'parameters') return loadModelText(src.text, src.file, { ...src.load, parameters: values }).model;
   const chart = src.model.chart!;
   const fam = FAMILY_TEMPLATE[chart.family];
   const dims: Record<string, number | string> = {};

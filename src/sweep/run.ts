@@ -14,6 +14,7 @@ import { ModelError } from '../model/errors.js';
 import { writeAtomic } from '../report/files.js';
 import { allCases, caseKey, readSweepSource, type SweepSource, type Vary } from './cases.js';
 import { solveCase, type CaseOptions, type CaseRow } from './solve-case.js';
+import { decodeCaseFile, encodeCaseFile } from './case-file.js';
 import { renderPng, renderSvg } from '../render/scene.js';
 import { sweepScene } from './plot.js';
 
@@ -30,6 +31,8 @@ export interface SweepResult {
   rows: CaseRow[];
   failed: { key: string; message: string }[];
   reused: number;
+  /** case files found but not reused (damaged, edited, or of no known form), with why */
+  redone: string[];
   files: string[];
   xLabel: string;
 }
@@ -53,21 +56,29 @@ function optionsSignature(src: SweepSource, opts: CaseOptions): string {
 }
 
 export async function runSweep(file: string, opts: SweepOptions): Promise<SweepResult> {
-  const src = readSweepSource(file, opts.vary);
+  const src = readSweepSource(file, opts.vary, { allowDrawingOutside: opts.allowDrawingOutside });
   const cases = allCases(opts.vary).map((values) => ({ key: caseKey(values), values }));
   const dir = join(opts.outDir, 'cases');
   mkdirSync(dir, { recursive: true });
   const sig = optionsSignature(src, opts);
   const rows = new Map<string, CaseRow>();
-  // Resume: a case file of the same model and options counts as done.
+  // Resume: a case file of the same model and options counts as done, if it reads back whole
+  // (valid, checksum matching); anything else is solved again and said so.
+  const redone: string[] = [];
   for (const name of existsSync(dir) ? readdirSync(dir) : []) {
     if (!name.endsWith('.json')) continue;
+    let text: string;
     try {
-      const saved = JSON.parse(readFileSync(join(dir, name), 'utf8')) as { signature: string; row: CaseRow };
-      if (saved.signature === sig && cases.some((c) => c.key === saved.row.key)) rows.set(saved.row.key, saved.row);
+      text = readFileSync(join(dir, name), 'utf8');
     } catch {
-      // A damaged file (it cannot be: files are renamed into place) is solved again.
+      continue;
     }
+    const saved = decodeCaseFile(text);
+    if (!saved.ok) {
+      redone.push(`${name} (${saved.why})`);
+      continue;
+    }
+    if (saved.signature === sig && cases.some((c) => c.key === saved.row.key)) rows.set(saved.row.key, saved.row);
   }
   const reused = rows.size;
   const todo = cases.filter((c) => !rows.has(c.key));
@@ -75,7 +86,7 @@ export async function runSweep(file: string, opts: SweepOptions): Promise<SweepR
   let done = reused;
   const keep = (row: CaseRow) => {
     rows.set(row.key, row);
-    writeAtomic(join(dir, fileName(row.key)), JSON.stringify({ signature: sig, row }, null, 2) + '\n');
+    writeAtomic(join(dir, fileName(row.key)), encodeCaseFile(sig, row));
     done++;
     opts.onProgress?.(row, done, cases.length);
   };
@@ -97,7 +108,7 @@ export async function runSweep(file: string, opts: SweepOptions): Promise<SweepR
       let next = 0;
       let active = 0;
       const start = () => {
-        const w = new Worker(workerFile, { workerData: { file, vary: opts.vary, options: caseOpts } });
+        const w = new Worker(workerFile, { workerData: { file, vary: opts.vary, options: { ...caseOpts, allowDrawingOutside: opts.allowDrawingOutside } } });
         active++;
         const feed = () => {
           if (next < todo.length) w.postMessage(todo[next++]);
@@ -125,7 +136,7 @@ export async function runSweep(file: string, opts: SweepOptions): Promise<SweepR
   const ordered = cases.map((c) => rows.get(c.key)).filter((r): r is CaseRow => !!r);
   const xExpr = opts.x ?? (src.kind === 'template' && src.model.chart ? FAMILY_X[src.model.chart.family] : undefined) ?? opts.vary[0].name;
   const files = writeSweepFiles(opts.outDir, src, ordered, opts.vary, xExpr);
-  return { rows: ordered, failed, reused, files, xLabel: xExpr };
+  return { rows: ordered, failed, reused, redone, files, xLabel: xExpr };
 }
 
 /** x of a case: the expression evaluated with the case's values and the model's parameters or dimensions. */

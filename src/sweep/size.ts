@@ -42,7 +42,7 @@ export function runSize(file: string, opts: SizeOptions): SizeResult {
   }
   if (!(opts.hi > opts.lo)) throw new ModelError('--vary', `the range ${opts.lo}:${opts.hi} must run upward`, 'write --vary name=low:high');
   const vary: Vary[] = [{ name: opts.name, values: [opts.lo, opts.hi] }];
-  const src = readSweepSource(file, vary);
+  const src = readSweepSource(file, vary, { allowDrawingOutside: opts.allowDrawingOutside });
   const which = opts.kt ?? 'net';
   const limit = (opts.ktMax ?? opts.stressMax)!;
   const quantity = opts.ktMax !== undefined ? `Kt ${which}` : 'peak stress';

@@ -10,6 +10,8 @@ export interface CaseOptions {
   singleMesh?: boolean;
   element?: 'linear' | 'quadratic';
   measure?: StressMeasure;
+  /** let geometry.from name a drawing outside the model file's folder */
+  allowDrawingOutside?: boolean;
 }
 
 export interface CaseRow {

@@ -4,7 +4,7 @@ import { readSweepSource } from './cases.js';
 import { solveCase, type CaseOptions } from './solve-case.js';
 
 const { file, vary, options } = workerData as { file: string; vary: { name: string; values: number[] }[]; options: CaseOptions };
-const src = readSweepSource(file, vary);
+const src = readSweepSource(file, vary, { allowDrawingOutside: options.allowDrawingOutside });
 parentPort!.on('message', (msg: { key: string; values: Record<string, number> } | null) => {
   if (msg === null) {
     process.exit(0);

@@ -11,6 +11,8 @@ export interface Similarity {
   mirrorX?: boolean;
   /** quarter turns counter-clockwise */
   quarterTurns?: number;
+  /** added to every point after the scaling and turning */
+  translate?: [number, number];
 }
 
 export function transformModel(model: Model, t: Similarity): Model {
@@ -26,7 +28,11 @@ export function transformModel(model: Model, t: Similarity): Model {
   const turn = (v: 'ccw' | 'cw') => (t.mirrorX ? (v === 'ccw' ? 'cw' : 'ccw') : v);
   const angle = (deg: number) => (t.mirrorX ? 180 - deg : deg) + 90 * q;
   const json = JSON.parse(JSON.stringify(model));
-  const point = (p: [number, number]) => rot(p[0], p[1]);
+  const [tx, ty] = t.translate ?? [0, 0];
+  const point = (p: [number, number]): [number, number] => {
+    const [a, b] = rot(p[0], p[1]);
+    return [a + tx, b + ty];
+  };
   const loop = (l: any) => {
     if (l.center) l.center = point(l.center);
     for (const k of ['radius', 'diameter', 'a', 'b', 'length', 'width', 'height']) if (typeof l[k] === 'number') l[k] *= s;

@@ -21,6 +21,7 @@
 import dxfParserModule, { type DxfParser as DxfParserClass } from 'dxf-parser';
 import type { Curve } from '../curve.js';
 import { type Affine, IDENTITY, compose, mapCurve, rotation, scaling, translation } from './affine.js';
+import { ExpansionBudget, MAX_ARRAY_COPIES, MAX_EXPANDED_ITEMS, MAX_SPLINE_DEGREE, MAX_SPLINE_POINTS, MAX_SPLINE_WORK, ccwSweep, usableAngle } from './limits.js';
 import { DRAWING_UNIT_METRES, DrawingError, type DrawnCurve, type Piece, type ReadDrawing, type ReadOptions } from './types.js';
 
 /**
@@ -91,11 +92,33 @@ function rawHandler(name: string) {
   };
 }
 
-/** The names that follow group code 0 anywhere in the file (entity types among them). */
-function zeroNames(lines: string[]): Set<string> {
+/**
+ * The names that follow group code 0 anywhere in the file (entity types among them), and how
+ * many records there are: one pass over the text without splitting it, so a large file is
+ * counted, and refused when it holds too many records, before the parser builds an object for
+ * each (60 MB of LINEs took 2.3 GB there).
+ */
+function zeroNames(text: string): { names: Set<string>; records: number } {
   const names = new Set<string>();
-  for (let i = 0; i + 1 < lines.length; i += 2) if (lines[i].trim() === '0') names.add(lines[i + 1].trim());
-  return names;
+  let records = 0;
+  const n = text.length;
+  let pos = 0;
+  let even = true; // group code lines and value lines alternate
+  let code = '';
+  while (pos < n) {
+    let end = text.indexOf('\n', pos);
+    if (end < 0) end = n;
+    let line = text.slice(pos, end);
+    if (line.endsWith('\r')) line = line.slice(0, -1);
+    if (even) code = line.trim();
+    else if (code === '0') {
+      records++;
+      if (names.size < 10_000) names.add(line.trim());
+    }
+    even = !even;
+    pos = end + 1;
+  }
+  return { names, records };
 }
 
 interface Entity {
@@ -119,9 +142,15 @@ function fmt(v: number): string {
 /** Reads a DXF document into pieces in model coordinates. */
 export function readDxf(text: string, opts: ReadOptions): ReadDrawing {
   if (text.startsWith('AutoCAD Binary DXF')) throw new DrawingError('this is a binary DXF file', 'save the drawing as ASCII DXF');
-  const lines = text.split(/\r\n|\r|\n/);
+  const { names, records } = zeroNames(text);
+  if (records > MAX_EXPANDED_ITEMS) {
+    throw new DrawingError(
+      `the drawing holds ${records.toLocaleString('en-US')} records (entities and table entries), more than the ${MAX_EXPANDED_ITEMS.toLocaleString('en-US')} raiser reads`,
+      'a plate profile needs far fewer: export only the part (without title block, hatching and other parts), or simplify it',
+    );
+  }
   const parser = new DxfParser();
-  for (const name of zeroNames(lines)) {
+  for (const name of names) {
     if (STRUCTURE.has(name) || LIBRARY.has(name) || !/^[A-Z0-9_]+$/i.test(name)) continue;
     parser.registerEntityHandler(rawHandler(name) as never);
   }
@@ -169,8 +198,10 @@ export function readDxf(text: string, opts: ReadOptions): ReadDrawing {
   const blocks = (dxf.blocks ?? {}) as unknown as Record<string, { entities?: Entity[]; position?: Point }>;
 
   const describe = (e: Entity, layer: string, via: string) => `${e.type} on layer "${layer}"${e.handle !== undefined ? `, handle ${e.handle}` : ''}${via}`;
+  const budget = new ExpansionBudget('entities', 'that a block INSERT makes');
 
   const visit = (e: Entity, map: Affine, parentLayer: string | undefined, via: string, depth: number) => {
+    budget.chargeItem(() => describe(e, e.layer ?? '0', via));
     if (e.inPaperSpace) {
       count('paper-space entities');
       return;
@@ -203,15 +234,29 @@ export function readDxf(text: string, opts: ReadOptions): ReadDrawing {
       const base = block.position ?? { x: 0, y: 0 };
       const sx = Number(e.xScale ?? 1);
       const sy = Number(e.yScale ?? 1);
-      const rot = (Number(e.rotation ?? 0) * Math.PI) / 180;
+      const rotDeg = Number(e.rotation ?? 0);
+      const rot = (rotDeg * Math.PI) / 180;
       const cols = Math.max(1, Number(e.columnCount ?? 1));
       const rows = Math.max(1, Number(e.rowCount ?? 1));
+      const numbers = { 'position x': pos.x, 'position y': pos.y, 'x scale': sx, 'y scale': sy, 'column spacing': Number(e.columnSpacing ?? 0), 'row spacing': Number(e.rowSpacing ?? 0) };
+      for (const [what, v] of Object.entries(numbers)) {
+        if (!Number.isFinite(v)) throw new DrawingError(`${origin}: its ${what} is ${String(v)}, not a finite number`, 'correct or explode the insert in the CAD program, and save the drawing again');
+      }
+      if (!usableAngle(rotDeg)) throw new DrawingError(`${origin}: its rotation ${String(rotDeg)} is not a usable angle`, 'give the rotation in degrees, between -360 and 360');
+      if (!Number.isInteger(cols) || !Number.isInteger(rows) || cols * rows > MAX_ARRAY_COPIES) {
+        throw new DrawingError(
+          `${origin}: an array of ${String(cols)} columns x ${String(rows)} rows, ${cols * rows > MAX_ARRAY_COPIES ? `more than the ${MAX_ARRAY_COPIES.toLocaleString('en-US')} copies one insert may make` : 'not whole numbers'}`,
+          'a plate profile needs far fewer copies: explode the array in the CAD program, or correct its counts',
+        );
+      }
+      // Only the innermost insert is named (a chain of names would grow with the depth for every copy).
+      const inner = ` in block "${name}" inserted by ${describe(e, layer, '')}${depth > 0 ? ` (${depth} insert${depth === 1 ? '' : 's'} deep)` : ''}`;
       for (let i = 0; i < cols; i++) {
         for (let j = 0; j < rows; j++) {
           // Array copies are spaced along the insert's rotated axes.
           const offset = compose(rotation(rot), translation(i * Number(e.columnSpacing ?? 0), j * Number(e.rowSpacing ?? 0)));
           const place = compose(ocs, compose(translation(pos.x, pos.y), compose(offset, compose(scaling(sx, sy), translation(-base.x, -base.y)))));
-          for (const sub of block.entities ?? []) visit(sub, compose(map, place), layer, ` in block "${name}" inserted by ${origin}`, depth + 1);
+          for (const sub of block.entities ?? []) visit(sub, compose(map, place), layer, inner, depth + 1);
         }
       }
       return;
@@ -225,6 +270,7 @@ export function readDxf(text: string, opts: ReadOptions): ReadDrawing {
       count('entities of zero size');
       return;
     }
+    budget.chargeCurves(local.curves.length, () => origin);
     const curves: DrawnCurve[] = [];
     for (const c of local.curves) {
       const mc = mapCurve(c, compose(map, local.ocs));
@@ -263,6 +309,10 @@ function ocsMap(nx: number | undefined, ny: number | undefined, nz: number | und
   return z > 0 ? IDENTITY : [-1, 0, 0, 1, 0, 0];
 }
 
+function badAngle(origin: string, what: string, a: number, b: number): DrawingError {
+  return new DrawingError(`${origin}: its ${what} (${fmt(a)}, ${fmt(b)}) are not usable: an angle must be a finite number within a few turns`, 'correct the entity in the CAD program (angles between -360 and 360 degrees) and save the drawing again');
+}
+
 function groupNumbers(e: RawEntity, code: number): number[] {
   return e.groups.filter((g) => g[0] === code).map((g) => Number(g[1]));
 }
@@ -284,14 +334,6 @@ function bulgeSegment(px: number, py: number, qx: number, qy: number, bulge: num
   return { kind: 'arc', cx, cy, r, a0: Math.atan2(py - cy, px - cx), sweep: 4 * Math.atan(bulge) };
 }
 
-/** Start angle a and end angle b (radians, counter-clockwise): the sweep from a to b, in (0, 2 pi]. */
-function ccwSweep(a: number, b: number): number {
-  let s = b - a;
-  while (s <= 0) s += 2 * Math.PI;
-  while (s > 2 * Math.PI + 1e-12) s -= 2 * Math.PI;
-  return s;
-}
-
 function entityCurves(e: Entity, origin: string): { curves: Curve[]; closed: boolean; ocs: Affine } | 'unsupported' {
   switch (e.type) {
     case 'LINE': {
@@ -306,7 +348,9 @@ function entityCurves(e: Entity, origin: string): { curves: Curve[]; closed: boo
       const ocs = ocsMap(e.extrusionDirectionX as number | undefined, e.extrusionDirectionY as number | undefined, e.extrusionDirectionZ as number | undefined, origin);
       if (!(r > 0)) return { curves: [], closed: false, ocs };
       const a0 = Number(e.startAngle);
-      const sweep = ccwSweep(a0, Number(e.endAngle));
+      const a1 = Number(e.endAngle);
+      if (!usableAngle(a0) || !usableAngle(a1)) throw badAngle(origin, 'start and end angles in degrees', (a0 * 180) / Math.PI, (a1 * 180) / Math.PI);
+      const sweep = ccwSweep(a0, a1);
       return { curves: [{ kind: 'arc', cx: c.x, cy: c.y, r, a0, sweep }], closed: false, ocs };
     }
     case 'CIRCLE': {
@@ -327,6 +371,7 @@ function entityCurves(e: Entity, origin: string): { curves: Curve[]; closed: boo
       const t1 = groupNumber(raw, 42, 2 * Math.PI)!;
       const nz = groupNumber(raw, 230, 1)!;
       ocsMap(groupNumber(raw, 210), groupNumber(raw, 220), nz, origin);
+      if (!usableAngle(t0) || !usableAngle(t1)) throw badAngle(origin, 'start and end parameters', t0, t1);
       const a = Math.hypot(mx, my);
       if (!(a > 0 && ratio > 0)) return { curves: [], closed: false, ocs: IDENTITY };
       // p(t) = c + cos t * major + sin t * minor, minor = ratio * (N x major): N = -z turns the other way.
@@ -344,7 +389,12 @@ function entityCurves(e: Entity, origin: string): { curves: Curve[]; closed: boo
       if (e.includesSplineFitVertices || e.includesCurveFitVertices) return 'unsupported';
       const ext = e.type === 'POLYLINE' ? (e.extrusionDirection as Point | undefined) : { x: e.extrusionDirectionX as number, y: e.extrusionDirectionY as number, z: e.extrusionDirectionZ as number };
       const ocs = ocsMap(ext?.x, ext?.y, ext?.z, origin);
-      const v = ((e.vertices as (Point & { bulge?: number })[]) ?? []).filter((p) => Number.isFinite(p.x) && Number.isFinite(p.y));
+      const v = (e.vertices as (Point & { bulge?: number })[]) ?? [];
+      v.forEach((p, i) => {
+        if (!Number.isFinite(p.x) || !Number.isFinite(p.y) || !Number.isFinite(Number(p.bulge ?? 0))) {
+          throw new DrawingError(`${origin}: its vertex ${i + 1} is (${String(p.x)}, ${String(p.y)})${p.bulge !== undefined ? ` with bulge ${String(p.bulge)}` : ''}, not finite numbers`, 'correct the polyline in the CAD program and save the drawing again');
+        }
+      });
       const closed = !!e.shape;
       const curves: Curve[] = [];
       const n = v.length;
@@ -376,8 +426,22 @@ function splineCurves(e: RawEntity, origin: string): Curve[] {
     throw new DrawingError(`${origin}: a spline given by fit points only (no control points) cannot be imported`, 'in the CAD program, convert the spline to control vertices (or to a polyline of arcs) and save again');
   }
   const n = xs.length;
-  if (ys.length !== n || knots.length !== n + p + 1 || !(p >= 1)) {
+  // Each Bezier piece costs about degree^2 operations per control point: limits checked before the work.
+  if (!Number.isInteger(p) || p < 1 || p > MAX_SPLINE_DEGREE) {
+    throw new DrawingError(`${origin}: its degree ${String(p)} is ${p > MAX_SPLINE_DEGREE ? `above the highest raiser reads, ${MAX_SPLINE_DEGREE}` : 'not a whole number from 1 up'}`, 'in the CAD program, rebuild the spline at degree 3 (or convert it to a polyline of arcs) and save again');
+  }
+  if (n > MAX_SPLINE_POINTS || n * p * p > MAX_SPLINE_WORK) {
+    throw new DrawingError(
+      `${origin}: ${n} control points of degree ${p} are more than raiser reads in one spline (at most ${MAX_SPLINE_POINTS.toLocaleString('en-US')} points, and points x degree^2 at most ${MAX_SPLINE_WORK.toExponential(0)})`,
+      'in the CAD program, rebuild the spline with fewer control points or a lower degree, or split it, and save again',
+    );
+  }
+  if (ys.length !== n || knots.length !== n + p + 1) {
     throw new DrawingError(`${origin}: its degree ${p}, ${knots.length} knots and ${n} control points do not fit together (knots = control points + degree + 1)`, 'save the drawing again from the CAD program');
+  }
+  for (const [what, list] of [['knot', knots], ['control point x', xs], ['control point y', ys], ['weight', weights]] as const) {
+    const bad = list.findIndex((v) => !Number.isFinite(v));
+    if (bad >= 0) throw new DrawingError(`${origin}: its ${what} ${bad + 1} is ${String(list[bad])}, not a finite number`, 'correct the spline in the CAD program and save the drawing again');
   }
   if (weights.length && weights.length !== n) throw new DrawingError(`${origin}: ${weights.length} weights for ${n} control points`, 'save the drawing again from the CAD program');
   const rational = weights.length === n && weights.some((w) => w !== weights[0]);
@@ -397,21 +461,28 @@ function splineCurves(e: RawEntity, origin: string): Curve[] {
   const lo = U[p];
   const hi = U[n];
   if (!(hi > lo)) return [];
-  // Raise every distinct knot in [lo, hi] to multiplicity p: then each knot span is one Bezier piece.
-  const values = [...new Set(U.filter((u) => u >= lo && u <= hi))];
-  let Pw = P;
-  let UU = U;
-  for (const u of values) {
-    let mult = UU.filter((x) => x === u).length;
-    while (mult < p) {
-      [Pw, UU] = insertKnot(Pw, UU, p, u);
-      mult++;
-    }
-  }
+  // Each knot span [U[k], U[k+1]] of the domain is one Bezier piece. It depends only on the
+  // control points k-p..k and the knots k-p..k+p+1: that local spline has its ends raised to
+  // multiplicity p by knot insertion, so the work is degree^2 per span, not per whole curve.
   const out: Curve[] = [];
-  const last = Pw.length - 1;
-  for (let i = p; i <= last; i++) {
-    if (!(UU[i + 1] > UU[i]) || UU[i] < lo || UU[i + 1] > hi) continue;
+  for (let k = p; k < n; k++) {
+    const a = U[k];
+    const b = U[k + 1];
+    if (!(b > a)) continue;
+    let Pw = P.slice(k - p, k + 1);
+    let UU = U.slice(k - p, k + p + 2);
+    for (const u of [a, b]) {
+      let mult = 0;
+      for (const x of UU) if (x === u) mult++;
+      while (mult < p) {
+        [Pw, UU] = insertKnot(Pw, UU, p, u);
+        mult++;
+      }
+    }
+    // The piece is the control points of the span [a, b] of the refined local spline.
+    let i = -1;
+    for (let j = p; j < Pw.length; j++) if (UU[j] === a && UU[j + 1] === b) i = j;
+    if (i < 0) continue;
     const pts = Pw.slice(i - p, i + 1);
     if (p === 1) {
       out.push({ kind: 'line', x0: pts[0][0] / pts[0][2], y0: pts[0][1] / pts[0][2], x1: pts[1][0] / pts[1][2], y1: pts[1][1] / pts[1][2] });

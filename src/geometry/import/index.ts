@@ -13,13 +13,17 @@
  * object (under the symbol DRAWING) so that buildDomain, which turns it into an ordinary
  * Domain, does not read the file again.
  */
-import { readFileSync } from 'node:fs';
-import { extname, resolve } from 'node:path';
+import { realpathSync } from 'node:fs';
+import { extname, isAbsolute, relative, resolve, sep } from 'node:path';
+import { formatBytes, readRegularFile } from '../../model/read-file.js';
+import { NUMBER_RANGE, inNumberRange } from '../../model/number-range.js';
 import type { DrawingGeometry } from '../../model/schema.js';
 import { type Curve, curveAreaTerm, curveLength, curveTangent, evaluateCurve, splitBezier } from '../curve.js';
-import { findContacts, pointInLoop, type Polylines } from '../intersect.js';
+import { findContacts, indexLoops, pointInLoop, type Polylines } from '../intersect.js';
 import { readDxf } from './dxf.js';
 import { joinPieces, type DrawnLoop, type OpenEnd } from './join.js';
+import { MAX_DRAWING_BYTES } from './limits.js';
+import { MAX_LOOPS } from '../limits.js';
 import { readSvg } from './svg.js';
 import { DrawingError, type DrawnCurve, type ReadDrawing, type ReadOptions } from './types.js';
 
@@ -77,6 +81,29 @@ export interface ImportContext {
   /** metres per model length unit, and its name */
   modelUnitMetres: number;
   modelUnitName: string;
+  /**
+   * Allow a drawing outside baseDir (an absolute path, a path through "..", or a link that
+   * leads out). Off by default: a model file from someone else must not make raiser read any
+   * file on the machine. The command line turns it on with --allow-drawing-outside.
+   */
+  allowOutside?: boolean;
+}
+
+/** The option of the command line that allows a drawing outside the model's folder. */
+export const ALLOW_OUTSIDE_FLAG = '--allow-drawing-outside';
+
+/** True when path lies inside folder (both absolute and free of links). */
+function isInside(folder: string, path: string): boolean {
+  const rel = relative(folder, path);
+  return rel !== '' && !rel.startsWith('..' + sep) && rel !== '..' && !isAbsolute(rel);
+}
+
+function realOrSelf(path: string): string {
+  try {
+    return realpathSync(path);
+  } catch {
+    return path;
+  }
 }
 
 function fmt(v: number): string {
@@ -91,13 +118,40 @@ export function importDrawing(g: DrawingGeometry, ctx: ImportContext): ImportedD
   if (ext !== '.svg' && ext !== '.dxf') {
     throw new DrawingError(`"${g.from}" is neither an SVG nor a DXF drawing (by its name)`, 'give a file ending in .svg or .dxf');
   }
-  let text: string;
-  try {
-    text = readFileSync(path, 'utf8');
-  } catch (e) {
-    const code = (e as { code?: string }).code;
-    throw new DrawingError(code === 'ENOENT' ? `no such drawing: "${g.from}" (looked for ${path})` : `the drawing "${g.from}" cannot be read (${(e as Error).message})`, '"from" is relative to the folder of the model file');
+  // Where the file really is, links followed: it must stay inside the model's folder unless allowed.
+  const base = realOrSelf(resolve(ctx.baseDir));
+  const real = realOrSelf(path);
+  const outsideWarnings: string[] = [];
+  const leaves = isAbsolute(g.from) ? 'is an absolute path' : !isInside(resolve(ctx.baseDir), path) ? 'leaves the folder of the model file' : !isInside(base, real) ? `is a link to ${real}, outside the folder of the model file` : undefined;
+  if (leaves) {
+    if (!ctx.allowOutside) {
+      throw new DrawingError(
+        `"${g.from}" ${leaves}; raiser reads only drawings inside the model file's folder (${base}) unless told otherwise`,
+        `copy the drawing next to the model file and name it relative to it, or, if you trust this model file, run with ${ALLOW_OUTSIDE_FLAG}`,
+      );
+    }
+    outsideWarnings.push(`the drawing ${g.from} (${real}) lies outside the folder of the model file; it was read because of ${ALLOW_OUTSIDE_FLAG}`);
   }
+  const got = readRegularFile(real, MAX_DRAWING_BYTES);
+  if (!got.ok) {
+    const hint = '"from" names a drawing file relative to the folder of the model file';
+    switch (got.kind) {
+      case 'missing':
+        throw new DrawingError(`no such drawing: "${g.from}" (looked for ${path})`, hint);
+      case 'folder':
+        throw new DrawingError(`"${g.from}" is a folder, not a drawing`, hint);
+      case 'not-regular':
+        throw new DrawingError(`"${g.from}" is ${got.what}, not a drawing file`, 'give a regular .svg or .dxf file');
+      case 'too-large':
+        throw new DrawingError(
+          `the drawing "${g.from}" is ${formatBytes(got.bytes)}, more than the ${formatBytes(MAX_DRAWING_BYTES)} raiser reads`,
+          'a drawing of one plate is far smaller: export only the part (without title block, hatching and other parts), or simplify it',
+        );
+      case 'unreadable':
+        throw new DrawingError(`the drawing "${g.from}" cannot be read (${got.reason})`, hint);
+    }
+  }
+  let text = got.bytes.toString('utf8');
   if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
   const opts: ReadOptions = {
     unit: g.unit,
@@ -109,7 +163,44 @@ export function importDrawing(g: DrawingGeometry, ctx: ImportContext): ImportedD
   };
   const format = ext === '.svg' ? 'svg' : 'dxf';
   const read = format === 'svg' ? readSvg(text, opts) : readDxf(text, opts);
+  read.warnings.unshift(...outsideWarnings);
+  checkFinite(read);
   return sortLoops(read, g, path, format);
+}
+
+/** Numbers of a curve that must be finite. */
+function curveNumbers(c: Curve): number[] {
+  switch (c.kind) {
+    case 'line':
+      return [c.x0, c.y0, c.x1, c.y1];
+    case 'arc':
+      return [c.cx, c.cy, c.r, c.a0, c.sweep];
+    case 'ellipse':
+      return [c.cx, c.cy, c.a, c.b, c.rot, c.t0, c.sweep];
+    case 'bezier':
+      return c.w ? [...c.p, ...c.w] : c.p;
+  }
+}
+
+/** Refuses a drawing with a coordinate that is not a finite number (nan, inf, or one that overflows on the way to model units). */
+function checkFinite(read: ReadDrawing): void {
+  for (const piece of read.pieces) {
+    for (const dc of piece.curves) {
+      if (!curveNumbers(dc.curve).every(Number.isFinite)) {
+        throw new DrawingError(
+          `${dc.origin}: a coordinate or size is not a finite number (it reads as nan or inf, or overflows when converted to the model's unit)`,
+          'correct the entity in the drawing program and save the drawing again',
+        );
+      }
+      const out = curveNumbers(dc.curve).find((v) => !inNumberRange(v));
+      if (out !== undefined) {
+        throw new DrawingError(
+          `${dc.origin}: the number ${out} (in the model's unit) is outside the range raiser computes with, 0 or between ${NUMBER_RANGE[0]} and ${NUMBER_RANGE[1]} in size`,
+          'check the drawing\'s unit and "scale"; a coordinate this small or large is most likely a slip',
+        );
+      }
+    }
+  }
 }
 
 function bbox(curves: Iterable<Curve>): [number, number, number, number] {
@@ -143,6 +234,9 @@ function sortLoops(read: ReadDrawing, g: DrawingGeometry, path: string, format: 
   if (joined.openEnds.length || joined.branches.length) throw joinError(joined.openEnds, joined.branches, tol, size, g);
   const notes = [...read.notes];
   if (joined.duplicates.length) notes.push(`${joined.duplicates.length} duplicate entit${joined.duplicates.length === 1 ? 'y' : 'ies'} (the same curve drawn twice) left out: ${joined.duplicates.slice(0, 3).map((d) => d.origin).join('; ')}`);
+  if (joined.loops.length > MAX_LOOPS) {
+    throw new DrawingError(`the drawing has ${joined.loops.length} closed loops, more than the ${MAX_LOOPS} (an outline and its holes) raiser analyses in one model`, 'model a representative piece of the part (a strip of holes with symmetry supports), or leave out what is not the plate with "ignore"');
+  }
   const loops = joined.loops.map((l) => ({ ...l, curves: splitInflections(l.curves, size) }));
   if (loops.length === 0) throw new DrawingError('the drawing has no closed loop', 'a plate needs a closed outline');
 
@@ -174,6 +268,7 @@ function sortLoops(read: ReadDrawing, g: DrawingGeometry, path: string, format: 
   }
   let outline = candidates[0];
   for (const i of candidates) if (areas[i] > areas[outline]) outline = i;
+  const index = indexLoops(pl);
   const holes: number[] = [];
   const outside: number[] = [];
   const firstPoint = (i: number) => {
@@ -184,13 +279,13 @@ function sortLoops(read: ReadDrawing, g: DrawingGeometry, path: string, format: 
   for (let i = 0; i < loops.length; i++) {
     if (i === outline) continue;
     const [x, y] = firstPoint(i);
-    if (pointInLoop(pl, outline, x, y)) holes.push(i);
+    if (pointInLoop(pl, outline, x, y, index)) holes.push(i);
     else outside.push(i);
   }
   for (const h of holes) {
     const [x, y] = firstPoint(h);
     for (const o of holes) {
-      if (o !== h && pointInLoop(pl, o, x, y)) {
+      if (o !== h && pointInLoop(pl, o, x, y, index)) {
         throw new DrawingError(
           `${names[h]} lies inside ${names[o]}, which lies inside the outline (${names[outline]}, the largest closed loop${g.outline !== undefined ? ` with "${g.outline}"` : ''}) and so is a hole: a loop inside a hole is not a plate`,
           'if the outline is a frame or a title block, leave it out with "ignore" or name the real outline with "outline"; otherwise remove the loop inside the hole',

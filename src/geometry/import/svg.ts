@@ -19,6 +19,7 @@ import { SaxesParser, type SaxesTagNS } from 'saxes';
 import svgpath from 'svgpath';
 import { type Curve } from '../curve.js';
 import { type Affine, IDENTITY, compose, mapCurve, scaling, translation } from './affine.js';
+import { ExpansionBudget, MAX_EXPANDED_ITEMS, MAX_XML_DEPTH, MAX_XML_ENTITIES, MAX_XML_ENTITY_LENGTH, MAX_XML_EXPANSION } from './limits.js';
 import { DRAWING_UNIT_METRES, DrawingError, type DrawnCurve, type Piece, type ReadDrawing, type ReadOptions } from './types.js';
 
 const SVG_NS = 'http://www.w3.org/2000/svg';
@@ -40,16 +41,34 @@ interface XmlElement {
 function parseXml(text: string): XmlElement {
   const parser = new SaxesParser({ xmlns: true, position: true });
   const stack: XmlElement[] = [];
+  let elements = 0;
   let root: XmlElement | undefined;
   let failure: Error | undefined;
   parser.on('error', (e) => {
     failure ??= e;
   });
   // Entities declared in the document's internal DTD subset (some drawing programs declare
-  // their namespaces that way) are given to the parser, which does not read DTDs itself.
+  // their namespaces that way) are given to the parser, which does not read DTDs itself. They
+  // are read by a linear scan, limited in number and length, and every use of one is charged
+  // against a total, so that a few hundred bytes cannot expand into gigabytes of text.
   parser.on('doctype', (dt) => {
     const entities = (parser as unknown as { ENTITIES: Record<string, string> }).ENTITIES;
-    for (const m of dt.matchAll(/<!ENTITY\s+([^\s%]+)\s+(["'])([\s\S]*?)\2\s*>/g)) entities[m[1]] = m[3];
+    let expanded = 0;
+    for (const [name, value] of declaredEntities(dt)) {
+      Object.defineProperty(entities, name, {
+        enumerable: true,
+        get() {
+          expanded += value.length;
+          if (expanded > MAX_XML_EXPANSION) {
+            throw new DrawingError(
+              `the entity references of the SVG file expand to more than ${MAX_XML_EXPANSION.toLocaleString('en-US')} characters (&${name}; at line ${parser.line})`,
+              'a drawing needs no such expansion: export the drawing again as plain SVG without a document type',
+            );
+          }
+          return value;
+        },
+      });
+    }
   });
   parser.on('opentag', (tag: SaxesTagNS) => {
     const attrs = new Map<string, string>();
@@ -61,6 +80,12 @@ function parseXml(text: string): XmlElement {
       else if (a.uri === XLINK_NS && a.local === 'href') xlinkHref = a.value;
     }
     const el: XmlElement = { local: tag.local, uri: tag.uri, attrs, inkscapeLabel, xlinkHref, children: [], line: parser.line };
+    if (++elements > MAX_EXPANDED_ITEMS) {
+      throw new DrawingError(`the SVG file holds more than ${MAX_EXPANDED_ITEMS.toLocaleString('en-US')} elements (the limit was passed at line ${parser.line})`, 'a plate profile needs far fewer: export only the part, or simplify the drawing');
+    }
+    if (stack.length >= MAX_XML_DEPTH) {
+      throw new DrawingError(`${describe(el)}: elements nested more than ${MAX_XML_DEPTH} deep`, 'a drawing of a plate needs far fewer levels: ungroup the drawing in the drawing program and save it again');
+    }
     if (stack.length) stack[stack.length - 1].children.push(el);
     else root ??= el;
     stack.push(el);
@@ -71,11 +96,55 @@ function parseXml(text: string): XmlElement {
   try {
     parser.write(text).close();
   } catch (e) {
+    if (e instanceof DrawingError) throw e;
     failure ??= e as Error;
   }
   if (failure) throw new DrawingError(`the SVG file is not well-formed XML: ${failure.message}`, 'open it in a drawing program and save it again as plain SVG');
   if (!root) throw new DrawingError('the SVG file has no elements', 'export the drawing again as SVG');
   return root;
+}
+
+/**
+ * The general entities declared in a document type's internal subset, `<!ENTITY name "value">`
+ * (parameter entities, `<!ENTITY % ...>`, and external ones are not read). One pass over the
+ * text, so the cost is linear in its length whatever it holds; more than MAX_XML_ENTITIES
+ * declarations or a value longer than MAX_XML_ENTITY_LENGTH is refused.
+ */
+export function declaredEntities(dt: string): [string, string][] {
+  const out: [string, string][] = [];
+  const n = dt.length;
+  let i = dt.indexOf('<!ENTITY');
+  while (i >= 0) {
+    let p = i + 8;
+    const skipSpace = () => {
+      while (p < n && /\s/.test(dt[p])) p++;
+    };
+    skipSpace();
+    if (dt[p] === '%') {
+      i = dt.indexOf('<!ENTITY', p);
+      continue;
+    }
+    const nameStart = p;
+    while (p < n && !/[\s"'>]/.test(dt[p])) p++;
+    const name = dt.slice(nameStart, p);
+    skipSpace();
+    const quote = dt[p];
+    if (name && (quote === '"' || quote === "'")) {
+      const end = dt.indexOf(quote, p + 1);
+      if (end < 0) break; // unterminated: the XML parser reports the document as malformed
+      const value = dt.slice(p + 1, end);
+      if (out.length >= MAX_XML_ENTITIES) {
+        throw new DrawingError(`the SVG file's document type declares more than ${MAX_XML_ENTITIES} entities`, 'export the drawing again as plain SVG without a document type');
+      }
+      if (value.length > MAX_XML_ENTITY_LENGTH) {
+        throw new DrawingError(`the entity "${name.slice(0, 40)}" declared in the SVG file's document type is ${value.length.toLocaleString('en-US')} characters long, more than ${MAX_XML_ENTITY_LENGTH.toLocaleString('en-US')}`, 'export the drawing again as plain SVG without a document type');
+      }
+      if (/^[A-Za-z_:][\w.:-]*$/.test(name) && !value.includes('&')) out.push([name, value]);
+      p = end + 1;
+    }
+    i = dt.indexOf('<!ENTITY', p);
+  }
+  return out;
 }
 
 const ABSOLUTE_CSS: Record<string, number> = {
@@ -234,18 +303,21 @@ export function readSvg(text: string, opts: ReadOptions): ReadDrawing {
   const pieces: Piece[] = [];
   const keysSeen = new Set<string>();
   const byId = new Map<string, XmlElement>();
-  const index = (el: XmlElement) => {
+  // An explicit stack: the tree may be as deep as MAX_XML_DEPTH.
+  for (const todo = [root]; todo.length; ) {
+    const el = todo.pop()!;
     const id = el.attrs.get('id');
     if (id && !byId.has(id)) byId.set(id, el);
-    el.children.forEach(index);
-  };
-  index(root);
+    for (let k = el.children.length - 1; k >= 0; k--) todo.push(el.children[k]);
+  }
   const ignore = new Set(opts.ignore);
   const skipped = new Map<string, number>();
   const note = (what: string) => skipped.set(what, (skipped.get(what) ?? 0) + 1);
+  const budget = new ExpansionBudget('elements', 'that a <use> makes');
 
   const walk = (el: XmlElement, ctm: Affine, inherited: string[], depth: number, isRoot: boolean) => {
     if (el.uri !== SVG_NS && el.uri !== '') return; // editor data (Inkscape's namedview and the like)
+    budget.chargeItem(() => describe(el));
     if (depth > 64) throw new DrawingError(`${describe(el)}: elements nested more than 64 deep (a <use> that refers to itself?)`, 'remove the loop of references');
     if (SKIP.has(el.local)) return;
     if (hidden(el)) {
@@ -288,6 +360,7 @@ export function readSvg(text: string, opts: ReadOptions): ReadDrawing {
       throw new DrawingError(`${describe(el)}: <${el.local}> elements are not supported`, `draw the profile with path, rect, circle, ellipse, line, polyline and polygon, or leave this element out with "ignore"`);
     }
     const local = shapePieces(el);
+    budget.chargeCurves(local.reduce((k, lp) => k + lp.curves.length, 0), () => describe(el));
     for (const lp of local) {
       const curves: DrawnCurve[] = [];
       for (const c of lp.curves) {
