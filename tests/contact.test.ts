@@ -55,7 +55,8 @@ describe('rigid pin in a lug, close fit', () => {
   it('has the same contact arc and Kt whatever the size of the load', () => {
     expect(Array.from(only(large).active)).toEqual(Array.from(only(small).active));
     expect(ktOf(large).net! / ktOf(small).net! - 1).toBeLessThan(1e-9);
-    expect(Math.abs(large.peak.x - small.peak.x)).toBeLessThan(1e-9 * d);
+    // the same place, to the search's resolution along the hole's edge
+    expect(Math.abs(large.peak.x - small.peak.x)).toBeLessThan(1e-6 * d);
     // displacements scale with the load
     expect(only(large).displacement[0] / only(small).displacement[0] / 1000 - 1).toBeLessThan(1e-9);
   });

@@ -31,13 +31,13 @@ describe('raiser probe', () => {
     expect(j.points[2].sxx).toBeNull();
   });
 
-  it('reads the nodal value exactly at a node (nodes.csv)', () => {
+  it('reads the nodal value at a node (nodes.csv, whose coordinates are rounded to their printed digits)', () => {
     const rows = readFileSync(join(dir, 'nodes.csv'), 'utf8').trim().split('\n').slice(1).map((l) => l.split(',').map(Number));
     const row = rows[Math.floor(rows.length / 2)];
     const r = raiser(['probe', dir, '--at', `${row[1]},${row[2]}`, '--json']);
     const p = JSON.parse(r.stdout).points[0];
-    expect(Math.abs(p.sxx - row[5])).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(row[5])));
-    expect(Math.abs(p.ux - row[3])).toBeLessThanOrEqual(1e-12 + 1e-9 * Math.abs(row[3]));
+    expect(Math.abs(p.sxx - row[5])).toBeLessThanOrEqual(1e-5 * Math.max(1, Math.abs(row[5])));
+    expect(Math.abs(p.ux - row[3])).toBeLessThanOrEqual(1e-5 * Math.max(1e-3, Math.abs(row[3])));
   });
 
   it('samples a line evenly, as a table and as CSV', () => {

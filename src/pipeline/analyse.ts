@@ -339,8 +339,9 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
     mirrorEdge[e] = supports.hold[e] === HOLD_MIRROR ? 1 : 0;
     edgeRole[e] = supports.hold[e] !== HOLD_FREE && supports.hold[e] !== HOLD_MIRROR ? 1 : loads.loaded[e] ? 2 : 0;
   }
-  // A rigid pin in its hole is modelled as it is: its hole is neither held nor loaded in the sense of an idealised edge.
-  for (const p of supports.pins) if (p.kind === 'rigid-pin') for (const e of p.edges) edgeRole[e] = 0;
+  // A pin in its hole (a rigid pin in contact, or the bearing pressure with its own account in
+  // the pins' results) is modelled as a pin: its hole is not an idealised held or loaded edge.
+  for (const p of supports.pins) for (const e of p.edges) edgeRole[e] = 0;
   const evaluation = evaluateMesh({
     domain,
     mesh,
@@ -357,6 +358,7 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
     remote: loads.remote ?? prep.extraRemote,
     direction: model.results?.direction,
     given: withBearing(prep, pins, contact, model.thickness),
+    always: [...(prep.named >= 0 ? [prep.named] : []), ...(prep.reported ?? [])],
     units: { stress: units.stress },
   });
   const y = model.material.yield;

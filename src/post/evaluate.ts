@@ -29,6 +29,9 @@ export interface MeshEvaluation {
   candidateSize: number[];
 }
 
+/** The most raisers given a section and Kt on one mesh (our choice; the rest report their peaks). */
+export const MAX_EVALUATED = 40;
+
 export interface EvaluateInput {
   domain: Domain;
   mesh: Mesh;
@@ -47,6 +50,8 @@ export interface EvaluateInput {
   direction?: readonly [number, number];
   /** per raiser index, what the model gives for its nominal stress */
   given: ReadonlyMap<number, RaiserNominalInput>;
+  /** raisers to evaluate whatever their peak (the one named as headline, those named to report) */
+  always?: readonly number[];
   units: { stress: string };
 }
 
@@ -96,6 +101,13 @@ export function evaluateMesh(input: EvaluateInput): MeshEvaluation {
     edgeRole: input.edgeRole,
     units: input.units,
   };
+  // Sections and Kt for the raisers that matter: the MAX_EVALUATED highest peaks and every one
+  // the model names; a part of thousands of holes would otherwise search thousands of sections.
+  const order = peaks.map((_p, i) => i).sort((a, b) => Math.abs(peaks[b].stress) - Math.abs(peaks[a].stress));
+  const evaluated = new Set<number>(order.slice(0, MAX_EVALUATED));
+  for (const i of input.given.keys()) evaluated.add(i);
+  for (const i of input.always ?? []) evaluated.add(i);
+  const cut = order.length > MAX_EVALUATED ? Math.abs(peaks[order[MAX_EVALUATED - 1]].stress) : 0;
   const out: RaiserEvaluation[] = raisers.map((raiser, i) => {
     const peak = peaks[i];
     // At a candidate: the peak within two elements of it (the elements there set the reach).
@@ -108,12 +120,28 @@ export function evaluateMesh(input: EvaluateInput): MeshEvaluation {
         atCandidate = k;
       }
     });
-    const kt = evaluateRaiserKt(ctx, raiser, peak, input.given.get(i));
+    const kt: RaiserKt = evaluated.has(i)
+      ? evaluateRaiserKt(ctx, raiser, peak, input.given.get(i))
+      : {
+          flow: [1, 0],
+          section: null,
+          vRaiser: NaN,
+          sectionGiven: false,
+          loads: null,
+          gross: null,
+          kt: [{ kind: 'net', value: null, nominal: NaN, definition: 'not evaluated', withheld: `not evaluated: only the ${MAX_EVALUATED} raisers with the highest peaks (down to ${Number(cut.toPrecision(4))}) get sections and Kt; name this one in results.raisers or results.nominal to have it` }],
+          warnings: [],
+        };
     const held = raiser.edges.some((e) => input.edgeRole[e] === 1);
     const loaded = raiser.edges.some((e) => input.edgeRole[e] === 2);
-    if (held || loaded) {
+    if (held) {
+      // A rigid hold on the raiser's own edge: the peak sits on an idealised support, where the
+      // recovered stress has no known traction to lean on and converges slowly. No Kt.
+      const why = `${raiser.name} is held rigidly on its own edge: its peak sits on an idealised support, not on a free edge, and no Kt of it means what a chart's does; hold it with a pin in contact ("rigid-pin") for its Kt`;
+      for (const k of kt.kt) if (k.value !== null) Object.assign(k, { value: null, withheld: why });
+    } else if (loaded) {
       kt.warnings.push(
-        `${raiser.name} is ${held ? 'held by a support' : 'loaded'} on its own edge: its peak depends on how that ${held ? 'support' : 'load'} is idealised (${held ? 'a rigid hold' : 'a load spread over the edge as given'}), not only on its shape; model the pin, bolt or contact as it is before trusting its Kt`,
+        `${raiser.name} is loaded on its own edge: its peak depends on how that load is idealised (spread over the edge as given), not only on its shape; for a pin, model it as one ("bearing" or "rigid-pin") before trusting its Kt`,
       );
     }
     return { raiser, peak, atCandidate, ...kt };

@@ -59,16 +59,28 @@ export function flowDirection(sxx: number, syy: number, sxy: number, measure: st
 
 export class RaiserCutFinder {
   private readonly cache = new Map<string, RaiserCut[]>();
+  /** directions square to the outline's longer straight edges, one per 0.1 degree */
   private readonly straightNormals: number[] = [];
+  /** convex corners by their two edges, "in:out" */
+  private readonly convex = new Set<string>();
 
   constructor(
     private readonly domain: Domain,
     private readonly thickness: number,
   ) {
+    // Only edges of at least 1% of the part count: a curve drawn as many short segments
+    // would otherwise add a direction per segment.
+    const seen = new Set<number>();
     for (const id of domain.loops[0].edges) {
       const c = domain.edges[id].curve;
-      if (c.kind === 'line') this.straightNormals.push(Math.atan2(c.x1 - c.x0, -(c.y1 - c.y0)));
+      if (c.kind !== 'line' || Math.hypot(c.x1 - c.x0, c.y1 - c.y0) < 0.01 * domain.scale) continue;
+      const a = mod(Math.atan2(c.x1 - c.x0, -(c.y1 - c.y0)), Math.PI);
+      const key = Math.round(a / ((0.1 * Math.PI) / 180));
+      if (seen.has(key)) continue;
+      seen.add(key);
+      this.straightNormals.push(a);
     }
+    for (const c of domain.corners) if (c.materialAngle < Math.PI) this.convex.add(`${c.edgeIn}:${c.edgeOut}`);
   }
 
   /**
@@ -94,11 +106,13 @@ export class RaiserCutFinder {
     const samples = raiserSamples(this.domain, raiser);
     const angles: number[] = [];
     for (let k = -8; k <= 8; k++) angles.push(base + (k * CUT_TURN) / 8);
-    const aligned: number[] = [];
-    for (const a of this.straightNormals) {
-      const d = wrap(a - base);
-      if (Math.abs(d) <= CUT_TURN && !aligned.some((b) => Math.abs(wrap(b - (base + d))) < 1e-12)) aligned.push(base + d);
-    }
+    // The directions square to straight edges within reach, nearest the flow's normal first, at
+    // most 16 (a part of many edges at many angles is searched by the even scan).
+    const aligned = this.straightNormals
+      .map((a) => base + wrap(a - base))
+      .filter((a) => Math.abs(a - base) <= CUT_TURN)
+      .sort((p, q) => Math.abs(p - base) - Math.abs(q - base))
+      .slice(0, 16);
     angles.push(...aligned);
     type Best = { L: number; dist: number; angle: number; u: number; rc: Omit<RaiserCut, 'aligned'> };
     const better = (a: Best, b: Best | null) => !b || a.L < b.L * (1 - 1e-9) || (a.L <= b.L * (1 + 1e-9) && a.dist < b.dist);
@@ -180,6 +194,14 @@ export class RaiserCutFinder {
     return out;
   }
 
+  /**
+   * True when a single ligament ends on two consecutive edges of one loop that meet at a convex
+   * corner: the line only cuts that corner off, and the piece it separates carries nothing.
+   */
+  private clipsCorner(e0: number, e1: number): boolean {
+    return e0 >= 0 && e1 >= 0 && (this.convex.has(`${e0}:${e1}`) || this.convex.has(`${e1}:${e0}`));
+  }
+
   /** The cut along the line o + v e that meets the raiser in material, the meeting nearest o. */
   private cutTouching(raiser: Raiser, ox: number, oy: number, ex: number, ey: number): Omit<RaiserCut, 'aligned'> | null {
     const st = stretchesAlongLine(this.domain, ox, oy, ex, ey);
@@ -212,7 +234,7 @@ export class RaiserCutFinder {
           }
         }
       }
-      if (touchAbs < bestAbs && !(i === j && clipsCorner(this.domain, st[i].edge0, st[i].edge1))) {
+      if (touchAbs < bestAbs && !(i === j && this.clipsCorner(st[i].edge0, st[i].edge1))) {
         bestAbs = touchAbs;
         best = { cut: makeCut(ox, oy, ex, ey, lig, edges, this.thickness), vRaiser: touch };
       }
@@ -233,18 +255,6 @@ function crossesSquarely(domain: Domain, edge: number, t: number, ex: number, ey
 }
 
 const TAN = [0, 0];
-
-/**
- * True when a single ligament ends on two consecutive edges of one loop that meet at a convex
- * corner: the line only cuts that corner off, and the piece it separates carries nothing.
- */
-function clipsCorner(domain: Domain, e0: number, e1: number): boolean {
-  if (e0 < 0 || e1 < 0 || e0 === e1) return false;
-  const a = domain.edges[e0];
-  const b = domain.edges[e1];
-  if (a.loop !== b.loop) return false;
-  return domain.corners.some((c) => c.materialAngle < Math.PI && ((c.edgeIn === e0 && c.edgeOut === e1) || (c.edgeIn === e1 && c.edgeOut === e0)));
-}
 
 /** Points along the raiser's edges, x, y pairs (17 per edge). */
 function raiserSamples(domain: Domain, raiser: Raiser): number[] {

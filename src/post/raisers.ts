@@ -111,7 +111,8 @@ export function matchRaisers(raisers: readonly Raiser[], name: string): Raiser[]
 export function findRaiserPeaks(mesh: Mesh, raisers: readonly Raiser[], stress: Float64Array, measure: StressMeasure, szzFactor: number): RaiserPeak[] {
   const field = measureField(stress, measure, szzFactor);
   const sign = measure === 'min-principal' ? -1 : 1;
-  const nDomainEdges = raisers.reduce((m, r) => Math.max(m, ...r.edges), -1) + 1;
+  let nDomainEdges = 0;
+  for (const r of raisers) for (const e of r.edges) nDomainEdges = Math.max(nDomainEdges, e + 1);
   const owner = new Int32Array(Math.max(nDomainEdges, 1)).fill(-1);
   for (const r of raisers) for (const e of r.edges) owner[e] = r.index;
   const segOwner = (s: number) => {

@@ -83,6 +83,13 @@ export function growsUnderRefinement(sizes: readonly number[], values: readonly 
   return g.behaviour === 'diverging' || (g.behaviour === 'monotone' && !(g.observedOrder >= 0.5 * order));
 }
 
+/** The largest of many values (a loop: spreading a long list into Math.max overflows the call stack). */
+function largest(values: readonly number[]): number {
+  let m = 0;
+  for (const v of values) if (v > m) m = v;
+  return m;
+}
+
 function fmt(v: number): string {
   return Number(v.toPrecision(4)).toString();
 }
@@ -149,11 +156,11 @@ export function settleSeries(series: readonly MeshEvaluation[], sizes: readonly 
     const ok = raisers.filter((r) => r.status === 'ok');
     for (const r of ok) if (r.primary !== null && (governing < 0 || mag(r.index) > mag(governing))) governing = r.index;
     if (governing < 0) {
-      const top = Math.max(0, ...raisers.map((r) => mag(r.index)), ...last.candidateStress.map(Math.abs));
+      const top = largest([...raisers.map((r) => mag(r.index)), ...last.candidateStress.map(Math.abs)]);
       for (const r of ok) if (mag(r.index) >= NEGLIGIBLE * top && (governing < 0 || mag(r.index) > mag(governing))) governing = r.index;
     }
   }
-  const reference = governing >= 0 ? Math.abs(last.raisers[governing].peak.stress) : Math.max(0, ...last.candidateStress.map(Math.abs));
+  const reference = governing >= 0 ? Math.abs(last.raisers[governing].peak.stress) : largest(last.candidateStress.map(Math.abs));
   const singular: SettledSingular[] = [];
   candidates.forEach((c, k) => {
     const stresses = series.map((m) => m.candidateStress[k]);

@@ -49,6 +49,8 @@ export function findSingularCandidates(domain: Domain, supports: CompiledSupport
     const h = supports.hold[id];
     return h === HOLD_FIXED || h === HOLD_SLIDE;
   };
+  const cornerOf = new Map<number, (typeof domain.corners)[number]>();
+  for (const c of domain.corners) cornerOf.set(c.edgeOut, c);
   for (const loop of domain.loops) {
     const n = loop.edges.length;
     for (let k = 0; k < n; k++) {
@@ -56,7 +58,7 @@ export function findSingularCandidates(domain: Domain, supports: CompiledSupport
       const eout = loop.edges[(k + 1) % n];
       evaluateCurve(domain.edges[eout].curve, 0, p);
       const [x, y] = p;
-      const corner = domain.corners.find((c) => c.edgeOut === eout);
+      const corner = cornerOf.get(eout);
       if (corner && corner.materialAngle > Math.PI + 1e-6) {
         out.push({ kind: 'sharp-corner', x, y, what: `the sharp re-entrant ${corner.label}`, fix: 'give the corner its real radius (every cut or machined inside corner has one) and solve again' });
         continue;
