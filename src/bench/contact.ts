@@ -68,7 +68,7 @@ export function benchContactLug(dof: number, clearance: number, runs: number): C
     const c = solveContact(mesh, system, supports.pins, { thickness: model.thickness, planeModulus: model.material.E }, options);
     const tc = performance.now() - t0;
     iterations = c.iterations;
-    if (process.env.RAISER_BENCH_VERBOSE) console.log(c.activeHistory.join(','));
+    if (process.env.RAISER_BENCH_VERBOSE) console.log(c.activeHistory.join(","), JSON.stringify(c.stats.seconds), tc.toFixed(0), tl.toFixed(0));
     if (r > 0) {
       linear.push(tl);
       contact.push(tc);

@@ -289,10 +289,15 @@ export function solveContact(
   };
   // With a hint from an earlier mesh of the same model, each pin starts on that solution's arc.
   const bonded = new Uint8Array(pins.length);
+  /** the Hertz half-angle a pushed pin started on (0: it started from a hint or bonded) */
+  const estimated = new Float64Array(pins.length);
   holes.forEach((h, pi) => {
     const hint = hints.get(pins[pi].path);
     if (hint && Math.hypot(hint.fx, hint.fy) > 0) seed(pi, hint.fx, hint.fy, hint.halfAngle);
-    else if (pins[pi].role === 'load') seed(pi, pins[pi].force[0], pins[pi].force[1]);
+    else if (pins[pi].role === 'load') {
+      estimated[pi] = estimatedHalfAngle(pins[pi], Math.hypot(pins[pi].force[0], pins[pi].force[1]), material);
+      seed(pi, pins[pi].force[0], pins[pi].force[1], estimated[pi]);
+    }
     else {
       active.fill(1, first[pi], first[pi] + h.nodes.length);
       bonded[pi] = 1;
@@ -445,6 +450,23 @@ export function solveContact(
     }
     if (changed === 0) break;
     if (iterations === 1) {
+      // A pushed pin started on the Hertz arc, which falls short as the arc widens (the
+      // half-space estimate ignores the hole's curvature): the first update overshoots by about
+      // as much, so it starts again half way between the two (measured on a lug with 1%
+      // clearance: 21, 33, 31, 29 contact nodes became 21, 27, 29). The active-set iteration
+      // converges from any start, so this only saves solves.
+      holes.forEach((h, pi) => {
+        if (bonded[pi] || !estimated[pi]) return;
+        const [fx, fy] = pins[pi].force;
+        const F = Math.hypot(fx, fy);
+        let widest = 0;
+        for (let i = 0; i < h.nodes.length; i++) {
+          if (!active[first[pi] + i]) continue;
+          const c = (h.normal[2 * i] * fx + h.normal[2 * i + 1] * fy) / F;
+          widest = Math.max(widest, Math.acos(Math.max(-1, Math.min(1, c))));
+        }
+        if (widest > estimated[pi]) seed(pi, fx, fy, 0.5 * (widest + estimated[pi]));
+      });
       // A fixed pin started bonded to its hole: start again on the estimated arc about the force it carries.
       holes.forEach((h, pi) => {
         if (!bonded[pi]) return;
