@@ -231,34 +231,3 @@ export function holeNodes(mesh: Mesh, pin: PinHole): HoleNodes {
 function fmt(v: number): string {
   return Number(v.toPrecision(6)).toString();
 }
-
-/**
- * The sums (sum fx^2, sum fx fy, sum fy^2) over the applied nodal forces f whose leading
- * eigenvector is the load axis (src/pipeline/analyse.ts), with the forces on the hole of each
- * pin load replaced by the pin's force: a pin's bearing or contact forces fan out over half of
- * its hole, and their spread across the force (large where the pressure peaks to the sides, as
- * in a narrow lug) would otherwise turn the axis away from the force.
- */
-export function forceMoments(f: Float64Array, mesh: Mesh, pins: readonly PinHole[]): [number, number, number] {
-  const onPin = new Set<number>();
-  for (const p of pins) if (p.role === 'load') for (const e of p.edges) onPin.add(e);
-  let a = 0;
-  let b = 0;
-  let c = 0;
-  for (let i = 0; i < f.length / 2; i++) {
-    if (onPin.has(mesh.nodeEdge[i])) continue;
-    const fx = f[2 * i];
-    const fy = f[2 * i + 1];
-    a += fx * fx;
-    b += fx * fy;
-    c += fy * fy;
-  }
-  for (const p of pins) {
-    if (p.role !== 'load') continue;
-    const [fx, fy] = p.force;
-    a += fx * fx;
-    b += fx * fy;
-    c += fy * fy;
-  }
-  return [a, b, c];
-}

@@ -112,7 +112,6 @@ export function reportHtml(src: PlotSource, png: Map<string, Buffer>): string {
   const c = r.convergence;
   const band = r.kt.error === null ? (r.kt.value === null ? '' : 'no error estimate (one mesh)') : `estimated error +-${pct(r.kt.error)}`;
   const headline = r.kt.value === null ? 'none' : f(r.kt.value, 4);
-  const bandRange = (b: [number, number] | null) => (b ? `${f(b[0], 5)} to ${f(b[1], 5)}` : '-');
   const parts: string[] = [];
   parts.push(`<header><p class="kind">Stress concentration report</p><h1>${esc(title)}</h1>
 <p>Model file ${esc(r.model.file ?? '(not from a file)')}; analysed ${esc(date)} by raiser ${esc(r.tool.version)}.</p>

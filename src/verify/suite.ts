@@ -10,7 +10,7 @@ import { buildDomain } from '../geometry/domain.js';
 import { selectEdges } from '../geometry/select.js';
 import type { TractionField } from '../fem/boundary-conditions.js';
 import { constitutiveMatrix } from '../fem/material.js';
-import { ktHoleInStripNet, ktOppositeSemicircularNotchesTension, ktOppositeUNotchesTension, ktSteppedBarBending, ktSteppedBarTension } from '../charts/formulas.js';
+import { ktHoleInStripNet, ktOppositeSemicircularNotchesTension, ktSteppedBarBending, ktSteppedBarTension } from '../charts/formulas.js';
 import { fatigueNotchFactor, neuberNotchSensitivity, neuberSqrtASteelSI } from '../charts/fatigue.js';
 import { parseModelText } from '../model/load.js';
 import type { Model } from '../model/schema.js';
