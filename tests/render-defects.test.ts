@@ -8,9 +8,11 @@ import { loadModelFile } from '../src/model/load.js';
 import { analyseModel } from '../src/pipeline/analyse.js';
 import { buildResult } from '../src/report/result.js';
 import { plotSource, type PlotSource } from '../src/report/saved.js';
-import { deformedScene } from '../src/report/pictures.js';
+import { contourScene, deformedScene, geometryScene, meshScene } from '../src/report/pictures.js';
+import { toModel, type View } from '../src/render/field.js';
+import { FieldProbe } from '../src/mesh/probe.js';
 import { Raster } from '../src/render/raster.js';
-import type { Scene } from '../src/render/scene.js';
+import type { Box, Scene } from '../src/render/scene.js';
 
 function solve(file: string): PlotSource {
   const { model } = loadModelFile(file);
@@ -46,5 +48,60 @@ describe('deformed shape: no white pixels inside the fill (link plate)', () => {
     const s = deformedScene(link);
     expect(layerHoles(s, 1)).toBe(0);
     expect(layerHoles(s, 2)).toBe(0);
+  });
+});
+
+const overlap = (a: Box, b: Box) => a[0] < b[2] && b[0] < a[2] && a[1] < b[3] && b[1] < a[3];
+
+/** The boxes of labels, markers and the scale bar (not the frame's title, footer or legend). */
+function annotationBoxes(s: Scene): { what: string; box: Box }[] {
+  return s.info.boxes.filter((b) => !['title', 'subtitle', 'footer', 'caution', 'legend'].includes(b.what));
+}
+
+/** Pixels of the box whose centre lies in the material of the part (drawn with the scene's view). */
+function partPixelsIn(src: PlotSource, view: View, b: Box): number {
+  const probe = new FieldProbe(src.mesh);
+  let n = 0;
+  for (let y = Math.floor(b[1]); y < Math.ceil(b[3]); y++) {
+    for (let x = Math.floor(b[0]); x < Math.ceil(b[2]); x++) {
+      const [mx, my] = toModel(view, x + 0.5, y + 0.5);
+      if (Number.isFinite(probe.value(src.stress, 3, 0, mx, my))) n++;
+    }
+  }
+  return n;
+}
+
+describe('labels, markers and the scale bar (L-bracket)', () => {
+  const bracket = solve('examples/bracket.json');
+  const sizes: [number, number][] = [
+    [1600, 1340],
+    [1200, 1000],
+    [900, 760],
+  ];
+
+  it('geometry picture: no label overlaps a marker or another label, at several sizes', () => {
+    for (const [width, height] of sizes) {
+      const s = geometryScene(bracket, { width, height });
+      const boxes = annotationBoxes(s);
+      expect(boxes.some((b) => b.what === 'peak marker')).toBe(true);
+      expect(boxes.some((b) => b.what.includes(': net '))).toBe(true);
+      for (let i = 0; i < boxes.length; i++) {
+        for (let j = i + 1; j < boxes.length; j++) {
+          expect(overlap(boxes[i].box, boxes[j].box), `${width}x${height}: "${boxes[i].what}" and "${boxes[j].what}"`).toBe(false);
+        }
+      }
+    }
+  });
+
+  it('contour, mesh, deformed and geometry pictures: the scale bar covers no pixel of the part', () => {
+    for (const [width, height] of [[1600, undefined], [1200, 800]] as [number, number | undefined][]) {
+      for (const scene of [contourScene, meshScene, deformedScene, geometryScene]) {
+        const s = scene(bracket, { width, height });
+        const bar = s.info.boxes.find((b) => b.what === 'scale bar');
+        expect(bar, `${s.title}: has a scale bar`).toBeDefined();
+        expect(partPixelsIn(bracket, s.info.view as View, bar!.box), `${s.title} at ${width}`).toBe(0);
+        for (const other of annotationBoxes(s)) if (other.what !== 'scale bar') expect(overlap(other.box, bar!.box), `${s.title}: scale bar and ${other.what}`).toBe(false);
+      }
+    }
   });
 });

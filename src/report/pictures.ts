@@ -9,12 +9,12 @@ import { join } from 'node:path';
 import type { StressMeasure } from '../model/schema.js';
 import { FieldProbe } from '../mesh/probe.js';
 import { stressMeasure } from '../post/stress.js';
-import { drawLabel, drawLegend, drawMarker, drawScaleBar, INK, SOFT } from '../render/annotate.js';
+import { boxesOverlap, drawLabel, drawLabelAvoiding, drawLegend, drawMarker, drawScaleBar, INK, markerBox, scaleBarBox, SOFT } from '../render/annotate.js';
 import { drawChart, type Series } from '../render/chart.js';
 import { DEFAULT_MAP } from '../render/colormap.js';
 import { capHeight, textWidth } from '../render/font.js';
 import { edgePolyline, fitView, fieldRange, isoSegments, meshEdgeLines, paintField, toPixel, type DrawMesh, type FieldSpec, type View } from '../render/field.js';
-import type { Rgb } from '../render/raster.js';
+import { Raster, type Rgb } from '../render/raster.js';
 import { addText, newScene, renderPng, renderSvg, type Box, type Scene } from '../render/scene.js';
 import { formatValue } from '../render/ticks.js';
 import { drawBoundaryConditions } from '../render/boundary-conditions.js';
@@ -193,6 +193,61 @@ function inflate(b: Box, d: number): Box {
   return [b[0] + d, b[1] + d, b[2] - d, b[3] - d];
 }
 
+/** Whether any pixel of the box is covered by the mask (a raster whose alpha marks what is drawn). */
+function maskCovers(mask: Raster, b: Box): boolean {
+  const x0 = Math.max(0, Math.floor(b[0]));
+  const x1 = Math.min(mask.width, Math.ceil(b[2]));
+  const y0 = Math.max(0, Math.floor(b[1]));
+  const y1 = Math.min(mask.height, Math.ceil(b[3]));
+  for (let y = y0; y < y1; y++) for (let x = x0; x < x1; x++) if (mask.data[4 * (y * mask.width + x) + 3] > 0) return true;
+  return false;
+}
+
+interface PartLayout {
+  view: View;
+  /** the left end of the scale bar's bar */
+  bar: [number, number];
+}
+
+/**
+ * The view of the part and the place of its scale bar, so that the bar never covers the part:
+ * the part fitted into the drawing area less `margin`, the bar in the first corner of the
+ * drawing area (lower left, lower right, upper left, upper right) where its box covers none of
+ * the part's loops (`loopsAt` gives them, in pixels, for a view) and none of the boxes drawn so
+ * far; when every corner is taken, the part is fitted above a strip kept for the bar.
+ */
+function layoutPart(s: Scene, fr: Frame, win: readonly number[], margin: number, unit: string, loopsAt: (v: View) => number[][]): PartLayout {
+  const d = fr.draw;
+  const size = fr.size * 0.9;
+  const maxPx = 0.22 * (d[2] - d[0]);
+  const inset = fr.size * 0.6;
+  const tryView = (view: View): [number, number] | null => {
+    const mask = new Raster(s.width, s.height, null);
+    mask.setClip(d);
+    mask.fillPath(loopsAt(view), INK);
+    const probe = scaleBarBox(0, 0, view.s, maxPx, unit, size).box;
+    const w = probe[2] - probe[0];
+    const h = probe[3] - probe[1];
+    const spots: [number, number][] = [
+      [d[0] + inset, d[3] - inset],
+      [d[2] - inset - w + size * 0.4, d[3] - inset],
+      [d[0] + inset, d[1] + inset + h - size * 0.6],
+      [d[2] - inset - w + size * 0.4, d[1] + inset + h - size * 0.6],
+    ];
+    for (const [x, y] of spots) {
+      const b = scaleBarBox(x, y, view.s, maxPx, unit, size).box;
+      if (!maskCovers(mask, b) && !s.info.boxes.some((t) => boxesOverlap(t.box, b))) return [x, y];
+    }
+    return null;
+  };
+  const view = fitView(win, inflate(d, margin));
+  const bar = tryView(view);
+  if (bar) return { view, bar };
+  const strip = capHeight(size) + size * 1.7 + inset;
+  const kept = fitView(win, inflate([d[0], d[1], d[2], d[3] - strip], margin));
+  return { view: kept, bar: [d[0] + inset, d[3] - inset] };
+}
+
 /** The stress contour of a measure with legend, peak, scale bar, iso-lines and (optionally) mesh lines. */
 export function contourScene(src: PlotSource, opts: PictureOptions = {}, title?: string): Scene {
   const W = opts.width ?? 1600;
@@ -209,7 +264,7 @@ export function contourScene(src: PlotSource, opts: PictureOptions = {}, title?:
   else dataRange[1] = Math.max(dataRange[1], peak.value);
   let range: [number, number] = opts.range ? [opts.range[0], opts.range[1]] : [dataRange[0], dataRange[1]];
   if (!(range[1] > range[0])) range = [range[0] - (Math.abs(range[0]) || 1) * 0.01, range[0] + (Math.abs(range[0]) || 1) * 0.01];
-  const view = fitView(win, inflate(fr.draw, fr.size * 0.8));
+  const { view, bar } = layoutPart(s, fr, win, fr.size * 0.8, src.result.units.length, (v) => outlineLoops(src, src.mesh.nodes, v));
   const scale = { lo: range[0], hi: range[1], map: DEFAULT_MAP };
   s.items.push({ kind: 'layer', paint: (r, k) => paintField(r, src.mesh, view, field, scale, k), clip: fr.draw });
   const legend = drawLegend(s, fr.legend!, [measureName(measure), unit], DEFAULT_MAP, range, dataRange, fr.size);
@@ -224,8 +279,8 @@ export function contourScene(src: PlotSource, opts: PictureOptions = {}, title?:
   s.items.push({ kind: 'stroke', lines: outlineLoops(src, src.mesh.nodes, view), closed: true, width: 1.8, colour: INK, clip: fr.draw });
   const [ppx, ppy] = toPixel(view, peak.x, peak.y);
   const inside = ppx >= fr.draw[0] && ppx <= fr.draw[2] && ppy >= fr.draw[1] && ppy <= fr.draw[3];
+  const sb = drawScaleBar(s, bar[0], bar[1], view.s, 0.22 * (fr.draw[2] - fr.draw[0]), src.result.units.length, fr.size * 0.9);
   if (inside) drawMarker(s, ppx, ppy, `peak ${formatValue(peak.value)} ${unit}`, fr.size, fr.draw, 'peak');
-  const sb = drawScaleBar(s, fr.draw[0] + fr.size * 0.6, fr.draw[3] - fr.size * 0.6, view.s, 0.22 * (fr.draw[2] - fr.draw[0]), src.result.units.length, fr.size * 0.9);
   Object.assign(s.info, { view, draw: fr.draw, range, dataRange, ticks: legend.ticks, bar: legend.bar, peak: inside ? [ppx, ppy] : null, peakValue: peak.value, measure, scaleBar: sb.length });
   return s;
 }
@@ -237,11 +292,11 @@ export function meshScene(src: PlotSource, opts: PictureOptions = {}): Scene {
   const r = src.result;
   const s = newScene(W, H, `mesh: ${r.model.title ?? 'raiser'}`);
   const fr = frame(s, src, `Mesh: ${r.model.title ?? ''}`.trim(), `${describeMesh(src)}, ${r.mesh.dofs} DOF, smallest angle ${formatValue(r.mesh.minAngleDeg, 3)} deg, largest ${formatValue(r.mesh.maxAngleDeg, 3)} deg`, false);
-  const view = fitView(opts.window ?? bbox(src.mesh.nodes), inflate(fr.draw, fr.size * 0.8));
+  const { view, bar } = layoutPart(s, fr, opts.window ?? bbox(src.mesh.nodes), fr.size * 0.8, r.units.length, (v) => outlineLoops(src, src.mesh.nodes, v));
   s.items.push({ kind: 'fill', paths: outlineLoops(src, src.mesh.nodes, view), colour: PLATE_FILL, clip: fr.draw });
   s.items.push({ kind: 'stroke', lines: meshEdgeLines(src.mesh, view), width: 0.7, colour: [40, 44, 56], alpha: 0.75, clip: fr.draw });
   s.items.push({ kind: 'stroke', lines: outlineLoops(src, src.mesh.nodes, view), closed: true, width: 1.8, colour: INK, clip: fr.draw });
-  drawScaleBar(s, fr.draw[0] + fr.size * 0.6, fr.draw[3] - fr.size * 0.6, view.s, 0.22 * (fr.draw[2] - fr.draw[0]), r.units.length, fr.size * 0.9);
+  drawScaleBar(s, bar[0], bar[1], view.s, 0.22 * (fr.draw[2] - fr.draw[0]), r.units.length, fr.size * 0.9);
   Object.assign(s.info, { view, draw: fr.draw });
   return s;
 }
@@ -262,7 +317,12 @@ export function deformedScene(src: PlotSource, opts: PictureOptions = {}): Scene
   const dm = drawMesh(src, factor);
   const dbox = bbox(dm.nodes);
   const all: [number, number, number, number] = opts.window ?? [Math.min(box[0], dbox[0]), Math.min(box[1], dbox[1]), Math.max(box[2], dbox[2]), Math.max(box[3], dbox[3])];
-  const view = fitView(all, inflate(fr.draw, fr.size * 0.8));
+  const factorText = `displacements x ${formatValue(factor, 3)}`;
+  // the factor's label is placed first, so that the scale bar keeps clear of it, and drawn last
+  const labelFrom = s.items.length;
+  drawLabel(s, factorText, fr.draw[2] - fr.size * 0.6, fr.draw[1] + fr.size * 1.6, fr.size, 'factor label', { anchor: 'end', weight: 'bold' });
+  const factorLabel = s.items.splice(labelFrom);
+  const { view, bar } = layoutPart(s, fr, all, fr.size * 0.8, unit, (v) => [...outlineLoops(src, src.mesh.nodes, v), ...outlineLoops(src, dm.nodes, v)]);
   const field: FieldSpec = { data: src.u, stride: 2, value: (c) => Math.hypot(c[0], c[1]) };
   const range: [number, number] = opts.range ?? [0, umax || 1];
   s.items.push({ kind: 'stroke', lines: outlineLoops(src, src.mesh.nodes, view), closed: true, width: 1.2, colour: SOFT, dash: [6, 4], clip: fr.draw });
@@ -270,8 +330,8 @@ export function deformedScene(src: PlotSource, opts: PictureOptions = {}): Scene
   if (opts.meshLines) s.items.push({ kind: 'stroke', lines: meshEdgeLines(dm, view), width: 0.6, colour: [20, 20, 28], alpha: 0.35, clip: fr.draw });
   s.items.push({ kind: 'stroke', lines: outlineLoops(src, dm.nodes, view), closed: true, width: 1.8, colour: INK, clip: fr.draw });
   drawLegend(s, fr.legend!, ['displacement', `magnitude (${unit})`], DEFAULT_MAP, range, [0, umax], fr.size);
-  drawLabel(s, `displacements x ${formatValue(factor, 3)}`, fr.draw[2] - fr.size * 0.6, fr.draw[1] + fr.size * 1.6, fr.size, 'factor label', { anchor: 'end', weight: 'bold' });
-  drawScaleBar(s, fr.draw[0] + fr.size * 0.6, fr.draw[3] - fr.size * 0.6, view.s, 0.22 * (fr.draw[2] - fr.draw[0]), unit, fr.size * 0.9);
+  s.items.push(...factorLabel);
+  drawScaleBar(s, bar[0], bar[1], view.s, 0.22 * (fr.draw[2] - fr.draw[0]), unit, fr.size * 0.9);
   Object.assign(s.info, { view, draw: fr.draw, factor, umax });
   return s;
 }
@@ -339,7 +399,10 @@ export function geometryScene(src: PlotSource, opts: PictureOptions = {}): Scene
   const bcWords = domain ? 'loads L (arrows, not to scale) and supports S' : 'loads and supports not drawn (the drawing the geometry came from could not be read again)';
   const fr = frame(s, src, `Geometry and nominal sections: ${r.model.title ?? ''}`.trim(), `each raiser's net section (least material across the flow) solid, gross section dashed; ${bcWords}; lengths in ${r.units.length}`, false);
   // room around the plate for the load arrows (2.6 sizes) and their labels
-  const view = fitView(opts.window ?? bbox(src.mesh.nodes), inflate(fr.draw, fr.size * 4.4));
+  const { view, bar } = layoutPart(s, fr, opts.window ?? bbox(src.mesh.nodes), fr.size * 4.4, r.units.length, (v) => outlineLoops(src, src.mesh.nodes, v));
+  // The peak's ring is kept free of the section labels placed before it is drawn.
+  const [px, py] = toPixel(view, r.peak.x, r.peak.y);
+  s.info.boxes.push({ what: 'peak marker', box: markerBox(px, py, fr.size * 0.9) });
   s.items.push({ kind: 'fill', paths: outlineLoops(src, src.mesh.nodes, view), colour: PLATE_FILL, clip: fr.draw });
   s.items.push({ kind: 'stroke', lines: outlineLoops(src, src.mesh.nodes, view), closed: true, width: 1.8, colour: INK, clip: fr.draw });
   type Sec = { ligaments: { from: [number, number]; to: [number, number] }[]; from: [number, number]; to: [number, number] };
@@ -349,7 +412,19 @@ export function geometryScene(src: PlotSource, opts: PictureOptions = {}): Scene
     const [ax, ay] = toPixel(view, c.from[0], c.from[1]);
     const [bx, by] = toPixel(view, c.to[0], c.to[1]);
     const end = below ? (ay > by ? [ax, ay] : [bx, by]) : ay < by ? [ax, ay] : [bx, by];
-    drawLabel(s, label, end[0], end[1] + (below ? fr.size * 1.6 : -fr.size * 0.6), fr.size * 0.9, `${label} label`, { anchor: 'middle', colour });
+    const other = end[0] === ax && end[1] === ay ? [bx, by] : [ax, ay];
+    const ls = fr.size * 0.9;
+    // beside the chosen end of the section, then beside the other end, then nudged along
+    const places: [number, number][] = [];
+    for (const [ex, ey, dn] of [
+      [end[0], end[1], below ? 1 : -1],
+      [other[0], other[1], below ? -1 : 1],
+    ]) {
+      const y = ey + (dn > 0 ? fr.size * 1.6 : -fr.size * 0.6);
+      for (const k of [0, 1, -1, 2, -2, 3, -3]) places.push([ex + k * 4 * ls, y]);
+      places.push([ex, y + dn * ls * 1.6], [ex, y + dn * ls * 3.2]);
+    }
+    drawLabelAvoiding(s, label, places, ls, fr.draw, `${label} label`, { anchor: 'middle', colour });
   };
   // Each raiser's sections; the governing one's labels name it.
   for (const x of r.raisers) {
@@ -359,9 +434,8 @@ export function geometryScene(src: PlotSource, opts: PictureOptions = {}): Scene
     sec(x.section, NET_COLOUR, undefined, `${x.name}: net ${formatValue(x.section.length)} ${r.units.length}; ${carried}`, false);
   }
   const drawn = domain ? drawBoundaryConditions(s, src.mesh, domain, src.model.loads, src.model.supports, view, fr.size, r.pins?.items) : { loads: 0, supports: 0 };
-  const [px, py] = toPixel(view, r.peak.x, r.peak.y);
+  drawScaleBar(s, bar[0], bar[1], view.s, 0.22 * (fr.draw[2] - fr.draw[0]), r.units.length, fr.size * 0.9);
   drawMarker(s, px, py, `peak, ${r.peak.feature}`, fr.size * 0.9, fr.draw, 'peak');
-  drawScaleBar(s, fr.draw[0] + fr.size * 0.6, fr.draw[3] - fr.size * 0.6, view.s, 0.22 * (fr.draw[2] - fr.draw[0]), r.units.length, fr.size * 0.9);
   Object.assign(s.info, { view, draw: fr.draw, boundaryConditions: drawn });
   return s;
 }
