@@ -8,7 +8,14 @@ import { loadModelFile } from '../src/model/load.js';
 import { analyseModel } from '../src/pipeline/analyse.js';
 import { buildResult } from '../src/report/result.js';
 import { plotSource, type PlotSource } from '../src/report/saved.js';
-import { contourScene, deformedScene, geometryScene, meshScene } from '../src/report/pictures.js';
+import { CAUTION_LINE, contourScene, deformedScene, geometryScene, meshScene } from '../src/report/pictures.js';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { expandTemplate } from '../src/model/templates.js';
+import { runSweep } from '../src/sweep/run.js';
+import { parseVary } from '../src/sweep/cases.js';
+import { runMesh } from '../src/cli/mesh.js';
 import { toModel, type View } from '../src/render/field.js';
 import { FieldProbe } from '../src/mesh/probe.js';
 import { Raster } from '../src/render/raster.js';
@@ -103,5 +110,38 @@ describe('labels, markers and the scale bar (L-bracket)', () => {
         for (const other of annotationBoxes(s)) if (other.what !== 'scale bar') expect(overlap(other.box, bar!.box), `${s.title}: scale bar and ${other.what}`).toBe(false);
       }
     }
+  });
+});
+
+/** The texts of an SVG written by renderSvg (each text is a path with its words in aria-label). */
+function svgTexts(svg: string): string[] {
+  return [...svg.matchAll(/aria-label="([^"]*)"/g)].map((m) => m[1].replace(/&quot;/g, '"').replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&amp;/g, '&'));
+}
+
+describe('sweep chart: titled by the family swept, with the footer', () => {
+  it('a sweep of d/W from 0.1 to 0.5 is not titled by one case (d/W = 0.2), and carries model, date and caution', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'raiser-sweep-'));
+    const file = join(dir, 'hole.json');
+    writeFileSync(file, JSON.stringify(expandTemplate('plate-with-hole', { W: 100, d: 20 })));
+    await runSweep(file, { vary: [parseVary('d=10:50:2')], outDir: join(dir, 'out'), jobs: 1, singleMesh: true });
+    const texts = svgTexts(readFileSync(join(dir, 'out', 'sweep.svg'), 'utf8'));
+    const title = texts[0];
+    expect(title).toMatch(/^Kt against d\/W: /);
+    expect(title).not.toContain('d/W = 0.2');
+    expect(texts.join('\n')).toContain('d from 10 to 50');
+    expect(texts.join('\n')).toContain('d/W 0.1 to 0.5');
+    expect(texts.some((t) => t.includes(file) && /raiser \d+\.\d+\.\d+/.test(t) && /\d{4}-\d\d-\d\d/.test(t))).toBe(true);
+    expect(texts).toContain(CAUTION_LINE);
+  }, 60000);
+});
+
+describe('mesh preview (raiser mesh -o): footer and scale bar', () => {
+  it('carries the model, date and caution line, and a scale bar below the part', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'raiser-mesh-'));
+    runMesh('examples/bracket.json', { out: dir });
+    const texts = svgTexts(readFileSync(join(dir, 'mesh-preview.svg'), 'utf8'));
+    expect(texts.some((t) => t.includes('examples/bracket.json') && /raiser \d+\.\d+\.\d+/.test(t) && /\d{4}-\d\d-\d\d/.test(t))).toBe(true);
+    expect(texts).toContain(CAUTION_LINE);
+    expect(texts.some((t) => /^\d+(\.\d+)? mm$/.test(t))).toBe(true);
   });
 });

@@ -21,6 +21,7 @@ import { drawBoundaryConditions } from '../render/boundary-conditions.js';
 import { buildDomain } from '../geometry/domain.js';
 import { writeAtomic } from './files.js';
 import type { PlotSource } from './saved.js';
+import { TOOL_VERSION } from './result.js';
 
 export interface PictureOptions {
   /** picture size in pixels (default 1600 x 1000) */
@@ -117,8 +118,16 @@ export interface Frame {
   legend: Box | null;
 }
 
+/** What a picture drawn from no saved solution (a sweep's chart) names in its footer. */
+export interface FooterSource {
+  /** the model: its title and file */
+  model: string;
+  /** when the data were made, ISO 8601 */
+  createdAt: string;
+}
+
 /** Title, subtitle and footer (model, date, caution); returns the drawing area and legend column. */
-export function frame(s: Scene, src: PlotSource | null, title: string, subtitle: string, withLegend: boolean): Frame {
+export function frame(s: Scene, src: PlotSource | FooterSource | null, title: string, subtitle: string, withLegend: boolean): Frame {
   const W = s.width;
   const H = s.height;
   const size = Math.max(11, Math.min(22, Math.min(W / 1.6, H) / 58));
@@ -127,10 +136,10 @@ export function frame(s: Scene, src: PlotSource | null, title: string, subtitle:
   addText(s, subtitle, m, m + capHeight(size * 1.35) + size * 1.6, size, SOFT, { what: 'subtitle' });
   const top = m + capHeight(size * 1.35) + size * 2.6;
   const fs = size * 0.82;
-  const r = src?.result;
-  const model = r ? `${r.model.title ?? 'untitled model'}${r.model.file ? ` (${r.model.file})` : ''}` : '';
+  const r = src && 'result' in src ? src.result : null;
+  const model = r ? `${r.model.title ?? 'untitled model'}${r.model.file ? ` (${r.model.file})` : ''}` : src && 'model' in src && typeof src.model === 'string' ? src.model : '';
   const date = src ? src.createdAt.slice(0, 10) : '';
-  const foot1 = [model, `raiser ${r?.tool.version ?? ''}`.trim(), date].filter(Boolean).join('  |  ');
+  const foot1 = [model, `raiser ${r?.tool.version ?? TOOL_VERSION}`, date].filter(Boolean).join('  |  ');
   const y2 = H - m * 0.8;
   const y1 = y2 - fs * 1.45;
   addText(s, fit(foot1, fs, W - 2 * m), m, y1, fs, SOFT, { what: 'footer' });
