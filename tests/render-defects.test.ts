@@ -16,9 +16,12 @@ import { expandTemplate } from '../src/model/templates.js';
 import { runSweep } from '../src/sweep/run.js';
 import { parseVary } from '../src/sweep/cases.js';
 import { runMesh } from '../src/cli/mesh.js';
-import { toModel, type View } from '../src/render/field.js';
+import { toModel, toPixel, type View } from '../src/render/field.js';
 import { FieldProbe } from '../src/mesh/probe.js';
 import { Raster } from '../src/render/raster.js';
+import { PNG } from 'pngjs';
+import { renderPng } from '../src/render/scene.js';
+import { colourAt, DEFAULT_MAP } from '../src/render/colormap.js';
 import type { Box, Scene } from '../src/render/scene.js';
 
 function solve(file: string): PlotSource {
@@ -143,5 +146,98 @@ describe('mesh preview (raiser mesh -o): footer and scale bar', () => {
     expect(texts.some((t) => t.includes('examples/bracket.json') && /raiser \d+\.\d+\.\d+/.test(t) && /\d{4}-\d\d-\d\d/.test(t))).toBe(true);
     expect(texts).toContain(CAUTION_LINE);
     expect(texts.some((t) => /^\d+(\.\d+)? mm$/.test(t))).toBe(true);
+  });
+});
+
+describe('a quarter model is drawn as the whole part (plate with a central hole, d/W = 0.2)', () => {
+  const model = expandTemplate('plate-with-hole', { W: 100, d: 20 });
+  const a = analyseModel(model);
+  const quarter = plotSource(a, buildResult(a, 'hole.json'), '2024-05-06T07:08:09Z');
+
+  it('the result records the two mirror planes its symmetry supports hold', () => {
+    const planes = (quarter.result.mirrorPlanes ?? []).map((p) => [p.axis, p.at]);
+    expect(planes.sort()).toEqual([['x', 0], ['y', 0]]);
+  });
+
+  for (const measure of ['max-principal', 'sxy'] as const) {
+    it(`contour of ${measure}: four hole quadrants, colours mirror-symmetric (sxy mirrored with its sign changed)`, () => {
+      const s = contourScene(quarter, { width: 1200, height: 600, iso: false, measure });
+      const png = PNG.sync.read(renderPng(s).toPng());
+      const info = s.info as unknown as { view: View; draw: Box; range: [number, number] };
+      const at = (x: number, y: number): [number, number, number] => {
+        const o = 4 * (Math.round(y) * png.width + Math.round(x));
+        return [png.data[o], png.data[o + 1], png.data[o + 2]];
+      };
+      const white = (c: number[]) => c[0] > 250 && c[1] > 250 && c[2] > 250;
+      const [cx, cy] = toPixel(info.view, 0, 0);
+      const r = 10 * info.view.s;
+      // inside the hole (half its radius from the centre) background, and material beyond it, in each quadrant
+      for (const [sx, sy] of [[1, 1], [-1, 1], [1, -1], [-1, -1]]) {
+        expect(white(at(cx + sx * 0.35 * r, cy + sy * 0.35 * r))).toBe(true);
+        expect(white(at(cx + sx * 1.6 * r, cy + sy * 1.6 * r)), `material in quadrant ${sx}, ${sy}`).toBe(false);
+      }
+      // mirror symmetry of the colours about both planes, away from the labels and the plane lines
+      const keepOut = s.info.boxes.filter((b) => !['title', 'subtitle', 'footer', 'caution', 'legend'].includes(b.what)).map((b) => b.box);
+      const free = (x: number, y: number) => !keepOut.some((b) => x >= b[0] - 2 && x <= b[2] + 2 && y >= b[1] - 2 && y <= b[3] + 2) && Math.abs(x - cx) > 3 && Math.abs(y - cy) > 3;
+      const colourOf = (v: number) => colourAt(DEFAULT_MAP, (v - info.range[0]) / (info.range[1] - info.range[0]));
+      let compared = 0;
+      let differing = 0;
+      const diffs: number[] = [];
+      for (let y = Math.ceil(info.draw[1]) + 2; y < cy; y += 3) {
+        for (let x = Math.ceil(info.draw[0]) + 2; x < cx; x += 3) {
+          // the pixel whose centre is the mirror image of this one's centre
+          const mx = Math.floor(2 * cx - (x + 0.5));
+          const my = Math.floor(2 * cy - (y + 0.5));
+          if (mx >= info.draw[2] || my >= info.draw[3] || !free(x, y) || !free(mx, y) || !free(x, my) || !free(mx, my)) continue;
+          const p = at(x, y);
+          if (white(p)) continue;
+          for (const q of [at(mx, y), at(x, my), at(mx, my)]) {
+            const d = Math.max(...[0, 1, 2].map((k) => Math.abs(p[k] - q[k])));
+            diffs.push(d);
+            if (d > 24) differing++;
+          }
+          compared++;
+        }
+      }
+      expect(compared).toBeGreaterThan(2000);
+      diffs.sort((p, q) => p - q);
+      if (measure === 'sxy') {
+        // sxy is odd under reflection: the colour at a mirrored point is the colour of -sxy there
+        const probe = new FieldProbe(quarter.mesh);
+        let best = 1.3;
+        let bv = 0;
+        for (let f = 1.3; f <= 2.5; f += 0.1) {
+          const [x, y] = toModel(info.view, cx + f * r, cy - f * r);
+          const v = probe.value(quarter.stress, 3, 2, x, y);
+          if (Math.abs(v) > Math.abs(bv)) [best, bv] = [f, v];
+        }
+        const v = bv;
+        expect(Math.abs(v)).toBeGreaterThan(0.05 * (info.range[1] - info.range[0]));
+        for (const [sx, sy, sign] of [[1, -1, 1], [-1, -1, -1], [1, 1, -1], [-1, 1, 1]]) {
+          const c = at(cx + sx * best * r, cy + sy * best * r);
+          const want = colourOf(sign * v);
+          expect(Math.max(...[0, 1, 2].map((k) => Math.abs(c[k] - want[k]))), `quadrant ${sx}, ${sy}`).toBeLessThanOrEqual(6);
+        }
+      }
+      else {
+        // an invariant measure: the picture is its own mirror image but for antialiased edges
+        expect(diffs[Math.floor(diffs.length / 2)]).toBeLessThanOrEqual(2);
+        expect(differing / diffs.length).toBeLessThan(0.005);
+      }
+      // the cut planes are marked and named
+      expect(s.info.boxes.filter((b) => b.what.startsWith('symmetry plane')).length).toBe(2);
+    });
+  }
+
+  it('mesh, deformed and geometry pictures show the whole part too', () => {
+    for (const scene of [meshScene, deformedScene, geometryScene]) {
+      const s = scene(quarter, { width: 1200, height: 600 });
+      const view = s.info.view as View;
+      const [x0] = toPixel(view, -200, 0);
+      const [x1] = toPixel(view, 200, 0);
+      expect(x1 - x0, s.title).toBeLessThan(1200);
+      expect(x0, `${s.title}: the part reaches x = -L/2`).toBeGreaterThan(0);
+      expect(s.info.boxes.filter((b) => b.what.startsWith('symmetry plane')).length, s.title).toBe(2);
+    }
   });
 });

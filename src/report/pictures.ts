@@ -159,6 +159,12 @@ function fit(text: string, size: number, width: number): string {
   return t + '...';
 }
 
+/** The words that say a picture shows the whole part drawn from a half or quarter model. */
+function wholeWords(planes: PlaneOfResult[]): string {
+  if (planes.length === 0) return '';
+  return `; whole part: the ${planes.length === 2 ? 'quarter' : 'half'} model mirrored (dash-dot)`;
+}
+
 function describeMesh(src: PlotSource): string {
   const m = src.mesh;
   return `${m.nNodes} nodes, ${m.nElements} ${m.order === 2 ? '6-node' : '3-node'} triangles`;
@@ -200,6 +206,122 @@ function autoHeight(W: number, win: readonly number[], withLegend: boolean): num
 
 function inflate(b: Box, d: number): Box {
   return [b[0] + d, b[1] + d, b[2] - d, b[3] - d];
+}
+
+/** A mirror plane as result.json records it (absent in results written before it was). */
+interface PlaneOfResult {
+  axis: 'x' | 'y';
+  at: number;
+  edges: number[];
+}
+
+function mirrorPlanes(src: PlotSource): PlaneOfResult[] {
+  const planes = (src.result as { mirrorPlanes?: PlaneOfResult[] }).mirrorPlanes ?? [];
+  // one plane per axis: two parallel mirror planes would make an endless strip, not a part
+  return planes.filter((p, i) => planes.findIndex((q) => q.axis === p.axis) === i);
+}
+
+/**
+ * The whole part of a half or quarter model, as a plot source: the modelled piece and its
+ * reflections in the mirror planes the analysis recorded (result.mirrorPlanes). Copy c reflects
+ * in x when bit 0 is set and in y when bit 1 is; a reflected copy has its elements' order
+ * reversed (so they stay counter-clockwise), its displacement across the plane negated and its
+ * shear stress sxy negated (sxy changes sign under a reflection in x or y; sxx and syy, and so
+ * every invariant measure, do not). Nodes on a plane are shared with the copy across it, and the
+ * boundary edges on the planes, inside the whole part, are left out, so the outline closes round
+ * the whole part. Returns the source unchanged for a whole model.
+ */
+export function wholePart(src: PlotSource): { src: PlotSource; planes: PlaneOfResult[] } {
+  const planes = mirrorPlanes(src);
+  if (planes.length === 0) return { src, planes };
+  const m = src.mesh;
+  const n = m.nNodes;
+  const per = m.order === 2 ? 6 : 3;
+  const box = bbox(m.nodes);
+  const tol = 1e-9 * Math.max(box[2] - box[0], box[3] - box[1]);
+  const px = planes.find((p) => p.axis === 'x');
+  const py = planes.find((p) => p.axis === 'y');
+  const copies = [0, 1, 2, 3].filter((c) => (!(c & 1) || px) && (!(c & 2) || py));
+  const nc = copies.length;
+  const nodes = new Float64Array(2 * n * nc);
+  const u = new Float64Array(2 * n * nc);
+  const stress = new Float64Array(3 * n * nc);
+  const slot = new Map(copies.map((c, k) => [c, k]));
+  const onX = (i: number) => !!px && Math.abs(m.nodes[2 * i] - px.at) <= tol;
+  const onY = (i: number) => !!py && Math.abs(m.nodes[2 * i + 1] - py.at) <= tol;
+  // the index of node i in copy c: a node on a plane belongs to the copy not reflected in it
+  const index = (c: number, i: number) => slot.get(c & ~(onX(i) ? 1 : 0) & ~(onY(i) ? 2 : 0))! * n + i;
+  copies.forEach((c, k) => {
+    const fx = c & 1 ? -1 : 1;
+    const fy = c & 2 ? -1 : 1;
+    for (let i = 0; i < n; i++) {
+      const j = k * n + i;
+      nodes[2 * j] = c & 1 ? 2 * px!.at - m.nodes[2 * i] : m.nodes[2 * i];
+      nodes[2 * j + 1] = c & 2 ? 2 * py!.at - m.nodes[2 * i + 1] : m.nodes[2 * i + 1];
+      u[2 * j] = fx * src.u[2 * i];
+      u[2 * j + 1] = fy * src.u[2 * i + 1];
+      stress[3 * j] = src.stress[3 * i];
+      stress[3 * j + 1] = src.stress[3 * i + 1];
+      stress[3 * j + 2] = fx * fy * src.stress[3 * i + 2];
+    }
+  });
+  // corners 0 1 2, mid-sides 3 (0-1) 4 (1-2) 5 (2-0); reversed: 0 2 1, 5 4 3
+  const flip = per === 6 ? [0, 2, 1, 5, 4, 3] : [0, 2, 1];
+  const elements = new Int32Array(per * m.nElements * nc);
+  const mirrorEdge = new Set(planes.flatMap((p) => p.edges));
+  const keep: number[] = [];
+  for (let b = 0; b < m.nBEdges; b++) if (!mirrorEdge.has(m.bEdgeDomain[b])) keep.push(b);
+  const bEdges = new Int32Array(3 * keep.length * nc);
+  const bEdgeDomain = new Int32Array(keep.length * nc);
+  copies.forEach((c, k) => {
+    const odd = ((c & 1) ^ ((c >> 1) & 1)) === 1;
+    for (let e = 0; e < m.nElements; e++) {
+      for (let a = 0; a < per; a++) elements[per * (k * m.nElements + e) + a] = index(c, m.elements[per * e + (odd ? flip[a] : a)]);
+    }
+    keep.forEach((b, q) => {
+      const o = 3 * (k * keep.length + q);
+      const [s0, s1, mid] = [m.bEdges[3 * b], m.bEdges[3 * b + 1], m.bEdges[3 * b + 2]];
+      bEdges[o] = index(c, odd ? s1 : s0);
+      bEdges[o + 1] = index(c, odd ? s0 : s1);
+      bEdges[o + 2] = mid >= 0 ? index(c, mid) : -1;
+      bEdgeDomain[k * keep.length + q] = m.bEdgeDomain[b];
+    });
+  });
+  const mesh = {
+    ...m,
+    nNodes: n * nc,
+    nVertices: m.nVertices * nc,
+    nodes,
+    nElements: m.nElements * nc,
+    elements,
+    nBEdges: keep.length * nc,
+    bEdges,
+    bEdgeDomain,
+    bEdgeT: new Float64Array(2 * keep.length * nc),
+    nodeEdge: new Int32Array(n * nc).fill(-1),
+    nodeCorner: new Int32Array(n * nc).fill(-1),
+  };
+  return { src: { ...src, mesh, u, stress }, planes };
+}
+
+/**
+ * Marks the cut planes of a whole part drawn from a half or quarter model: a thin dash-dot line
+ * along each plane across the part, and the words "symmetry plane" beside one end.
+ */
+function drawMirrorPlanes(s: Scene, planes: PlaneOfResult[], whole: PlotSource, view: View, fr: Frame): void {
+  const [x0, y0, x1, y1] = bbox(whole.mesh.nodes);
+  const over = (fr.size * 1.2) / view.s;
+  for (const p of planes) {
+    const [ax, ay] = p.axis === 'x' ? toPixel(view, p.at, y1 + over) : toPixel(view, x0 - over, p.at);
+    const [bx, by] = p.axis === 'x' ? toPixel(view, p.at, y0 - over) : toPixel(view, x1 + over, p.at);
+    s.items.push({ kind: 'stroke', lines: [[ax, ay, bx, by]], width: 1.1, colour: INK, dash: [16, 4, 3, 4], alpha: 0.8, clip: fr.draw });
+    const ls = fr.size * 0.8;
+    const places: [number, number][] =
+      p.axis === 'x'
+        ? [[ax + ls * 0.5, ay + ls * 0.3], [bx + ls * 0.5, by], [ax - ls * 0.5, ay + ls * 0.3]]
+        : [[bx - ls * 0.3, by - ls * 0.5], [ax + ls * 0.3, ay - ls * 0.5], [bx - ls * 0.3, by + ls * 1.4]];
+    drawLabelAvoiding(s, 'symmetry plane', places, ls, fr.draw, `symmetry plane ${p.axis} = ${formatValue(p.at)}`, { anchor: p.axis === 'x' ? 'start' : 'end', colour: SOFT });
+  }
 }
 
 /** Whether any pixel of the box is covered by the mask (a raster whose alpha marks what is drawn). */
@@ -258,14 +380,16 @@ function layoutPart(s: Scene, fr: Frame, win: readonly number[], margin: number,
 }
 
 /** The stress contour of a measure with legend, peak, scale bar, iso-lines and (optionally) mesh lines. */
-export function contourScene(src: PlotSource, opts: PictureOptions = {}, title?: string): Scene {
+export function contourScene(model: PlotSource, opts: PictureOptions = {}, title?: string): Scene {
+  // the whole part unless a window is asked for (the close-up of the peak stays as modelled)
+  const { src, planes } = opts.window ? { src: model, planes: [] } : wholePart(model);
   const W = opts.width ?? 1600;
   const win = opts.window ?? bbox(src.mesh.nodes);
   const H = opts.height ?? (opts.window ? 1000 : autoHeight(W, win, true));
   const measure = opts.measure ?? src.result.peak.measure;
   const unit = src.result.units.stress;
   const s = newScene(W, H, title ?? `${measureName(measure)}: ${src.result.model.title ?? 'raiser'}`);
-  const fr = frame(s, src, title ?? src.result.model.title ?? 'Stress', `${measureName(measure)} (${unit}), recovered nodal stresses interpolated per pixel; ${describeMesh(src)}`, true);
+  const fr = frame(s, src, title ?? src.result.model.title ?? 'Stress', `${measureName(measure)} (${unit}), recovered nodal stresses interpolated per pixel; ${describeMesh(model)}${wholeWords(planes)}`, true);
   const field = stressField(src, measure);
   const dataRange = fieldRange(src.mesh, field);
   const peak = peakOf(src, measure);
@@ -286,6 +410,7 @@ export function contourScene(src: PlotSource, opts: PictureOptions = {}, title?:
   }
   if (opts.meshLines) s.items.push({ kind: 'stroke', lines: meshEdgeLines(src.mesh, view), width: 0.7, colour: [20, 20, 28], alpha: 0.4, clip: fr.draw });
   s.items.push({ kind: 'stroke', lines: outlineLoops(src, src.mesh.nodes, view), closed: true, width: 1.8, colour: INK, clip: fr.draw });
+  drawMirrorPlanes(s, planes, src, view, fr);
   const [ppx, ppy] = toPixel(view, peak.x, peak.y);
   const inside = ppx >= fr.draw[0] && ppx <= fr.draw[2] && ppy >= fr.draw[1] && ppy <= fr.draw[3];
   const sb = drawScaleBar(s, bar[0], bar[1], view.s, 0.22 * (fr.draw[2] - fr.draw[0]), src.result.units.length, fr.size * 0.9);
@@ -295,23 +420,26 @@ export function contourScene(src: PlotSource, opts: PictureOptions = {}, title?:
 }
 
 /** The mesh: elements on a light plate, the outline, and the mesh figures. */
-export function meshScene(src: PlotSource, opts: PictureOptions = {}): Scene {
+export function meshScene(model: PlotSource, opts: PictureOptions = {}): Scene {
+  const { src, planes } = opts.window ? { src: model, planes: [] } : wholePart(model);
   const W = opts.width ?? 1600;
   const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), false);
   const r = src.result;
   const s = newScene(W, H, `mesh: ${r.model.title ?? 'raiser'}`);
-  const fr = frame(s, src, `Mesh: ${r.model.title ?? ''}`.trim(), `${describeMesh(src)}, ${r.mesh.dofs} DOF, smallest angle ${formatValue(r.mesh.minAngleDeg, 3)} deg, largest ${formatValue(r.mesh.maxAngleDeg, 3)} deg`, false);
+  const fr = frame(s, src, `Mesh: ${r.model.title ?? ''}`.trim(), `${describeMesh(model)}, ${r.mesh.dofs} DOF, smallest angle ${formatValue(r.mesh.minAngleDeg, 3)} deg, largest ${formatValue(r.mesh.maxAngleDeg, 3)} deg${wholeWords(planes)}`, false);
   const { view, bar } = layoutPart(s, fr, opts.window ?? bbox(src.mesh.nodes), fr.size * 0.8, r.units.length, (v) => outlineLoops(src, src.mesh.nodes, v));
   s.items.push({ kind: 'fill', paths: outlineLoops(src, src.mesh.nodes, view), colour: PLATE_FILL, clip: fr.draw });
   s.items.push({ kind: 'stroke', lines: meshEdgeLines(src.mesh, view), width: 0.7, colour: [40, 44, 56], alpha: 0.75, clip: fr.draw });
   s.items.push({ kind: 'stroke', lines: outlineLoops(src, src.mesh.nodes, view), closed: true, width: 1.8, colour: INK, clip: fr.draw });
+  drawMirrorPlanes(s, planes, src, view, fr);
   drawScaleBar(s, bar[0], bar[1], view.s, 0.22 * (fr.draw[2] - fr.draw[0]), r.units.length, fr.size * 0.9);
   Object.assign(s.info, { view, draw: fr.draw });
   return s;
 }
 
 /** The deformed shape, displacements magnified by a round factor, coloured by displacement magnitude. */
-export function deformedScene(src: PlotSource, opts: PictureOptions = {}): Scene {
+export function deformedScene(model: PlotSource, opts: PictureOptions = {}): Scene {
+  const { src, planes } = opts.window ? { src: model, planes: [] } : wholePart(model);
   const W = opts.width ?? 1600;
   const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), true);
   const r = src.result;
@@ -322,7 +450,7 @@ export function deformedScene(src: PlotSource, opts: PictureOptions = {}): Scene
   const factor = umax > 0 ? roundFactor((0.08 * size) / umax) : 1;
   const unit = r.units.length;
   const s = newScene(W, H, `deformed shape: ${r.model.title ?? 'raiser'}`);
-  const fr = frame(s, src, `Deformed shape: ${r.model.title ?? ''}`.trim(), `displacements drawn ${formatValue(factor, 3)} times magnified; largest displacement ${formatValue(umax)} ${unit}; undeformed outline dashed`, true);
+  const fr = frame(s, src, `Deformed shape: ${r.model.title ?? ''}`.trim(), `displacements drawn ${formatValue(factor, 3)} times magnified; largest displacement ${formatValue(umax)} ${unit}; undeformed outline dashed${wholeWords(planes)}`, true);
   const dm = drawMesh(src, factor);
   const dbox = bbox(dm.nodes);
   const all: [number, number, number, number] = opts.window ?? [Math.min(box[0], dbox[0]), Math.min(box[1], dbox[1]), Math.max(box[2], dbox[2]), Math.max(box[3], dbox[3])];
@@ -338,6 +466,7 @@ export function deformedScene(src: PlotSource, opts: PictureOptions = {}): Scene
   s.items.push({ kind: 'layer', paint: (rr, k) => paintField(rr, dm, view, field, { lo: range[0], hi: range[1], map: DEFAULT_MAP }, k), clip: fr.draw });
   if (opts.meshLines) s.items.push({ kind: 'stroke', lines: meshEdgeLines(dm, view), width: 0.6, colour: [20, 20, 28], alpha: 0.35, clip: fr.draw });
   s.items.push({ kind: 'stroke', lines: outlineLoops(src, dm.nodes, view), closed: true, width: 1.8, colour: INK, clip: fr.draw });
+  drawMirrorPlanes(s, planes, src, view, fr);
   drawLegend(s, fr.legend!, ['displacement', `magnitude (${unit})`], DEFAULT_MAP, range, [0, umax], fr.size);
   s.items.push(...factorLabel);
   drawScaleBar(s, bar[0], bar[1], view.s, 0.22 * (fr.draw[2] - fr.draw[0]), unit, fr.size * 0.9);
@@ -392,7 +521,8 @@ export function closeupScene(src: PlotSource, opts: PictureOptions = {}): Scene 
 }
 
 /** The geometry with the net and gross sections and the peak. */
-export function geometryScene(src: PlotSource, opts: PictureOptions = {}): Scene {
+export function geometryScene(model: PlotSource, opts: PictureOptions = {}): Scene {
+  const { src, planes } = opts.window ? { src: model, planes: [] } : wholePart(model);
   const W = opts.width ?? 1600;
   const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), false) + 60;
   const r = src.result;
@@ -406,7 +536,7 @@ export function geometryScene(src: PlotSource, opts: PictureOptions = {}): Scene
     domain = null;
   }
   const bcWords = domain ? 'loads L (arrows, not to scale) and supports S' : 'loads and supports not drawn (the drawing the geometry came from could not be read again)';
-  const fr = frame(s, src, `Geometry and nominal sections: ${r.model.title ?? ''}`.trim(), `each raiser's net section (least material across the flow) solid, gross section dashed; ${bcWords}; lengths in ${r.units.length}`, false);
+  const fr = frame(s, src, `Geometry and nominal sections: ${r.model.title ?? ''}`.trim(), `each raiser's net section (least material across the flow) solid, gross section dashed; ${bcWords}; lengths in ${r.units.length}${wholeWords(planes)}`, false);
   // room around the plate for the load arrows (2.6 sizes) and their labels
   const { view, bar } = layoutPart(s, fr, opts.window ?? bbox(src.mesh.nodes), fr.size * 4.4, r.units.length, (v) => outlineLoops(src, src.mesh.nodes, v));
   // The peak's ring is kept free of the section labels placed before it is drawn.
@@ -414,6 +544,7 @@ export function geometryScene(src: PlotSource, opts: PictureOptions = {}): Scene
   s.info.boxes.push({ what: 'peak marker', box: markerBox(px, py, fr.size * 0.9) });
   s.items.push({ kind: 'fill', paths: outlineLoops(src, src.mesh.nodes, view), colour: PLATE_FILL, clip: fr.draw });
   s.items.push({ kind: 'stroke', lines: outlineLoops(src, src.mesh.nodes, view), closed: true, width: 1.8, colour: INK, clip: fr.draw });
+  drawMirrorPlanes(s, planes, src, view, fr);
   type Sec = { ligaments: { from: [number, number]; to: [number, number] }[]; from: [number, number]; to: [number, number] };
   const sec = (c: Sec, colour: Rgb, dash: number[] | undefined, label: string, below: boolean) => {
     const lines = c.ligaments.map((iv) => [...toPixel(view, iv.from[0], iv.from[1]), ...toPixel(view, iv.to[0], iv.to[1])]);
@@ -442,7 +573,7 @@ export function geometryScene(src: PlotSource, opts: PictureOptions = {}): Scene
     const carried = x.section.mirror ? 'half of a symmetric section' : `N ${formatValue(x.section.N ?? NaN)} ${r.units.force}, M ${formatValue(x.section.M ?? NaN)} ${r.units.moment}`;
     sec(x.section, NET_COLOUR, undefined, `${x.name}: net ${formatValue(x.section.length)} ${r.units.length}; ${carried}`, false);
   }
-  const drawn = domain ? drawBoundaryConditions(s, src.mesh, domain, src.model.loads, src.model.supports, view, fr.size, r.pins?.items) : { loads: 0, supports: 0 };
+  const drawn = domain ? drawBoundaryConditions(s, model.mesh, domain, src.model.loads, src.model.supports, view, fr.size, r.pins?.items) : { loads: 0, supports: 0 };
   drawScaleBar(s, bar[0], bar[1], view.s, 0.22 * (fr.draw[2] - fr.draw[0]), r.units.length, fr.size * 0.9);
   drawMarker(s, px, py, `peak, ${r.peak.feature}`, fr.size * 0.9, fr.draw, 'peak');
   Object.assign(s.info, { view, draw: fr.draw, boundaryConditions: drawn });
