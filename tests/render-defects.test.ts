@@ -89,15 +89,20 @@ describe('labels, markers and the scale bar (L-bracket)', () => {
     [900, 760],
   ];
 
-  it('geometry picture: no label overlaps a marker or another label, at several sizes', () => {
-    for (const [width, height] of sizes) {
-      const s = geometryScene(bracket, { width, height });
-      const boxes = annotationBoxes(s);
-      expect(boxes.some((b) => b.what === 'peak marker')).toBe(true);
-      expect(boxes.some((b) => b.what.includes(': net '))).toBe(true);
-      for (let i = 0; i < boxes.length; i++) {
-        for (let j = i + 1; j < boxes.length; j++) {
-          expect(overlap(boxes[i].box, boxes[j].box), `${width}x${height}: "${boxes[i].what}" and "${boxes[j].what}"`).toBe(false);
+  it('geometry picture: no label overlaps a marker, the scale bar or another label, at several sizes (bracket, link plate, link plate on pins)', () => {
+    // before: the link plate's net-section labels overlapped at 600 and 800 px wide, and the
+    // pinned link plate's point-support label "S2" sat on the pin load's label "L1 (pin)"
+    const models = [bracket, solve('examples/link-plate.json'), solve('examples/link-plate-pins.json')];
+    for (const src of models) {
+      for (const [width, height] of [...sizes, [800, 600], [600, 400]] as [number, number][]) {
+        const s = geometryScene(src, { width, height });
+        const boxes = annotationBoxes(s);
+        expect(boxes.some((b) => b.what === 'peak marker')).toBe(true);
+        expect(boxes.some((b) => b.what.includes(': net '))).toBe(true);
+        for (let i = 0; i < boxes.length; i++) {
+          for (let j = i + 1; j < boxes.length; j++) {
+            expect(overlap(boxes[i].box, boxes[j].box), `${src.result.model.title} ${width}x${height}: "${boxes[i].what}" and "${boxes[j].what}"`).toBe(false);
+          }
         }
       }
     }

@@ -542,6 +542,8 @@ export function geometryScene(model: PlotSource, opts: PictureOptions = {}): Sce
   // The peak's ring is kept free of the section labels placed before it is drawn.
   const [px, py] = toPixel(view, r.peak.x, r.peak.y);
   s.info.boxes.push({ what: 'peak marker', box: markerBox(px, py, fr.size * 0.9) });
+  // the scale bar first, so that the labels keep clear of it
+  drawScaleBar(s, bar[0], bar[1], view.s, 0.22 * (fr.draw[2] - fr.draw[0]), r.units.length, fr.size * 0.9);
   s.items.push({ kind: 'fill', paths: outlineLoops(src, src.mesh.nodes, view), colour: PLATE_FILL, clip: fr.draw });
   s.items.push({ kind: 'stroke', lines: outlineLoops(src, src.mesh.nodes, view), closed: true, width: 1.8, colour: INK, clip: fr.draw });
   drawMirrorPlanes(s, planes, src, view, fr);
@@ -554,15 +556,15 @@ export function geometryScene(model: PlotSource, opts: PictureOptions = {}): Sce
     const end = below ? (ay > by ? [ax, ay] : [bx, by]) : ay < by ? [ax, ay] : [bx, by];
     const other = end[0] === ax && end[1] === ay ? [bx, by] : [ax, ay];
     const ls = fr.size * 0.9;
-    // beside the chosen end of the section, then beside the other end, then nudged along
+    // beside the chosen end of the section, nudged along, then stacked away from the part, then
+    // the same beside the other end
     const places: [number, number][] = [];
     for (const [ex, ey, dn] of [
       [end[0], end[1], below ? 1 : -1],
       [other[0], other[1], below ? -1 : 1],
     ]) {
       const y = ey + (dn > 0 ? fr.size * 1.6 : -fr.size * 0.6);
-      for (const k of [0, 1, -1, 2, -2, 3, -3]) places.push([ex + k * 4 * ls, y]);
-      places.push([ex, y + dn * ls * 1.6], [ex, y + dn * ls * 3.2]);
+      for (let j = 0; j < 6; j++) for (const k of [0, 1, -1, 2, -2, 3, -3, 5, -5]) places.push([ex + k * 4 * ls, y + dn * j * ls * 1.7]);
     }
     drawLabelAvoiding(s, label, places, ls, fr.draw, `${label} label`, { anchor: 'middle', colour });
   };
@@ -574,7 +576,6 @@ export function geometryScene(model: PlotSource, opts: PictureOptions = {}): Sce
     sec(x.section, NET_COLOUR, undefined, `${x.name}: net ${formatValue(x.section.length)} ${r.units.length}; ${carried}`, false);
   }
   const drawn = domain ? drawBoundaryConditions(s, model.mesh, domain, src.model.loads, src.model.supports, view, fr.size, r.pins?.items) : { loads: 0, supports: 0 };
-  drawScaleBar(s, bar[0], bar[1], view.s, 0.22 * (fr.draw[2] - fr.draw[0]), r.units.length, fr.size * 0.9);
   drawMarker(s, px, py, `peak, ${r.peak.feature}`, fr.size * 0.9, fr.draw, 'peak');
   Object.assign(s.info, { view, draw: fr.draw, boundaryConditions: drawn });
   return s;
