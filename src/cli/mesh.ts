@@ -14,6 +14,8 @@ import { loadModelFile } from '../model/load.js';
 import { prepareModel } from '../pipeline/analyse.js';
 import { drawGeometryPicture } from '../render/geometry-picture.js';
 import { prepareOutputDir, writeAtomic } from '../report/files.js';
+import { CAUTION_LINE } from '../report/pictures.js';
+import { TOOL_VERSION } from '../report/result.js';
 
 interface MeshFlags {
   out?: string;
@@ -101,6 +103,8 @@ export function runMesh(file: string, flags: MeshFlags): { text: string; json: o
         `${drawing ? `from ${drawing.file}, ` : ''}${domain.loops.length - 1} hole${domain.loops.length === 2 ? '' : 's'}, ${mesh.nElements} ${order === 2 ? '6-node' : '3-node'} triangles, ${mesh.nNodes} nodes; lengths in ${u}`,
         'boundary coloured by tag (the names loads and supports select); not solved',
       ],
+      footer: { line: [`${model.title ?? 'untitled model'} (${file})`, `raiser ${TOOL_VERSION}`, new Date().toISOString().slice(0, 10)].join('  |  '), caution: CAUTION_LINE },
+      lengthUnit: u,
     });
     writeAtomic(join(flags.out, 'mesh-preview.png'), pic.png);
     writeAtomic(join(flags.out, 'mesh-preview.svg'), pic.svg);

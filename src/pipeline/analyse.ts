@@ -82,6 +82,34 @@ export interface Analysis {
   warnings: string[];
   /** pins in holes (bearing loads, rigid pins) and the contact of the rigid ones; null without pins */
   pins: PinsOfAnalysis | null;
+  /**
+   * the mirror planes of a half or quarter model: the lines x = at (axis 'x') or y = at (axis
+   * 'y') that its symmetry supports hold, with the domain edges on each (rollers acting as
+   * mirrors are not among them: they stand for real supports, not for a part cut in half)
+   */
+  mirrorPlanes: MirrorPlane[];
+}
+
+export interface MirrorPlane {
+  axis: 'x' | 'y';
+  at: number;
+  edges: number[];
+}
+
+/** The planes held by symmetry supports, as the support compilation decided them: edges both shear-free and mirror-held. */
+function mirrorPlanesOf(domain: Domain, symmetry: Uint8Array, hold: Uint8Array): MirrorPlane[] {
+  const planes: MirrorPlane[] = [];
+  const tol = 1e-9 * domain.scale;
+  for (let e = 0; e < domain.edges.length; e++) {
+    const c = domain.edges[e].curve;
+    if (!symmetry[e] || hold[e] !== HOLD_MIRROR || c.kind !== 'line') continue;
+    const axis = Math.abs(c.x1 - c.x0) <= tol ? 'x' : 'y';
+    const at = axis === 'x' ? c.x0 : c.y0;
+    const p = planes.find((q) => q.axis === axis && Math.abs(q.at - at) <= tol);
+    if (p) p.edges.push(e);
+    else planes.push({ axis, at, edges: [e] });
+  }
+  return planes;
 }
 
 /** What every mesh of one model shares: the model checked, its domain, units and options. */
@@ -397,6 +425,7 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
     reaction,
     equilibriumError,
     timeMs: { mesh: t1 - t0, assemble: t2 - t1, solve: t3 - t2, recover: t4 - t3, total: t4 - t0 },
+    mirrorPlanes: mirrorPlanesOf(domain, supports.symmetry, supports.hold),
     warnings,
     pins,
   };

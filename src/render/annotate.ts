@@ -79,13 +79,18 @@ export function drawLegend(s: Scene, col: Box, heading: string[], map: ColourMap
   return { bar, ticks, step, box };
 }
 
-/** A label with a light backing box; returns its box. */
-export function drawLabel(s: Scene, text: string, x: number, y: number, size: number, what: string, opts: { anchor?: 'start' | 'middle' | 'end'; weight?: 'normal' | 'bold'; colour?: Rgb } = {}): Box {
-  const w = textWidth(text, size, opts.weight);
-  const anchor = opts.anchor ?? 'start';
+/** The box drawLabel covers for a label at (x, y). */
+export function labelBox(text: string, x: number, y: number, size: number, anchor: 'start' | 'middle' | 'end' = 'start', weight: 'normal' | 'bold' = 'normal'): Box {
+  const w = textWidth(text, size, weight);
   const left = anchor === 'start' ? x : anchor === 'middle' ? x - w / 2 : x - w;
   const pad = size * 0.3;
-  const box: Box = [left - pad, y - capHeight(size) - pad, left + w + pad, y + size * 0.25 + pad];
+  return [left - pad, y - capHeight(size) - pad, left + w + pad, y + size * 0.25 + pad];
+}
+
+/** A label with a light backing box; returns its box. */
+export function drawLabel(s: Scene, text: string, x: number, y: number, size: number, what: string, opts: { anchor?: 'start' | 'middle' | 'end'; weight?: 'normal' | 'bold'; colour?: Rgb } = {}): Box {
+  const anchor = opts.anchor ?? 'start';
+  const box = labelBox(text, x, y, size, anchor, opts.weight);
   s.items.push({ kind: 'fill', paths: [[box[0], box[1], box[2], box[1], box[2], box[3], box[0], box[3]]], colour: PAPER, alpha: 0.88 });
   addText(s, text, x, y, size, opts.colour ?? INK, { anchor, weight: opts.weight });
   s.info.boxes.push({ what, box });
@@ -93,11 +98,39 @@ export function drawLabel(s: Scene, text: string, x: number, y: number, size: nu
 }
 
 /**
+ * A label at the first of the candidate places (x, y) where its box lies inside `area` and
+ * overlaps no box recorded before it; at the first candidate when none is free.
+ */
+export function drawLabelAvoiding(s: Scene, text: string, places: [number, number][], size: number, area: Box, what: string, opts: { anchor?: 'start' | 'middle' | 'end'; weight?: 'normal' | 'bold'; colour?: Rgb } = {}): Box {
+  const free = places.find(([x, y]) => {
+    const b = labelBox(text, x, y, size, opts.anchor ?? 'start', opts.weight);
+    return b[0] >= area[0] && b[2] <= area[2] && b[1] >= area[1] && b[3] <= area[3] && !s.info.boxes.some((t) => boxesOverlap(t.box, b));
+  });
+  const [x, y] = free ?? places[0];
+  return drawLabel(s, text, x, y, size, what, opts);
+}
+
+/** Whether two boxes overlap (touching edges do not count). */
+export function boxesOverlap(a: Box, b: Box): boolean {
+  return a[0] < b[2] && b[0] < a[2] && a[1] < b[3] && b[1] < a[3];
+}
+
+/** The box a marker's ring and cross cover at (px, py) for text size `size`. */
+export function markerBox(px: number, py: number, size: number): Box {
+  const r = size * 0.6 * 1.7;
+  return [px - r, py - r, px + r, py + r];
+}
+
+/**
  * A marked point: a ring with a cross at (px, py) and a leader to a label placed in the first
- * of four diagonal directions where it fits inside `area`. Returns the label box.
+ * of eight directions (the four diagonals, then the same farther out) where it fits inside
+ * `area` and overlaps no box recorded before it (other labels, markers, the scale bar).
+ * Records the ring as `${what} marker` and returns the label box.
  */
 export function drawMarker(s: Scene, px: number, py: number, text: string, size: number, area: Box, what: string): Box {
   const r = size * 0.6;
+  const taken = s.info.boxes.map((b) => b.box);
+  const ringBox = markerBox(px, py, size);
   const ring = (rad: number, width: number, colour: Rgb) => {
     const p = discPolygon(px, py, rad);
     s.items.push({ kind: 'stroke', lines: [p], width, colour, closed: true });
@@ -106,25 +139,26 @@ export function drawMarker(s: Scene, px: number, py: number, text: string, size:
   ring(r, 1.8, INK);
   s.items.push({ kind: 'stroke', lines: [[px - r * 1.6, py, px - r * 0.4, py], [px + r * 0.4, py, px + r * 1.6, py], [px, py - r * 1.6, px, py - r * 0.4], [px, py + r * 0.4, px, py + r * 1.6]], width: 1.4, colour: INK });
   const w = textWidth(text, size, 'bold') + size * 0.6;
-  const h = size * 1.6;
-  const d = size * 2.6;
-  const candidates: [number, number][] = [
-    [1, -1],
-    [-1, -1],
-    [1, 1],
-    [-1, 1],
-  ];
-  let chosen: [number, number] = candidates[0];
-  for (const c of candidates) {
+  const pad = size * 0.3;
+  const candidates: [number, number, number][] = [];
+  for (const far of [1, 1.8, 2.8]) for (const [cx, cy] of [[1, -1], [-1, -1], [1, 1], [-1, 1]]) candidates.push([cx, cy, far]);
+  // the label box for a direction: as drawLabel draws it at the end of the leader
+  const labelBox = (c: [number, number, number]): Box => {
+    const d = size * 2.6 * c[2];
     const lx = px + c[0] * d;
     const ly = py + c[1] * d;
-    const bx0 = c[0] > 0 ? lx : lx - w;
-    const by0 = c[1] < 0 ? ly - h : ly;
-    if (bx0 >= area[0] && bx0 + w <= area[2] && by0 >= area[1] && by0 + h <= area[3]) {
-      chosen = c;
-      break;
-    }
-  }
+    const baseline = c[1] < 0 ? ly - size * 0.45 : ly + size * 1.15;
+    const tx = c[0] > 0 ? lx + size * 0.3 : lx - size * 0.3;
+    const tw = w - size * 0.6;
+    const left = c[0] > 0 ? tx : tx - tw;
+    return [left - pad, baseline - capHeight(size) - pad, left + tw + pad, baseline + size * 0.25 + pad];
+  };
+  const fits = (b: Box) => b[0] >= area[0] && b[2] <= area[2] && b[1] >= area[1] && b[3] <= area[3];
+  const chosen =
+    candidates.find((c) => fits(labelBox(c)) && !boxesOverlap(labelBox(c), ringBox) && !taken.some((t) => boxesOverlap(t, labelBox(c)))) ??
+    candidates.find((c) => fits(labelBox(c))) ??
+    candidates[0];
+  const d = size * 2.6 * chosen[2];
   const lx = px + chosen[0] * d;
   const ly = py + chosen[1] * d;
   const ex = px + chosen[0] * r * 0.75;
@@ -134,17 +168,23 @@ export function drawMarker(s: Scene, px: number, py: number, text: string, size:
   const baseline = chosen[1] < 0 ? ly - size * 0.45 : ly + size * 1.15;
   const tx = chosen[0] > 0 ? lx + size * 0.3 : lx - size * 0.3;
   const box = drawLabel(s, text, tx, baseline, size, what, { anchor: chosen[0] > 0 ? 'start' : 'end', weight: 'bold' });
-  s.info.boxes.push({ what: `${what} marker`, box: [Math.min(px - r * 1.7, lx), Math.min(py - r * 1.7, ly), Math.max(px + r * 1.7, lx), Math.max(py + r * 1.7, ly)] });
+  if (!s.info.boxes.some((b) => b.what === `${what} marker`)) s.info.boxes.push({ what: `${what} marker`, box: ringBox });
   return box;
+}
+
+/** The round length a scale bar shows and the box it covers with its left end at (x, y). */
+export function scaleBarBox(x: number, y: number, pxPerUnit: number, maxPx: number, unit: string, size: number): { length: number; box: Box } {
+  const length = roundDown125(maxPx / pxPerUnit);
+  const L = length * pxPerUnit;
+  const tw = textWidth(`${formatValue(length)} ${unit}`, size);
+  return { length, box: [x - size * 0.4, y - capHeight(size) - size * 1.1, x + Math.max(L, tw) + size * 0.4, y + size * 0.6] };
 }
 
 /** A scale bar of a round length (at most `maxPx` pixels long) with its label, left end at (x, y). */
 export function drawScaleBar(s: Scene, x: number, y: number, pxPerUnit: number, maxPx: number, unit: string, size: number): { length: number; box: Box } {
-  const length = roundDown125(maxPx / pxPerUnit);
+  const { length, box } = scaleBarBox(x, y, pxPerUnit, maxPx, unit, size);
   const L = length * pxPerUnit;
   const label = `${formatValue(length)} ${unit}`;
-  const tw = textWidth(label, size);
-  const box: Box = [x - size * 0.4, y - capHeight(size) - size * 1.1, x + Math.max(L, tw) + size * 0.4, y + size * 0.6];
   s.items.push({ kind: 'fill', paths: [[box[0], box[1], box[2], box[1], box[2], box[3], box[0], box[3]]], colour: PAPER, alpha: 0.88 });
   const h = size * 0.35;
   s.items.push({ kind: 'fill', paths: [[x, y - h, x + L / 2, y - h, x + L / 2, y, x, y]], colour: INK });

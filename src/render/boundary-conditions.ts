@@ -183,42 +183,7 @@ export function drawBoundaryConditions(
   let nLoads = 0;
   let nSupports = 0;
   const pinArrow = (x0: number, y0: number, x1: number, y1: number) => arrow(s, x0, y0, x1, y1, head, LOAD_COLOUR, 0.16 * size);
-  supports.forEach((sp, i) => {
-    if (sp.type === 'rigid-pin') {
-      if (drawRigidPin(s, domain, sp, i, view, size, SUPPORT_COLOUR, pinArrow, pins)) nSupports++;
-      return;
-    }
-    if (sp.type === 'pin') {
-      const [px, py] = toPixel(view, sp.at[0], sp.at[1]);
-      const h = 0.9 * size;
-      s.items.push({ kind: 'fill', paths: [[px, py, px - 0.6 * h, py + h, px + 0.6 * h, py + h]], colour: SUPPORT_COLOUR });
-      addText(s, `S${i + 1}`, px + 0.9 * h, py + h, 0.8 * size, SUPPORT_COLOUR, { what: `support ${i + 1}` });
-      nSupports++;
-      return;
-    }
-    const edges = new Set(selectTarget(domain, sp.on).edges);
-    const frames = edgeFrames(mesh, edges);
-    if (frames.length === 0) return;
-    nSupports++;
-    s.items.push({ kind: 'stroke', lines: edgeLines(mesh, edges, view), width: 0.3 * size, colour: SUPPORT_COLOUR, dash: sp.type === 'symmetry' ? [12, 4, 2, 4] : undefined });
-    if (sp.type !== 'symmetry') {
-      // hatching: short strokes outward at 45 degrees to the normal
-      const ticks = spread(frames, 24).map((f) => {
-        const [x, y] = toPixel(view, f.x, f.y);
-        const ox = f.nx;
-        const oy = -f.ny; // pixel y runs down
-        const c = Math.SQRT1_2;
-        const hx = c * (ox - oy);
-        const hy = c * (oy + ox);
-        return [x, y, x + 0.8 * size * hx, y + 0.8 * size * hy];
-      });
-      s.items.push({ kind: 'stroke', lines: ticks, width: 0.14 * size, colour: SUPPORT_COLOUR });
-    }
-    const f0 = central(spread(frames, 14));
-    const [lx, ly] = toPixel(view, f0.x, f0.y);
-    const word = sp.type === 'roller' ? ` (${sp.fix} held)` : sp.type === 'symmetry' ? ' (mirror)' : '';
-    label(s, `S${i + 1}${word}`, lx + 1.6 * size * f0.nx, ly - 1.6 * size * f0.ny + 0.35 * size, 0.8 * size, SUPPORT_COLOUR, anchorFor(f0.nx), `support ${i + 1}`);
-  });
+  // the loads first: the point supports' labels are then placed clear of theirs
   loads.forEach((ld, i) => {
     if (ld.type === 'rigid-pin') {
       if (drawRigidPin(s, domain, ld, i, view, size, LOAD_COLOUR, pinArrow, pins)) nLoads++;
@@ -259,6 +224,55 @@ export function drawBoundaryConditions(
     const [lx, ly] = toPixel(view, f0.x, f0.y);
     const off = ld.type === 'moment' ? 1.4 * size : len + 0.9 * size;
     label(s, `L${i + 1}${ld.type === 'moment' ? ' (moment)' : ''}`, lx + off * f0.nx, ly - off * f0.ny + 0.35 * size, 0.8 * size, LOAD_COLOUR, anchorFor(f0.nx), `load ${i + 1}`);
+  });
+  supports.forEach((sp, i) => {
+    if (sp.type === 'rigid-pin') {
+      if (drawRigidPin(s, domain, sp, i, view, size, SUPPORT_COLOUR, pinArrow, pins)) nSupports++;
+      return;
+    }
+    if (sp.type === 'pin') {
+      const [px, py] = toPixel(view, sp.at[0], sp.at[1]);
+      const h = 0.9 * size;
+      s.items.push({ kind: 'fill', paths: [[px, py, px - 0.6 * h, py + h, px + 0.6 * h, py + h]], colour: SUPPORT_COLOUR });
+      // beside the mark, on the first side where the label covers no label drawn before it
+      const text = `S${i + 1}`;
+      const ls = 0.8 * size;
+      const w = textWidth(text, ls);
+      const places: [number, number, 'start' | 'end'][] = [
+        [px + 0.9 * h, py + h, 'start'],
+        [px - 0.9 * h, py + h, 'end'],
+        [px + 0.9 * h, py + 2.4 * h, 'start'],
+        [px - 0.9 * h, py + 2.4 * h, 'end'],
+        [px, py + 2.6 * h, 'start'],
+      ];
+      const boxOf = ([x, y, an]: [number, number, 'start' | 'end']): [number, number, number, number] => [an === 'start' ? x : x - w, y - ls, an === 'start' ? x + w : x, y + 0.25 * ls];
+      const free = places.find((p) => !s.info.boxes.some((t) => { const q = boxOf(p); return t.box[0] < q[2] && q[0] < t.box[2] && t.box[1] < q[3] && q[1] < t.box[3]; })) ?? places[0];
+      addText(s, text, free[0], free[1], ls, SUPPORT_COLOUR, { anchor: free[2], what: `support ${i + 1}` });
+      nSupports++;
+      return;
+    }
+    const edges = new Set(selectTarget(domain, sp.on).edges);
+    const frames = edgeFrames(mesh, edges);
+    if (frames.length === 0) return;
+    nSupports++;
+    s.items.push({ kind: 'stroke', lines: edgeLines(mesh, edges, view), width: 0.3 * size, colour: SUPPORT_COLOUR, dash: sp.type === 'symmetry' ? [12, 4, 2, 4] : undefined });
+    if (sp.type !== 'symmetry') {
+      // hatching: short strokes outward at 45 degrees to the normal
+      const ticks = spread(frames, 24).map((f) => {
+        const [x, y] = toPixel(view, f.x, f.y);
+        const ox = f.nx;
+        const oy = -f.ny; // pixel y runs down
+        const c = Math.SQRT1_2;
+        const hx = c * (ox - oy);
+        const hy = c * (oy + ox);
+        return [x, y, x + 0.8 * size * hx, y + 0.8 * size * hy];
+      });
+      s.items.push({ kind: 'stroke', lines: ticks, width: 0.14 * size, colour: SUPPORT_COLOUR });
+    }
+    const f0 = central(spread(frames, 14));
+    const [lx, ly] = toPixel(view, f0.x, f0.y);
+    const word = sp.type === 'roller' ? ` (${sp.fix} held)` : sp.type === 'symmetry' ? ' (mirror)' : '';
+    label(s, `S${i + 1}${word}`, lx + 1.6 * size * f0.nx, ly - 1.6 * size * f0.ny + 0.35 * size, 0.8 * size, SUPPORT_COLOUR, anchorFor(f0.nx), `support ${i + 1}`);
   });
   return { loads: nLoads, supports: nSupports };
 }

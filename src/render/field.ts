@@ -105,24 +105,43 @@ function isStraight(nodes: Float64Array, el: Int32Array, e: number): boolean {
   return off <= 1e-9 * size;
 }
 
+/** The chord error, in pixels, allowed where a curved side is drawn as a polyline. */
+const CHORD_ERROR_PX = 0.1;
+/** How far outside a sub-triangle, in pixels, a pixel centre may lie and still be painted by it. */
+const OVERLAP_PX = 0.3;
+
 /**
  * Subdivisions per side for element e drawn at the view scale (pixels): 1 for straight sides,
- * otherwise enough that a sub-triangle side is at most about 6 pixels (2 to 16).
+ * otherwise enough that a sub-triangle side is at most about 6 pixels (2 to 16) and that the
+ * chords of a curved side stay within CHORD_ERROR_PX of it (up to 32).
+ *
+ * Why the chord bound: two neighbours share a curved side but may subdivide it differently, so
+ * their polylines along it differ by up to the sum of their chord errors, and a pixel centre in
+ * the sliver between them would be painted by neither (a white pixel inside the fill; seen on
+ * the deformed shape, where every side is curved). A quadratic side whose midside node lies d
+ * pixels off its chord's midpoint is a parabola of sagitta d; cut into n chords, each has
+ * sagitta d / n^2. With both errors under CHORD_ERROR_PX the sliver is under 2 CHORD_ERROR_PX,
+ * which paintField's overlap of OVERLAP_PX covers.
  */
 export function subdivisions(mesh: DrawMesh, e: number, view: View, k = 1, forIso = false): number {
   if (mesh.order === 1) return 1;
   const el = mesh.elements;
   const straight = isStraight(mesh.nodes, el, e);
   if (straight && !forIso) return 1;
+  const nodes = mesh.nodes;
   let size = 0;
+  let bow = 0;
   for (let i = 0; i < 3; i++) {
     const a = el[6 * e + i];
     const b = el[6 * e + ((i + 1) % 3)];
-    size = Math.max(size, Math.hypot(mesh.nodes[2 * a] - mesh.nodes[2 * b], mesh.nodes[2 * a + 1] - mesh.nodes[2 * b + 1]));
+    const m = el[6 * e + 3 + i];
+    size = Math.max(size, Math.hypot(nodes[2 * a] - nodes[2 * b], nodes[2 * a + 1] - nodes[2 * b + 1]));
+    bow = Math.max(bow, Math.hypot(nodes[2 * m] - 0.5 * (nodes[2 * a] + nodes[2 * b]), nodes[2 * m + 1] - 0.5 * (nodes[2 * a + 1] + nodes[2 * b + 1])));
   }
   const px = size * view.s * k;
-  const n = Math.ceil(px / 6);
-  return Math.max(forIso ? 3 : 2, Math.min(16, n));
+  const bySize = Math.max(forIso ? 3 : 2, Math.min(16, Math.ceil(px / 6)));
+  const byBow = Math.min(32, Math.ceil(Math.sqrt((bow * view.s * k) / CHORD_ERROR_PX)));
+  return Math.max(bySize, byBow);
 }
 
 /**
@@ -237,33 +256,47 @@ export function paintField(r: Raster, mesh: DrawMesh, view: View, field: FieldSp
     const b2x = -(y1 - y0) * inv;
     const b2y = (x1 - x0) * inv;
     const b2c = -((x1 - x0) * y0 - x0 * (y1 - y0)) * inv;
-    const eps = -1e-9;
-    for (let py = minY; py <= maxY; py++) {
+    // A pixel centre up to OVERLAP_PX outside the sub-triangle is painted too: b_i >= -OVERLAP_PX
+    // |grad b_i| (|grad b_i| is one over the sub-triangle's height from corner i, in pixels).
+    const b0x = -b1x - b2x;
+    const b0y = -b1y - b2y;
+    const eps0 = -OVERLAP_PX * Math.hypot(b0x, b0y);
+    const eps1 = -OVERLAP_PX * Math.hypot(b1x, b1y);
+    const eps2 = -OVERLAP_PX * Math.hypot(b2x, b2y);
+    const reach = Math.ceil(OVERLAP_PX);
+    const loX = Math.max(clip[0], minX - reach);
+    const hiX = Math.min(clip[2] - 1, maxX + reach);
+    for (let py = Math.max(clip[1], minY - reach); py <= Math.min(clip[3] - 1, maxY + reach); py++) {
       const cy = py + 0.5;
-      // The span of pixel centres on this row with b0, b1, b2 >= eps (each affine in cx).
-      let lo = minX + 0.5;
-      let hi = maxX + 0.5;
+      // The span of pixel centres on this row with b_i >= eps_i (each affine in cx).
+      let lo = loX + 0.5;
+      let hi = hiX + 0.5;
       const a1 = b1c + b1y * cy;
       const a2 = b2c + b2y * cy;
       const a0 = 1 - a1 - a2;
-      const b0x = -b1x - b2x;
-      for (const [a, k] of [
-        [a0, b0x],
-        [a1, b1x],
-        [a2, b2x],
+      for (const [a, k, eps] of [
+        [a0, b0x, eps0],
+        [a1, b1x, eps1],
+        [a2, b2x, eps2],
       ]) {
         if (k > 0) lo = Math.max(lo, (eps - a) / k);
         else if (k < 0) hi = Math.min(hi, (eps - a) / k);
         else if (a < eps) hi = -Infinity;
       }
-      const pxStart = Math.max(minX, Math.ceil(lo - 0.5));
-      const pxEnd = Math.min(maxX, Math.floor(hi - 0.5));
+      const pxStart = Math.max(loX, Math.ceil(lo - 0.5));
+      const pxEnd = Math.min(hiX, Math.floor(hi - 0.5));
       for (let px = pxStart; px <= pxEnd; px++) {
         const cx = px + 0.5;
+        // The value at the nearest point of the sub-triangle (barycentrics clamped into it).
         let b1 = a1 + b1x * cx;
         let b2 = a2 + b2x * cx;
         if (b1 < 0) b1 = 0;
         if (b2 < 0) b2 = 0;
+        if (b1 + b2 > 1) {
+          const t = 1 / (b1 + b2);
+          b1 *= t;
+          b2 *= t;
+        }
         const b0 = 1 - b1 - b2;
         const xi = b0 * xa + b1 * xb + b2 * xc;
         const eta = b0 * ea + b1 * eb + b2 * ec;

@@ -12,7 +12,8 @@
  */
 import type { Domain } from '../geometry/domain.js';
 import type { Mesh } from '../mesh/types.js';
-import { INK, SOFT } from './annotate.js';
+import { drawScaleBar, INK, SOFT } from './annotate.js';
+import { textWidth } from './font.js';
 import { edgePolyline, fitView, meshEdgeLines, type View } from './field.js';
 import type { Rgb } from './raster.js';
 import { addText, newScene, renderPng, renderSvg, type Box, type Scene } from './scene.js';
@@ -41,6 +42,10 @@ export interface GeometryPictureInput {
   lines: string[];
   /** picture width in pixels (default 1600) */
   width?: number;
+  /** the footer every picture carries: the model, tool and date line, and the caution line */
+  footer?: { line: string; caution: string };
+  /** the length unit's name, for the scale bar (default "mm") */
+  lengthUnit?: string;
 }
 
 export interface GeometryPicture {
@@ -51,6 +56,17 @@ export interface GeometryPicture {
   legend: { tags: string[]; colour: Rgb; edges: number }[];
   /** tags carried by every edge */
   common: string[];
+}
+
+/** The caution line's colour, as on the pictures of a solution. */
+const CAUTION: Rgb = [150, 40, 30];
+
+/** The text cut with an ellipsis to fit the width. */
+function fitText(text: string, size: number, width: number): string {
+  if (textWidth(text, size) <= width) return text;
+  let t = text;
+  while (t.length > 4 && textWidth(t + '...', size) > width) t = t.slice(0, -1);
+  return t + '...';
 }
 
 /** Scene, PNG and SVG of the tagged geometry and its mesh. */
@@ -82,7 +98,10 @@ export function drawGeometryPicture(input: GeometryPictureInput): GeometryPictur
   const aspect = Math.max(by1 - by0, 1e-300) / Math.max(bx1 - bx0, 1e-300);
   const drawW = W - legendW - 2 * margin;
   const drawH = Math.max(8 * size, Math.min(1.2 * W, aspect * drawW), (groups.length + 2) * 1.6 * size);
-  const H = Math.round(top + drawH + margin);
+  // below the drawing: a strip for the scale bar, then the footer's two lines
+  const barStrip = 2.6 * size;
+  const footH = input.footer ? 2 * 1.45 * 0.82 * size + 0.6 * size : 0;
+  const H = Math.round(top + drawH + barStrip + footH + margin);
   const draw: Box = [margin, top, margin + drawW, top + drawH];
   const view: View = fitView(domain.bbox, draw);
   const s = newScene(W, H, `mesh before solving: ${input.title}`);
@@ -135,6 +154,14 @@ export function drawGeometryPicture(input: GeometryPictureInput): GeometryPictur
     s.items.push({ kind: 'stroke', lines: [[lx, y - 0.35 * size, lx + 2 * size, y - 0.35 * size]], width: 0.32 * size, colour: g.colour });
     addText(s, `${g.tags.length ? g.tags.join(', ') : '(no tag)'} (${g.edges} edge${g.edges === 1 ? '' : 's'})`, lx + 2.6 * size, y, 0.9 * size, INK, { what: 'legend' });
   });
+  const barY = top + drawH + 1.9 * size;
+  drawScaleBar(s, margin + 0.4 * size, barY, view.s, 0.22 * drawW, input.lengthUnit ?? 'mm', 0.9 * size);
+  if (input.footer) {
+    const fs = 0.82 * size;
+    const y2 = H - 0.9 * margin;
+    addText(s, fitText(input.footer.line, fs, W - 2 * margin), margin, y2 - 1.45 * fs, fs, SOFT, { what: 'footer' });
+    addText(s, fitText(input.footer.caution, fs, W - 2 * margin), margin, y2, fs, CAUTION, { what: 'caution' });
+  }
   return {
     scene: s,
     png: renderPng(s).toPng(),

@@ -9,18 +9,19 @@ import { join } from 'node:path';
 import type { StressMeasure } from '../model/schema.js';
 import { FieldProbe } from '../mesh/probe.js';
 import { stressMeasure } from '../post/stress.js';
-import { drawLabel, drawLegend, drawMarker, drawScaleBar, INK, SOFT } from '../render/annotate.js';
+import { boxesOverlap, drawLabel, drawLabelAvoiding, drawLegend, drawMarker, drawScaleBar, INK, markerBox, scaleBarBox, SOFT } from '../render/annotate.js';
 import { drawChart, type Series } from '../render/chart.js';
 import { DEFAULT_MAP } from '../render/colormap.js';
 import { capHeight, textWidth } from '../render/font.js';
 import { edgePolyline, fitView, fieldRange, isoSegments, meshEdgeLines, paintField, toPixel, type DrawMesh, type FieldSpec, type View } from '../render/field.js';
-import type { Rgb } from '../render/raster.js';
+import { Raster, type Rgb } from '../render/raster.js';
 import { addText, newScene, renderPng, renderSvg, type Box, type Scene } from '../render/scene.js';
 import { formatValue } from '../render/ticks.js';
 import { drawBoundaryConditions } from '../render/boundary-conditions.js';
 import { buildDomain } from '../geometry/domain.js';
 import { writeAtomic } from './files.js';
 import type { PlotSource } from './saved.js';
+import { TOOL_VERSION } from './result.js';
 
 export interface PictureOptions {
   /** picture size in pixels (default 1600 x 1000) */
@@ -117,8 +118,16 @@ export interface Frame {
   legend: Box | null;
 }
 
+/** What a picture drawn from no saved solution (a sweep's chart) names in its footer. */
+export interface FooterSource {
+  /** the model: its title and file */
+  model: string;
+  /** when the data were made, ISO 8601 */
+  createdAt: string;
+}
+
 /** Title, subtitle and footer (model, date, caution); returns the drawing area and legend column. */
-export function frame(s: Scene, src: PlotSource | null, title: string, subtitle: string, withLegend: boolean): Frame {
+export function frame(s: Scene, src: PlotSource | FooterSource | null, title: string, subtitle: string, withLegend: boolean): Frame {
   const W = s.width;
   const H = s.height;
   const size = Math.max(11, Math.min(22, Math.min(W / 1.6, H) / 58));
@@ -127,10 +136,10 @@ export function frame(s: Scene, src: PlotSource | null, title: string, subtitle:
   addText(s, subtitle, m, m + capHeight(size * 1.35) + size * 1.6, size, SOFT, { what: 'subtitle' });
   const top = m + capHeight(size * 1.35) + size * 2.6;
   const fs = size * 0.82;
-  const r = src?.result;
-  const model = r ? `${r.model.title ?? 'untitled model'}${r.model.file ? ` (${r.model.file})` : ''}` : '';
+  const r = src && 'result' in src ? src.result : null;
+  const model = r ? `${r.model.title ?? 'untitled model'}${r.model.file ? ` (${r.model.file})` : ''}` : src && 'model' in src && typeof src.model === 'string' ? src.model : '';
   const date = src ? src.createdAt.slice(0, 10) : '';
-  const foot1 = [model, `raiser ${r?.tool.version ?? ''}`.trim(), date].filter(Boolean).join('  |  ');
+  const foot1 = [model, `raiser ${r?.tool.version ?? TOOL_VERSION}`, date].filter(Boolean).join('  |  ');
   const y2 = H - m * 0.8;
   const y1 = y2 - fs * 1.45;
   addText(s, fit(foot1, fs, W - 2 * m), m, y1, fs, SOFT, { what: 'footer' });
@@ -148,6 +157,12 @@ function fit(text: string, size: number, width: number): string {
   let t = text;
   while (t.length > 4 && textWidth(t + '...', size) > width) t = t.slice(0, -1);
   return t + '...';
+}
+
+/** The words that say a picture shows the whole part drawn from a half or quarter model. */
+function wholeWords(planes: PlaneOfResult[]): string {
+  if (planes.length === 0) return '';
+  return `; whole part: the ${planes.length === 2 ? 'quarter' : 'half'} model mirrored (dash-dot)`;
 }
 
 function describeMesh(src: PlotSource): string {
@@ -193,15 +208,188 @@ function inflate(b: Box, d: number): Box {
   return [b[0] + d, b[1] + d, b[2] - d, b[3] - d];
 }
 
+/** A mirror plane as result.json records it (absent in results written before it was). */
+interface PlaneOfResult {
+  axis: 'x' | 'y';
+  at: number;
+  edges: number[];
+}
+
+function mirrorPlanes(src: PlotSource): PlaneOfResult[] {
+  const planes = (src.result as { mirrorPlanes?: PlaneOfResult[] }).mirrorPlanes ?? [];
+  // one plane per axis: two parallel mirror planes would make an endless strip, not a part
+  return planes.filter((p, i) => planes.findIndex((q) => q.axis === p.axis) === i);
+}
+
+/**
+ * The whole part of a half or quarter model, as a plot source: the modelled piece and its
+ * reflections in the mirror planes the analysis recorded (result.mirrorPlanes). Copy c reflects
+ * in x when bit 0 is set and in y when bit 1 is; a reflected copy has its elements' order
+ * reversed (so they stay counter-clockwise), its displacement across the plane negated and its
+ * shear stress sxy negated (sxy changes sign under a reflection in x or y; sxx and syy, and so
+ * every invariant measure, do not). Nodes on a plane are shared with the copy across it, and the
+ * boundary edges on the planes, inside the whole part, are left out, so the outline closes round
+ * the whole part. Returns the source unchanged for a whole model.
+ */
+export function wholePart(src: PlotSource): { src: PlotSource; planes: PlaneOfResult[] } {
+  const planes = mirrorPlanes(src);
+  if (planes.length === 0) return { src, planes };
+  const m = src.mesh;
+  const n = m.nNodes;
+  const per = m.order === 2 ? 6 : 3;
+  const box = bbox(m.nodes);
+  const tol = 1e-9 * Math.max(box[2] - box[0], box[3] - box[1]);
+  const px = planes.find((p) => p.axis === 'x');
+  const py = planes.find((p) => p.axis === 'y');
+  const copies = [0, 1, 2, 3].filter((c) => (!(c & 1) || px) && (!(c & 2) || py));
+  const nc = copies.length;
+  const nodes = new Float64Array(2 * n * nc);
+  const u = new Float64Array(2 * n * nc);
+  const stress = new Float64Array(3 * n * nc);
+  const slot = new Map(copies.map((c, k) => [c, k]));
+  const onX = (i: number) => !!px && Math.abs(m.nodes[2 * i] - px.at) <= tol;
+  const onY = (i: number) => !!py && Math.abs(m.nodes[2 * i + 1] - py.at) <= tol;
+  // the index of node i in copy c: a node on a plane belongs to the copy not reflected in it
+  const index = (c: number, i: number) => slot.get(c & ~(onX(i) ? 1 : 0) & ~(onY(i) ? 2 : 0))! * n + i;
+  copies.forEach((c, k) => {
+    const fx = c & 1 ? -1 : 1;
+    const fy = c & 2 ? -1 : 1;
+    for (let i = 0; i < n; i++) {
+      const j = k * n + i;
+      nodes[2 * j] = c & 1 ? 2 * px!.at - m.nodes[2 * i] : m.nodes[2 * i];
+      nodes[2 * j + 1] = c & 2 ? 2 * py!.at - m.nodes[2 * i + 1] : m.nodes[2 * i + 1];
+      u[2 * j] = fx * src.u[2 * i];
+      u[2 * j + 1] = fy * src.u[2 * i + 1];
+      stress[3 * j] = src.stress[3 * i];
+      stress[3 * j + 1] = src.stress[3 * i + 1];
+      stress[3 * j + 2] = fx * fy * src.stress[3 * i + 2];
+    }
+  });
+  // corners 0 1 2, mid-sides 3 (0-1) 4 (1-2) 5 (2-0); reversed: 0 2 1, 5 4 3
+  const flip = per === 6 ? [0, 2, 1, 5, 4, 3] : [0, 2, 1];
+  const elements = new Int32Array(per * m.nElements * nc);
+  const mirrorEdge = new Set(planes.flatMap((p) => p.edges));
+  const keep: number[] = [];
+  for (let b = 0; b < m.nBEdges; b++) if (!mirrorEdge.has(m.bEdgeDomain[b])) keep.push(b);
+  const bEdges = new Int32Array(3 * keep.length * nc);
+  const bEdgeDomain = new Int32Array(keep.length * nc);
+  copies.forEach((c, k) => {
+    const odd = ((c & 1) ^ ((c >> 1) & 1)) === 1;
+    for (let e = 0; e < m.nElements; e++) {
+      for (let a = 0; a < per; a++) elements[per * (k * m.nElements + e) + a] = index(c, m.elements[per * e + (odd ? flip[a] : a)]);
+    }
+    keep.forEach((b, q) => {
+      const o = 3 * (k * keep.length + q);
+      const [s0, s1, mid] = [m.bEdges[3 * b], m.bEdges[3 * b + 1], m.bEdges[3 * b + 2]];
+      bEdges[o] = index(c, odd ? s1 : s0);
+      bEdges[o + 1] = index(c, odd ? s0 : s1);
+      bEdges[o + 2] = mid >= 0 ? index(c, mid) : -1;
+      bEdgeDomain[k * keep.length + q] = m.bEdgeDomain[b];
+    });
+  });
+  const mesh = {
+    ...m,
+    nNodes: n * nc,
+    nVertices: m.nVertices * nc,
+    nodes,
+    nElements: m.nElements * nc,
+    elements,
+    nBEdges: keep.length * nc,
+    bEdges,
+    bEdgeDomain,
+    bEdgeT: new Float64Array(2 * keep.length * nc),
+    nodeEdge: new Int32Array(n * nc).fill(-1),
+    nodeCorner: new Int32Array(n * nc).fill(-1),
+  };
+  return { src: { ...src, mesh, u, stress }, planes };
+}
+
+/**
+ * Marks the cut planes of a whole part drawn from a half or quarter model: a thin dash-dot line
+ * along each plane across the part, and the words "symmetry plane" beside one end.
+ */
+function drawMirrorPlanes(s: Scene, planes: PlaneOfResult[], whole: PlotSource, view: View, fr: Frame): void {
+  const [x0, y0, x1, y1] = bbox(whole.mesh.nodes);
+  const over = (fr.size * 1.2) / view.s;
+  for (const p of planes) {
+    const [ax, ay] = p.axis === 'x' ? toPixel(view, p.at, y1 + over) : toPixel(view, x0 - over, p.at);
+    const [bx, by] = p.axis === 'x' ? toPixel(view, p.at, y0 - over) : toPixel(view, x1 + over, p.at);
+    s.items.push({ kind: 'stroke', lines: [[ax, ay, bx, by]], width: 1.1, colour: INK, dash: [16, 4, 3, 4], alpha: 0.8, clip: fr.draw });
+    const ls = fr.size * 0.8;
+    const places: [number, number][] =
+      p.axis === 'x'
+        ? [[ax + ls * 0.5, ay + ls * 0.3], [bx + ls * 0.5, by], [ax - ls * 0.5, ay + ls * 0.3]]
+        : [[bx - ls * 0.3, by - ls * 0.5], [ax + ls * 0.3, ay - ls * 0.5], [bx - ls * 0.3, by + ls * 1.4]];
+    drawLabelAvoiding(s, 'symmetry plane', places, ls, fr.draw, `symmetry plane ${p.axis} = ${formatValue(p.at)}`, { anchor: p.axis === 'x' ? 'start' : 'end', colour: SOFT });
+  }
+}
+
+/** Whether any pixel of the box is covered by the mask (a raster whose alpha marks what is drawn). */
+function maskCovers(mask: Raster, b: Box): boolean {
+  const x0 = Math.max(0, Math.floor(b[0]));
+  const x1 = Math.min(mask.width, Math.ceil(b[2]));
+  const y0 = Math.max(0, Math.floor(b[1]));
+  const y1 = Math.min(mask.height, Math.ceil(b[3]));
+  for (let y = y0; y < y1; y++) for (let x = x0; x < x1; x++) if (mask.data[4 * (y * mask.width + x) + 3] > 0) return true;
+  return false;
+}
+
+interface PartLayout {
+  view: View;
+  /** the left end of the scale bar's bar */
+  bar: [number, number];
+}
+
+/**
+ * The view of the part and the place of its scale bar, so that the bar never covers the part:
+ * the part fitted into the drawing area less `margin`, the bar in the first corner of the
+ * drawing area (lower left, lower right, upper left, upper right) where its box covers none of
+ * the part's loops (`loopsAt` gives them, in pixels, for a view) and none of the boxes drawn so
+ * far; when every corner is taken, the part is fitted above a strip kept for the bar.
+ */
+function layoutPart(s: Scene, fr: Frame, win: readonly number[], margin: number, unit: string, loopsAt: (v: View) => number[][]): PartLayout {
+  const d = fr.draw;
+  const size = fr.size * 0.9;
+  const maxPx = 0.22 * (d[2] - d[0]);
+  const inset = fr.size * 0.6;
+  const tryView = (view: View): [number, number] | null => {
+    const mask = new Raster(s.width, s.height, null);
+    mask.setClip(d);
+    mask.fillPath(loopsAt(view), INK);
+    const probe = scaleBarBox(0, 0, view.s, maxPx, unit, size).box;
+    const w = probe[2] - probe[0];
+    const h = probe[3] - probe[1];
+    const spots: [number, number][] = [
+      [d[0] + inset, d[3] - inset],
+      [d[2] - inset - w + size * 0.4, d[3] - inset],
+      [d[0] + inset, d[1] + inset + h - size * 0.6],
+      [d[2] - inset - w + size * 0.4, d[1] + inset + h - size * 0.6],
+    ];
+    for (const [x, y] of spots) {
+      const b = scaleBarBox(x, y, view.s, maxPx, unit, size).box;
+      if (!maskCovers(mask, b) && !s.info.boxes.some((t) => boxesOverlap(t.box, b))) return [x, y];
+    }
+    return null;
+  };
+  const view = fitView(win, inflate(d, margin));
+  const bar = tryView(view);
+  if (bar) return { view, bar };
+  const strip = capHeight(size) + size * 1.7 + inset;
+  const kept = fitView(win, inflate([d[0], d[1], d[2], d[3] - strip], margin));
+  return { view: kept, bar: [d[0] + inset, d[3] - inset] };
+}
+
 /** The stress contour of a measure with legend, peak, scale bar, iso-lines and (optionally) mesh lines. */
-export function contourScene(src: PlotSource, opts: PictureOptions = {}, title?: string): Scene {
+export function contourScene(model: PlotSource, opts: PictureOptions = {}, title?: string): Scene {
+  // the whole part unless a window is asked for (the close-up of the peak stays as modelled)
+  const { src, planes } = opts.window ? { src: model, planes: [] } : wholePart(model);
   const W = opts.width ?? 1600;
   const win = opts.window ?? bbox(src.mesh.nodes);
   const H = opts.height ?? (opts.window ? 1000 : autoHeight(W, win, true));
   const measure = opts.measure ?? src.result.peak.measure;
   const unit = src.result.units.stress;
   const s = newScene(W, H, title ?? `${measureName(measure)}: ${src.result.model.title ?? 'raiser'}`);
-  const fr = frame(s, src, title ?? src.result.model.title ?? 'Stress', `${measureName(measure)} (${unit}), recovered nodal stresses interpolated per pixel; ${describeMesh(src)}`, true);
+  const fr = frame(s, src, title ?? src.result.model.title ?? 'Stress', `${measureName(measure)} (${unit}), recovered nodal stresses interpolated per pixel; ${describeMesh(model)}${wholeWords(planes)}`, true);
   const field = stressField(src, measure);
   const dataRange = fieldRange(src.mesh, field);
   const peak = peakOf(src, measure);
@@ -209,7 +397,7 @@ export function contourScene(src: PlotSource, opts: PictureOptions = {}, title?:
   else dataRange[1] = Math.max(dataRange[1], peak.value);
   let range: [number, number] = opts.range ? [opts.range[0], opts.range[1]] : [dataRange[0], dataRange[1]];
   if (!(range[1] > range[0])) range = [range[0] - (Math.abs(range[0]) || 1) * 0.01, range[0] + (Math.abs(range[0]) || 1) * 0.01];
-  const view = fitView(win, inflate(fr.draw, fr.size * 0.8));
+  const { view, bar } = layoutPart(s, fr, win, fr.size * 0.8, src.result.units.length, (v) => outlineLoops(src, src.mesh.nodes, v));
   const scale = { lo: range[0], hi: range[1], map: DEFAULT_MAP };
   s.items.push({ kind: 'layer', paint: (r, k) => paintField(r, src.mesh, view, field, scale, k), clip: fr.draw });
   const legend = drawLegend(s, fr.legend!, [measureName(measure), unit], DEFAULT_MAP, range, dataRange, fr.size);
@@ -222,32 +410,36 @@ export function contourScene(src: PlotSource, opts: PictureOptions = {}, title?:
   }
   if (opts.meshLines) s.items.push({ kind: 'stroke', lines: meshEdgeLines(src.mesh, view), width: 0.7, colour: [20, 20, 28], alpha: 0.4, clip: fr.draw });
   s.items.push({ kind: 'stroke', lines: outlineLoops(src, src.mesh.nodes, view), closed: true, width: 1.8, colour: INK, clip: fr.draw });
+  drawMirrorPlanes(s, planes, src, view, fr);
   const [ppx, ppy] = toPixel(view, peak.x, peak.y);
   const inside = ppx >= fr.draw[0] && ppx <= fr.draw[2] && ppy >= fr.draw[1] && ppy <= fr.draw[3];
+  const sb = drawScaleBar(s, bar[0], bar[1], view.s, 0.22 * (fr.draw[2] - fr.draw[0]), src.result.units.length, fr.size * 0.9);
   if (inside) drawMarker(s, ppx, ppy, `peak ${formatValue(peak.value)} ${unit}`, fr.size, fr.draw, 'peak');
-  const sb = drawScaleBar(s, fr.draw[0] + fr.size * 0.6, fr.draw[3] - fr.size * 0.6, view.s, 0.22 * (fr.draw[2] - fr.draw[0]), src.result.units.length, fr.size * 0.9);
   Object.assign(s.info, { view, draw: fr.draw, range, dataRange, ticks: legend.ticks, bar: legend.bar, peak: inside ? [ppx, ppy] : null, peakValue: peak.value, measure, scaleBar: sb.length });
   return s;
 }
 
 /** The mesh: elements on a light plate, the outline, and the mesh figures. */
-export function meshScene(src: PlotSource, opts: PictureOptions = {}): Scene {
+export function meshScene(model: PlotSource, opts: PictureOptions = {}): Scene {
+  const { src, planes } = opts.window ? { src: model, planes: [] } : wholePart(model);
   const W = opts.width ?? 1600;
   const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), false);
   const r = src.result;
   const s = newScene(W, H, `mesh: ${r.model.title ?? 'raiser'}`);
-  const fr = frame(s, src, `Mesh: ${r.model.title ?? ''}`.trim(), `${describeMesh(src)}, ${r.mesh.dofs} DOF, smallest angle ${formatValue(r.mesh.minAngleDeg, 3)} deg, largest ${formatValue(r.mesh.maxAngleDeg, 3)} deg`, false);
-  const view = fitView(opts.window ?? bbox(src.mesh.nodes), inflate(fr.draw, fr.size * 0.8));
+  const fr = frame(s, src, `Mesh: ${r.model.title ?? ''}`.trim(), `${describeMesh(model)}, ${r.mesh.dofs} DOF, smallest angle ${formatValue(r.mesh.minAngleDeg, 3)} deg, largest ${formatValue(r.mesh.maxAngleDeg, 3)} deg${wholeWords(planes)}`, false);
+  const { view, bar } = layoutPart(s, fr, opts.window ?? bbox(src.mesh.nodes), fr.size * 0.8, r.units.length, (v) => outlineLoops(src, src.mesh.nodes, v));
   s.items.push({ kind: 'fill', paths: outlineLoops(src, src.mesh.nodes, view), colour: PLATE_FILL, clip: fr.draw });
   s.items.push({ kind: 'stroke', lines: meshEdgeLines(src.mesh, view), width: 0.7, colour: [40, 44, 56], alpha: 0.75, clip: fr.draw });
   s.items.push({ kind: 'stroke', lines: outlineLoops(src, src.mesh.nodes, view), closed: true, width: 1.8, colour: INK, clip: fr.draw });
-  drawScaleBar(s, fr.draw[0] + fr.size * 0.6, fr.draw[3] - fr.size * 0.6, view.s, 0.22 * (fr.draw[2] - fr.draw[0]), r.units.length, fr.size * 0.9);
+  drawMirrorPlanes(s, planes, src, view, fr);
+  drawScaleBar(s, bar[0], bar[1], view.s, 0.22 * (fr.draw[2] - fr.draw[0]), r.units.length, fr.size * 0.9);
   Object.assign(s.info, { view, draw: fr.draw });
   return s;
 }
 
 /** The deformed shape, displacements magnified by a round factor, coloured by displacement magnitude. */
-export function deformedScene(src: PlotSource, opts: PictureOptions = {}): Scene {
+export function deformedScene(model: PlotSource, opts: PictureOptions = {}): Scene {
+  const { src, planes } = opts.window ? { src: model, planes: [] } : wholePart(model);
   const W = opts.width ?? 1600;
   const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), true);
   const r = src.result;
@@ -258,20 +450,26 @@ export function deformedScene(src: PlotSource, opts: PictureOptions = {}): Scene
   const factor = umax > 0 ? roundFactor((0.08 * size) / umax) : 1;
   const unit = r.units.length;
   const s = newScene(W, H, `deformed shape: ${r.model.title ?? 'raiser'}`);
-  const fr = frame(s, src, `Deformed shape: ${r.model.title ?? ''}`.trim(), `displacements drawn ${formatValue(factor, 3)} times magnified; largest displacement ${formatValue(umax)} ${unit}; undeformed outline dashed`, true);
+  const fr = frame(s, src, `Deformed shape: ${r.model.title ?? ''}`.trim(), `displacements drawn ${formatValue(factor, 3)} times magnified; largest displacement ${formatValue(umax)} ${unit}; undeformed outline dashed${wholeWords(planes)}`, true);
   const dm = drawMesh(src, factor);
   const dbox = bbox(dm.nodes);
   const all: [number, number, number, number] = opts.window ?? [Math.min(box[0], dbox[0]), Math.min(box[1], dbox[1]), Math.max(box[2], dbox[2]), Math.max(box[3], dbox[3])];
-  const view = fitView(all, inflate(fr.draw, fr.size * 0.8));
+  const factorText = `displacements x ${formatValue(factor, 3)}`;
+  // the factor's label is placed first, so that the scale bar keeps clear of it, and drawn last
+  const labelFrom = s.items.length;
+  drawLabel(s, factorText, fr.draw[2] - fr.size * 0.6, fr.draw[1] + fr.size * 1.6, fr.size, 'factor label', { anchor: 'end', weight: 'bold' });
+  const factorLabel = s.items.splice(labelFrom);
+  const { view, bar } = layoutPart(s, fr, all, fr.size * 0.8, unit, (v) => [...outlineLoops(src, src.mesh.nodes, v), ...outlineLoops(src, dm.nodes, v)]);
   const field: FieldSpec = { data: src.u, stride: 2, value: (c) => Math.hypot(c[0], c[1]) };
   const range: [number, number] = opts.range ?? [0, umax || 1];
   s.items.push({ kind: 'stroke', lines: outlineLoops(src, src.mesh.nodes, view), closed: true, width: 1.2, colour: SOFT, dash: [6, 4], clip: fr.draw });
   s.items.push({ kind: 'layer', paint: (rr, k) => paintField(rr, dm, view, field, { lo: range[0], hi: range[1], map: DEFAULT_MAP }, k), clip: fr.draw });
   if (opts.meshLines) s.items.push({ kind: 'stroke', lines: meshEdgeLines(dm, view), width: 0.6, colour: [20, 20, 28], alpha: 0.35, clip: fr.draw });
   s.items.push({ kind: 'stroke', lines: outlineLoops(src, dm.nodes, view), closed: true, width: 1.8, colour: INK, clip: fr.draw });
+  drawMirrorPlanes(s, planes, src, view, fr);
   drawLegend(s, fr.legend!, ['displacement', `magnitude (${unit})`], DEFAULT_MAP, range, [0, umax], fr.size);
-  drawLabel(s, `displacements x ${formatValue(factor, 3)}`, fr.draw[2] - fr.size * 0.6, fr.draw[1] + fr.size * 1.6, fr.size, 'factor label', { anchor: 'end', weight: 'bold' });
-  drawScaleBar(s, fr.draw[0] + fr.size * 0.6, fr.draw[3] - fr.size * 0.6, view.s, 0.22 * (fr.draw[2] - fr.draw[0]), unit, fr.size * 0.9);
+  s.items.push(...factorLabel);
+  drawScaleBar(s, bar[0], bar[1], view.s, 0.22 * (fr.draw[2] - fr.draw[0]), unit, fr.size * 0.9);
   Object.assign(s.info, { view, draw: fr.draw, factor, umax });
   return s;
 }
@@ -323,7 +521,8 @@ export function closeupScene(src: PlotSource, opts: PictureOptions = {}): Scene 
 }
 
 /** The geometry with the net and gross sections and the peak. */
-export function geometryScene(src: PlotSource, opts: PictureOptions = {}): Scene {
+export function geometryScene(model: PlotSource, opts: PictureOptions = {}): Scene {
+  const { src, planes } = opts.window ? { src: model, planes: [] } : wholePart(model);
   const W = opts.width ?? 1600;
   const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), false) + 60;
   const r = src.result;
@@ -337,11 +536,17 @@ export function geometryScene(src: PlotSource, opts: PictureOptions = {}): Scene
     domain = null;
   }
   const bcWords = domain ? 'loads L (arrows, not to scale) and supports S' : 'loads and supports not drawn (the drawing the geometry came from could not be read again)';
-  const fr = frame(s, src, `Geometry and nominal sections: ${r.model.title ?? ''}`.trim(), `each raiser's net section (least material across the flow) solid, gross section dashed; ${bcWords}; lengths in ${r.units.length}`, false);
+  const fr = frame(s, src, `Geometry and nominal sections: ${r.model.title ?? ''}`.trim(), `each raiser's net section (least material across the flow) solid, gross section dashed; ${bcWords}; lengths in ${r.units.length}${wholeWords(planes)}`, false);
   // room around the plate for the load arrows (2.6 sizes) and their labels
-  const view = fitView(opts.window ?? bbox(src.mesh.nodes), inflate(fr.draw, fr.size * 4.4));
+  const { view, bar } = layoutPart(s, fr, opts.window ?? bbox(src.mesh.nodes), fr.size * 4.4, r.units.length, (v) => outlineLoops(src, src.mesh.nodes, v));
+  // The peak's ring is kept free of the section labels placed before it is drawn.
+  const [px, py] = toPixel(view, r.peak.x, r.peak.y);
+  s.info.boxes.push({ what: 'peak marker', box: markerBox(px, py, fr.size * 0.9) });
+  // the scale bar first, so that the labels keep clear of it
+  drawScaleBar(s, bar[0], bar[1], view.s, 0.22 * (fr.draw[2] - fr.draw[0]), r.units.length, fr.size * 0.9);
   s.items.push({ kind: 'fill', paths: outlineLoops(src, src.mesh.nodes, view), colour: PLATE_FILL, clip: fr.draw });
   s.items.push({ kind: 'stroke', lines: outlineLoops(src, src.mesh.nodes, view), closed: true, width: 1.8, colour: INK, clip: fr.draw });
+  drawMirrorPlanes(s, planes, src, view, fr);
   type Sec = { ligaments: { from: [number, number]; to: [number, number] }[]; from: [number, number]; to: [number, number] };
   const sec = (c: Sec, colour: Rgb, dash: number[] | undefined, label: string, below: boolean) => {
     const lines = c.ligaments.map((iv) => [...toPixel(view, iv.from[0], iv.from[1]), ...toPixel(view, iv.to[0], iv.to[1])]);
@@ -349,7 +554,19 @@ export function geometryScene(src: PlotSource, opts: PictureOptions = {}): Scene
     const [ax, ay] = toPixel(view, c.from[0], c.from[1]);
     const [bx, by] = toPixel(view, c.to[0], c.to[1]);
     const end = below ? (ay > by ? [ax, ay] : [bx, by]) : ay < by ? [ax, ay] : [bx, by];
-    drawLabel(s, label, end[0], end[1] + (below ? fr.size * 1.6 : -fr.size * 0.6), fr.size * 0.9, `${label} label`, { anchor: 'middle', colour });
+    const other = end[0] === ax && end[1] === ay ? [bx, by] : [ax, ay];
+    const ls = fr.size * 0.9;
+    // beside the chosen end of the section, nudged along, then stacked away from the part, then
+    // the same beside the other end
+    const places: [number, number][] = [];
+    for (const [ex, ey, dn] of [
+      [end[0], end[1], below ? 1 : -1],
+      [other[0], other[1], below ? -1 : 1],
+    ]) {
+      const y = ey + (dn > 0 ? fr.size * 1.6 : -fr.size * 0.6);
+      for (let j = 0; j < 6; j++) for (const k of [0, 1, -1, 2, -2, 3, -3, 5, -5]) places.push([ex + k * 4 * ls, y + dn * j * ls * 1.7]);
+    }
+    drawLabelAvoiding(s, label, places, ls, fr.draw, `${label} label`, { anchor: 'middle', colour });
   };
   // Each raiser's sections; the governing one's labels name it.
   for (const x of r.raisers) {
@@ -358,10 +575,8 @@ export function geometryScene(src: PlotSource, opts: PictureOptions = {}): Scene
     const carried = x.section.mirror ? 'half of a symmetric section' : `N ${formatValue(x.section.N ?? NaN)} ${r.units.force}, M ${formatValue(x.section.M ?? NaN)} ${r.units.moment}`;
     sec(x.section, NET_COLOUR, undefined, `${x.name}: net ${formatValue(x.section.length)} ${r.units.length}; ${carried}`, false);
   }
-  const drawn = domain ? drawBoundaryConditions(s, src.mesh, domain, src.model.loads, src.model.supports, view, fr.size, r.pins?.items) : { loads: 0, supports: 0 };
-  const [px, py] = toPixel(view, r.peak.x, r.peak.y);
+  const drawn = domain ? drawBoundaryConditions(s, model.mesh, domain, src.model.loads, src.model.supports, view, fr.size, r.pins?.items) : { loads: 0, supports: 0 };
   drawMarker(s, px, py, `peak, ${r.peak.feature}`, fr.size * 0.9, fr.draw, 'peak');
-  drawScaleBar(s, fr.draw[0] + fr.size * 0.6, fr.draw[3] - fr.size * 0.6, view.s, 0.22 * (fr.draw[2] - fr.draw[0]), r.units.length, fr.size * 0.9);
   Object.assign(s.info, { view, draw: fr.draw, boundaryConditions: drawn });
   return s;
 }

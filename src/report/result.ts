@@ -298,6 +298,7 @@ function buildResultUnchecked(a: Analysis, file?: string, cert: Certified | null
       localPlasticity: y !== undefined ? Math.abs(a.peak.stress) > y : null,
     },
     pins: pinsResult(a),
+    mirrorPlanes: a.mirrorPlanes.map((p) => ({ axis: p.axis, at: p.at, edges: p.edges })),
     warnings,
     cautions: CAUTIONS,
   };

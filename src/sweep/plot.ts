@@ -7,7 +7,7 @@
 import type { Rgb } from '../render/raster.js';
 import { drawChart, type Band, type Series } from '../render/chart.js';
 import { newScene, type Scene } from '../render/scene.js';
-import { frame } from '../report/pictures.js';
+import { frame, type FooterSource } from '../report/pictures.js';
 import type { Vary } from './cases.js';
 import type { CaseRow } from './solve-case.js';
 
@@ -22,15 +22,37 @@ const COLOURS: Rgb[] = [
 
 export type SweepPoint = CaseRow & { x: number };
 
-export function sweepScene(rows: SweepPoint[], vary: Vary[], xLabel: string, title: string, width = 1400, height = 900): Scene {
-  const s = newScene(width, height, `Kt chart: ${title}`);
+/**
+ * What the chart is of: the family of parts the sweep ran over, not one of its cases.
+ * `family` names the parts (a chart family's title, or the model's title), `fixed` the
+ * dimensions held; the varied names are given with their ranges from `vary`.
+ */
+export interface SweepTitle {
+  family: string;
+  fixed: Record<string, number>;
+}
+
+const short = (v: number) => Number(v.toPrecision(4)).toString();
+
+/** "d from 10 to 50 (5 values)" for each varied name. */
+export function describeVary(vary: Vary[]): string {
+  return vary.map((v) => (v.values.length > 1 ? `${v.name} from ${short(Math.min(...v.values))} to ${short(Math.max(...v.values))} (${v.values.length} values)` : `${v.name} = ${short(v.values[0])}`)).join(', ');
+}
+
+export function sweepScene(rows: SweepPoint[], vary: Vary[], xLabel: string, title: SweepTitle, footer: FooterSource, width = 1400, height = 900): Scene {
+  const s = newScene(width, height, `Kt chart: ${title.family}`);
   const second = vary[1]?.name;
   const solved = rows.filter((r) => r.ktNet !== null).length;
+  const xs = rows.map((r) => r.x).filter(Number.isFinite);
+  const xRange = xs.length > 1 ? `, ${xLabel} ${short(Math.min(...xs))} to ${short(Math.max(...xs))}` : '';
+  const held = Object.entries(title.fixed)
+    .filter(([k]) => !vary.some((v) => v.name === k))
+    .map(([k, v]) => `${k} = ${short(v)}`);
   const fr = frame(
     s,
-    null,
-    `Kt against ${xLabel}: ${title}`,
-    `${solved} of ${rows.length} cases certified; bars are the error band of each case${rows.some((r) => r.chartKt !== null) ? '; dashed: the published chart' : ''}`,
+    footer,
+    `Kt against ${xLabel}: ${title.family}`,
+    `swept ${describeVary(vary)}${xRange}${held.length ? `; held ${held.join(', ')}` : ''}; ${solved} of ${rows.length} cases certified; bars are the error band of each case${rows.some((r) => r.chartKt !== null) ? '; dashed: the published chart' : ''}`,
     false,
   );
   const groups = new Map<string, SweepPoint[]>();

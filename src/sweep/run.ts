@@ -16,7 +16,8 @@ import { allCases, caseKey, readSweepSource, type SweepSource, type Vary } from 
 import { solveCase, type CaseOptions, type CaseRow } from './solve-case.js';
 import { decodeCaseFile, encodeCaseFile } from './case-file.js';
 import { renderPng, renderSvg } from '../render/scene.js';
-import { sweepScene } from './plot.js';
+import { sweepScene, type SweepTitle } from './plot.js';
+import { chartForFamily } from '../charts/library.js';
 
 export interface SweepOptions extends CaseOptions {
   vary: Vary[];
@@ -139,6 +140,22 @@ export async function runSweep(file: string, opts: SweepOptions): Promise<SweepR
   return { rows: ordered, failed, reused, redone, files, xLabel: xExpr };
 }
 
+/**
+ * The family a sweep runs over: for a template model, the title of its chart family (the
+ * model's own title names one case's dimensions, "d/W = 0.2" say), with the dimensions held;
+ * for a model with parameters, its title and the parameters held.
+ */
+export function sweepTitle(src: SweepSource): SweepTitle {
+  if (src.kind === 'template' && src.model.chart) {
+    const found = chartForFamily(src.model.chart.family, src.model.chart.dims);
+    const dims = { ...src.model.chart.dims };
+    delete dims.thickness;
+    const name = found?.chart.title ?? src.model.chart.family;
+    return { family: name.charAt(0).toUpperCase() + name.slice(1), fixed: dims };
+  }
+  return { family: src.model.title ?? src.file, fixed: { ...(src.model.parameters ?? {}) } };
+}
+
 /** x of a case: the expression evaluated with the case's values and the model's parameters or dimensions. */
 export function caseX(src: SweepSource, row: CaseRow, xExpr: string): number {
   const base = src.kind === 'parameters' ? (src.model.parameters ?? {}) : (src.model.chart?.dims ?? {});
@@ -162,7 +179,7 @@ function writeSweepFiles(outDir: string, src: SweepSource, rows: CaseRow[], vary
   writeAtomic(csv, lines.join('\n') + '\n');
   const json = join(outDir, 'sweep.json');
   writeAtomic(json, JSON.stringify({ model: src.file, vary, x: xExpr, rows: rows.map((r) => ({ ...r, x: caseX(src, r, xExpr) })) }, null, 2) + '\n');
-  const scene = sweepScene(rows.map((r) => ({ ...r, x: caseX(src, r, xExpr) })), vary, xExpr, src.model.title ?? src.file);
+  const scene = sweepScene(rows.map((r) => ({ ...r, x: caseX(src, r, xExpr) })), vary, xExpr, sweepTitle(src), { model: `${src.model.title ?? 'untitled model'} (${src.file}), the base of the sweep`, createdAt: new Date().toISOString() });
   const svg = join(outDir, 'sweep.svg');
   writeAtomic(svg, renderSvg(scene));
   const png = join(outDir, 'sweep.png');
