@@ -55,8 +55,19 @@ export const ArcSpec = z
       turn: z.enum(['ccw', 'cw']).describe('direction of travel around the centre, from this vertex to the next'),
     }),
     z.strictObject({ through: Point.describe('a third point the arc passes through, between its ends') }),
+    z.strictObject({
+      ellipse: z
+        .strictObject({
+          center: Point.describe('centre of the ellipse'),
+          rx: positive().describe('semi-axis along the rotated x direction'),
+          ry: positive().describe('semi-axis along the rotated y direction'),
+          rotation: finite().optional().describe('rotation of the rx axis from +x, degrees counter-clockwise (default 0)'),
+          turn: z.enum(['ccw', 'cw']).describe('direction of travel around the centre, from this vertex to the next'),
+        })
+        .describe('an elliptical arc: both end points must lie on this ellipse'),
+    }),
   ])
-  .describe('makes the edge from this vertex to the next a circular arc');
+  .describe('makes the edge from this vertex to the next a circular arc, or an elliptical one');
 export type ArcSpec = z.infer<typeof ArcSpec>;
 
 export const Vertex = z
@@ -79,7 +90,7 @@ const loopCommon = {
 
 export const PathLoop = z.strictObject({
   shape: z.literal('path').describe('a loop drawn vertex by vertex, with straight, arc and rounded edges'),
-  path: z.array(Vertex).min(3).describe('vertices in order; the loop closes itself from the last vertex back to the first'),
+  path: z.array(Vertex).min(2).describe('vertices in order; the loop closes itself from the last vertex back to the first (two vertices make a loop when at least one of its edges is an arc: a hole of two half circles)'),
   ...loopCommon,
 });
 export const CircleLoop = z.strictObject({
