@@ -119,6 +119,6 @@ describe('a hole drawn as a path of two arcs', () => {
   });
 
   it('two vertices with two straight edges are refused', () => {
-    expect(() => buildDomain(parseModelText(plate({ shape: 'path', path: [[4, 0], [-4, 0]] })).geometry)).toThrow(/two vertices with two straight edges/);
+    expect(() => buildDomain(parseModelText(plate({ shape: 'path', path: [[4, 0], [-4, 0]] })).geometry)).toThrow(/path of two vertices with two straight edges/);
   });
 });

@@ -461,7 +461,7 @@ function buildPath(vertices: Vertex[], path: string, loopTags: string[], isOutli
   const scale = Math.max(x1 - x0, y1 - y0);
   const where = (i: number) => (isOutline ? `corner ${i + 1}` : `corner ${i + 1} of ${loopLabel}`);
   if (n === 2 && !vs[0].arc && !vs[1].arc) {
-    throw new ModelError(path, 'a loop of two vertices with two straight edges has no area', 'make one or both of its edges an arc (two half circles make a round hole), or give three or more vertices');
+    throw new ModelError(path, 'a path of two vertices with two straight edges encloses no area', 'make one or both of its edges an arc (two half circles make a round hole), or give three or more vertices');
   }
   const edgeName = (i: number) => (isOutline ? `outline edge ${i + 1}` : `edge ${i + 1} of ${loopLabel}`);
   // Zero-length edges.

@@ -181,6 +181,17 @@ export function loadModelText(text: string, file?: string, options: LoadOptions 
   throwAll(problems, placer, file);
   const model = parsed.data! as Model;
   if (grade.basis) model.material.basis = grade.basis;
+  // A path of two vertices is a loop only when an edge is an arc; said before the tag checks,
+  // which would otherwise report the edges this loop never made.
+  const g = model.geometry;
+  if (!('from' in g)) {
+    [g.outline, ...(g.holes ?? [])].forEach((loop, i) => {
+      if (loop.shape !== 'path' || loop.path.length !== 2 || loop.path.some((v) => !Array.isArray(v) && (v as { arc?: unknown }).arc)) return;
+      const at = i === 0 ? 'geometry.outline.path' : `geometry.holes[${i - 1}].path`;
+      problems.push({ e: new ModelError(at, 'a path of two vertices with two straight edges encloses no area', 'make one or both of its edges an arc (two half circles make a round hole), or give three or more vertices', file), offset: offsetOf(at, scan) });
+    });
+    throwAll(problems, placer, file);
+  }
   // A drawing named by geometry.from is read now, so its problems are placed in the file and
   // its tags are known to the checks.
   let drawingWarnings: ModelError[];
