@@ -130,7 +130,7 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
       ['state', esc(r.analysis.state.replace('-', ' '))],
       ['thickness', `${f(r.analysis.thickness)} ${esc(u.length)}`],
       ['material', esc(mat.name ?? 'unnamed')],
-      ...(r.material.grade ? ([['grade', `${esc(r.material.grade.description)}${r.material.grade.unsetWhy ? `; yield and ultimate not set: ${esc(r.material.grade.unsetWhy)}` : ''}${r.material.grade.provenance === 'M' ? '; [M] recalled from the standard, not checked: verify' : ''}`]] as [string, string][]) : []),
+      ...(r.material?.grade ? ([['grade', `${esc(r.material.grade.description)}${r.material.grade.unsetWhy ? `; yield and ultimate not set: ${esc(r.material.grade.unsetWhy)}` : ''}${r.material.grade.provenance === 'M' ? '; [M] recalled from the standard, not checked: verify' : ''}`]] as [string, string][]) : []),
       ["Young's modulus E", `${f(mat.E)} ${esc(u.stress)}`],
       ["Poisson's ratio", f(mat.nu)],
       ['yield strength', mat.yield === undefined ? 'not given' : `${f(mat.yield)} ${esc(u.stress)}`],

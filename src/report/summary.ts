@@ -23,7 +23,7 @@ export function formatSummary(r: ResultJson): string {
   out.push(
     `  ${r.analysis.state.replace('-', ' ')}, thickness ${fmt(r.analysis.thickness)} ${u.length}, E ${fmt(r.analysis.E)} ${u.stress}, nu ${fmt(r.analysis.nu)}; units ${u.length}, ${u.force}, ${u.stress}`,
   );
-  const g = r.material.grade;
+  const g = r.material?.grade; // absent in results saved before grades existed
   if (g) {
     const strengths = g.tableYieldMPa !== null ? `yield ${fmt(g.tableYieldMPa)} MPa, ultimate ${fmt(g.tableUltimateMPa ?? 0)}${g.tableUltimateMaxMPa !== null ? ` to ${fmt(g.tableUltimateMaxMPa)}` : ''} MPa (minimum${g.tableUltimateMaxMPa !== null ? '; Rm range' : ''})` : `yield and ultimate not set: ${g.unsetWhy}`;
     out.push(`  material ${g.description}`);
