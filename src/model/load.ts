@@ -299,7 +299,7 @@ function resolveGrade(data: unknown, file: string | undefined): { basis?: Materi
     if (v !== null && m[k] === undefined) m[k] = v * perMPa;
   };
   fill('E', grade.E);
-  fill('nu', grade.nu / perMPa);
+  if (m.nu === undefined) m.nu = grade.nu; // a ratio: no unit to convert
   fill('yield', basis.yield);
   fill('ultimate', basis.ultimate);
   const warnings: ModelError[] = [];
