@@ -115,6 +115,7 @@ describe('grade selection in a model', () => {
   it('the thickness is converted to mm: 0.75 in of S355JR is 19.05 mm, band 16-40', () => {
     const m = parseModelText(plate({ grade: 'S355JR' }, 0.75, { length: 'in', force: 'lbf' }));
     expect(m.material.basis!.thicknessMm).toBeCloseTo(19.05, 9);
+    expect(m.material.nu).toBe(0.3);
     // 345 MPa in psi: 345e6 / (4.4482216152605 / 0.0254^2) = 50038 psi.
     expect(m.material.yield! / (345e6 / (4.4482216152605 / 0.0254 ** 2))).toBeCloseTo(1, 12);
   });
