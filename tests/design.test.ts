@@ -67,9 +67,11 @@ describe('fatigue notch factor at the peak', () => {
     expect(f.notes.join(' ')).toContain('not a fatigue assessment');
   });
 
-  it('gives nothing on a straight edge (no notch radius) or without any material data', () => {
+  it('gives nothing on a straight edge (no notch radius); without any material data it says q is withheld and why', () => {
     expect(estimateFatigue(2, Infinity, { E: 1, nu: 0.3, ultimate: 600 }, resolveUnits())).toBeNull();
-    expect(estimateFatigue(2, 3, { E: 1, nu: 0.3 }, resolveUnits())).toBeNull();
+    const f = estimateFatigue(2, 3, { E: 1, nu: 0.3 }, resolveUnits())!;
+    expect(f.methods).toHaveLength(0);
+    expect(f.withheld).toMatch(/no notch sensitivity q: the material has no ultimate strength/);
   });
 });
 

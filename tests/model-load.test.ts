@@ -206,7 +206,7 @@ describe('schema problems, in plain words', () => {
     p.material.colour = 'grey';
     const e = only(text(p));
     expect(e.message).toBe('unknown field "colour"');
-    expect(e.hint).toBe('the fields allowed here are "name", "E", "nu", "yield", "ultimate", "notchSensitivity" and "stressStrain"');
+    expect(e.hint).toBe('the fields allowed here are "name", "grade", "form", "E", "nu", "yield", "ultimate", "notchSensitivity" and "stressStrain"');
   });
   it('a number given with its unit', () => {
     const p = plate();

@@ -340,6 +340,7 @@ function normaliseVertex(v: Vertex): PathVertex {
 
 /** An arc from (ax, ay) to (bx, by) as given by spec; throws when it cannot be built. */
 function buildArc(ax: number, ay: number, bx: number, by: number, spec: ArcSpec, path: string, scale: number): Curve {
+  if ('ellipse' in spec) return buildEllipticalArc(ax, ay, bx, by, spec.ellipse, `${path}.ellipse`);
   const chord = Math.hypot(bx - ax, by - ay);
   let cx: number;
   let cy: number;
@@ -397,6 +398,51 @@ function buildArc(ax: number, ay: number, bx: number, by: number, spec: ArcSpec,
   return { kind: 'arc', cx, cy, r, a0, sweep };
 }
 
+/**
+ * An elliptical arc from (ax, ay) to (bx, by) on the ellipse given, in the eccentric angle t of
+ * the curve kind 'ellipse' (x = a cos t, y = b sin t in the ellipse's own axes, so increasing t
+ * runs counter-clockwise). Each end must lie on the ellipse: its normalised radius
+ * sqrt((u/rx)^2 + (v/ry)^2) within 1e-6 of 1, the same relative tolerance as a circular arc's
+ * centre check.
+ */
+function buildEllipticalArc(
+  ax: number,
+  ay: number,
+  bx: number,
+  by: number,
+  e: { center: readonly [number, number]; rx: number; ry: number; rotation?: number; turn: 'ccw' | 'cw' },
+  path: string,
+): Curve {
+  const rot = ((e.rotation ?? 0) * Math.PI) / 180;
+  const c = Math.cos(rot);
+  const s = Math.sin(rot);
+  const [cx, cy] = e.center;
+  const angleOf = (x: number, y: number, which: string): number => {
+    const u = ((x - cx) * c + (y - cy) * s) / e.rx;
+    const v = (-(x - cx) * s + (y - cy) * c) / e.ry;
+    const rho = Math.hypot(u, v);
+    if (Math.abs(rho - 1) > 1e-6) {
+      throw new ModelError(
+        `${path}.center`,
+        `the ${which} point (${fmt(x)}, ${fmt(y)}) is not on the ellipse: it lies at ${fmt(rho)} times the ellipse's size from its centre in that direction (1 is on it)`,
+        'correct the centre, rx, ry or rotation, or the end points; a point on the ellipse is (cx + rx cos t, cy + ry sin t) turned by the rotation',
+      );
+    }
+    return Math.atan2(v, u);
+  };
+  const t0 = angleOf(ax, ay, 'start');
+  const t1 = angleOf(bx, by, 'end');
+  let sweep = t1 - t0;
+  if (e.turn === 'ccw') {
+    while (sweep <= 0) sweep += 2 * Math.PI;
+    while (sweep > 2 * Math.PI) sweep -= 2 * Math.PI;
+  } else {
+    while (sweep >= 0) sweep -= 2 * Math.PI;
+    while (sweep < -2 * Math.PI) sweep += 2 * Math.PI;
+  }
+  return { kind: 'ellipse', cx, cy, a: e.rx, b: e.ry, rot, t0, sweep };
+}
+
 function buildPath(vertices: Vertex[], path: string, loopTags: string[], isOutline: boolean, loopLabel: string): RawEdge[] {
   const vs = vertices.map(normaliseVertex);
   const n = vs.length;
@@ -414,6 +460,9 @@ function buildPath(vertices: Vertex[], path: string, loopTags: string[], isOutli
   }
   const scale = Math.max(x1 - x0, y1 - y0);
   const where = (i: number) => (isOutline ? `corner ${i + 1}` : `corner ${i + 1} of ${loopLabel}`);
+  if (n === 2 && !vs[0].arc && !vs[1].arc) {
+    throw new ModelError(path, 'a path of two vertices with two straight edges encloses no area', 'make one or both of its edges an arc (two half circles make a round hole), or give three or more vertices');
+  }
   const edgeName = (i: number) => (isOutline ? `outline edge ${i + 1}` : `edge ${i + 1} of ${loopLabel}`);
   // Zero-length edges.
   for (let i = 0; i < n; i++) {

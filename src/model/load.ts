@@ -18,6 +18,7 @@ import { NUMBER_RANGE, inNumberRange } from './number-range.js';
 import { Model } from './schema.js';
 import { closest, quoteList } from './suggest.js';
 import { resolveUnits } from './units.js';
+import { PRODUCT_FORMS, findGrade, gradeNames, lookupGrade, normaliseGradeName, type MaterialBasis, type ProductForm } from './materials.js';
 import { substituteParameters } from './params.js';
 import { DrawingError, attachDrawing, importDrawing } from '../geometry/import/index.js';
 
@@ -153,6 +154,10 @@ export function loadModelText(text: string, file?: string, options: LoadOptions 
   }
   throwAll(problems, placer, file);
   mixedGeometry(data, placer, scan, file);
+  // A named grade fills E, nu, yield and ultimate before the schema sees the material.
+  const grade = resolveGrade(data, file);
+  if (grade.error) problems.push({ e: grade.error, offset: offsetOf(grade.error.path, scan) });
+  throwAll(problems, placer, file);
 
   const parsed = Model.safeParse(data);
   if (!parsed.success) {
@@ -164,7 +169,29 @@ export function loadModelText(text: string, file?: string, options: LoadOptions 
     throwAll(problems, placer, file);
   }
   throwAll(problems, placer, file);
-  const model = parsed.data!;
+  const material = parsed.data!.material;
+  for (const k of ['E', 'nu'] as const) {
+    if (material[k] === undefined) {
+      problems.push({
+        e: new ModelError(`material.${k}`, `the material has no ${k === 'E' ? "Young's modulus E" : "Poisson's ratio nu"}`, `give "E" and "nu", or a "grade" (${quoteList(gradeNames().slice(0, 6), 'or')}, ...) that brings them`, file),
+        offset: offsetOf('material', scan),
+      });
+    }
+  }
+  throwAll(problems, placer, file);
+  const model = parsed.data! as Model;
+  if (grade.basis) model.material.basis = grade.basis;
+  // A path of two vertices is a loop only when an edge is an arc; said before the tag checks,
+  // which would otherwise report the edges this loop never made.
+  const g = model.geometry;
+  if (!('from' in g)) {
+    [g.outline, ...(g.holes ?? [])].forEach((loop, i) => {
+      if (loop.shape !== 'path' || loop.path.length !== 2 || loop.path.some((v) => !Array.isArray(v) && (v as { arc?: unknown }).arc)) return;
+      const at = i === 0 ? 'geometry.outline.path' : `geometry.holes[${i - 1}].path`;
+      problems.push({ e: new ModelError(at, 'a path of two vertices with two straight edges encloses no area', 'make one or both of its edges an arc (two half circles make a round hole), or give three or more vertices', file), offset: offsetOf(at, scan) });
+    });
+    throwAll(problems, placer, file);
+  }
   // A drawing named by geometry.from is read now, so its problems are placed in the file and
   // its tags are known to the checks.
   let drawingWarnings: ModelError[];
@@ -178,7 +205,7 @@ export function loadModelText(text: string, file?: string, options: LoadOptions 
     throw e;
   }
   const { errors, warnings } = checkModel(model);
-  warnings.unshift(...drawingWarnings);
+  warnings.unshift(...drawingWarnings, ...grade.warnings);
   for (const e of warnings) {
     e.file = file;
     const off = offsetOf(e.path, scan);
@@ -238,6 +265,49 @@ export function readModelText(path: string): string {
 }
 
 // ---------------------------------------------------------------------------------------------
+
+/**
+ * `"material": { "grade": ... }`: looks the grade up and writes its E, nu, yield and ultimate
+ * into the material data where the model does not give them (given fields win). A grade that
+ * is not bundled is an error naming the close ones; a thickness outside the standard's bands
+ * leaves yield and ultimate unset, with a warning. Data the schema will reject anyway (no
+ * material object, a thickness that is not a positive number) is left for the schema to report.
+ */
+function resolveGrade(data: unknown, file: string | undefined): { basis?: MaterialBasis; warnings: ModelError[]; error?: ModelError } {
+  const d = data as { material?: unknown; thickness?: unknown; units?: unknown };
+  const m = d?.material as Record<string, unknown> | undefined;
+  if (!m || typeof m !== 'object' || Array.isArray(m) || typeof m.grade !== 'string') return { warnings: [] };
+  const grade = findGrade(m.grade);
+  if (!grade) {
+    const names = gradeNames();
+    const norm = normaliseGradeName(m.grade);
+    const near = names.filter((n) => {
+      const k = normaliseGradeName(n);
+      return closest(norm, [k]) !== undefined || k.includes(norm) || norm.includes(k);
+    });
+    const hint = near.length ? `did you mean ${quoteList(near, 'or')}? The bundled grades: ${names.join(', ')}` : `the bundled grades: ${names.join(', ')}; or give "E" and "nu" (and "yield", "ultimate") without a grade`;
+    return { warnings: [], error: new ModelError('material.grade', `no bundled material grade is called "${quoteText(m.grade, 40)}"`, hint, file) };
+  }
+  const form = typeof m.form === 'string' && (PRODUCT_FORMS as readonly string[]).includes(m.form) ? (m.form as ProductForm) : undefined;
+  if (typeof d.thickness !== 'number' || !(d.thickness > 0)) return { warnings: [] };
+  const units = unitsOf(data);
+  const r = resolveUnits(Model.shape.units.safeParse(d.units).success ? (d.units as Model['units']) : undefined);
+  const thicknessMm = d.thickness * r.toSI.length * 1000;
+  const basis = lookupGrade(grade, form, Number(thicknessMm.toPrecision(12)));
+  const perMPa = 1e6 / r.toSI.stress;
+  const fill = (k: string, v: number | null) => {
+    if (v !== null && m[k] === undefined) m[k] = v * perMPa;
+  };
+  fill('E', grade.E);
+  if (m.nu === undefined) m.nu = grade.nu; // a ratio: no unit to convert
+  fill('yield', basis.yield);
+  fill('ultimate', basis.ultimate);
+  const warnings: ModelError[] = [];
+  if (basis.unsetWhy && (m.yield === undefined || m.ultimate === undefined)) {
+    warnings.push(new ModelError('material.grade', `${grade.names[0]}: yield and ultimate strength are not set: ${basis.unsetWhy}`, `give "yield" and "ultimate" from the mill certificate or the standard (in ${units.stress})`, file));
+  }
+  return { basis, warnings };
+}
 
 /** A geometry that gives both a drawing and loops written out: said plainly, before the schema would call "from" unknown. */
 function mixedGeometry(data: unknown, placer: Placer, scan: JsonScan, file: string | undefined): void {

@@ -9,6 +9,7 @@
  * (default mm, N, MPa). Indices shown to people (hole 2, corner 5) count from 1.
  */
 import { z } from 'zod';
+import { PRODUCT_FORMS, type MaterialBasis } from './materials.js';
 
 const finite = () => z.number();
 const positive = () => z.number().positive();
@@ -54,8 +55,19 @@ export const ArcSpec = z
       turn: z.enum(['ccw', 'cw']).describe('direction of travel around the centre, from this vertex to the next'),
     }),
     z.strictObject({ through: Point.describe('a third point the arc passes through, between its ends') }),
+    z.strictObject({
+      ellipse: z
+        .strictObject({
+          center: Point.describe('centre of the ellipse'),
+          rx: positive().describe('semi-axis along the rotated x direction'),
+          ry: positive().describe('semi-axis along the rotated y direction'),
+          rotation: finite().optional().describe('rotation of the rx axis from +x, degrees counter-clockwise (default 0)'),
+          turn: z.enum(['ccw', 'cw']).describe('direction of travel around the centre, from this vertex to the next'),
+        })
+        .describe('an elliptical arc: both end points must lie on this ellipse'),
+    }),
   ])
-  .describe('makes the edge from this vertex to the next a circular arc');
+  .describe('makes the edge from this vertex to the next a circular arc, or an elliptical one');
 export type ArcSpec = z.infer<typeof ArcSpec>;
 
 export const Vertex = z
@@ -78,7 +90,7 @@ const loopCommon = {
 
 export const PathLoop = z.strictObject({
   shape: z.literal('path').describe('a loop drawn vertex by vertex, with straight, arc and rounded edges'),
-  path: z.array(Vertex).min(3).describe('vertices in order; the loop closes itself from the last vertex back to the first'),
+  path: z.array(Vertex).min(2).describe('vertices in order; the loop closes itself from the last vertex back to the first (two vertices make a loop when at least one of its edges is an arc: a hole of two half circles)'),
   ...loopCommon,
 });
 export const CircleLoop = z.strictObject({
@@ -178,8 +190,17 @@ export const Units = z
 
 export const Material = z.strictObject({
   name: z.string().optional().describe('material name, for reports'),
-  E: positive().describe("Young's modulus, in stress units"),
-  nu: z.number().min(0).lt(0.5).describe("Poisson's ratio, 0 <= nu < 0.5"),
+  grade: z
+    .string()
+    .min(1)
+    .optional()
+    .describe('a bundled grade (S235JR, S275JR, S355JR, S355J2, A36, A572-50, 304, 316L, 6082-T6, 6061-T6, 5083-O, 7075-T6, 2024-T3; case and spaces ignored): E, nu, yield and ultimate from its standard, for the form and the model thickness; fields given here override them'),
+  form: z
+    .enum(PRODUCT_FORMS)
+    .optional()
+    .describe('the product form, to pick the standard table of the grade (default plate, sheet for 2024-T3); the model thickness picks the band'),
+  E: positive().optional().describe("Young's modulus, in stress units (required unless a grade gives it)"),
+  nu: z.number().min(0).lt(0.5).optional().describe("Poisson's ratio, 0 <= nu < 0.5 (required unless a grade gives it)"),
   yield: positive().optional().describe('yield strength, for the safety summary'),
   ultimate: positive().optional().describe('ultimate tensile strength, for the safety summary and notch sensitivity'),
   notchSensitivity: z
@@ -198,7 +219,11 @@ export const Material = z.strictObject({
     .optional()
     .describe("a stress-strain law for the Neuber-rule estimate of the local stress and strain at the peak"),
 });
-export type Material = z.infer<typeof Material>;
+/**
+ * After loading, E and nu are always set (given, or from the grade), and `basis` says where the
+ * values of a grade came from (src/model/materials.ts); it is not a field of the file.
+ */
+export type Material = Omit<z.infer<typeof Material>, 'E' | 'nu'> & { E: number; nu: number; basis?: MaterialBasis };
 
 const itemNote = () => z.string().optional().describe('free text about this item');
 
@@ -356,7 +381,7 @@ export const Model = z.strictObject({
   results: ResultSettings.optional().describe('how the peak stress and the nominal stress for Kt are taken'),
   chart: ChartLink.optional().describe('the published chart family and dimensions a generated model was built for'),
 });
-export type Model = Omit<z.infer<typeof Model>, 'geometry'> & { geometry: Geometry };
+export type Model = Omit<z.infer<typeof Model>, 'geometry' | 'material'> & { geometry: Geometry; material: Material };
 
 // Names for the pieces used in several places, so the JSON Schema refers to one definition
 // ($defs) instead of repeating it: about a fifth of the size, and readable. Registering an

@@ -6,7 +6,7 @@
 import { curvatureRadius } from '../geometry/curve.js';
 import type { Domain } from '../geometry/domain.js';
 import { nearestBoundaryPoint } from '../geometry/project.js';
-import { fatigueNotchFactor, neuberNotchSensitivity, neuberSqrtASteelSI, petersonLengthSteelMm, petersonNotchSensitivity } from '../charts/fatigue.js';
+import { PETERSON_LENGTH_MM, fatigueNotchFactor, neuberNotchSensitivity, neuberSqrtASteelSI, petersonLengthSteelMm, petersonNotchSensitivity } from '../charts/fatigue.js';
 import type { Material } from '../model/schema.js';
 import type { ResolvedUnits } from '../model/units.js';
 
@@ -21,14 +21,22 @@ export interface FatigueEstimate {
   radius: number;
   methods: { name: string; q: number; kf: number; source: string }[];
   notes: string[];
+  /** why no q could be had (methods is then empty), or null */
+  withheld: string | null;
 }
 
-/** q and Kf by Neuber's and Peterson's forms, from given constants or from the fits for steels. */
+/**
+ * q and Kf by Neuber's and Peterson's forms: from constants the model gives; for a bundled
+ * aluminium grade from Peterson's constant for aluminium alloys; else from the fits for steels
+ * and the ultimate strength. When none applies, the estimate has no methods and says why
+ * (withheld), so the summary states it rather than leaving fatigue out.
+ */
 export function estimateFatigue(kt: number, radius: number, material: Material, units: ResolvedUnits): FatigueEstimate | null {
   if (!Number.isFinite(radius) || !(kt >= 1)) return null;
   const mm = units.toSI.length * 1000;
   const rMm = radius * mm;
-  const out: FatigueEstimate = { radius, methods: [], notes: [] };
+  const out: FatigueEstimate = { radius, methods: [], notes: [], withheld: null };
+  const family = material.basis?.family;
   const ns = material.notchSensitivity;
   if (ns?.neuberSqrtA !== undefined) {
     const q = neuberNotchSensitivity(ns.neuberSqrtA, radius);
@@ -38,7 +46,17 @@ export function estimateFatigue(kt: number, radius: number, material: Material, 
     const q = petersonNotchSensitivity(ns.petersonA, radius);
     out.methods.push({ name: 'Peterson, given constant', q, kf: fatigueNotchFactor(kt, q), source: 'q = 1 / (1 + a / r): Peterson (1959), Pilkey & Pilkey sec. 1.9' });
   }
-  if (out.methods.length === 0 && material.ultimate !== undefined) {
+  if (out.methods.length === 0 && family === 'aluminium') {
+    const a = PETERSON_LENGTH_MM.aluminiumAlloy;
+    const q = petersonNotchSensitivity(a, rMm);
+    out.methods.push({
+      name: 'Peterson, constant for aluminium alloys',
+      q,
+      kf: fatigueNotchFactor(kt, q),
+      source: `q = 1 / (1 + a / r), a = ${a} mm (0.020 in) for aluminium alloys: Peterson (1959) [recalled]`,
+    });
+    out.notes.push(`the grade ${material.basis!.grade} is an aluminium alloy: Peterson's single constant for aluminium alloys is used; the steel fits from the ultimate strength do not apply`);
+  } else if (out.methods.length === 0 && material.ultimate !== undefined) {
     const sutMPa = (material.ultimate * units.toSI.stress) / 1e6;
     try {
       const sqrtA = neuberSqrtASteelSI(sutMPa, 'bending-axial');
@@ -56,7 +74,17 @@ export function estimateFatigue(kt: number, radius: number, material: Material, 
     }
     out.notes.push('q from the ultimate strength uses fits for steels; for other metals give material.notchSensitivity');
   }
-  if (out.methods.length === 0) return null;
+  if (out.methods.length === 0) {
+    out.withheld =
+      material.ultimate === undefined && material.basis
+        ? `no notch sensitivity q: the grade ${material.basis.grade} has no ultimate strength here (${material.basis.unsetWhy ?? 'not set'}) and the model gives no notch-sensitivity constants; give material.ultimate or material.notchSensitivity`
+        : material.ultimate === undefined
+        ? 'no notch sensitivity q: the material has no ultimate strength, no notch-sensitivity constants and no bundled grade; give material.notchSensitivity, material.ultimate (steels) or material.grade'
+        : `no notch sensitivity q: ${out.notes.filter((n) => n.endsWith('does not apply') || n.includes('does not apply:')).join('; ') || 'no fit applies'}; give material.notchSensitivity (Neuber's sqrt(a) or Peterson's a) or a bundled grade`;
+    out.notes.length = 0;
+    out.notes.push('Kf = Kt is always on the safe side');
+    return out;
+  }
   out.notes.push('Kf = 1 + q (Kt - 1) is an estimate for design from scattered fatigue data, not a fatigue assessment; Kf = Kt is always on the safe side');
   return out;
 }

@@ -130,6 +130,7 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
       ['state', esc(r.analysis.state.replace('-', ' '))],
       ['thickness', `${f(r.analysis.thickness)} ${esc(u.length)}`],
       ['material', esc(mat.name ?? 'unnamed')],
+      ...(r.material?.grade ? ([['grade', `${esc(r.material.grade.description)}${r.material.grade.unsetWhy ? `; yield and ultimate not set: ${esc(r.material.grade.unsetWhy)}` : ''}${r.material.grade.provenance === 'M' ? '; [M] recalled from the standard, not checked: verify' : ''}`]] as [string, string][]) : []),
       ["Young's modulus E", `${f(mat.E)} ${esc(u.stress)}`],
       ["Poisson's ratio", f(mat.nu)],
       ['yield strength', mat.yield === undefined ? 'not given' : `${f(mat.yield)} ${esc(u.stress)}`],
@@ -211,7 +212,8 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
   }
   if (r.fatigue) {
     parts.push('<h2>Fatigue notch factor (estimate)</h2>');
-    parts.push(
+    if (r.fatigue.withheld) parts.push(`<p>${esc(r.fatigue.withheld)}</p>`);
+    else parts.push(
       `<table><thead><tr><th>method</th><th class="num">q</th><th class="num">Kf</th><th>source</th></tr></thead><tbody>${r.fatigue.methods
         .map((x) => `<tr><td>${esc(x.name)}</td><td class="num">${f(x.q, 3)}</td><td class="num">${f(x.kf, 4)}</td><td>${esc(x.source)}</td></tr>`)
         .join('')}</tbody></table><p>At ${esc(r.fatigue.raiser)}, notch radius ${f(r.fatigue.radius, 4)} ${esc(u.length)}, from Kt ${esc(r.fatigue.kt ?? '')}.</p>${r.fatigue.notes.length ? `<ul class="plain">${r.fatigue.notes.map((x) => `<li>${esc(x)}</li>`).join('')}</ul>` : ''}`,

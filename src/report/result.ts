@@ -12,6 +12,8 @@ import type { SettledKt, Settlement } from '../post/settle.js';
 import { compareWithChart } from '../charts/library.js';
 import { estimateFatigue, neuberLocal, notchRadiusAt } from '../post/design.js';
 import { pinsResult } from './pins.js';
+import { describeBasis } from '../model/materials.js';
+import type { Model } from '../model/schema.js';
 
 export const TOOL_VERSION = '0.1.0';
 
@@ -287,7 +289,8 @@ function buildResultUnchecked(a: Analysis, file?: string, cert: Certified | null
     timeMs: a.timeMs,
     convergence: conv,
     chart: gov?.chart ?? null,
-    fatigue: fatigue ? { radius: fatigue.radius, kt: headKind, raiser: gov!.name, methods: fatigue.methods, notes: fatigue.notes } : null,
+    material: materialResult(m.material),
+    fatigue: fatigue ? { radius: fatigue.radius, kt: headKind, raiser: gov!.name, methods: fatigue.methods, notes: fatigue.notes, withheld: fatigue.withheld } : null,
     plasticity: local
       ? { elasticPeak: Math.abs(gov!.peak.stress), localStress: local.stress, localStrain: local.strain, elasticStrain: local.elasticStrain, source: local.source }
       : null,
@@ -305,3 +308,34 @@ function buildResultUnchecked(a: Analysis, file?: string, cert: Certified | null
 }
 
 export type ResultJson = ReturnType<typeof buildResultUnchecked>;
+
+/** The material as used, and for a bundled grade where its values came from (src/model/materials.ts). */
+function materialResult(mat: Model['material']) {
+  const b = mat.basis;
+  return {
+    name: mat.name ?? null,
+    E: mat.E,
+    nu: mat.nu,
+    yield: mat.yield ?? null,
+    ultimate: mat.ultimate ?? null,
+    grade: b
+      ? {
+          grade: b.grade,
+          family: b.family,
+          form: b.form,
+          formGiven: b.formGiven,
+          thicknessMm: b.thicknessMm,
+          band: b.band,
+          standard: b.standard,
+          provenance: b.provenance,
+          checkedIn: b.checkedIn,
+          elasticSource: b.elasticSource,
+          tableYieldMPa: b.yield,
+          tableUltimateMPa: b.ultimate,
+          tableUltimateMaxMPa: b.ultimateMax,
+          unsetWhy: b.unsetWhy,
+          description: describeBasis(b),
+        }
+      : null,
+  };
+}

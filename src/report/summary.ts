@@ -23,6 +23,12 @@ export function formatSummary(r: ResultJson): string {
   out.push(
     `  ${r.analysis.state.replace('-', ' ')}, thickness ${fmt(r.analysis.thickness)} ${u.length}, E ${fmt(r.analysis.E)} ${u.stress}, nu ${fmt(r.analysis.nu)}; units ${u.length}, ${u.force}, ${u.stress}`,
   );
+  const g = r.material?.grade; // absent in results saved before grades existed
+  if (g) {
+    const strengths = g.tableYieldMPa !== null ? `yield ${fmt(g.tableYieldMPa)} MPa, ultimate ${fmt(g.tableUltimateMPa ?? 0)}${g.tableUltimateMaxMPa !== null ? ` to ${fmt(g.tableUltimateMaxMPa)}` : ''} MPa (minimum${g.tableUltimateMaxMPa !== null ? '; Rm range' : ''})` : `yield and ultimate not set: ${g.unsetWhy}`;
+    out.push(`  material ${g.description}`);
+    out.push(`      ${strengths}${g.provenance === 'M' ? '; [M]: values recalled from the standard, not checked against a copy: verify them' : ''}; values given in the model override these`);
+  }
   out.push('');
   const pct = (v: number) => `${fmt(100 * v, 2)}%`;
   const c = r.convergence;
@@ -115,7 +121,8 @@ export function formatSummary(r: ResultJson): string {
   );
   if (r.fatigue) {
     const f = r.fatigue;
-    out.push(`  fatigue  at ${f.raiser}, notch radius ${fmt(f.radius, 4)} ${u.length}, from Kt ${f.kt}: ${f.methods.map((x) => `${x.name}: q ${fmt(x.q, 3)}, Kf ${fmt(x.kf, 4)}`).join('; ')}`);
+    const what = f.withheld ?? f.methods.map((x) => `${x.name}: q ${fmt(x.q, 3)}, Kf ${fmt(x.kf, 4)}`).join('; ');
+    out.push(`  fatigue  at ${f.raiser}, notch radius ${fmt(f.radius, 4)} ${u.length}, from Kt ${f.kt}: ${what}`);
     for (const n of f.notes) out.push(`      ${n}`);
   }
   if (r.plasticity) {
