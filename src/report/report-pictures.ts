@@ -38,15 +38,17 @@ export interface ReportPicture {
   scale: number;
   /** the smallest text size (em) of the picture in CSS pixels at its width */
   minTextPx: number;
+  /** the base text size the picture was drawn with (PictureOptions.textSize) */
+  textSize: number;
 }
 
 /** The base text size that makes the scene's smallest text MIN_TEXT_PX: built once at a trial size, then at the corrected one. */
-function sized(build: (o: PictureOptions) => Scene | null, o: PictureOptions): Scene | null {
+function sized(build: (o: PictureOptions) => Scene | null, o: PictureOptions): { scene: Scene; textSize: number } | null {
   const trial = 14;
   const s = build({ ...o, textSize: trial });
   if (!s) return null;
   const least = smallestText(s);
-  if (!(least < MIN_TEXT_PX)) return s;
+  if (!(least < MIN_TEXT_PX)) return { scene: s, textSize: trial };
   // text sizes are proportional to the base size, but a legend heading set smaller to fit its column
   // is not: grow until the smallest text is large enough (at most a few rounds)
   let size = (trial * MIN_TEXT_PX) / least;
@@ -54,14 +56,14 @@ function sized(build: (o: PictureOptions) => Scene | null, o: PictureOptions): S
     const t = build({ ...o, textSize: size });
     if (!t) return null;
     const m = smallestText(t);
-    if (!(m < MIN_TEXT_PX)) return t;
+    if (!(m < MIN_TEXT_PX)) return { scene: t, textSize: size };
     size *= MIN_TEXT_PX / m;
   }
   throw new Error(`report picture: its smallest text stays below ${MIN_TEXT_PX} CSS pixels`);
 }
 
-function encode(s: Scene, scale: number): ReportPicture {
-  return { png: toPalettePng(renderPng(s, scale)), width: s.width, height: s.height, scale, minTextPx: smallestText(s) };
+function encode(s: Scene, textSize: number, scale: number): ReportPicture {
+  return { png: toPalettePng(renderPng(s, scale)), width: s.width, height: s.height, scale, minTextPx: smallestText(s), textSize };
 }
 
 /** The report's pictures by name (contour, peak, mesh, deformed, geometry, section, convergence). */
@@ -70,7 +72,7 @@ export function reportPictures(src: PlotSource): Map<string, ReportPicture> {
   const out = new Map<string, ReportPicture>();
   const add = (name: string, build: (o: PictureOptions) => Scene | null, o: PictureOptions, scale = 2) => {
     const s = sized(build, o);
-    if (s) out.set(name, encode(s, scale));
+    if (s) out.set(name, encode(s.scene, s.textSize, scale));
   };
   // Heights: the overview pictures tall enough for a legend of several round values beside a long part.
   const tall = Math.round(0.62 * W);
