@@ -44,7 +44,9 @@ export interface ReportPicture {
 
 /** The base text size that makes the scene's smallest text MIN_TEXT_PX: built once at a trial size, then at the corrected one. */
 function sized(build: (o: PictureOptions) => Scene | null, o: PictureOptions): { scene: Scene; textSize: number } | null {
-  const trial = 14;
+  // 0.8: the smallest multiple of the base size the drawings use (the load and support labels),
+  // so most pictures are built once; a smaller text (a legend heading set to fit) costs a rebuild
+  const trial = MIN_TEXT_PX / 0.8;
   const s = build({ ...o, textSize: trial });
   if (!s) return null;
   const least = smallestText(s);
