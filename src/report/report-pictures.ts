@@ -9,9 +9,10 @@
  * example at this size, the scene's own SVG is larger than the PNG for every picture (contour
  * 258 KB, close-up 574 KB, convergence 198 KB, because every glyph is an outline of its own and
  * the field is an embedded raster anyway), while a 256-colour PNG at twice the CSS pixels is
- * 53-145 KB (the whole report 0.77 MB, was 2.5 MB), sharp at 192 pixels per inch in print and on a dense screen. The close-up is
- * shorter than the overview (its square window needs less), and the mesh picture, a forest of
- * antialiased lines that compresses worst, is drawn at 1.5 raster pixels per CSS pixel.
+ * 53-145 KB (the whole report 0.77 MB, was 2.5 MB), sharp at 192 pixels per inch in print and
+ * on a dense screen. The close-up is no taller than the overview (its square window needs no
+ * more), and the mesh picture, a forest of antialiased lines that compresses worst, is drawn at
+ * 1.5 raster pixels per CSS pixel.
  */
 import type { Scene } from '../render/scene.js';
 import { renderPng, smallestText } from '../render/scene.js';
