@@ -119,9 +119,17 @@ describe.skipIf(missing !== null)('HTML report in headless Chromium', () => {
     await page.close();
   });
 
-  it('is written beside the pictures it embeds', () => {
+  it('is written beside the pictures it embeds, each embedded as drawn for the column', () => {
+    // The report draws its own copies for the 180 mm column (src/report/report-pictures.ts); the
+    // files beside it keep the size asked for (--size, here 1000 x 640).
     const html = readFileSync(join(dir, 'report.html'), 'utf8');
-    const contour = readFileSync(join(dir, 'contour.png')).toString('base64');
-    expect(html).toContain(contour);
+    const embedded = [...html.matchAll(/<figure id="fig-([a-z]+)"><img [^>]*data-css-width="(\d+)"[^>]*src="data:image\/png;base64,([^"]+)"/g)];
+    expect(embedded.map((m) => m[1]).sort()).toEqual(['contour', 'convergence', 'deformed', 'geometry', 'mesh', 'peak', 'section']);
+    for (const [, name, cssWidth, b64] of embedded) {
+      expect(existsSync(join(dir, `${name}.png`)), name).toBe(true);
+      const png = PNG.sync.read(Buffer.from(b64, 'base64'));
+      expect(png.width, name).toBeGreaterThanOrEqual(Number(cssWidth));
+    }
+    expect(PNG.sync.read(readFileSync(join(dir, 'contour.png'))).width).toBe(1000);
   });
 });

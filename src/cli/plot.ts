@@ -12,6 +12,7 @@ import { STRESS_MEASURES, type StressMeasure } from '../model/schema.js';
 import type { Analysis } from '../pipeline/analyse.js';
 import { prepareOutputDir, RESULT_FILES, writeAtomic, type OutputOptions } from '../report/files.js';
 import { reportHtml } from '../report/html.js';
+import { reportPictures } from '../report/report-pictures.js';
 import { MATRIX_FILES, writeMatrixFiles } from '../report/matrix.js';
 import {
   closeupScene,
@@ -22,7 +23,6 @@ import {
   lineScene,
   meshScene,
   pictureFileNames,
-  standardPictures,
   writePictures,
   type PictureOptions,
   type PictureSet,
@@ -162,14 +162,11 @@ function runPlot(saved: string, flags: PlotFlags): number {
   const names = sets.flatMap((s) => formats.map((fm) => `${s.name}.${fm}`));
   if (flags.report) names.push('report.html');
   prepareOutputDir(dir, names, flags.force ?? false);
-  const { written, png } = writePictures(dir, sets, formats as ('png' | 'svg')[]);
+  const { written } = writePictures(dir, sets, formats as ('png' | 'svg')[]);
   if (flags.report) {
-    // The report needs every picture; draw the ones not asked for with the same options.
-    const all = standardPictures(src, o).filter((p) => !png.has(p.name));
-    const extra = writePictures(dir, all, []).png;
-    for (const [k, v] of extra) png.set(k, v);
+    // The report draws its own pictures, for its column, whatever was asked for the files.
     const html = join(dir, 'report.html');
-    writeAtomic(html, reportHtml(src, png));
+    writeAtomic(html, reportHtml(src, reportPictures(src)));
     written.push(html);
   }
   process.stdout.write(`raiser plot: ${src.result.model.title ?? 'untitled model'}\n  wrote ${written.join(', ')}\n`);

@@ -11,6 +11,7 @@ import type { Analysis } from '../pipeline/analyse.js';
 import { measureField } from '../post/peak.js';
 import type { ResultJson } from './result.js';
 import { reportHtml } from './html.js';
+import { reportPictures } from './report-pictures.js';
 import { pictureFileNames, standardPictures, writePictures, type PictureOptions } from './pictures.js';
 import { encodeSaved, plotSource, SAVED_FILE, type PlotSource } from './saved.js';
 import { vtuText } from './vtu.js';
@@ -129,10 +130,10 @@ export function writeResultFiles(dir: string, a: Analysis, result: ResultJson, f
 
 /** The standard pictures and report.html from a solution (also what raiser plot redraws). */
 export function writePicturesAndReport(dir: string, src: PlotSource, pictureOptions: PictureOptions, report = true): string[] {
-  const { written, png } = writePictures(dir, standardPictures(src, pictureOptions));
+  const { written } = writePictures(dir, standardPictures(src, pictureOptions));
   if (report) {
     const html = join(dir, 'report.html');
-    writeAtomic(html, reportHtml(src, png));
+    writeAtomic(html, reportHtml(src, reportPictures(src)));
     written.push(html);
   }
   return written;

@@ -1,5 +1,6 @@
 /**
- * The report as one self-contained HTML file: every picture embedded as a data: URI, no
+ * The report as one self-contained HTML file: every picture embedded as a data: URI (drawn for
+ * the column, with text that prints at 8 pt or more: src/report/report-pictures.ts), no
  * scripts, no external style sheets or fonts, so it can be mailed, archived and printed as it
  * is. The print style keeps figures and tables whole on a page and fits A4 and Letter alike
  * (a text width of 180 mm fits both with 14 mm margins; no fixed page heights).
@@ -10,6 +11,7 @@ import { formatValue } from '../render/ticks.js';
 import { measureName } from './pictures.js';
 import { describePinLoad, describePinSupport, pinsHtml } from './pins.js';
 import type { PlotSource } from './saved.js';
+import type { ReportPicture } from './report-pictures.js';
 import type { ResultJson } from './result.js';
 
 function esc(t: unknown): string {
@@ -56,10 +58,15 @@ function describeSupport(s: Support, length: string): string {
   }
 }
 
-function figure(png: Map<string, Buffer>, name: string, caption: string): string {
-  const b = png.get(name);
-  if (!b) return '';
-  return `<figure id="fig-${name}"><img alt="${esc(caption)}" src="data:image/png;base64,${b.toString('base64')}"><figcaption>${esc(caption)}</figcaption></figure>`;
+/**
+ * A picture drawn for the column (src/report/report-pictures.ts), at its CSS size; the data
+ * attributes say what its smallest text is, in CSS pixels at that size, so that a reader (the
+ * legibility test) can tell the printed text size from the displayed width.
+ */
+function figure(png: ReadonlyMap<string, ReportPicture>, name: string, caption: string): string {
+  const p = png.get(name);
+  if (!p) return '';
+  return `<figure id="fig-${name}"><img alt="${esc(caption)}" width="${p.width}" height="${p.height}" data-css-width="${p.width}" data-min-text-px="${p.minTextPx.toFixed(2)}" src="data:image/png;base64,${p.png.toString('base64')}"><figcaption>${esc(caption)}</figcaption></figure>`;
 }
 
 function rows(list: [string, string][]): string {
@@ -102,8 +109,8 @@ footer { margin-top: 8mm; border-top: 1px solid var(--rule); padding-top: 2mm; f
 }
 `;
 
-/** The report; `png` holds the pictures by name (contour, peak, mesh, deformed, geometry, section, convergence). */
-export function reportHtml(src: PlotSource, png: Map<string, Buffer>): string {
+/** The report; `png` holds the report's pictures by name (contour, peak, mesh, deformed, geometry, section, convergence), from reportPictures. */
+export function reportHtml(src: PlotSource, png: ReadonlyMap<string, ReportPicture>): string {
   const r = src.result;
   const m = src.model;
   const u = r.units;

@@ -39,6 +39,11 @@ export interface PictureOptions {
   iso?: boolean;
   /** the line for the stress plot, [x0, y0, x1, y1] (default: the net section) */
   line?: [number, number, number, number] | null;
+  /**
+   * the base text size in picture pixels, from which every text of the picture is sized (default:
+   * from the picture size, 11 to 22 pixels); the report sets it so that its pictures read at 8 pt
+   */
+  textSize?: number;
 }
 
 export const CAUTION_LINE =
@@ -126,36 +131,70 @@ export interface FooterSource {
   createdAt: string;
 }
 
-/** Title, subtitle and footer (model, date, caution); returns the drawing area and legend column. */
-export function frame(s: Scene, src: PlotSource | FooterSource | null, title: string, subtitle: string, withLegend: boolean): Frame {
+/** The base text size of a W x H picture when none is asked for: 11 to 22 pixels, growing with the picture. */
+function defaultTextSize(W: number, H: number): number {
+  return Math.max(11, Math.min(22, Math.min(W / 1.6, H) / 58));
+}
+
+/**
+ * Title, subtitle and footer (model, date, caution); returns the drawing area and legend column.
+ * A subtitle or footer line wider than the picture wraps onto further lines at spaces (a picture
+ * drawn for a narrow column keeps every word of its caution), the title up to two lines, the
+ * subtitle and the caution up to three; what is left after that is cut with an ellipsis.
+ */
+export function frame(s: Scene, src: PlotSource | FooterSource | null, title: string, subtitle: string, withLegend: boolean, textSize?: number): Frame {
   const W = s.width;
   const H = s.height;
-  const size = Math.max(11, Math.min(22, Math.min(W / 1.6, H) / 58));
+  const size = textSize ?? defaultTextSize(W, H);
   const m = size * 1.1;
-  addText(s, title, m, m + capHeight(size * 1.35), size * 1.35, INK, { weight: 'bold', what: 'title' });
-  addText(s, subtitle, m, m + capHeight(size * 1.35) + size * 1.6, size, SOFT, { what: 'subtitle' });
-  const top = m + capHeight(size * 1.35) + size * 2.6;
+  let y = m + capHeight(size * 1.35);
+  for (const line of wrapText(title, size * 1.35, W - 2 * m, 2, 'bold')) {
+    addText(s, line, m, y, size * 1.35, INK, { weight: 'bold', what: 'title' });
+    y += size * 1.35 * 1.25;
+  }
+  y += size * 1.6 - size * 1.35 * 1.25;
+  for (const line of wrapText(subtitle, size, W - 2 * m, 3)) {
+    addText(s, line, m, y, size, SOFT, { what: 'subtitle' });
+    y += size * 1.3;
+  }
+  const top = y - size * 1.3 + size * 1.0;
   const fs = size * 0.82;
   const r = src && 'result' in src ? src.result : null;
   const model = r ? `${r.model.title ?? 'untitled model'}${r.model.file ? ` (${r.model.file})` : ''}` : src && 'model' in src && typeof src.model === 'string' ? src.model : '';
   const date = src ? src.createdAt.slice(0, 10) : '';
   const foot1 = [model, `raiser ${r?.tool.version ?? TOOL_VERSION}`, date].filter(Boolean).join('  |  ');
-  const y2 = H - m * 0.8;
-  const y1 = y2 - fs * 1.45;
-  addText(s, fit(foot1, fs, W - 2 * m), m, y1, fs, SOFT, { what: 'footer' });
-  addText(s, fit(CAUTION_LINE, fs, W - 2 * m), m, y2, fs, [150, 40, 30], { what: 'caution' });
-  const bottom = y1 - fs * 1.6;
+  const caution = wrapText(CAUTION_LINE, fs, W - 2 * m, 3);
+  let yb = H - m * 0.8 - fs * 1.3 * (caution.length - 1);
+  caution.forEach((line, i) => addText(s, line, m, yb + fs * 1.3 * i, fs, [150, 40, 30], { what: 'caution' }));
+  yb -= fs * 1.45;
+  addText(s, fit(foot1, fs, W - 2 * m), m, yb, fs, SOFT, { what: 'footer' });
+  const bottom = yb - fs * 1.6;
   const legendW = withLegend ? Math.max(size * 9, Math.min(W * 0.2, size * 12)) : 0;
   const draw: Box = [m, top, W - m - legendW - (withLegend ? size : 0), bottom];
   const legend: Box | null = withLegend ? [W - m - legendW, top, W - m, bottom] : null;
   return { size, draw, legend };
 }
 
+/** The text broken at spaces into lines no wider than `width`, at most `most` lines (the last cut with an ellipsis). */
+function wrapText(text: string, size: number, width: number, most: number, weight: 'normal' | 'bold' = 'normal'): string[] {
+  const lines: string[] = [];
+  let rest = text;
+  while (rest && lines.length < most - 1 && textWidth(rest, size, weight) > width) {
+    const words = rest.split(' ');
+    let k = 1;
+    while (k < words.length && textWidth(words.slice(0, k + 1).join(' '), size, weight) <= width) k++;
+    lines.push(words.slice(0, k).join(' '));
+    rest = words.slice(k).join(' ');
+  }
+  if (rest) lines.push(fit(rest, size, width, weight));
+  return lines;
+}
+
 /** The text cut with an ellipsis to fit the width. */
-function fit(text: string, size: number, width: number): string {
-  if (textWidth(text, size) <= width) return text;
+function fit(text: string, size: number, width: number, weight: 'normal' | 'bold' = 'normal'): string {
+  if (textWidth(text, size, weight) <= width) return text;
   let t = text;
-  while (t.length > 4 && textWidth(t + '...', size) > width) t = t.slice(0, -1);
+  while (t.length > 4 && textWidth(t + '...', size, weight) > width) t = t.slice(0, -1);
   return t + '...';
 }
 
@@ -196,8 +235,8 @@ export function peakOf(src: PlotSource, measure: StressMeasure): { x: number; y:
  * The picture height that suits the part's shape at width W when none is asked for: the part
  * drawn across the width plus the title and footer, between 0.45 W (room for the legend) and 0.8 W.
  */
-function autoHeight(W: number, win: readonly number[], withLegend: boolean): number {
-  const size = Math.max(11, Math.min(22, W / 1.6 / 58));
+function autoHeight(W: number, win: readonly number[], withLegend: boolean, textSize?: number): number {
+  const size = textSize ?? Math.max(11, Math.min(22, W / 1.6 / 58));
   const drawW = W - 2.2 * size - (withLegend ? Math.max(size * 9, Math.min(W * 0.2, size * 12)) + size : 0) - 1.6 * size;
   const aspect = Math.max(1e-6, (win[2] - win[0]) / Math.max(1e-300, win[3] - win[1]));
   const chrome = size * 9.5;
@@ -385,11 +424,11 @@ export function contourScene(model: PlotSource, opts: PictureOptions = {}, title
   const { src, planes } = opts.window ? { src: model, planes: [] } : wholePart(model);
   const W = opts.width ?? 1600;
   const win = opts.window ?? bbox(src.mesh.nodes);
-  const H = opts.height ?? (opts.window ? 1000 : autoHeight(W, win, true));
+  const H = opts.height ?? (opts.window ? 1000 : autoHeight(W, win, true, opts.textSize));
   const measure = opts.measure ?? src.result.peak.measure;
   const unit = src.result.units.stress;
   const s = newScene(W, H, title ?? `${measureName(measure)}: ${src.result.model.title ?? 'raiser'}`);
-  const fr = frame(s, src, title ?? src.result.model.title ?? 'Stress', `${measureName(measure)} (${unit}), recovered nodal stresses interpolated per pixel; ${describeMesh(model)}${wholeWords(planes)}`, true);
+  const fr = frame(s, src, title ?? src.result.model.title ?? 'Stress', `${measureName(measure)} (${unit}), recovered nodal stresses interpolated per pixel; ${describeMesh(model)}${wholeWords(planes)}`, true, opts.textSize);
   const field = stressField(src, measure);
   const dataRange = fieldRange(src.mesh, field);
   const peak = peakOf(src, measure);
@@ -423,10 +462,10 @@ export function contourScene(model: PlotSource, opts: PictureOptions = {}, title
 export function meshScene(model: PlotSource, opts: PictureOptions = {}): Scene {
   const { src, planes } = opts.window ? { src: model, planes: [] } : wholePart(model);
   const W = opts.width ?? 1600;
-  const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), false);
+  const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), false, opts.textSize);
   const r = src.result;
   const s = newScene(W, H, `mesh: ${r.model.title ?? 'raiser'}`);
-  const fr = frame(s, src, `Mesh: ${r.model.title ?? ''}`.trim(), `${describeMesh(model)}, ${r.mesh.dofs} DOF, smallest angle ${formatValue(r.mesh.minAngleDeg, 3)} deg, largest ${formatValue(r.mesh.maxAngleDeg, 3)} deg${wholeWords(planes)}`, false);
+  const fr = frame(s, src, `Mesh: ${r.model.title ?? ''}`.trim(), `${describeMesh(model)}, ${r.mesh.dofs} DOF, smallest angle ${formatValue(r.mesh.minAngleDeg, 3)} deg, largest ${formatValue(r.mesh.maxAngleDeg, 3)} deg${wholeWords(planes)}`, false, opts.textSize);
   const { view, bar } = layoutPart(s, fr, opts.window ?? bbox(src.mesh.nodes), fr.size * 0.8, r.units.length, (v) => outlineLoops(src, src.mesh.nodes, v));
   s.items.push({ kind: 'fill', paths: outlineLoops(src, src.mesh.nodes, view), colour: PLATE_FILL, clip: fr.draw });
   s.items.push({ kind: 'stroke', lines: meshEdgeLines(src.mesh, view), width: 0.7, colour: [40, 44, 56], alpha: 0.75, clip: fr.draw });
@@ -441,7 +480,7 @@ export function meshScene(model: PlotSource, opts: PictureOptions = {}): Scene {
 export function deformedScene(model: PlotSource, opts: PictureOptions = {}): Scene {
   const { src, planes } = opts.window ? { src: model, planes: [] } : wholePart(model);
   const W = opts.width ?? 1600;
-  const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), true);
+  const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), true, opts.textSize);
   const r = src.result;
   let umax = 0;
   for (let i = 0; i < src.mesh.nNodes; i++) umax = Math.max(umax, Math.hypot(src.u[2 * i], src.u[2 * i + 1]));
@@ -450,7 +489,7 @@ export function deformedScene(model: PlotSource, opts: PictureOptions = {}): Sce
   const factor = umax > 0 ? roundFactor((0.08 * size) / umax) : 1;
   const unit = r.units.length;
   const s = newScene(W, H, `deformed shape: ${r.model.title ?? 'raiser'}`);
-  const fr = frame(s, src, `Deformed shape: ${r.model.title ?? ''}`.trim(), `displacements drawn ${formatValue(factor, 3)} times magnified; largest displacement ${formatValue(umax)} ${unit}; undeformed outline dashed${wholeWords(planes)}`, true);
+  const fr = frame(s, src, `Deformed shape: ${r.model.title ?? ''}`.trim(), `displacements drawn ${formatValue(factor, 3)} times magnified; largest displacement ${formatValue(umax)} ${unit}; undeformed outline dashed${wholeWords(planes)}`, true, opts.textSize);
   const dm = drawMesh(src, factor);
   const dbox = bbox(dm.nodes);
   const all: [number, number, number, number] = opts.window ?? [Math.min(box[0], dbox[0]), Math.min(box[1], dbox[1]), Math.max(box[2], dbox[2]), Math.max(box[3], dbox[3])];
@@ -524,7 +563,7 @@ export function closeupScene(src: PlotSource, opts: PictureOptions = {}): Scene 
 export function geometryScene(model: PlotSource, opts: PictureOptions = {}): Scene {
   const { src, planes } = opts.window ? { src: model, planes: [] } : wholePart(model);
   const W = opts.width ?? 1600;
-  const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), false) + 60;
+  const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), false, opts.textSize) + 60;
   const r = src.result;
   const s = newScene(W, H, `geometry: ${r.model.title ?? 'raiser'}`);
   // Loads and supports need the domain's edges and tags; an imported drawing that cannot be read
@@ -536,7 +575,7 @@ export function geometryScene(model: PlotSource, opts: PictureOptions = {}): Sce
     domain = null;
   }
   const bcWords = domain ? 'loads L (arrows, not to scale) and supports S' : 'loads and supports not drawn (the drawing the geometry came from could not be read again)';
-  const fr = frame(s, src, `Geometry and nominal sections: ${r.model.title ?? ''}`.trim(), `each raiser's net section (least material across the flow) solid, gross section dashed; ${bcWords}; lengths in ${r.units.length}${wholeWords(planes)}`, false);
+  const fr = frame(s, src, `Geometry and nominal sections: ${r.model.title ?? ''}`.trim(), `each raiser's net section (least material across the flow) solid, gross section dashed; ${bcWords}; lengths in ${r.units.length}${wholeWords(planes)}`, false, opts.textSize);
   // room around the plate for the load arrows (2.6 sizes) and their labels
   const { view, bar } = layoutPart(s, fr, opts.window ?? bbox(src.mesh.nodes), fr.size * 4.4, r.units.length, (v) => outlineLoops(src, src.mesh.nodes, v));
   // The peak's ring is kept free of the section labels placed before it is drawn.
@@ -591,7 +630,7 @@ export function convergenceScene(src: PlotSource, opts: PictureOptions = {}): Sc
   const s = newScene(W, H, `convergence: ${r.model.title ?? 'raiser'}`);
   const gov = r.raisers.find((x) => x.governing);
   const what = r.kt.kind ? `Kt ${r.kt.kind} of ${r.kt.raiser}` : gov ? `the peak of ${gov.name}` : 'the highest stress';
-  const fr = frame(s, src, `Convergence: ${r.model.title ?? ''}`.trim(), `${what} on each mesh of the series; error band ${c.estimatedError === null ? 'not available' : `+-${formatValue(100 * c.estimatedError, 2)}%`} on the finest (grid convergence index)`, false);
+  const fr = frame(s, src, `Convergence: ${r.model.title ?? ''}`.trim(), `${what} on each mesh of the series; error band ${c.estimatedError === null ? 'not available' : `+-${formatValue(100 * c.estimatedError, 2)}%`} on the finest (grid convergence index)`, false, opts.textSize);
   const values = c.meshes.map((m) => (r.kt.kind ? m.kt : gov ? m.raiserPeak : m.peak));
   const series: Series[] = [{ name: what, points: c.meshes.flatMap((m, i) => [m.dofs, values[i] ?? NaN]), colour: NET_COLOUR, markers: true }];
   const last = c.meshes[c.meshes.length - 1];
@@ -625,6 +664,7 @@ export function lineScene(src: PlotSource, opts: PictureOptions = {}): Scene {
     `Stress along ${isNet ? `the net section of ${gov!.name}` : 'a line'}: ${r.model.title ?? ''}`.trim(),
     `from (${formatValue(x0, 5)}, ${formatValue(y0, 5)}) to (${formatValue(x1, 5)}, ${formatValue(y1, 5)}) ${r.units.length}; gaps where the line leaves the material`,
     false,
+    opts.textSize,
   );
   const probe = new FieldProbe(src.mesh);
   // The stress across the line: along its normal (the flow the section is taken across).
