@@ -113,16 +113,17 @@ export function solveOutputOptions(flags: object): OutputOptions {
 /**
  * Readies the output folders of `raiser solve` before anything is solved: -o and
  * --export-matrix checked, made and locked, and files there not replaced without --force, so a
- * bad folder is said at once rather than after the solve.
+ * bad folder is said at once rather than after the solve. Every file the solve may write is
+ * checked (the convergence picture unless --single-mesh), so nothing is refused afterwards.
  */
 export function prepareSolveOutputs(flags: object): void {
-  const f = flags as { out?: string; exportMatrix?: string; force?: boolean; pictures?: boolean };
+  const f = flags as { out?: string; exportMatrix?: string; force?: boolean; pictures?: boolean; singleMesh?: boolean };
   const force = f.force ?? false;
   // A picture size that cannot be drawn is refused now, not after the solve.
   noteDeprecatedSize(flags);
   solveOutputOptions(flags);
   if (f.out !== undefined) {
-    const names = [...RESULT_FILES, SAVED_FILE, 'result.vtu', ...(f.pictures !== false ? [...pictureFileNames(false), 'report.html'] : [])];
+    const names = [...RESULT_FILES, SAVED_FILE, 'result.vtu', ...(f.pictures !== false ? [...pictureFileNames(f.singleMesh !== true), 'report.html'] : [])];
     prepareOutputDir(f.out, names, force, '-o');
   }
   if (f.exportMatrix !== undefined) prepareOutputDir(f.exportMatrix, MATRIX_FILES, force, '--export-matrix');

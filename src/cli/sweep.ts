@@ -32,6 +32,7 @@ interface SizeFlags {
   largest?: boolean;
   tolerance?: string;
   accuracy?: string;
+  singleMesh?: boolean;
   measure?: StressMeasure;
   jobs?: string;
   out?: string;
@@ -67,6 +68,7 @@ async function runSizeCommand(file: string, flags: SizeFlags): Promise<number> {
     tolerance,
     jobs: parseJobs(flags.jobs),
     measure: flags.measure,
+    singleMesh: flags.singleMesh,
     allowDrawingOutside: flags.allowDrawingOutside,
     target: flags.accuracy ? parseAccuracy(flags.accuracy) : undefined,
   };
@@ -95,7 +97,7 @@ async function runSizeCommand(file: string, flags: SizeFlags): Promise<number> {
     if (res.met && res.row) {
       const q = res.quantity.startsWith('Kt') ? (flags.kt === 'gross' ? res.row.ktGross : res.row.ktNet) : res.row.peak;
       const qUnit = res.quantity.startsWith('Kt') ? '' : ` ${S}`;
-      process.stdout.write(`  ${res.quantity} there: ${fmt(q!, 4)}${qUnit}${res.row.error !== null ? ` +- ${fmt(100 * res.row.error, 2)}%` : ''}; limit ${res.limit}${qUnit}; margin ${fmt(100 * res.margin!, 3)}% of the limit with the band\n`);
+      process.stdout.write(`  ${res.quantity} there: ${fmt(q!, 4)}${qUnit}${res.row.error !== null ? ` +- ${fmt(100 * res.row.error, 2)}%` : ''}; limit ${res.limit}${qUnit}; margin ${fmt(100 * res.margin!, 3)}% of the limit${res.row.error !== null ? ' with the band' : ' (one mesh: no error band)'}\n`);
       process.stdout.write(`  peak ${fmt(res.row.peak, 4)} ${S} at (${fmt(res.row.peakX, 5)}, ${fmt(res.row.peakY, 5)}) ${L}, ${res.row.feature}; ${res.steps.length} solutions\n`);
       process.stdout.write(`  search stopped ${res.tolerance !== null ? `at the bracket tolerance ${res.tolerance}${res.valueUnit ? ` ${res.valueUnit}` : ''} (--tolerance)` : `at 0.2% of the range or within 2% of the limit (the default; --tolerance sets a bracket length)`}\n`);
     }
@@ -177,6 +179,7 @@ export function sweepCommands(program: Command, setCode: (c: number) => void): v
     .option('--largest', 'find the largest value that meets the limit instead of the smallest')
     .option('--tolerance <length>', 'stop when the value is bracketed this closely, in the model\'s length unit (default: 0.2% of the range, or as soon as a meeting value is within 2% of the limit)')
     .option('--accuracy <target>', 'accuracy of each solution (default 0.5%)')
+    .option('--single-mesh', 'one mesh per solution, no convergence study (no error band: the limit is checked on the value alone)')
     .addOption(new Option('--measure <measure>', 'stress measure').choices(STRESS_MEASURES as unknown as string[]))
     .option('--jobs <n>', 'solutions at a time on worker threads: each round tries that many values inside the bracket (default 1, plain bisection)')
     .option('-o, --out <dir>', 'write the chosen design\'s model file (model.json), size.json (the search) and the files of solve -o (result.json, saved solution, VTU, pictures, report.html) into this folder')
