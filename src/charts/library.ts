@@ -26,6 +26,11 @@ export interface ChartParam {
 
 export interface Chart {
   id: string;
+  /**
+   * The `raiser new` templates whose family this chart applies to: the one place that ties the
+   * template names to the chart ids, so `raiser charts <template>` finds the charts of a family.
+   */
+  templates: readonly string[];
   title: string;
   source: string;
   /** [V] found in the text, [D] derived, [M] recalled, [M+] recalled with an independent check */
@@ -48,6 +53,7 @@ const between = (v: number, lo: number, hi: number, what: string): string[] => (
 export const CHARTS: Chart[] = [
   {
     id: 'kirsch',
+    templates: ['plate-with-hole'],
     title: 'circular hole in an infinite plate, uniaxial remote tension',
     source: 'G. Kirsch, Z. VDI 42 (1898) 797-807',
     provenance: 'D',
@@ -61,6 +67,7 @@ export const CHARTS: Chart[] = [
   },
   {
     id: 'inglis',
+    templates: ['plate-with-elliptical-hole'],
     title: 'elliptical hole in an infinite plate, remote tension across the semi-axis a',
     source: 'C. E. Inglis, Trans. Inst. Naval Architects 55 (1913) 219-241',
     provenance: 'V',
@@ -77,6 +84,7 @@ export const CHARTS: Chart[] = [
   },
   {
     id: 'hole-in-strip',
+    templates: ['plate-with-hole'],
     title: 'central circular hole in a strip, tension',
     source: 'Howland, Phil. Trans. R. Soc. A 229 (1930); Pilkey & Pilkey, Peterson\'s Stress Concentration Factors (2008) chart 4.1 fit',
     provenance: 'M+',
@@ -93,6 +101,7 @@ export const CHARTS: Chart[] = [
   },
   {
     id: 'hole-in-strip-gross',
+    templates: ['plate-with-hole'],
     title: 'central circular hole in a strip, tension, on the gross section',
     source: 'as hole-in-strip, Ktg = Ktn / (1 - d/W)',
     provenance: 'M+',
@@ -109,6 +118,7 @@ export const CHARTS: Chart[] = [
   },
   {
     id: 'hole-in-strip-heywood',
+    templates: ['plate-with-hole'],
     title: 'central circular hole in a strip, tension (Heywood\'s formula)',
     source: 'R. B. Heywood, Designing by Photoelasticity (1952): Ktn = 2 + (1 - d/W)^3',
     provenance: 'M',
@@ -125,6 +135,7 @@ export const CHARTS: Chart[] = [
   },
   {
     id: 'fillet-tension',
+    templates: ['stepped-bar'],
     title: 'flat bar with shoulder fillets, tension',
     source: 'Pilkey & Pilkey (2008) chart 3.1 fit',
     provenance: 'M',
@@ -142,6 +153,7 @@ export const CHARTS: Chart[] = [
   },
   {
     id: 'fillet-bending',
+    templates: ['stepped-bar'],
     title: 'flat bar with shoulder fillets, in-plane bending',
     source: 'Pilkey & Pilkey (2008) chart 3.4 fit',
     provenance: 'M',
@@ -159,6 +171,7 @@ export const CHARTS: Chart[] = [
   },
   {
     id: 'u-notches-tension',
+    templates: ['u-notched-bar'],
     title: 'flat bar with opposite U-notches, tension',
     source: 'Pilkey & Pilkey (2008) chart 2.4 fit; it agrees with Neuber\'s combination rule, which is known to run low for deep narrow notches',
     provenance: 'M+',
@@ -176,6 +189,7 @@ export const CHARTS: Chart[] = [
   },
   {
     id: 'semicircular-notches-tension',
+    templates: ['u-notched-bar'],
     title: 'flat bar with opposite semicircular notches, tension',
     source: 'Pilkey & Pilkey (2008) chart 2.3, after C.-B. Ling (1947) and M. Isida: 3.065 - 3.472 x + 1.009 x^2 + 0.405 x^3, x = 2r/H (coefficients recalled; 3.065 at x = 0 is Ling\'s semi-infinite value)',
     provenance: 'M+',
@@ -192,6 +206,7 @@ export const CHARTS: Chart[] = [
   },
   {
     id: 'u-notches-neuber',
+    templates: ['u-notched-bar'],
     title: 'opposite notches in tension by Neuber\'s combination rule',
     source: 'H. Neuber, Kerbspannungslehre (1958)',
     provenance: 'M',
@@ -209,6 +224,7 @@ export const CHARTS: Chart[] = [
   },
   {
     id: 'edge-notch-semicircular',
+    templates: ['edge-notched-bar'],
     title: 'semicircular edge notch in a semi-infinite plate, tension',
     source: 'C.-B. Ling, J. Math. Phys. 26 (1948) 284-289: Kt = 3.065',
     provenance: 'M',
@@ -225,6 +241,7 @@ export const CHARTS: Chart[] = [
   },
   {
     id: 'edge-notch-slender',
+    templates: ['edge-notched-bar'],
     title: 'slender single edge U-notch in a strip, tension, ends free to rotate (an estimate)',
     source: 'derived here from Creager & Paris, IJFM 3 (1967) and the edge-crack factor of Tada, Paris & Irwin (2000); low by about 1/Kt and more',
     provenance: 'D from M',
@@ -242,6 +259,7 @@ export const CHARTS: Chart[] = [
   },
   {
     id: 'pin-bearing-infinite-plate',
+    templates: ['lug'],
     title: 'cosine bearing pressure of a pin on a hole in an infinite plate: peak hoop stress on the hole',
     source: "derived here from J.H. Michell, Proc. London Math. Soc. 31 (1899) 100: Kt = 8/pi^2 on F/(d t), at 90 deg from the force",
     provenance: 'D',
@@ -259,6 +277,7 @@ export const CHARTS: Chart[] = [
   },
   {
     id: 'pin-in-plate-close-fit',
+    templates: ['lug'],
     title: 'plate pulled through a close-fitting pin in a hole (Frocht and Hill)',
     source: 'M.M. Frocht and H.N. Hill, J. Appl. Mech. 7 (1940) A5, as charted in Pilkey & Pilkey (2008) ch. 5; cubic fit in d/W; experiments with real pins (friction, some play): clearance raises Kt 35 to 50%',
     provenance: 'M',
@@ -280,6 +299,11 @@ export const CHARTS: Chart[] = [
 
 export function findChart(id: string): Chart | undefined {
   return CHARTS.find((c) => c.id === id);
+}
+
+/** The charts that apply to the family of a `raiser new` template (empty for a name no chart lists). */
+export function chartsForTemplate(template: string): Chart[] {
+  return CHARTS.filter((c) => c.templates.includes(template));
 }
 
 /**

@@ -33,6 +33,8 @@ import { reattachDrawing } from '../model/load.js';
 export const PICTURE_NAMES = ['contour', 'peak', 'mesh', 'deformed', 'geometry', 'section', 'convergence'] as const;
 
 export interface PictureFlags {
+  pictureSize?: string;
+  /** the old name of --picture-size, kept working with a notice */
   size?: string;
   measure?: StressMeasure;
   range?: string;
@@ -53,14 +55,33 @@ export function parseSize(text: string): [number, number] {
   const m = /^\s*(\d+)\s*[xX*]\s*(\d+)\s*$/.exec(text);
   const w = m ? Number(m[1]) : NaN;
   const h = m ? Number(m[2]) : NaN;
-  if (!(w >= 200 && w <= 8000 && h >= 200 && h <= 8000)) throw new ModelError('--size', `"${text}" is not a picture size raiser draws`, 'give width x height in pixels, each 200 to 8000, such as 1600x1000');
+  if (!(w >= 200 && w <= 8000 && h >= 200 && h <= 8000)) throw new ModelError('--picture-size', `"${text}" is not a picture size raiser draws`, 'give width x height in pixels, each 200 to 8000, such as 1600x1000');
   return [w, h];
+}
+
+/**
+ * The picture size asked for: --picture-size, or its old name --size (which `raiser size`, the
+ * sizing command, made confusing), said once on stderr so --json output stays clean.
+ */
+function pictureSizeText(flags: PictureFlags): string | undefined {
+  return flags.pictureSize ?? flags.size;
+}
+
+/** The one-line notice for the old option name; call once per run. */
+export function noteDeprecatedSize(flags: object): void {
+  if ((flags as PictureFlags).size !== undefined) process.stderr.write('raiser: --size is the old name of --picture-size and will be removed; write --picture-size\n');
+}
+
+/** The hidden old name of --picture-size. */
+export function deprecatedSizeOption(): Option {
+  return new Option('--size <WxH>', 'old name of --picture-size').hideHelp();
 }
 
 /** The picture options from command-line flags. */
 export function pictureOptions(flags: PictureFlags, measureDefault?: StressMeasure): PictureOptions {
   const o: PictureOptions = {};
-  if (flags.size) [o.width, o.height] = parseSize(flags.size);
+  const size = pictureSizeText(flags);
+  if (size) [o.width, o.height] = parseSize(size);
   o.measure = flags.measure ?? measureDefault;
   if (flags.range) {
     const [lo, hi] = numbers(flags.range, 2, '--range', '0:300');
@@ -86,19 +107,23 @@ export function pictureOptions(flags: PictureFlags, measureDefault?: StressMeasu
 export function solveOutputOptions(flags: object): OutputOptions {
   const f = flags as PictureFlags & { pictures?: boolean };
   // --measure on solve picks the analysis measure; the pictures follow the analysis.
-  return { pictures: f.pictures !== false, pictureOptions: pictureOptions({ size: f.size }) };
+  return { pictures: f.pictures !== false, pictureOptions: pictureOptions({ pictureSize: f.pictureSize, size: f.size }) };
 }
 
 /**
  * Readies the output folders of `raiser solve` before anything is solved: -o and
  * --export-matrix checked, made and locked, and files there not replaced without --force, so a
- * bad folder is said at once rather than after the solve.
+ * bad folder is said at once rather than after the solve. Every file the solve may write is
+ * checked (the convergence picture unless --single-mesh), so nothing is refused afterwards.
  */
 export function prepareSolveOutputs(flags: object): void {
-  const f = flags as { out?: string; exportMatrix?: string; force?: boolean; pictures?: boolean };
+  const f = flags as { out?: string; exportMatrix?: string; force?: boolean; pictures?: boolean; singleMesh?: boolean };
   const force = f.force ?? false;
+  // A picture size that cannot be drawn is refused now, not after the solve.
+  noteDeprecatedSize(flags);
+  solveOutputOptions(flags);
   if (f.out !== undefined) {
-    const names = [...RESULT_FILES, SAVED_FILE, 'result.vtu', ...(f.pictures !== false ? [...pictureFileNames(false), 'report.html'] : [])];
+    const names = [...RESULT_FILES, SAVED_FILE, 'result.vtu', ...(f.pictures !== false ? [...pictureFileNames(f.singleMesh !== true), 'report.html'] : [])];
     prepareOutputDir(f.out, names, force, '-o');
   }
   if (f.exportMatrix !== undefined) prepareOutputDir(f.exportMatrix, MATRIX_FILES, force, '--export-matrix');
@@ -140,6 +165,7 @@ function runPlot(saved: string, flags: PlotFlags): number {
   const src = readSaved(saved);
   // an imported drawing is not in the saved file: read it again for the loads and supports of the geometry picture
   reattachDrawing(src.model, src.result.model.file ?? undefined);
+  noteDeprecatedSize(flags);
   const o = pictureOptions(flags);
   let only: string[];
   if (flags.only) {
@@ -177,7 +203,8 @@ function runPlot(saved: string, flags: PlotFlags): number {
 export function addSolvePictureOptions(cmd: Command): Command {
   return cmd
     .option('--no-pictures', 'with -o: write no pictures and no HTML report (results, saved solution and VTU only)')
-    .option('--size <WxH>', 'with -o: picture size in pixels (default 1600x1000)')
+    .option('--picture-size <WxH>', 'with -o: picture size in pixels (default 1600x1000)')
+    .addOption(deprecatedSizeOption())
     .option('--export-matrix <dir>', 'write the stiffness matrix and load vector (Matrix Market) and the DOF map into this folder');
 }
 
@@ -192,7 +219,8 @@ export function plotCommand(program: Command, setCode: (c: number) => void): voi
     .option('--format <list>', 'png, svg or png,svg (default png,svg)')
     .addOption(new Option('--measure <measure>', 'stress measure to draw (default: the analysis measure)').choices(STRESS_MEASURES as unknown as string[]))
     .option('--range <lo:hi>', 'value range of the colours, e.g. 0:300 (values beyond take the end colours)')
-    .option('--size <WxH>', 'picture size in pixels (default 1600x1000)')
+    .option('--picture-size <WxH>', 'picture size in pixels (default 1600x1000)')
+    .addOption(deprecatedSizeOption())
     .option('--window <x0,y0,x1,y1>', 'model region to show, in model length units')
     .option('--mesh', 'draw the element edges on the contour')
     .option('--no-mesh', 'leave the element edges off (also on the close-up)')

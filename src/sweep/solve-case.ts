@@ -1,8 +1,8 @@
 /** One sweep case, solved: shared by the worker threads and the single-thread path. */
 import { compareWithChart } from '../charts/library.js';
-import type { StressMeasure } from '../model/schema.js';
-import { analyseModel } from '../pipeline/analyse.js';
-import { certifyModel, governingKt, type GoverningKt } from '../pipeline/certify.js';
+import type { Model, StressMeasure } from '../model/schema.js';
+import { analyseModel, type Analysis } from '../pipeline/analyse.js';
+import { certifyModel, governingKt, type Certified, type GoverningKt } from '../pipeline/certify.js';
 import { caseModel, type SweepSource } from './cases.js';
 
 export interface CaseOptions {
@@ -35,7 +35,20 @@ export interface CaseRow {
 }
 
 export function solveCase(src: SweepSource, key: string, values: Record<string, number>, opts: CaseOptions): CaseRow {
+  return solveCaseFull(src, key, values, opts).row;
+}
+
+/** A case solved, with its model, analysis and certification kept (for writing its files). */
+export interface SolvedCase {
+  row: CaseRow;
+  model: Model;
+  analysis: Analysis;
+  certified: Certified | null;
+}
+
+export function solveCaseFull(src: SweepSource, key: string, values: Record<string, number>, opts: CaseOptions): SolvedCase {
   const t0 = performance.now();
+  let certified: Certified | null = null;
   const model = caseModel(src, values);
   let status = 'single-mesh';
   let error: number | null = null;
@@ -47,6 +60,7 @@ export function solveCase(src: SweepSource, key: string, values: Record<string, 
     kt = governingKt(a);
   } else {
     const c = certifyModel(model, { ...opts, target: opts.target ?? 0.01 });
+    certified = c;
     a = c.analysis;
     kt = governingKt(c);
     status = c.status;
@@ -54,7 +68,7 @@ export function solveCase(src: SweepSource, key: string, values: Record<string, 
     meshes = c.meshes.length;
   }
   const cmp = model.chart ? compareWithChart(model.chart.family, model.chart.dims, { net: kt.net, gross: kt.gross }) : null;
-  return {
+  const row: CaseRow = {
     key,
     values,
     status,
@@ -71,4 +85,5 @@ export function solveCase(src: SweepSource, key: string, values: Record<string, 
     chartId: cmp ? cmp.id : null,
     timeMs: performance.now() - t0,
   };
+  return { row, model, analysis: a, certified };
 }
