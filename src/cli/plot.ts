@@ -95,10 +95,10 @@ export function solveOutputOptions(flags: object): OutputOptions {
  * bad folder is said at once rather than after the solve.
  */
 export function prepareSolveOutputs(flags: object): void {
-  const f = flags as { out?: string; exportMatrix?: string; force?: boolean; pictures?: boolean };
+  const f = flags as { out?: string; exportMatrix?: string; force?: boolean; pictures?: boolean; pdf?: boolean };
   const force = f.force ?? false;
   if (f.out !== undefined) {
-    const names = [...RESULT_FILES, SAVED_FILE, 'result.vtu', ...(f.pictures !== false ? [...pictureFileNames(false), 'report.html'] : [])];
+    const names = [...RESULT_FILES, SAVED_FILE, 'result.vtu', ...(f.pictures !== false ? [...pictureFileNames(false), 'report.html'] : []), ...(f.pdf ? ['report.pdf'] : [])];
     prepareOutputDir(f.out, names, force, '-o');
   }
   if (f.exportMatrix !== undefined) prepareOutputDir(f.exportMatrix, MATRIX_FILES, force, '--export-matrix');

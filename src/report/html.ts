@@ -5,7 +5,7 @@
  * (a text width of 180 mm fits both with 14 mm margins; no fixed page heights).
  */
 import { describeSelector } from '../geometry/select.js';
-import type { Load, Selector, Support } from '../model/schema.js';
+import type { Load, ReportInfo, Selector, Support } from '../model/schema.js';
 import { formatValue } from '../render/ticks.js';
 import { measureName } from './pictures.js';
 import { describePinLoad, describePinSupport, pinsHtml } from './pins.js';
@@ -93,7 +93,11 @@ figure img { display: block; width: 100%; height: auto; border: 1px solid var(--
 figcaption { font-size: 8.5pt; color: var(--soft); margin-top: 1mm; }
 ul.plain { padding-left: 5mm; margin: 1mm 0; }
 footer { margin-top: 8mm; border-top: 1px solid var(--rule); padding-top: 2mm; font-size: 8.5pt; color: var(--soft); }
-@page { margin: 14mm; }
+@page { margin: 18mm 14mm 16mm; }
+.signoff table { break-inside: avoid; }
+.signoff td.sign { width: 45%; border-bottom: 1px solid var(--ink); height: 11mm; }
+.signoff td.name { width: 30%; }
+.signoff .missing { color: var(--soft); }
 @media print {
   main { max-width: none; padding: 0; }
   body { font-size: 9.5pt; }
@@ -112,9 +116,11 @@ export function reportHtml(src: PlotSource, png: Map<string, Buffer>): string {
   const c = r.convergence;
   const band = r.kt.error === null ? (r.kt.value === null ? '' : 'no error estimate (one mesh)') : `estimated error +-${pct(r.kt.error)}`;
   const headline = r.kt.value === null ? 'none' : f(r.kt.value, 4);
+  const info = m.report ?? {};
   const parts: string[] = [];
   parts.push(`<header><p class="kind">Stress concentration report</p><h1>${esc(title)}</h1>
 <p>Model file ${esc(r.model.file ?? '(not from a file)')}; analysed ${esc(date)} by raiser ${esc(r.tool.version)}.</p>
+${info.project || info.part || info.revision ? `<p id="ident">${[info.project ? `Project ${esc(info.project)}` : '', info.part ? `part ${esc(info.part)}` : '', info.revision ? `revision ${esc(info.revision)}` : ''].filter(Boolean).join('; ')}</p>` : ''}
 ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
   parts.push(`<section class="keys" aria-label="key results">
 <div class="key"><div class="label">Kt${r.kt.kind ? ` ${esc(r.kt.kind)}` : ''}</div><div class="value" id="kt">${headline}</div><div class="sub">${esc(r.kt.value === null ? (r.kt.withheld ?? '') : `${band}; at ${r.kt.raiser}`)}</div></div>
@@ -233,6 +239,7 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
 <li>A Kt whose nominal stress means nothing here (a section that carries no load toward the raiser, a nominal stress of the other sign, a raiser loaded by shear, a biaxial state) is withheld with the reason; the peak stress is always given.</li>
 </ul>`,
   );
+  parts.push(signOff(info, date));
   parts.push(`<footer>Made by raiser ${esc(r.tool.version)} on ${esc(date)}. Colours: the batlow colour map (F. Crameri, Scientific colour maps, 2018). Text in the pictures: DejaVu Sans.</footer>`);
   return `<!DOCTYPE html>
 <html lang="en">
@@ -241,7 +248,7 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
 <meta name="viewport" content="width=device-width, initial-scale=1">
 <meta name="generator" content="raiser ${esc(r.tool.version)}">
 <title>${esc(title)}: stress concentration report</title>
-<style>${STYLE}</style>
+<style>${STYLE}${printMargins(title, info)}</style>
 </head>
 <body>
 <main>
@@ -280,4 +287,51 @@ function raisersTable(r: ResultJson): string {
     .join('');
   const defs = `<p class="defs">Kt net: peak / (N / A_net - M y / I_net) on the raiser's net section, the least-material cut across the flow at the raiser through all ligaments, at the raiser's edge. Kt gross: the same N and M over the prismatic width beside the raiser, at its outer fibre. Kt remote: peak / the largest principal remote stress. N, V and M come from the nodal forces on one side of the section (a free-body cut).</p>`;
   return `<table id="raisers"><thead><tr><th>stress raiser</th><th class="num">peak (${esc(u.stress)})</th><th>at</th><th>Kt</th><th>section</th></tr></thead><tbody>${body}</tbody></table>${defs}`;
+}
+
+/** A string for CSS `content`: quotes, backslashes and line breaks escaped, and `<` too so no text can close the style element. */
+function cssString(t: string): string {
+  return `"${t.replace(/[\\"<>\n\r]/g, (c) => `\\${c.charCodeAt(0).toString(16)} `)}"`;
+}
+
+/**
+ * The print margins: a running header (title, part number, revision) and "page N of M" on every
+ * printed page, in CSS page-margin boxes (CSS Paged Media Level 3; Chromium prints them since
+ * version 131). A browser without them prints the pages without header and numbers.
+ */
+function printMargins(title: string, info: ReportInfo): string {
+  const head = [title, info.part ? `part ${info.part}` : '', info.revision ? `rev. ${info.revision}` : ''].filter(Boolean).join('  |  ');
+  const box = 'font: 8pt "DejaVu Sans", Verdana, sans-serif; color: #60646e;';
+  return `
+@page {
+  @top-left { content: ${cssString(head)}; ${box} vertical-align: bottom; padding-bottom: 3mm; }
+  @bottom-left { content: ${cssString(`raiser stress concentration report${info.project ? `, ${info.project}` : ''}`)}; ${box} vertical-align: top; padding-top: 3mm; }
+  @bottom-right { content: "page " counter(page) " of " counter(pages); ${box} vertical-align: top; padding-top: 3mm; }
+}
+`;
+}
+
+/**
+ * The sign-off block: project, part, revision and date, and a line to sign for each of
+ * prepared, checked and approved. A name not given leaves its line empty, to be filled in by
+ * hand; nothing is made up.
+ */
+function signOff(info: ReportInfo, analysed: string): string {
+  const given = (v: string | undefined) => (v ? esc(v) : '<span class="missing">(not given)</span>');
+  const person = (role: string, id: string, name: string | undefined) =>
+    `<tr><th scope="row">${role}</th><td class="name" id="${id}">${name ? esc(name) : ''}</td><td class="sign"></td><td class="date"></td></tr>`;
+  return `<section class="signoff" id="signoff"><h2>Sign-off</h2>
+<table><tbody>${rows([
+    ['project', given(info.project)],
+    ['part number', given(info.part)],
+    ['revision', given(info.revision)],
+    ['date', esc(info.date ?? analysed)],
+  ])}</tbody></table>
+<table><thead><tr><th></th><th>name</th><th>signature</th><th>date</th></tr></thead><tbody>
+${person('prepared by', 'prepared-by', info.preparedBy)}
+${person('checked by', 'checked-by', info.checkedBy)}
+${person('approved by', 'approved-by', info.approvedBy)}
+</tbody></table>
+<p>The signatures confirm that the model (geometry, material, loads and supports) represents the part, that the cautions above were read, and that the results were checked under the applicable codes and standards.</p>
+</section>`;
 }
