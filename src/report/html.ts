@@ -145,6 +145,7 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
       ['loads', `<ul class="plain">${m.loads.map((l) => `<li>${esc(describeLoad(l, u.stress, u.force, u.moment, u.length))}${l.note ? ` (${esc(l.note)})` : ''}</li>`).join('')}</ul>`],
     ])}</tbody></table>`,
   );
+  parts.push(geometryTable(r));
   parts.push(figure(png, 'geometry', 'Geometry with each stress raiser\'s net section (solid) and gross section (dashed) on which its nominal stresses are taken, the raisers\' peaks, and the loads (L, arrows not to scale) and supports (S).'));
 
   parts.push('<h2>Mesh</h2>');
@@ -334,4 +335,69 @@ ${person('approved by', 'approved-by', info.approvedBy)}
 </tbody></table>
 <p>The signatures confirm that the model (geometry, material, loads and supports) represents the part, that the cautions above were read, and that the results were checked under the applicable codes and standards.</p>
 </section>`;
+}
+
+type RaiserJson = ResultJson['raisers'][number];
+
+/** A point as "(x, y)" in the length unit. */
+const at = (p: readonly number[]) => `(${f(p[0], 5)}, ${f(p[1], 5)})`;
+
+/** What a raiser is and its dimensions and position, from the shape the analysis recorded. */
+function describeShape(x: RaiserJson, len: string): [string, string, string] {
+  const sh = x.shape;
+  const hole = x.kind === 'hole';
+  if (!sh) return [hole ? 'hole' : 'curved edge', x.radius === null ? '-' : `smallest radius ${f(x.radius)} ${len}`, 'not recorded in this saved solution (solve again for it)'];
+  switch (sh.type) {
+    case 'circle':
+      return ['circular hole', `diameter ${f(sh.diameter)} ${len} (radius ${f(sh.diameter / 2)})`, `centre ${at(sh.center)}`];
+    case 'ellipse':
+      return ['elliptical hole', `semi-axes ${f(sh.semiAxes[0])} and ${f(sh.semiAxes[1])} ${len}, the first at ${f(sh.angleDeg, 3)} deg to x`, `centre ${at(sh.center)}`];
+    case 'rounded-rectangle':
+      return ['rectangular cutout, rounded corners', `${f(sh.width)} by ${f(sh.height)} ${len}, corner radius ${f(sh.cornerRadius)} ${len}${sh.angleDeg ? `, turned ${f(sh.angleDeg, 3)} deg` : ''}`, `centre ${at(sh.center)}`];
+    case 'slot':
+      return ['slot (round ends)', `width ${f(sh.width)} ${len}, overall length ${f(sh.length)} ${len}`, `end centres ${at(sh.ends[0])} and ${at(sh.ends[1])}`];
+    case 'arc':
+      return [hole ? 'arc of a hole' : 'circular arc (fillet or notch root)', `radius ${f(sh.radius)} ${len}, ${f(sh.sweepDeg, 3)} deg of arc`, `centre ${at(sh.center)}; from ${at(sh.from)} to ${at(sh.to)}`];
+    default:
+      return [
+        hole ? 'cutout' : 'curved edges (fillets, notch)',
+        sh.radius === null ? 'no concave radius' : `smallest radius ${f(sh.radius)} ${len}`,
+        `within x ${f(sh.extent[0], 5)} to ${f(sh.extent[2], 5)}, y ${f(sh.extent[1], 5)} to ${f(sh.extent[3], 5)}`,
+      ];
+  }
+}
+
+/**
+ * The geometry table: the outline's extent and every stress raiser (hole, slot, fillet, notch)
+ * with its dimensions and position, as the analysis recorded them from the model's geometry.
+ */
+function geometryTable(r: ResultJson): string {
+  const len = r.units.length;
+  const g = r.geometry as ResultJson['geometry'] | undefined;
+  const out: string[] = ['<h3>Geometry</h3>'];
+  if (g) {
+    const [x0, y0, x1, y1] = g.extent;
+    out.push(
+      `<table id="outline"><tbody>${rows([
+        ['outline extent', `x ${f(x0, 5)} to ${f(x1, 5)}, y ${f(y0, 5)} to ${f(y1, 5)} ${esc(len)}: ${f(x1 - x0)} by ${f(y1 - y0)} ${esc(len)}`],
+        ['material area', `${f(g.area)} ${esc(len)}^2 (outline less holes)`],
+        ['holes', String(g.holes)],
+      ])}</tbody></table>`,
+    );
+  }
+  if (r.raisers.length === 0) {
+    out.push('<p>No stress raisers: no hole, notch, fillet or other concave curved edge.</p>');
+    return out.join('');
+  }
+  const list = [...r.raisers].sort((a, b) => a.index - b.index);
+  out.push(
+    `<table id="geometry"><thead><tr><th>stress raiser</th><th>what</th><th>dimensions</th><th>where (${esc(len)})</th></tr></thead><tbody>${list
+      .map((x) => {
+        const [what, dims, where] = describeShape(x, len);
+        return `<tr><td>${esc(x.name)}</td><td>${esc(what)}</td><td>${esc(dims)}</td><td>${esc(where)}</td></tr>`;
+      })
+      .join('')}</tbody></table>`,
+  );
+  if (g && g.raisers > list.length) out.push(`<p>${g.raisers - list.length} further stress raisers with lower peaks are not listed (the report lists the ${list.length} with the highest peaks).</p>`);
+  return out.join('');
 }
