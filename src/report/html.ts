@@ -46,11 +46,13 @@ function describeSupport(s: Support, length: string): string {
     case 'fixed':
       return `fixed (both components held) on ${target(s.on)}`;
     case 'roller':
-      return `roller holding ${s.fix} on ${target(s.on)}`;
+      return `roller on ${target(s.on)}: the ${s.fix} displacement held, the ${s.fix === 'x' ? 'y' : 'x'} displacement free`;
     case 'symmetry':
       return `symmetry (normal displacement held) on ${target(s.on)}`;
-    case 'pin':
-      return `pin at (${s.at.join(', ')}) holding ${s.fix ?? 'xy'}`;
+    case 'pin': {
+      const fix = s.fix ?? 'xy';
+      return `point support at the boundary node nearest (${f(s.at[0], 5)}, ${f(s.at[1], 5)}) ${length}, holding ${fix === 'xy' ? 'both displacements' : `the ${fix} displacement`}`;
+    }
     default:
       return describePinSupport(s, length);
   }
