@@ -97,8 +97,11 @@ ul.plain { padding-left: 5mm; margin: 1mm 0; }
 footer { margin-top: 8mm; border-top: 1px solid var(--rule); padding-top: 2mm; font-size: 8.5pt; color: var(--soft); }
 @page { margin: 18mm 14mm 16mm; }
 .signoff table { break-inside: avoid; }
-.signoff td.sign { width: 45%; border-bottom: 1px solid var(--ink); height: 11mm; }
-.signoff td.name { width: 30%; }
+.signoff table.people { border-collapse: separate; border-spacing: 2.5mm 0; }
+.signoff table.people td { border-bottom: 1px solid var(--ink); height: 11mm; vertical-align: bottom; }
+.signoff td.sign { width: 40%; }
+.signoff td.name { width: 28%; }
+.signoff td.date { width: 16%; }
 .signoff .missing { color: var(--soft); }
 @media print {
   main { max-width: none; padding: 0; }
@@ -328,9 +331,9 @@ function signOff(info: ReportInfo, analysed: string): string {
     ['project', given(info.project)],
     ['part number', given(info.part)],
     ['revision', given(info.revision)],
-    ['date', esc(info.date ?? analysed)],
+    ['date', info.date ? esc(info.date) : `${esc(analysed)} (the date of the analysis)`],
   ])}</tbody></table>
-<table><thead><tr><th></th><th>name</th><th>signature</th><th>date</th></tr></thead><tbody>
+<table class="people"><thead><tr><th></th><th>name</th><th>signature</th><th>date</th></tr></thead><tbody>
 ${person('prepared by', 'prepared-by', info.preparedBy)}
 ${person('checked by', 'checked-by', info.checkedBy)}
 ${person('approved by', 'approved-by', info.approvedBy)}
