@@ -5,7 +5,7 @@
  * Parsing and calling only: the report is made in src/report/html.ts, the PDF in src/report/pdf.ts.
  */
 import { statSync } from 'node:fs';
-import { join } from 'node:path';
+import { dirname, join } from 'node:path';
 import { Command, Option } from 'commander';
 import { ModelError } from '../model/errors.js';
 import { reattachDrawing } from '../model/load.js';
@@ -109,11 +109,9 @@ async function runReport(dir: string, flags: SignOffFlags & PdfFlags): Promise<n
   } catch {
     /* readSaved says what is wrong */
   }
-  if (!isDir) {
-    readSaved(dir); // a missing path is said there
-    throw new ModelError('', `${dir} is not a folder`, `give the folder raiser solve -o wrote (the one holding ${SAVED_FILE}); report.html is written there`);
-  }
+  // A saved solution's file stands for its folder; a path that is neither is said by readSaved.
   const src = readSaved(dir);
+  if (!isDir) dir = dirname(dir);
   // an imported drawing is not in the saved file: read it again for the geometry picture
   reattachDrawing(src.model, src.result.model.file ?? undefined);
   applySignOff(src.model, flags);
@@ -130,6 +128,6 @@ export function reportCommand(program: Command, setCode: (c: number) => void): v
   const cmd = program
     .command('report')
     .description(`write report.html again from a saved solution (the folder solve -o wrote), with the sign-off fields, and with --pdf print it to report.pdf`)
-    .argument('<dir>', `the folder holding ${SAVED_FILE}`);
+    .argument('<dir>', `the folder holding ${SAVED_FILE} (or that file); report.html is written there`);
   addSignOffOptions(cmd, false).action(async (dir: string, flags: SignOffFlags & PdfFlags) => setCode(await runReport(dir, flags)));
 }
