@@ -13,6 +13,8 @@ import { loadModelFile } from '../src/model/load.js';
 import { certifyModel } from '../src/pipeline/certify.js';
 import { buildResult } from '../src/report/result.js';
 import { writeResultFiles } from '../src/report/files.js';
+import { buildDomain } from '../src/geometry/domain.js';
+import { describeRaiserShape, findRaisers } from '../src/post/raisers.js';
 
 const CHROMIUM = '/usr/bin/chromium';
 
@@ -31,6 +33,39 @@ function ensureChromium(): string | null {
 
 const missing = ensureChromium();
 if (missing) process.stderr.write(`report-html.test.ts: skipped, headless Chromium is not available: ${missing}\n`);
+
+describe('geometry of the stress raisers, read from the model (no browser)', () => {
+  it('a slot and a rounded rectangle: dimensions and centres as the model file gives them (examples/mounting-plate.json)', () => {
+    const { model } = loadModelFile('examples/mounting-plate.json');
+    const domain = buildDomain(model.geometry);
+    const shapes = findRaisers(domain).map((r) => describeRaiserShape(domain, r));
+    const win = shapes.find((s) => s.type === 'rounded-rectangle')!;
+    // "window": rounded-rect, centre (60, 50), 40 x 24, corner radius 3
+    expect(win).toMatchObject({ type: 'rounded-rectangle', width: 40, height: 24, cornerRadius: 3, angleDeg: 0 });
+    expect(win.type === 'rounded-rectangle' && win.center[0]).toBeCloseTo(60, 12);
+    expect(win.type === 'rounded-rectangle' && win.center[1]).toBeCloseTo(50, 12);
+    // "adjustment slot": centre (120, 50), overall length 30, width 8, at 30 degrees: end
+    // centres 11 mm either side of the centre along the slot
+    const slot = shapes.find((s) => s.type === 'slot')!;
+    if (slot.type !== 'slot') throw new Error('no slot');
+    expect(slot.width).toBeCloseTo(8, 12);
+    expect(slot.length).toBeCloseTo(30, 12);
+    const c = Math.cos(Math.PI / 6);
+    const ends = [...slot.ends].sort((a, b) => a[0] - b[0]);
+    expect(ends[0][0]).toBeCloseTo(120 - 11 * c, 9);
+    expect(ends[0][1]).toBeCloseTo(50 - 11 * 0.5, 9);
+    expect(ends[1][0]).toBeCloseTo(120 + 11 * c, 9);
+    expect(ends[1][1]).toBeCloseTo(50 + 11 * 0.5, 9);
+  });
+
+  it('a fillet: its radius, centre and quarter arc (examples/bracket.json)', () => {
+    const { model } = loadModelFile('examples/bracket.json');
+    const domain = buildDomain(model.geometry);
+    const shapes = findRaisers(domain).map((r) => describeRaiserShape(domain, r));
+    expect(shapes).toHaveLength(1);
+    expect(shapes[0]).toMatchObject({ type: 'arc', radius: 6, sweepDeg: 90 });
+  });
+});
 
 describe.skipIf(missing !== null)('HTML report in headless Chromium', () => {
   const dir = mkdtempSync(join(tmpdir(), 'raiser-html-'));
@@ -102,6 +137,22 @@ describe.skipIf(missing !== null)('HTML report in headless Chromium', () => {
     await page.close();
   });
 
+  it('has a geometry table with the outline extent and the bolt hole\'s centre and diameter as the model file gives them', async () => {
+    const page = await ctx.newPage();
+    await page.goto('file://' + join(dir, 'report.html'));
+    const { model } = loadModelFile('examples/strap-bolt-hole.json');
+    const hole = model.geometry.holes![0] as { center: [number, number]; diameter: number };
+    const geometry = (await page.textContent('#geometry'))!;
+    expect(geometry).toContain('hole 1 "bolt hole"');
+    expect(geometry).toContain('circular hole');
+    expect(geometry).toContain(`diameter ${hole.diameter} mm`);
+    expect(geometry).toContain(`centre (${hole.center[0]}, ${hole.center[1]})`);
+    // the strap is 300 mm long and 60 mm wide (the example's note)
+    expect(await page.textContent('#outline')).toContain('x 0 to 300, y 0 to 60 mm: 300 by 60 mm');
+    expect(await page.$$eval('#geometry tbody tr', (r) => r.length)).toBe(result.raisers.length);
+    await page.close();
+  });
+
   it('prints to A4 and to Letter', async () => {
     const page = await ctx.newPage();
     await page.goto('file://' + join(dir, 'report.html'));
@@ -117,6 +168,11 @@ describe.skipIf(missing !== null)('HTML report in headless Chromium', () => {
     const overflow = (await page.evaluate('document.documentElement.scrollWidth - document.documentElement.clientWidth')) as number;
     expect(overflow).toBeLessThanOrEqual(0);
     await page.close();
+  });
+
+  it('says the support in words', () => {
+    const html = readFileSync(join(dir, 'report.html'), 'utf8');
+    expect(html).toMatch(/fixed \(both components held\) on tag &quot;[^&]+&quot;/);
   });
 
   it('is written beside the pictures it embeds, each embedded as drawn for the column', () => {

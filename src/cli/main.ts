@@ -24,8 +24,9 @@ import { parseAccuracy } from './accuracy.js';
 import { addressSpaceLimit } from './address-space.js';
 import { addSolvePictureOptions, exportMatrixIfAsked, plotCommand, prepareSolveOutputs, solveOutputOptions } from './plot.js';
 import { probeCommand } from './probe.js';
+import { addSignOffOptions, applySignOff, checkSolvePdf, printPdfOf, reportCommand, EXIT_NO_PDF } from './report.js';
 
-export const EXIT = { ok: 0, internal: 1, badInput: 2, cannotAnalyse: 3 } as const;
+export const EXIT = { ok: 0, internal: 1, badInput: 2, cannotAnalyse: 3, noPdf: EXIT_NO_PDF } as const;
 
 interface SolveFlags {
   accuracy?: string;
@@ -38,6 +39,8 @@ interface SolveFlags {
   element?: 'linear' | 'quadratic';
   debug?: boolean;
   allowDrawingOutside?: boolean;
+  pdf?: boolean;
+  paper?: string;
 }
 
 /**
@@ -60,9 +63,11 @@ function parseMemory(text: string): number {
 
 function runSolve(file: string, flags: SolveFlags): number {
   // The output folders are checked, made and locked before anything is read or solved.
+  checkSolvePdf(flags);
   prepareSolveOutputs(flags);
   const loaded = loadModelFile(file, { allowDrawingOutside: flags.allowDrawingOutside });
   const { model, warnings } = loaded;
+  applySignOff(model, flags);
   const opts = { measure: flags.measure, element: flags.element, maxMemoryBytes: flags.maxMemory ? parseMemory(flags.maxMemory) : defaultMemoryLimit() };
   let analysis;
   let cert = null;
@@ -143,16 +148,19 @@ export async function main(argv: string[]): Promise<number> {
     .addOption(new Option('--element <type>', 'element type, overriding the model file').choices(['linear', 'quadratic']))
     .option('--debug', 'show internal details (stack traces) on errors')
     .option('--allow-drawing-outside', 'let geometry.from read a drawing outside the model file\'s folder (an absolute path, or one through ..)')
-    .action((file: string, flags: SolveFlags) => {
+    .action(async (file: string, flags: SolveFlags) => {
       debug = debug || !!flags.debug;
       code = runSolve(file, flags);
+      if (code === EXIT.ok && flags.pdf && flags.out !== undefined) code = await printPdfOf(flags.out, flags, !!flags.json);
     });
 
   newCommand(program, (c) => (code = c));
   chartsCommand(program, (c) => (code = c));
   sweepCommands(program, (c) => (code = c));
   addSolvePictureOptions(program.commands.find((c) => c.name() === 'solve')!);
+  addSignOffOptions(program.commands.find((c) => c.name() === 'solve')!, true);
   plotCommand(program, (c) => (code = c));
+  reportCommand(program, (c) => (code = c));
   probeCommand(program, (c) => (code = c));
   meshCommand(program, (c) => (code = c));
   benchSolveCommand(program, (c) => (code = c));

@@ -117,13 +117,13 @@ export function solveOutputOptions(flags: object): OutputOptions {
  * checked (the convergence picture unless --single-mesh), so nothing is refused afterwards.
  */
 export function prepareSolveOutputs(flags: object): void {
-  const f = flags as { out?: string; exportMatrix?: string; force?: boolean; pictures?: boolean; singleMesh?: boolean };
+  const f = flags as { out?: string; exportMatrix?: string; force?: boolean; pictures?: boolean; singleMesh?: boolean; pdf?: boolean };
   const force = f.force ?? false;
   // A picture size that cannot be drawn is refused now, not after the solve.
   noteDeprecatedSize(flags);
   solveOutputOptions(flags);
   if (f.out !== undefined) {
-    const names = [...RESULT_FILES, SAVED_FILE, 'result.vtu', ...(f.pictures !== false ? [...pictureFileNames(f.singleMesh !== true), 'report.html'] : [])];
+    const names = [...RESULT_FILES, SAVED_FILE, 'result.vtu', ...(f.pictures !== false ? [...pictureFileNames(f.singleMesh !== true), 'report.html'] : []), ...(f.pdf ? ['report.pdf'] : [])];
     prepareOutputDir(f.out, names, force, '-o');
   }
   if (f.exportMatrix !== undefined) prepareOutputDir(f.exportMatrix, MATRIX_FILES, force, '--export-matrix');

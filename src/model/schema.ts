@@ -362,6 +362,18 @@ export const ChartLink = z.strictObject({
   dims: z.record(z.string(), z.number()).describe('the family\'s dimensions, in model length units'),
 });
 
+/** Who made, checked and approved the analysis, for the sign-off block of the report (all optional; a missing name leaves an empty signature line). */
+export const ReportInfo = z.strictObject({
+  project: z.string().optional().describe('the project the part belongs to'),
+  part: z.string().optional().describe('the part or drawing number'),
+  revision: z.string().optional().describe('the revision of this analysis, for example "A" or "2"'),
+  date: z.string().optional().describe('the date of this revision as it should be printed (default: the date the analysis ran)'),
+  preparedBy: z.string().optional().describe('the name of the engineer who prepared the analysis'),
+  checkedBy: z.string().optional().describe('the name of the engineer who checked it'),
+  approvedBy: z.string().optional().describe('the name of the person who approved it (the line is shown only when given)'),
+});
+export type ReportInfo = z.infer<typeof ReportInfo>;
+
 export const Model = z.strictObject({
   $schema: z.string().optional().describe('path or address of the JSON Schema, for editors; ignored by raiser'),
   title: z.string().optional().describe('shown in results and reports'),
@@ -380,6 +392,7 @@ export const Model = z.strictObject({
   mesh: MeshSettings.optional().describe('mesh settings; all optional'),
   results: ResultSettings.optional().describe('how the peak stress and the nominal stress for Kt are taken'),
   chart: ChartLink.optional().describe('the published chart family and dimensions a generated model was built for'),
+  report: ReportInfo.optional().describe('project, part number, revision and the names for the sign-off block of the report; the options of raiser solve and raiser report override them'),
 });
 export type Model = Omit<z.infer<typeof Model>, 'geometry' | 'material'> & { geometry: Geometry; material: Material };
 

@@ -14,7 +14,7 @@
  * along the 6-node edges) and at the nodes of the elements touching that boundary, so a peak
  * just inside the surface (under a contact load, say) is not missed.
  */
-import { curvatureRadius, curveConcavity } from '../geometry/curve.js';
+import { curvatureRadius, curveConcavity, evaluateCurve } from '../geometry/curve.js';
 import type { Domain } from '../geometry/domain.js';
 import type { Mesh } from '../mesh/types.js';
 import type { StressMeasure } from '../model/schema.js';
@@ -168,4 +168,95 @@ export function findRaiserPeaks(mesh: Mesh, raisers: readonly Raiser[], stress: 
     if (refined && sign * refined.value > sign * value) ({ value, x, y, sxx, syy, sxy } = refined);
     return { stress: value, x, y, node, sxx, syy, sxy, onBoundary: onB[r] === 1 || refined !== null };
   });
+}
+
+/** What a raiser is, in the dimensions a drawing gives it (model length units, angles in degrees). */
+export type RaiserShape =
+  | { type: 'circle'; center: [number, number]; diameter: number; extent: [number, number, number, number] }
+  | { type: 'ellipse'; center: [number, number]; semiAxes: [number, number]; angleDeg: number; extent: [number, number, number, number] }
+  | { type: 'rounded-rectangle'; center: [number, number]; width: number; height: number; cornerRadius: number; angleDeg: number; extent: [number, number, number, number] }
+  | { type: 'slot'; ends: [[number, number], [number, number]]; width: number; length: number; extent: [number, number, number, number] }
+  | { type: 'arc'; center: [number, number]; radius: number; sweepDeg: number; from: [number, number]; to: [number, number]; extent: [number, number, number, number] }
+  | { type: 'curve'; radius: number | null; extent: [number, number, number, number] };
+
+/**
+ * The shape of a raiser read from its domain edges (the geometry, not the mesh): a whole circle
+ * (centre, diameter), a whole ellipse (centre, semi-axes, angle), a slot (two half circles of
+ * one radius joined by straight sides: width, overall length, end centres), a rectangle with
+ * rounded corners (centre, sides, corner radius, angle), a single arc (a
+ * fillet or notch root: centre, radius, sweep, ends), or else its smallest concave radius and
+ * its extent.
+ */
+export function describeRaiserShape(domain: Domain, r: Raiser): RaiserShape {
+  const curves = r.edges.map((id) => domain.edges[id].curve);
+  const p = [0, 0];
+  let x0 = Infinity;
+  let y0 = Infinity;
+  let x1 = -Infinity;
+  let y1 = -Infinity;
+  for (const c of curves) {
+    for (let k = 0; k <= 256; k++) {
+      evaluateCurve(c, k / 256, p);
+      x0 = Math.min(x0, p[0]);
+      y0 = Math.min(y0, p[1]);
+      x1 = Math.max(x1, p[0]);
+      y1 = Math.max(y1, p[1]);
+    }
+  }
+  const extent: [number, number, number, number] = [x0, y0, x1, y1];
+  const full = (s: number) => Math.abs(Math.abs(s) - 2 * Math.PI) < 1e-9;
+  const c0 = curves[0];
+  if (curves.length === 1 && c0.kind === 'arc' && full(c0.sweep)) return { type: 'circle', center: [c0.cx, c0.cy], diameter: 2 * c0.r, extent };
+  if (curves.length === 1 && c0.kind === 'ellipse' && full(c0.sweep)) {
+    let deg = (((c0.rot * 180) / Math.PI) % 180 + 180) % 180;
+    if (Math.abs(deg - 180) < 1e-9) deg = 0;
+    return { type: 'ellipse', center: [c0.cx, c0.cy], semiAxes: [c0.a, c0.b], angleDeg: deg, extent };
+  }
+  // Arcs of one circle in a row (a half circle is often made of two quarters) are one arc here.
+  type Arc = Extract<typeof c0, { kind: 'arc' }>;
+  const groups: { arc: Arc; sweep: number; first: Arc; last: Arc }[] = [];
+  const lines: Extract<typeof c0, { kind: 'line' }>[] = [];
+  const same = (a: Arc, b: Arc) => Math.abs(a.r - b.r) <= 1e-9 * a.r && Math.hypot(a.cx - b.cx, a.cy - b.cy) <= 1e-9 * a.r;
+  let other = false;
+  for (const c of curves) {
+    if (c.kind === 'line') lines.push(c);
+    else if (c.kind === 'arc') {
+      const g = groups[groups.length - 1];
+      if (g && g.last === curves[curves.indexOf(c) - 1] && same(g.arc, c)) {
+        g.sweep += c.sweep;
+        g.last = c;
+      } else groups.push({ arc: c, sweep: c.sweep, first: c, last: c });
+    } else other = true;
+  }
+  if (groups.length > 1 && curves[curves.length - 1] === groups[groups.length - 1].last && curves[0] === groups[0].first && same(groups[0].arc, groups[groups.length - 1].arc) && r.kind === 'hole') {
+    const g = groups.pop()!;
+    groups[0].sweep += g.sweep;
+    groups[0].first = g.first;
+  }
+  const near = (v: number, w: number) => Math.abs(Math.abs(v) - w) < 1e-9;
+  const rad = groups[0]?.arc.r ?? 0;
+  const allR = groups.every((g) => Math.abs(g.arc.r - rad) <= 1e-9 * rad);
+  if (!other && r.kind === 'hole' && groups.length === 2 && lines.length === 2 && allR && groups.every((g) => near(g.sweep, Math.PI))) {
+    const [a, b] = groups.map((g) => g.arc);
+    return { type: 'slot', ends: [[a.cx, a.cy], [b.cx, b.cy]], width: 2 * rad, length: Math.hypot(b.cx - a.cx, b.cy - a.cy) + 2 * rad, extent };
+  }
+  if (!other && r.kind === 'hole' && groups.length === 4 && lines.length === 4 && allR && groups.every((g) => near(g.sweep, Math.PI / 2))) {
+    const side = lines.map((l) => Math.hypot(l.x1 - l.x0, l.y1 - l.y0) + 2 * rad);
+    const cx = groups.reduce((t, g) => t + g.arc.cx, 0) / 4;
+    const cy = groups.reduce((t, g) => t + g.arc.cy, 0) / 4;
+    let deg = ((((Math.atan2(lines[0].y1 - lines[0].y0, lines[0].x1 - lines[0].x0) * 180) / Math.PI) % 180) + 180) % 180;
+    let [w, h] = [side[0], side[1]];
+    if (deg >= 90 - 1e-9) [deg, w, h] = [deg - 90, h, w];
+    if (Math.abs(deg) < 1e-9) deg = 0;
+    return { type: 'rounded-rectangle', center: [cx, cy], width: w, height: h, cornerRadius: rad, angleDeg: deg, extent };
+  }
+  if (!other && groups.length === 1 && lines.length === 0) {
+    const g = groups[0];
+    const from = [0, 0];
+    const to = [0, 0];
+    evaluateCurve(g.first, 0, from);
+    evaluateCurve(g.last, 1, to);
+    return { type: 'arc', center: [g.arc.cx, g.arc.cy], radius: g.arc.r, sweepDeg: (Math.abs(g.sweep) * 180) / Math.PI, from: [from[0], from[1]], to: [to[0], to[1]], extent };
+  }
+  return { type: 'curve', radius: Number.isFinite(r.radius) ? r.radius : null, extent };
 }

@@ -6,7 +6,7 @@
  * (a text width of 180 mm fits both with 14 mm margins; no fixed page heights).
  */
 import { describeSelector } from '../geometry/select.js';
-import type { Load, Selector, Support } from '../model/schema.js';
+import type { Load, ReportInfo, Selector, Support } from '../model/schema.js';
 import { formatValue } from '../render/ticks.js';
 import { measureName } from './pictures.js';
 import { describePinLoad, describePinSupport, pinsHtml } from './pins.js';
@@ -48,11 +48,13 @@ function describeSupport(s: Support, length: string): string {
     case 'fixed':
       return `fixed (both components held) on ${target(s.on)}`;
     case 'roller':
-      return `roller holding ${s.fix} on ${target(s.on)}`;
+      return `roller on ${target(s.on)}: the ${s.fix} displacement held, the ${s.fix === 'x' ? 'y' : 'x'} displacement free`;
     case 'symmetry':
       return `symmetry (normal displacement held) on ${target(s.on)}`;
-    case 'pin':
-      return `pin at (${s.at.join(', ')}) holding ${s.fix ?? 'xy'}`;
+    case 'pin': {
+      const fix = s.fix ?? 'xy';
+      return `point support at the boundary node nearest (${f(s.at[0], 5)}, ${f(s.at[1], 5)}) ${length}, holding ${fix === 'xy' ? 'both displacements' : `the ${fix} displacement`}`;
+    }
     default:
       return describePinSupport(s, length);
   }
@@ -100,7 +102,14 @@ figure img { display: block; width: 100%; height: auto; border: 1px solid var(--
 figcaption { font-size: 8.5pt; color: var(--soft); margin-top: 1mm; }
 ul.plain { padding-left: 5mm; margin: 1mm 0; }
 footer { margin-top: 8mm; border-top: 1px solid var(--rule); padding-top: 2mm; font-size: 8.5pt; color: var(--soft); }
-@page { margin: 14mm; }
+@page { margin: 18mm 14mm 16mm; }
+.signoff table { break-inside: avoid; }
+.signoff table.people { border-collapse: separate; border-spacing: 2.5mm 0; }
+.signoff table.people td { border-bottom: 1px solid var(--ink); height: 11mm; vertical-align: bottom; }
+.signoff td.sign { width: 40%; }
+.signoff td.name { width: 28%; }
+.signoff td.date { width: 16%; }
+.signoff .missing { color: var(--soft); }
 @media print {
   main { max-width: none; padding: 0; }
   body { font-size: 9.5pt; }
@@ -119,9 +128,11 @@ export function reportHtml(src: PlotSource, png: ReadonlyMap<string, ReportPictu
   const c = r.convergence;
   const band = r.kt.error === null ? (r.kt.value === null ? '' : 'no error estimate (one mesh)') : `estimated error +-${pct(r.kt.error)}`;
   const headline = r.kt.value === null ? 'none' : f(r.kt.value, 4);
+  const info = m.report ?? {};
   const parts: string[] = [];
   parts.push(`<header><p class="kind">Stress concentration report</p><h1>${esc(title)}</h1>
 <p>Model file ${esc(r.model.file ?? '(not from a file)')}; analysed ${esc(date)} by raiser ${esc(r.tool.version)}.</p>
+${info.project || info.part || info.revision ? `<p id="ident">${[info.project ? `Project ${esc(info.project)}` : '', info.part ? `part ${esc(info.part)}` : '', info.revision ? `revision ${esc(info.revision)}` : ''].filter(Boolean).join('; ')}</p>` : ''}
 ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
   parts.push(`<section class="keys" aria-label="key results">
 <div class="key"><div class="label">Kt${r.kt.kind ? ` ${esc(r.kt.kind)}` : ''}</div><div class="value" id="kt">${headline}</div><div class="sub">${esc(r.kt.value === null ? (r.kt.withheld ?? '') : `${band}; at ${r.kt.raiser}`)}</div></div>
@@ -147,6 +158,7 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
       ['loads', `<ul class="plain">${m.loads.map((l) => `<li>${esc(describeLoad(l, u.stress, u.force, u.moment, u.length))}${l.note ? ` (${esc(l.note)})` : ''}</li>`).join('')}</ul>`],
     ])}</tbody></table>`,
   );
+  parts.push(geometryTable(r));
   parts.push(figure(png, 'geometry', 'Geometry with each stress raiser\'s net section (solid) and gross section (dashed) on which its nominal stresses are taken, the raisers\' peaks, and the loads (L, arrows not to scale) and supports (S).'));
 
   parts.push('<h2>Mesh</h2>');
@@ -242,6 +254,7 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
 <li>A Kt whose nominal stress means nothing here (a section that carries no load toward the raiser, a nominal stress of the other sign, a raiser loaded by shear, a biaxial state) is withheld with the reason; the peak stress is always given.</li>
 </ul>`,
   );
+  parts.push(signOff(info, date));
   parts.push(`<footer>Made by raiser ${esc(r.tool.version)} on ${esc(date)}. Colours: the batlow colour map (F. Crameri, Scientific colour maps, 2018). Text in the pictures: DejaVu Sans.</footer>`);
   return `<!DOCTYPE html>
 <html lang="en">
@@ -250,7 +263,7 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
 <meta name="viewport" content="width=device-width, initial-scale=1">
 <meta name="generator" content="raiser ${esc(r.tool.version)}">
 <title>${esc(title)}: stress concentration report</title>
-<style>${STYLE}</style>
+<style>${STYLE}${printMargins(title, info)}</style>
 </head>
 <body>
 <main>
@@ -289,4 +302,116 @@ function raisersTable(r: ResultJson): string {
     .join('');
   const defs = `<p class="defs">Kt net: peak / (N / A_net - M y / I_net) on the raiser's net section, the least-material cut across the flow at the raiser through all ligaments, at the raiser's edge. Kt gross: the same N and M over the prismatic width beside the raiser, at its outer fibre. Kt remote: peak / the largest principal remote stress. N, V and M come from the nodal forces on one side of the section (a free-body cut).</p>`;
   return `<table id="raisers"><thead><tr><th>stress raiser</th><th class="num">peak (${esc(u.stress)})</th><th>at</th><th>Kt</th><th>section</th></tr></thead><tbody>${body}</tbody></table>${defs}`;
+}
+
+/** A string for CSS `content`: quotes, backslashes and line breaks escaped, and `<` too so no text can close the style element. */
+function cssString(t: string): string {
+  return `"${t.replace(/[\\"<>\n\r]/g, (c) => `\\${c.charCodeAt(0).toString(16)} `)}"`;
+}
+
+/**
+ * The print margins: a running header (title, part number, revision) and "page N of M" on every
+ * printed page, in CSS page-margin boxes (CSS Paged Media Level 3; Chromium prints them since
+ * version 131). A browser without them prints the pages without header and numbers.
+ */
+function printMargins(title: string, info: ReportInfo): string {
+  const head = [title, info.part ? `part ${info.part}` : '', info.revision ? `rev. ${info.revision}` : ''].filter(Boolean).join('  |  ');
+  const box = 'font: 8pt "DejaVu Sans", Verdana, sans-serif; color: #60646e;';
+  return `
+@page {
+  @top-left { content: ${cssString(head)}; ${box} vertical-align: bottom; padding-bottom: 3mm; }
+  @bottom-left { content: ${cssString(`raiser stress concentration report${info.project ? `, ${info.project}` : ''}`)}; ${box} vertical-align: top; padding-top: 3mm; }
+  @bottom-right { content: "page " counter(page) " of " counter(pages); ${box} vertical-align: top; padding-top: 3mm; }
+}
+`;
+}
+
+/**
+ * The sign-off block: project, part, revision and date, and a line to sign for each of
+ * prepared, checked and approved. A name not given leaves its line empty, to be filled in by
+ * hand; nothing is made up.
+ */
+function signOff(info: ReportInfo, analysed: string): string {
+  const given = (v: string | undefined) => (v ? esc(v) : '<span class="missing">(not given)</span>');
+  const person = (role: string, id: string, name: string | undefined) =>
+    `<tr><th scope="row">${role}</th><td class="name" id="${id}">${name ? esc(name) : ''}</td><td class="sign"></td><td class="date"></td></tr>`;
+  return `<section class="signoff" id="signoff"><h2>Sign-off</h2>
+<table><tbody>${rows([
+    ['project', given(info.project)],
+    ['part number', given(info.part)],
+    ['revision', given(info.revision)],
+    ['date', info.date ? esc(info.date) : `${esc(analysed)} (the date of the analysis)`],
+  ])}</tbody></table>
+<table class="people"><thead><tr><th></th><th>name</th><th>signature</th><th>date</th></tr></thead><tbody>
+${person('prepared by', 'prepared-by', info.preparedBy)}
+${person('checked by', 'checked-by', info.checkedBy)}
+${person('approved by', 'approved-by', info.approvedBy)}
+</tbody></table>
+<p>The signatures confirm that the model (geometry, material, loads and supports) represents the part, that the cautions above were read, and that the results were checked under the applicable codes and standards.</p>
+</section>`;
+}
+
+type RaiserJson = ResultJson['raisers'][number];
+
+/** A point as "(x, y)" in the length unit. */
+const at = (p: readonly number[]) => `(${f(p[0], 5)}, ${f(p[1], 5)})`;
+
+/** What a raiser is and its dimensions and position, from the shape the analysis recorded. */
+function describeShape(x: RaiserJson, len: string): [string, string, string] {
+  const sh = x.shape;
+  const hole = x.kind === 'hole';
+  if (!sh) return [hole ? 'hole' : 'curved edge', x.radius === null ? '-' : `smallest radius ${f(x.radius)} ${len}`, 'not recorded in this saved solution (solve again for it)'];
+  switch (sh.type) {
+    case 'circle':
+      return ['circular hole', `diameter ${f(sh.diameter)} ${len} (radius ${f(sh.diameter / 2)})`, `centre ${at(sh.center)}`];
+    case 'ellipse':
+      return ['elliptical hole', `semi-axes ${f(sh.semiAxes[0])} and ${f(sh.semiAxes[1])} ${len}, the first at ${f(sh.angleDeg, 3)} deg to x`, `centre ${at(sh.center)}`];
+    case 'rounded-rectangle':
+      return ['rectangular cutout, rounded corners', `${f(sh.width)} by ${f(sh.height)} ${len}, corner radius ${f(sh.cornerRadius)} ${len}${sh.angleDeg ? `, turned ${f(sh.angleDeg, 3)} deg` : ''}`, `centre ${at(sh.center)}`];
+    case 'slot':
+      return ['slot (round ends)', `width ${f(sh.width)} ${len}, overall length ${f(sh.length)} ${len}`, `end centres ${at(sh.ends[0])} and ${at(sh.ends[1])}`];
+    case 'arc':
+      return [hole ? 'arc of a hole' : 'circular arc (fillet or notch root)', `radius ${f(sh.radius)} ${len}, ${f(sh.sweepDeg, 3)} deg of arc`, `centre ${at(sh.center)}; from ${at(sh.from)} to ${at(sh.to)}`];
+    default:
+      return [
+        hole ? 'cutout' : 'curved edges (fillets, notch)',
+        sh.radius === null ? 'no concave radius' : `smallest radius ${f(sh.radius)} ${len}`,
+        `within x ${f(sh.extent[0], 5)} to ${f(sh.extent[2], 5)}, y ${f(sh.extent[1], 5)} to ${f(sh.extent[3], 5)}`,
+      ];
+  }
+}
+
+/**
+ * The geometry table: the outline's extent and every stress raiser (hole, slot, fillet, notch)
+ * with its dimensions and position, as the analysis recorded them from the model's geometry.
+ */
+function geometryTable(r: ResultJson): string {
+  const len = r.units.length;
+  const g = r.geometry as ResultJson['geometry'] | undefined;
+  const out: string[] = ['<h3>Geometry</h3>'];
+  if (g) {
+    const [x0, y0, x1, y1] = g.extent;
+    out.push(
+      `<table id="outline"><tbody>${rows([
+        ['outline extent', `x ${f(x0, 5)} to ${f(x1, 5)}, y ${f(y0, 5)} to ${f(y1, 5)} ${esc(len)}: ${f(x1 - x0)} by ${f(y1 - y0)} ${esc(len)}`],
+        ['material area', `${f(g.area)} ${esc(len)}^2 (outline less holes)`],
+        ['holes', String(g.holes)],
+      ])}</tbody></table>`,
+    );
+  }
+  if (r.raisers.length === 0) {
+    out.push('<p>No stress raisers: no hole, notch, fillet or other concave curved edge.</p>');
+    return out.join('');
+  }
+  const list = [...r.raisers].sort((a, b) => a.index - b.index);
+  out.push(
+    `<table id="geometry"><thead><tr><th>stress raiser</th><th>what</th><th>dimensions</th><th>where (${esc(len)})</th></tr></thead><tbody>${list
+      .map((x) => {
+        const [what, dims, where] = describeShape(x, len);
+        return `<tr><td>${esc(x.name)}</td><td>${esc(what)}</td><td>${esc(dims)}</td><td>${esc(where)}</td></tr>`;
+      })
+      .join('')}</tbody></table>`,
+  );
+  if (g && g.raisers > list.length) out.push(`<p>${g.raisers - list.length} further stress raisers with lower peaks are not listed (the report lists the ${list.length} with the highest peaks).</p>`);
+  return out.join('');
 }

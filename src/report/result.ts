@@ -14,6 +14,7 @@ import { estimateFatigue, neuberLocal, notchRadiusAt } from '../post/design.js';
 import { pinsResult } from './pins.js';
 import { describeBasis } from '../model/materials.js';
 import type { Model } from '../model/schema.js';
+import { describeRaiserShape, type RaiserShape } from '../post/raisers.js';
 
 export const TOOL_VERSION = '0.1.0';
 
@@ -48,6 +49,24 @@ function section(c: Cut, scale: number) {
 }
 
 const num = (v: number | null | undefined) => (v === null || v === undefined || !Number.isFinite(v) ? null : v);
+
+/** A raiser's shape with its coordinates at round-off printed as zero. */
+function snapShape(sh: RaiserShape, scale: number): RaiserShape {
+  const p = (q: [number, number]): [number, number] => [snap(q[0], scale), snap(q[1], scale)];
+  const extent = sh.extent.map((v) => snap(v, scale)) as [number, number, number, number];
+  switch (sh.type) {
+    case 'circle':
+    case 'ellipse':
+    case 'rounded-rectangle':
+      return { ...sh, center: p(sh.center), extent };
+    case 'slot':
+      return { ...sh, ends: [p(sh.ends[0]), p(sh.ends[1])], extent };
+    case 'arc':
+      return { ...sh, center: p(sh.center), from: p(sh.from), to: p(sh.to), extent };
+    default:
+      return { ...sh, extent };
+  }
+}
 
 /** One Kt of a raiser as result data. */
 function ktEntry(k: SettledKt) {
@@ -110,6 +129,7 @@ function raisers(a: Analysis, s: Settlement, scale: number, cert: Certified | nu
       status: st.status,
       reason: st.reason,
       radius: num(ev.raiser.radius),
+      shape: snapShape(describeRaiserShape(a.domain, ev.raiser), scale),
       peak: { stress: ev.peak.stress, x: snap(ev.peak.x, scale), y: snap(ev.peak.y, scale), sxx: ev.peak.sxx, syy: ev.peak.syy, sxy: ev.peak.sxy },
       peakError: cert && st.peakGci && Number.isFinite(st.peakGci.gci) ? st.peakGci.gci : null,
       section: ev.section
@@ -233,6 +253,12 @@ function buildResultUnchecked(a: Analysis, file?: string, cert: Certified | null
   return {
     tool: { name: 'raiser', version: TOOL_VERSION },
     model: { title: m.title ?? null, file: file ?? null, chart: m.chart ?? null },
+    geometry: {
+      extent: a.domain.bbox.map((v) => snap(v, scale)) as [number, number, number, number],
+      area: a.domain.area,
+      holes: a.domain.loops.length - 1,
+      raisers: a.raisers.length,
+    },
     units: { length: a.units.length, force: a.units.force, stress: a.units.stress, moment: a.units.moment },
     analysis: { state: a.state, measure: a.peak.measure, thickness: m.thickness, E: m.material.E, nu: m.material.nu },
     kt: {

@@ -5,11 +5,11 @@
  * chosen, the body force that makes it an exact solution is applied, the exact displacements
  * are prescribed on the whole boundary, and the errors of the finite element solution are
  * measured on a series of quasi-uniform meshes. Their slopes against h are the observed orders
- * of accuracy, to compare with the theory (REFERENCES.md section 10 [M: Strang & Fix 1973;
- * Ciarlet 1978]): energy norm and stress L2 norm O(h^p) for elements of degree p, displacement
+ * of accuracy, to compare with the theory ([M: G. Strang & G. J. Fix, An Analysis of the Finite Element
+ * Method (1973); P. G. Ciarlet, The Finite Element Method for Elliptic Problems (1978)]): energy norm and stress L2 norm O(h^p) for elements of degree p, displacement
  * L2 norm O(h^(p+1)).
  *
- * The manufactured solution of REFERENCES.md section 10 [D] on the unit square, plane stress:
+ * The manufactured solution (method of P. J. Roache, J. Fluids Eng. 124 (2002) 4-10) [D] on the unit square, plane stress:
  *   u = U0 sin(pi x) cos(pi y),  v = (U0/2) cos(pi x) sin(pi y),
  *   bx = pi^2 E U0 (7 - nu) / (4 (1 - nu^2)) sin(pi x) cos(pi y),
  *   by = pi^2 E U0 (5 + nu) / (4 (1 - nu^2)) cos(pi x) sin(pi y),
@@ -106,7 +106,7 @@ export function manufacturedStress(E: number, nu: number, U0: number, x: number,
   out[2] = ((c * (1 - nu)) / 2) * e[2];
 }
 
-/** The body force (bx, by) per unit volume that balances the manufactured field: REFERENCES.md section 10 [D]. */
+/** The body force (bx, by) per unit volume that balances the manufactured field, derived from Navier's equations of plane stress [D]. */
 export function manufacturedBodyForce(E: number, nu: number, U0: number, x: number, y: number, out: number[]): void {
   const k = (Math.PI * Math.PI * E * U0) / (4 * (1 - nu * nu));
   out[0] = k * (7 - nu) * Math.sin(Math.PI * x) * Math.cos(Math.PI * y);
@@ -287,7 +287,7 @@ function measureErrors(mesh: Mesh, D: Float64Array, t: number, u: Float64Array, 
 
 /**
  * The observed order of accuracy: the least-squares slope of log(error) against log(h) over
- * the meshes given (REFERENCES.md section 10, "fit log(error) against log(h) over 3-4 meshes").
+ * the meshes given (a least-squares fit of log(error) against log(h) over 3-4 meshes, as in Roache (2002)).
  * Needs at least two meshes of different h and positive errors; a RangeError otherwise.
  */
 export function fitObservedOrder(h: ArrayLike<number>, error: ArrayLike<number>): number {

@@ -241,7 +241,7 @@ export function verifyCases(): VerifyCase[] {
       ([1, 2] as const).map((order): VerifyCase => ({
         id: `mms-p${order}-${norm}`,
         title: `manufactured solution, ${order === 1 ? '3' : '6'}-node triangles, observed order of the ${norm === 'energy' ? 'energy-norm' : 'stress L2'} error`,
-        source: 'Roache, J. Fluids Eng. 124 (2002); rates: Strang & Fix (1973), REFERENCES.md section 10 [M]',
+        source: 'P. J. Roache, Code verification by the method of manufactured solutions, J. Fluids Eng. 124(1) (2002) 4-10; rates: G. Strang & G. J. Fix, An Analysis of the Finite Element Method, Prentice-Hall (1973) [M]',
         quantity: 'observed order in h',
         reference: order,
         tolerance: 0.1,
