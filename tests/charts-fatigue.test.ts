@@ -1,6 +1,6 @@
 /**
  * Notch sensitivity and the fatigue notch factor (src/charts/fatigue.ts) against
- * ../shared/REFERENCES.md section 8:
+ * docs/REFERENCES.md section 8:
  *  - the check-value table [D, from the verified Shigley equations, V: Shigley 9th ed.,
  *    Eqs. 6-34, 6-35a]: sqrt(a) to the 4 decimals given, q to the 3 decimals given;
  *  - Shigley's Example 6-6 [V: Shigley's Mechanical Engineering Design, 9th ed.; D: recomputed

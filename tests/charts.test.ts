@@ -1,5 +1,5 @@
 /**
- * Chart formulas against the check values they come from (../shared/REFERENCES.md). The
+ * Chart formulas against the check values they come from (docs/REFERENCES.md). The
  * coefficients are recalled [M]; these tests pin the code to the tabulated evaluations so a
  * typing error in a coefficient cannot pass.
  */

@@ -1,6 +1,6 @@
 /**
  * The error band: the Grid Convergence Index arithmetic against its published-style test vector
- * (../shared/REFERENCES.md section 10: h = 1, 0.5, 0.25 and f = 2.88, 2.97, 2.9925, exact value 3
+ * (docs/REFERENCES.md section 10: h = 1, 0.5, 0.25 and f = 2.88, 2.97, 2.9925, exact value 3
  * with error h^2, give p = 2, f_ext = 3, e_a = 0.0075188, GCI = 0.3133%; Roache 1994, Celik et
  * al. 2008), the observed order with a non-constant refinement ratio, and the certified series
  * on Kirsch's plate with exact tractions, where the band must contain the exact Kt = 3.

@@ -2,7 +2,7 @@
  * Kirsch's infinite plate with a circular hole (G. Kirsch, Z. VDI 42 (1898) 797-807), solved on
  * a finite quarter model with the exact stresses applied as tractions on its outer edges, so
  * the closed form holds everywhere in the model whatever its size. Closed forms and check
- * values: ../shared/REFERENCES.md section 1 [D].
+ * values: docs/REFERENCES.md section 1 [D].
  *  - peak hoop stress 3 sigma at (0, a): Kt = 3, to within 0.5%;
  *  - sxx along the ligament x = 0: 1 + a^2/(2 y^2) + 3 a^4/(2 y^4), to within 0.5% (6-node),
  *    2% (3-node, whose element stress converges only as O(h): REFERENCES.md section 10);

@@ -2,7 +2,7 @@
  * The whole analysis (model file -> mesh -> solve -> recovery -> net section -> Kt) against
  * published stress concentration factors, on the reference models in meshes/ (each names its
  * source in its note). Default mesh settings, 6-node elements. Tolerances from
- * ../shared/REFERENCES.md ("What is weakest"): 2% for the hole in a strip and the ellipse, 5%
+ * docs/REFERENCES.md ("What is weakest"): 2% for the hole in a strip and the ellipse, 5%
  * for shoulder fillets, 8% for U-notches, about the spread between independent fits.
  */
 import { readFileSync } from 'node:fs';

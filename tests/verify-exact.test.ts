@@ -1,6 +1,6 @@
 /**
  * Closed-form fields of src/verify/exact.ts against the properties every exact solution must
- * have and the check values of ../shared/REFERENCES.md:
+ * have and the check values of docs/REFERENCES.md:
  *  - traction-free hole: sigma . n = 0 at many boundary points, to 1e-12 of the stress scale
  *    (round-off of a few dozen operations);
  *  - the remote state far away (the perturbation decays like (a/r)^2: at r = 1e4 a it is below

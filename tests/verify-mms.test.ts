@@ -1,5 +1,5 @@
 /**
- * Method of manufactured solutions (src/verify/mms.ts; ../shared/REFERENCES.md section 10):
+ * Method of manufactured solutions (src/verify/mms.ts; docs/REFERENCES.md section 10):
  * u = U0 sin(pi x) cos(pi y), v = (U0/2) cos(pi x) sin(pi y) on the unit square, plane stress,
  * with its body force [D], exact displacements prescribed on the boundary, quasi-uniform meshes.
  *

@@ -1,7 +1,7 @@
 /**
  * The reference model files in meshes/: published stress-concentration cases built with the
  * templates, so they stay consistent with them. Each file's note names the published case,
- * its source and the check value with its provenance tag as listed in /work/shared/REFERENCES.md
+ * its source and the check value with its provenance tag as listed in docs/REFERENCES.md
  * at the time of writing ([V] found in the text, [D] derived from a closed form, [M] recalled,
  * [M+] recalled with an independent cross-check). The dimensions are chosen here; the ratios
  * that matter (d/W, D/d, r/d, t/r, ...) are the published cases'.
