@@ -15,14 +15,14 @@ const out = join(tmp, 'solved');
 
 describe('raiser plot', () => {
   it('solve --single-mesh -o writes the saved solution and pictures; plot redraws them with other options', () => {
-    const s = raiser(['solve', 'examples/strap-bolt-hole.json', '--single-mesh', '-o', out, '--size', '800x500']);
+    const s = raiser(['solve', 'examples/strap-bolt-hole.json', '--single-mesh', '-o', out, '--picture-size', '800x500']);
     expect(s.code).toBe(0);
     expect(existsSync(join(out, 'solution.raiser'))).toBe(true);
     expect(existsSync(join(out, 'convergence.png'))).toBe(false);
     const first = PNG.sync.read(readFileSync(join(out, 'contour.png')));
     expect(first.width).toBe(800);
     const again = join(tmp, 'vm');
-    const p = raiser(['plot', out, '-o', again, '--measure', 'von-mises', '--size', '700x450', '--range', '0:250', '--only', 'contour,peak,section', '--format', 'png', '--no-iso']);
+    const p = raiser(['plot', out, '-o', again, '--measure', 'von-mises', '--picture-size', '700x450', '--range', '0:250', '--only', 'contour,peak,section', '--format', 'png', '--no-iso']);
     expect(p.code, p.stderr).toBe(0);
     expect(p.stdout).toContain('wrote');
     const vm = PNG.sync.read(readFileSync(join(again, 'contour.png')));
@@ -43,7 +43,7 @@ describe('raiser plot', () => {
   });
 
   it('bad options and files exit 2 and say which', () => {
-    expect(raiser(['plot', out, '-o', join(tmp, 'x'), '--size', '10x10']).stderr).toContain('--size');
+    expect(raiser(['plot', out, '-o', join(tmp, 'x'), '--picture-size', '10x10']).stderr).toContain('--picture-size');
     expect(raiser(['plot', out, '-o', join(tmp, 'x'), '--range', '5:1']).stderr).toContain('--range');
     expect(raiser(['plot', out, '-o', join(tmp, 'x'), '--only', 'nope']).stderr).toContain('there is no picture "nope"');
     const notSaved = raiser(['plot', 'examples/strap-bolt-hole.json', '-o', join(tmp, 'x')]);
