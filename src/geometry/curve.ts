@@ -524,3 +524,19 @@ export function curveAreaTerm(c: Curve): number {
     }
   }
 }
+
+/** The box [xmin, ymin, xmax, ymax] of curves sampled at n + 1 parameter values each (ends included). */
+export function sampleCurvesBox(curves: readonly Curve[], n: number): [number, number, number, number] {
+  const p = [0, 0];
+  const box: [number, number, number, number] = [Infinity, Infinity, -Infinity, -Infinity];
+  for (const c of curves) {
+    for (let k = 0; k <= n; k++) {
+      evaluateCurve(c, k / n, p);
+      box[0] = Math.min(box[0], p[0]);
+      box[1] = Math.min(box[1], p[1]);
+      box[2] = Math.max(box[2], p[0]);
+      box[3] = Math.max(box[3], p[1]);
+    }
+  }
+  return box;
+}

@@ -14,7 +14,7 @@
  * along the 6-node edges) and at the nodes of the elements touching that boundary, so a peak
  * just inside the surface (under a contact load, say) is not missed.
  */
-import { curvatureRadius, curveConcavity, evaluateCurve } from '../geometry/curve.js';
+import { curvatureRadius, curveConcavity, evaluateCurve, sampleCurvesBox } from '../geometry/curve.js';
 import type { Domain } from '../geometry/domain.js';
 import type { Mesh } from '../mesh/types.js';
 import type { StressMeasure } from '../model/schema.js';
@@ -189,21 +189,7 @@ export type RaiserShape =
  */
 export function describeRaiserShape(domain: Domain, r: Raiser): RaiserShape {
   const curves = r.edges.map((id) => domain.edges[id].curve);
-  const p = [0, 0];
-  let x0 = Infinity;
-  let y0 = Infinity;
-  let x1 = -Infinity;
-  let y1 = -Infinity;
-  for (const c of curves) {
-    for (let k = 0; k <= 256; k++) {
-      evaluateCurve(c, k / 256, p);
-      x0 = Math.min(x0, p[0]);
-      y0 = Math.min(y0, p[1]);
-      x1 = Math.max(x1, p[0]);
-      y1 = Math.max(y1, p[1]);
-    }
-  }
-  const extent: [number, number, number, number] = [x0, y0, x1, y1];
+  const extent = sampleCurvesBox(curves, 256);
   const full = (s: number) => Math.abs(Math.abs(s) - 2 * Math.PI) < 1e-9;
   const c0 = curves[0];
   if (curves.length === 1 && c0.kind === 'arc' && full(c0.sweep)) return { type: 'circle', center: [c0.cx, c0.cy], diameter: 2 * c0.r, extent };
