@@ -31,13 +31,13 @@ export interface BoundaryPoints {
 /** Fewest segments on a curved edge, by its turning angle: no chord turns more than 30 degrees. */
 const MAX_CHORD_TURN = Math.PI / 6;
 
-/** Places boundary points on every loop of the domain. */
 /** A point the mesh must have a node at: on domain edge `edge` at curve parameter t (0 < t < 1). */
 export interface HardPoint {
   edge: number;
   t: number;
 }
 
+/** Places boundary points on every loop of the domain. */
 export function discretiseBoundary(domain: Domain, size: SizeField, hard: readonly HardPoint[] = []): BoundaryPoints {
   const xs: number[] = [];
   const edgeOf: number[] = [];

@@ -20,7 +20,7 @@
  * Angles (of arcs, ellipses) do not change with position or scale and are kept as they are:
  * rounding them would move the end of a quarter arc off the symmetry line it ends on.
  */
-import { curveAreaTerm, evaluateCurve, type Curve } from '../geometry/curve.js';
+import { curveAreaTerm, evaluateCurve, sampleCurvesBox, type Curve } from '../geometry/curve.js';
 import type { Domain } from '../geometry/domain.js';
 
 export interface Frame {
@@ -68,27 +68,9 @@ function moveCurve(c: Curve, dx: number, dy: number, k: number, round: boolean):
   }
 }
 
-function boxOf(curves: Curve[]): [number, number, number, number] {
-  let xmin = Infinity;
-  let ymin = Infinity;
-  let xmax = -Infinity;
-  let ymax = -Infinity;
-  const p = [0, 0];
-  for (const c of curves) {
-    for (let k = 0; k <= 32; k++) {
-      evaluateCurve(c, k / 32, p);
-      xmin = Math.min(xmin, p[0]);
-      ymin = Math.min(ymin, p[1]);
-      xmax = Math.max(xmax, p[0]);
-      ymax = Math.max(ymax, p[1]);
-    }
-  }
-  return [xmin, ymin, xmax, ymax];
-}
-
 export function partFrame(domain: Domain): Frame {
   const [ax, ay] = anchorOf(domain.edges[domain.loops[0].edges[0]].curve);
-  const [x0, y0, x1, y1] = boxOf(domain.edges.map((e) => moveCurve(e.curve, ax, ay, 1, false)));
+  const [x0, y0, x1, y1] = sampleCurvesBox(domain.edges.map((e) => moveCurve(e.curve, ax, ay, 1, false)), 32);
   return { ax, ay, cx: 0.5 * (x0 + x1), cy: 0.5 * (y0 + y1), s: Math.hypot(x1 - x0, y1 - y0) };
 }
 
@@ -111,7 +93,7 @@ function curveToFrame(c: Curve, f: Frame): Curve {
 export function domainToFrame(d: Domain, f: Frame): Domain {
   const edges = d.edges.map((e) => ({ ...e, curve: curveToFrame(e.curve, f) }));
   const loops = d.loops.map((l) => ({ ...l, signedArea: l.edges.reduce((a, id) => a + curveAreaTerm(edges[id].curve), 0) }));
-  const [xmin, ymin, xmax, ymax] = boxOf(edges.map((e) => e.curve));
+  const [xmin, ymin, xmax, ymax] = sampleCurvesBox(edges.map((e) => e.curve), 32);
   return {
     loops,
     edges,

@@ -289,7 +289,6 @@ function checkBoundary(domain: Domain, b: BoundaryPoints): void {
   }
 }
 
-/** Compacts the material triangles of the work mesh into a linear Mesh. */
 /** The live material triangles of tm, sorted by the Hilbert index of their centroids. */
 function hilbertOrder(tm: TriMesh): Int32Array {
   let nTri = 0;

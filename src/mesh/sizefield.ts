@@ -163,11 +163,6 @@ export class SizeField {
   }
 
   /**
-   * For each cell of a grid over the part, the sources that can give the least value somewhere
-   * in it: v_s(x) lies within slope_s * (half diagonal) of v_s(centre), so a source whose lower
-   * bound exceeds the least upper bound (or the global size) is never the minimum there.
-   */
-  /**
    * Sizes the candidate grid for a mesh of about `triangles` triangles: a build of up to two
    * source evaluations per expected triangle (the mesher queries the field several times per
    * triangle), at most 4e6. A no-op for small meshes and fields without a grid.
@@ -176,6 +171,11 @@ export class SizeField {
     if (this.gridBox) this.buildGrid(this.gridBox, Math.min(4e6, 2 * triangles));
   }
 
+  /**
+   * For each cell of a grid over the part, the sources that can give the least value somewhere
+   * in it: v_s(x) lies within slope_s * (half diagonal) of v_s(centre), so a source whose lower
+   * bound exceeds the least upper bound (or the global size) is never the minimum there.
+   */
   private buildGrid(bbox: readonly [number, number, number, number], budget = 3e5): void {
     const [x0, y0, x1, y1] = bbox;
     const span = Math.max(x1 - x0, y1 - y0) || 1;
