@@ -1,10 +1,9 @@
 /**
  * The HTML report opened in a real browser: Debian's chromium, driven by playwright-core
- * (no browser download). The set-up installs chromium with apt-get when /usr/bin/chromium is
- * missing and the machine allows it; otherwise the test is skipped and says why.
+ * (no browser download; .ci/run installs it where it is missing). Where no Chromium can be had
+ * the browser tests are skipped and say why (tests/support/chromium.ts).
  */
 import { describe, expect, it, beforeAll, afterAll } from 'vitest';
-import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -15,24 +14,9 @@ import { buildResult } from '../src/report/result.js';
 import { writeResultFiles } from '../src/report/files.js';
 import { buildDomain } from '../src/geometry/domain.js';
 import { describeRaiserShape, findRaisers } from '../src/post/raisers.js';
+import { chromiumUnavailable, openChromium } from './support/chromium.js';
 
-const CHROMIUM = '/usr/bin/chromium';
-
-/** Installs Debian's chromium if it is missing; returns why it cannot be had, or null. */
-function ensureChromium(): string | null {
-  if (existsSync(CHROMIUM)) return null;
-  const apt = spawnSync('sh', ['-c', 'command -v apt-get'], { encoding: 'utf8' });
-  if (apt.status !== 0) return 'no apt-get on this machine to install chromium';
-  if (typeof process.getuid === 'function' && process.getuid() !== 0) return 'not root: cannot apt-get install chromium';
-  const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
-  spawnSync('apt-get', ['update'], { stdio: 'ignore', env, timeout: 300_000 });
-  const r = spawnSync('apt-get', ['install', '-y', '--no-install-recommends', 'chromium'], { stdio: 'ignore', env, timeout: 600_000 });
-  if (r.status !== 0 || !existsSync(CHROMIUM)) return `apt-get install -y chromium failed (exit ${r.status})`;
-  return null;
-}
-
-const missing = ensureChromium();
-if (missing) process.stderr.write(`report-html.test.ts: skipped, headless Chromium is not available: ${missing}\n`);
+const missing = chromiumUnavailable('report-html.test.ts');
 
 describe('geometry of the stress raisers, read from the model (no browser)', () => {
   it('a slot and a rounded rectangle: dimensions and centres as the model file gives them (examples/mounting-plate.json)', () => {
@@ -77,13 +61,7 @@ describe.skipIf(missing !== null)('HTML report in headless Chromium', () => {
     const cert = certifyModel(model, { target: 0.02 });
     result = buildResult(cert.analysis, 'examples/strap-bolt-hole.json', cert);
     writeResultFiles(dir, cert.analysis, result, false, { createdAt: '2024-03-04T05:06:07Z', pictureOptions: { width: 1000, height: 640 } });
-    const { chromium } = await import('playwright-core');
-    ctx = await chromium.launchPersistentContext(mkdtempSync(join(tmpdir(), 'raiser-chromium-')), {
-      executablePath: CHROMIUM,
-      headless: true,
-      args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-      viewport: { width: 1000, height: 1400 },
-    });
+    ctx = await openChromium({ width: 1000, height: 1400 });
   });
 
   afterAll(async () => {

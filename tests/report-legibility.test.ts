@@ -11,7 +11,7 @@
  * DejaVu Sans is about 0.73 to 0.76 em.
  */
 import { describe, expect, it, beforeAll, afterAll } from 'vitest';
-import { existsSync, mkdtempSync, statSync } from 'node:fs';
+import { mkdtempSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { PNG } from 'pngjs';
@@ -23,10 +23,9 @@ import { plotSource } from '../src/report/saved.js';
 import { contourScene } from '../src/report/pictures.js';
 import { COLUMN_PX, EIGHT_PT_PX, MIN_TEXT_PX, reportPictures } from '../src/report/report-pictures.js';
 import { capHeight } from '../src/render/font.js';
+import { chromiumUnavailable, openChromium } from './support/chromium.js';
 
-const CHROMIUM = '/usr/bin/chromium';
-const missing = existsSync(CHROMIUM) ? null : `${CHROMIUM} is not installed`;
-if (missing) process.stderr.write(`report-legibility.test.ts: the browser checks are skipped, headless Chromium is not available: ${missing}\n`);
+const missing = chromiumUnavailable('report-legibility.test.ts');
 
 const { model } = loadModelFile('examples/strap-bolt-hole.json');
 const cert = certifyModel(model, { target: 0.01 });
@@ -102,14 +101,8 @@ describe.skipIf(missing !== null)('report printed on A4 in headless Chromium', (
 
   beforeAll(async () => {
     writeResultFiles(dir, cert.analysis, result, false, { createdAt: '2024-03-04T05:06:07Z' });
-    const { chromium } = await import('playwright-core');
-    ctx = await chromium.launchPersistentContext(mkdtempSync(join(tmpdir(), 'raiser-chromium-')), {
-      executablePath: CHROMIUM,
-      headless: true,
-      args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-          // A4 is 210 mm wide = 793.7 CSS pixels; the test lays the page out at its printable width below
-      viewport: { width: 794, height: 1123 },
-    });
+    // A4 is 210 mm wide = 793.7 CSS pixels; the test lays the page out at its printable width below
+    ctx = await openChromium({ width: 794, height: 1123 });
   });
 
   afterAll(async () => {

@@ -12,7 +12,8 @@ import { existsSync, mkdtempSync, readFileSync, statSync, writeFileSync } from '
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { ROOT } from './support/cli.js';
-import { countPdfPages, findChromium } from '../src/report/pdf.js';
+import { countPdfPages } from '../src/report/pdf.js';
+import { chromiumUnavailable, openChromium } from './support/chromium.js';
 
 const BIN = join(ROOT, 'dist/cli/raiser.js');
 
@@ -21,13 +22,7 @@ function raiser(args: string[], env: NodeJS.ProcessEnv = {}) {
   return { code: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 
-let missing: string | null = null;
-try {
-  findChromium();
-} catch (e) {
-  missing = (e as Error).message;
-}
-if (missing) process.stderr.write(`report-pdf.test.ts: the PDF tests are skipped, headless Chromium is not available: ${missing}\n`);
+const missing = chromiumUnavailable('report-pdf.test.ts');
 
 /** The strap example with a report object: the model's own sign-off fields. */
 function strapWithReport(dir: string): string {
@@ -80,12 +75,7 @@ describe.skipIf(missing !== null)('report.pdf through headless Chromium', () => 
   beforeAll(async () => {
     // The options give the checker and a new revision over the model's "A".
     solved = raiser(['solve', strapWithReport(dir), '--single-mesh', '-o', out, '--pdf', '--checked-by', 'Cli Checker', '--revision', 'C']);
-    const { chromium } = await import('playwright-core');
-    ctx = await chromium.launchPersistentContext(mkdtempSync(join(tmpdir(), 'raiser-chromium-')), {
-      executablePath: findChromium(),
-      headless: true,
-      args: ['--headless', '--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-    });
+    ctx = await openChromium();
   }, 240_000);
 
   afterAll(async () => {
