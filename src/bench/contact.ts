@@ -15,7 +15,8 @@ import { performance } from 'node:perf_hooks';
 import { buildDomain } from '../geometry/domain.js';
 import { generateMesh } from '../mesh/generate.js';
 import { compileLoads, compileSupports } from '../fem/boundary-conditions.js';
-import { assembleSystem, meshNodeGraph } from '../fem/assemble.js';
+import { assembleSystem } from '../fem/assemble.js';
+import { buildNodeAdjacency } from '../mesh/topology.js';
 import { constitutiveMatrix } from '../fem/material.js';
 import { solveContact } from '../fem/contact.js';
 import { solveSpd } from '../solve/index.js';
@@ -50,7 +51,7 @@ export function benchContactLug(dof: number, clearance: number, runs: number): C
   const supports = compileSupports(model, domain, mesh, warnings);
   const loads = compileLoads(model, domain, mesh, supports, warnings);
   const D = constitutiveMatrix(model.material.E, model.material.nu, 'plane-stress');
-  const graph = meshNodeGraph(mesh);
+  const graph = buildNodeAdjacency(mesh);
   const system = assembleSystem(mesh, D, model.thickness, loads.f, supports.constraints, graph);
   const options = { coords: mesh.nodes, nodeAdjacency: graph, dofsPerNode: 2, fullDofOfRow: system.freeDof };
   // the linear solve's right-hand side: the pin force spread as the bearing pressure would put it is

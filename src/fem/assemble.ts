@@ -5,6 +5,7 @@
  * positive definite when the supports stop every rigid motion.
  */
 import type { CsrGraph, SymmetricCsc } from '../solve/index.js';
+import { buildNodeAdjacency } from '../mesh/topology.js';
 import type { Mesh } from '../mesh/types.js';
 import { P2Scratch, internalForceP2, stiffnessP1, stiffnessP2 } from './elements.js';
 
@@ -66,7 +67,7 @@ export function assembleSystem(mesh: Mesh, D: Float64Array, thickness: number, f
   // Each node pair (a, b >= a) of an element finds b in a's short list once and adds its 2x2
   // block through the four stored positions. The sums run in element order, as the triplet
   // assembly summed them, so K is the same to the last bit.
-  const { K, upper } = freePatternWithSlots(mesh, graph ?? meshNodeGraph(mesh), dofFree, nFree);
+  const { K, upper } = freePatternWithSlots(mesh, graph ?? buildNodeAdjacency(mesh), dofFree, nFree);
   const { ptr: uptr, idx: uidx, slot } = upper;
   const values = K.values;
   const per = mesh.order === 2 ? 6 : 3;
@@ -243,39 +244,4 @@ export function internalForces(mesh: Mesh, D: Float64Array, thickness: number, u
     }
   });
   return r;
-}
-
-/** Node adjacency of the mesh (nodes sharing an element), CSR without self loops. */
-export function meshNodeGraph(mesh: Mesh): CsrGraph {
-  const per = mesh.order === 2 ? 6 : 3;
-  const n = mesh.nNodes;
-  const el = mesh.elements;
-  // Upper bound of neighbours through element incidence, then deduplicate per node.
-  const deg = new Int32Array(n + 1);
-  for (let e = 0; e < mesh.nElements; e++) for (let i = 0; i < per; i++) deg[el[per * e + i]] += per - 1;
-  const start = new Int32Array(n + 1);
-  for (let i = 0; i < n; i++) start[i + 1] = start[i] + deg[i];
-  const fill = start.slice(0, n);
-  const raw = new Int32Array(start[n]);
-  for (let e = 0; e < mesh.nElements; e++) {
-    for (let i = 0; i < per; i++) {
-      const a = el[per * e + i];
-      for (let j = 0; j < per; j++) if (j !== i) raw[fill[a]++] = el[per * e + j];
-    }
-  }
-  const ptr = new Int32Array(n + 1);
-  const idx = new Int32Array(start[n]);
-  const mark = new Int32Array(n).fill(-1);
-  let w = 0;
-  for (let a = 0; a < n; a++) {
-    ptr[a] = w;
-    for (let p = start[a]; p < start[a + 1]; p++) {
-      const b = raw[p];
-      if (mark[b] === a) continue;
-      mark[b] = a;
-      idx[w++] = b;
-    }
-  }
-  ptr[n] = w;
-  return { ptr, idx: idx.slice(0, w) };
 }

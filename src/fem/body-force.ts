@@ -16,7 +16,8 @@
  * discretisation error of either element, so the rules do not spoil convergence rates.
  */
 import type { Mesh } from '../mesh/types.js';
-import { TRI6, isStraightP2, jacobianP2, shapeP2 } from './elements.js';
+import { isStraightP2, jacobianP2, shapeP2 } from '../element/triangle.js';
+import { TRI6 } from './elements.js';
 
 /** b(x, y, out): writes the body force per unit volume (bx, by) at (x, y) into out[0], out[1]. */
 export type BodyForceField = (x: number, y: number, out: number[]) => void;

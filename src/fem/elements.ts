@@ -1,8 +1,10 @@
 /**
  * Triangle elements for plane elasticity. DOF order within an element: ux0, uy0, ux1, uy1, ...
  * All routines write into caller-owned buffers and allocate nothing per element; they throw a
- * RangeError when det J <= 0 rather than taking its absolute value.
+ * RangeError when det J <= 0 rather than taking its absolute value. Local numbering, shape
+ * functions, the Jacobian and the straight-side test come from src/element/triangle.ts.
  */
+import { isStraightP2, jacobianP2, shapeP2 } from '../element/triangle.js';
 
 /**
  * Quadrature on the reference triangle (0,0), (1,0), (0,1); weights sum to 1/2.
@@ -64,33 +66,6 @@ export function strainMatrixP1(nodes: Float64Array, el: Int32Array, e: number, B
   return det / 2;
 }
 
-/**
- * Shape function derivatives of the 6-node triangle at (xi, eta) in the reference element:
- * N0 = L0(2L0-1), N1 = xi(2xi-1), N2 = eta(2eta-1), N3 = 4 L0 xi, N4 = 4 xi eta, N5 = 4 eta L0,
- * L0 = 1 - xi - eta.
- */
-export function shapeP2(xi: number, eta: number, N: Float64Array, dxi: Float64Array, deta: Float64Array): void {
-  const l0 = 1 - xi - eta;
-  N[0] = l0 * (2 * l0 - 1);
-  N[1] = xi * (2 * xi - 1);
-  N[2] = eta * (2 * eta - 1);
-  N[3] = 4 * l0 * xi;
-  N[4] = 4 * xi * eta;
-  N[5] = 4 * eta * l0;
-  dxi[0] = 1 - 4 * l0;
-  dxi[1] = 4 * xi - 1;
-  dxi[2] = 0;
-  dxi[3] = 4 * (l0 - xi);
-  dxi[4] = 4 * eta;
-  dxi[5] = -4 * eta;
-  deta[0] = 1 - 4 * l0;
-  deta[1] = 0;
-  deta[2] = 4 * eta - 1;
-  deta[3] = -4 * xi;
-  deta[4] = 4 * xi;
-  deta[5] = 4 * (l0 - eta);
-}
-
 /** Scratch for the 6-node routines; one per thread of work. */
 export class P2Scratch {
   N = new Float64Array(6);
@@ -126,43 +101,6 @@ export function strainMatrixP2(nodes: Float64Array, el: Int32Array, e: number, x
     B[24 + 2 * i + 1] = dx;
   }
   return det;
-}
-
-/**
- * The isoparametric Jacobian J = [dx/dxi dy/dxi; dx/deta dy/deta] of the 6-node element whose
- * nodes start at el[o], from reference derivatives dxi[off + i], deta[off + i]; into J (row-major).
- */
-export function jacobianP2(nodes: Float64Array, el: Int32Array, o: number, dxi: Float64Array, deta: Float64Array, off: number, J: Float64Array): void {
-  let j11 = 0;
-  let j12 = 0;
-  let j21 = 0;
-  let j22 = 0;
-  for (let i = 0; i < 6; i++) {
-    const k = el[o + i];
-    const x = nodes[2 * k];
-    const y = nodes[2 * k + 1];
-    j11 += dxi[off + i] * x;
-    j12 += dxi[off + i] * y;
-    j21 += deta[off + i] * x;
-    j22 += deta[off + i] * y;
-  }
-  J[0] = j11;
-  J[1] = j12;
-  J[2] = j21;
-  J[3] = j22;
-}
-
-/** True when every midside node sits at its chord midpoint (a straight-sided element). */
-export function isStraightP2(nodes: Float64Array, el: Int32Array, e: number): boolean {
-  const o = 6 * e;
-  return straightSide(nodes, el[o], el[o + 1], el[o + 3]) && straightSide(nodes, el[o + 1], el[o + 2], el[o + 4]) && straightSide(nodes, el[o + 2], el[o], el[o + 5]);
-}
-
-function straightSide(nodes: Float64Array, ia: number, ib: number, im: number): boolean {
-  const dx = nodes[2 * im] - 0.5 * (nodes[2 * ia] + nodes[2 * ib]);
-  const dy = nodes[2 * im + 1] - 0.5 * (nodes[2 * ia + 1] + nodes[2 * ib + 1]);
-  const l = Math.abs(nodes[2 * ib] - nodes[2 * ia]) + Math.abs(nodes[2 * ib + 1] - nodes[2 * ia + 1]);
-  return Math.abs(dx) + Math.abs(dy) <= 1e-12 * l;
 }
 
 /** Reference derivatives of the six shape functions at the points of a rule: [q * 6 + i]. */

@@ -2,7 +2,7 @@
  * Crossings and near contacts between the segments of closed polylines, found through a
  * uniform grid so the cost stays near linear in the number of segments.
  */
-import { orientCcw } from '../mesh/predicates.js';
+import { orientCcw } from './predicates.js';
 
 export interface Polylines {
   /** x0, y0, x1, y1, ... */

@@ -11,6 +11,7 @@
  *    arcs through the edge nodes, whose area is the chord polygon's plus (2/3) L delta_n a side.
  */
 import type { Domain } from '../geometry/domain.js';
+import { determinant2, jacobianP2, shapeDerivativesP2 } from '../element/triangle.js';
 import { InternalError } from '../model/errors.js';
 import type { Mesh } from './types.js';
 
@@ -36,24 +37,14 @@ class CompensatedSum {
   }
 }
 
+const DXI = new Float64Array(6);
+const DETA = new Float64Array(6);
+const JAC = new Float64Array(4);
 /** det J of a 6-node triangle at (xi, eta), by the derivatives of its shape functions. */
 export function detJP2(n: Float64Array, el: Int32Array, o: number, xi: number, eta: number): number {
-  const l0 = 1 - xi - eta;
-  // dN/dxi and dN/deta for nodes 0..5 (0 (0,0), 1 (1,0), 2 (0,1), 3 mid 0-1, 4 mid 1-2, 5 mid 2-0).
-  const dxi = [1 - 4 * l0, 4 * xi - 1, 0, 4 * (l0 - xi), 4 * eta, -4 * eta];
-  const deta = [1 - 4 * l0, 0, 4 * eta - 1, -4 * xi, 4 * xi, 4 * (l0 - eta)];
-  let j11 = 0;
-  let j12 = 0;
-  let j21 = 0;
-  let j22 = 0;
-  for (let i = 0; i < 6; i++) {
-    const k = el[o + i];
-    j11 += dxi[i] * n[2 * k];
-    j12 += dxi[i] * n[2 * k + 1];
-    j21 += deta[i] * n[2 * k];
-    j22 += deta[i] * n[2 * k + 1];
-  }
-  return j11 * j22 - j12 * j21;
+  shapeDerivativesP2(xi, eta, DXI, DETA);
+  jacobianP2(n, el, o, DXI, DETA, 0, JAC);
+  return determinant2(JAC);
 }
 
 const P2_SAMPLES: [number, number][] = [

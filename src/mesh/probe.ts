@@ -4,7 +4,7 @@
  * for straight-sided elements, Newton iteration on the isoparametric map for curved ones), and
  * the field interpolated with the element's shape functions.
  */
-import { shapeP2 } from '../fem/elements.js';
+import { shapeP2 } from '../element/triangle.js';
 import type { Mesh } from './types.js';
 
 export class FieldProbe {

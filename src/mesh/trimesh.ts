@@ -17,7 +17,7 @@
  */
 import cdt2d from 'cdt2d';
 import { InternalError } from '../model/errors.js';
-import { inCircleCcw, orientCcw } from './predicates.js';
+import { inCircleCcw, orientCcw } from '../geometry/predicates.js';
 
 const NEXT = [1, 2, 0];
 const PREV = [2, 0, 1];

@@ -8,7 +8,7 @@ import { totalmem } from 'node:os';
 import { evaluateCurve } from '../geometry/curve.js';
 import { buildDomain, type Domain } from '../geometry/domain.js';
 import { validateDomain } from '../geometry/validate.js';
-import { assembleSystem, internalForces, meshNodeGraph } from '../fem/assemble.js';
+import { assembleSystem, internalForces } from '../fem/assemble.js';
 import { compileLoads, compileSupports, HOLD_FREE, HOLD_MIRROR, type CompiledLoads, type ExtraTraction } from '../fem/boundary-conditions.js';
 import { constitutiveMatrix, type PlaneState } from '../fem/material.js';
 import { checkRigidMotion } from '../fem/rigid.js';
@@ -17,6 +17,7 @@ import { generateMesh, triangleMinAngle } from '../mesh/generate.js';
 import type { SizeField } from '../mesh/sizefield.js';
 import type { HardPoint } from '../mesh/boundary.js';
 import type { SizeLimit } from '../mesh/background.js';
+import { buildNodeAdjacency, buildNodeElements } from '../mesh/topology.js';
 import type { Mesh, MeshStats } from '../mesh/types.js';
 import { AnalysisError, ModelError } from '../model/errors.js';
 import { nearestBoundaryPoint } from '../geometry/project.js';
@@ -292,7 +293,7 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
   checkRigidMotion(mesh, supports.constraints.fixed, domain.scale, pinSupportCentres(contactPins));
   // --- end of pins ---
   const D = constitutiveMatrix(model.material.E, model.material.nu, state);
-  const nodeGraph = meshNodeGraph(mesh);
+  const nodeGraph = buildNodeAdjacency(mesh);
   const system = assembleSystem(mesh, D, model.thickness, loads.f, supports.constraints, nodeGraph);
   const t2 = performance.now();
 
@@ -452,11 +453,8 @@ function checkResolution(mesh: Mesh, size: SizeField, evaluation: MeshEvaluation
   }
   const per = mesh.order === 2 ? 6 : 3;
   let worst = 180;
-  for (let e = 0; e < mesh.nElements; e++) {
-    let has = false;
-    for (let i = 0; i < per; i++) if (mesh.elements[per * e + i] === peak.node) has = true;
-    if (has) worst = Math.min(worst, triangleMinAngle(mesh, per, e));
-  }
+  const around = buildNodeElements(mesh);
+  for (let p = around.ptr[peak.node]; p < around.ptr[peak.node + 1]; p++) worst = Math.min(worst, triangleMinAngle(mesh, per, around.idx[p]));
   if (worst < 20 && !peak.atSharpCorner) out.push(`an element at the peak has an angle of only ${worst.toFixed(1)} degrees; the peak stress there is less reliable`);
   return out;
 }

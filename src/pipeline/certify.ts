@@ -20,6 +20,7 @@
  */
 import { hintsFromContact } from '../fem/contact.js';
 import { MeshSizeLimit, type SizeLimit } from '../mesh/background.js';
+import { buildNodeElements } from '../mesh/topology.js';
 import { gridConvergence, type GciResult } from '../post/convergence.js';
 import { estimateErrors } from '../post/estimate.js';
 import type { MeshEvaluation } from '../post/evaluate.js';
@@ -114,15 +115,11 @@ function referenceNode(a: Analysis, s: Settlement): { node: number; stress: numb
 export function adaptedLimit(a: Analysis, reference: { node: number; stress: number } = { node: a.peak.node, stress: a.peak.stress }): { limit: MeshSizeLimit | null; marked: number } {
   const mesh = a.mesh;
   const est = estimateErrors(mesh, a.D, a.model.thickness, a.u, a.stress);
-  const per = mesh.order === 2 ? 6 : 3;
   const p = mesh.order;
   const peakMag = Math.abs(reference.stress) || 1;
   let eRef = 0;
-  for (let e = 0; e < mesh.nElements; e++) {
-    for (let k = 0; k < per; k++) {
-      if (mesh.elements[per * e + k] === reference.node) eRef = Math.max(eRef, est.stressRms[e] / peakMag);
-    }
-  }
+  const around = buildNodeElements(mesh);
+  for (let q = around.ptr[reference.node]; q < around.ptr[reference.node + 1]; q++) eRef = Math.max(eRef, est.stressRms[around.idx[q]] / peakMag);
   const desired = new Float64Array(mesh.nElements).fill(Infinity);
   let marked = 0;
   if (eRef > 0) {

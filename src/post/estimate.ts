@@ -7,7 +7,8 @@
  *   energy norm:  ||e||_E^2 = t * integral e^T D^-1 e dA,
  *   stress RMS:   sqrt(integral (exx^2 + eyy^2 + 2 exy^2) dA / A).
  */
-import { TRI6, shapeP2 } from '../fem/elements.js';
+import { shapeP2 } from '../element/triangle.js';
+import { TRI6 } from '../fem/elements.js';
 import type { Mesh } from '../mesh/types.js';
 import { elementStressAt, StressWorkspace } from './stress.js';
 

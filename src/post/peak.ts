@@ -3,6 +3,7 @@
  * the feature of the part it sits on.
  */
 import type { Domain } from '../geometry/domain.js';
+import { buildNodeElements } from '../mesh/topology.js';
 import type { Mesh } from '../mesh/types.js';
 import type { StressMeasure } from '../model/schema.js';
 import { stressMeasure } from './stress.js';
@@ -130,11 +131,10 @@ export function findPeak(mesh: Mesh, domain: Domain, stress: Float64Array, measu
   if (!atSharp) {
     // Next to a re-entrant corner (within two elements of it) counts as at it.
     const per = mesh.order === 2 ? 6 : 3;
+    const around = buildNodeElements(mesh);
     let h = 0;
-    for (let el = 0; el < mesh.nElements; el++) {
-      let has = false;
-      for (let i = 0; i < per; i++) if (mesh.elements[per * el + i] === best) has = true;
-      if (!has) continue;
+    for (let p = around.ptr[best]; p < around.ptr[best + 1]; p++) {
+      const el = around.idx[p];
       for (let i = 0; i < 3; i++) {
         const a = mesh.elements[per * el + i];
         const b = mesh.elements[per * el + ((i + 1) % 3)];

@@ -11,6 +11,7 @@
  * instance) and coloured. Iso-lines come from the same subdivision by linear interpolation
  * along the sub-triangle edges (marching triangles).
  */
+import { shapeValuesP1, shapeValuesP2 } from '../element/triangle.js';
 import type { ColourMap } from './colormap.js';
 import { colourLut } from './colormap.js';
 import type { Raster } from './raster.js';
@@ -64,28 +65,19 @@ export interface ColourScale {
   map: ColourMap;
 }
 
-/** 6-node shape functions (corner 0, 1, 2; mid 0-1, 1-2, 2-0) at (xi, eta). */
-function shape6(xi: number, eta: number, N: Float64Array): void {
-  const l0 = 1 - xi - eta;
-  N[0] = l0 * (2 * l0 - 1);
-  N[1] = xi * (2 * xi - 1);
-  N[2] = eta * (2 * eta - 1);
-  N[3] = 4 * l0 * xi;
-  N[4] = 4 * xi * eta;
-  N[5] = 4 * eta * l0;
-}
-
 function shape(order: 1 | 2, xi: number, eta: number, N: Float64Array): void {
-  if (order === 2) shape6(xi, eta, N);
-  else {
-    N[0] = 1 - xi - eta;
-    N[1] = xi;
-    N[2] = eta;
-  }
+  if (order === 2) shapeValuesP2(xi, eta, N);
+  else shapeValuesP1(xi, eta, N);
 }
 
-/** Whether a 6-node element's midside nodes sit at the midpoints of its sides (to 1e-9 of its size). */
-function isStraight(nodes: Float64Array, el: Int32Array, e: number): boolean {
+/**
+ * Whether a 6-node element's midside nodes sit at the midpoints of its sides (to 1e-9 of its
+ * size), for drawing only. Not yet the element's own test (isStraightP2 in element/triangle.ts,
+ * 1e-12 in another measure): on the examples the two disagree on thousands of elements whose
+ * midside nodes sit 1e-12 to 1e-9 of their size off the chord (and on deformed shapes), so
+ * sharing one test would redraw the contour, close-up and deformed pictures (not bit for bit).
+ */
+function isDrawnStraight(nodes: Float64Array, el: Int32Array, e: number): boolean {
   const v = (k: number) => el[6 * e + k];
   let size = 0;
   let off = 0;
@@ -126,7 +118,7 @@ const OVERLAP_PX = 0.3;
 export function subdivisions(mesh: DrawMesh, e: number, view: View, k = 1, forIso = false): number {
   if (mesh.order === 1) return 1;
   const el = mesh.elements;
-  const straight = isStraight(mesh.nodes, el, e);
+  const straight = isDrawnStraight(mesh.nodes, el, e);
   if (straight && !forIso) return 1;
   const nodes = mesh.nodes;
   let size = 0;
@@ -318,20 +310,6 @@ export function paintField(r: Raster, mesh: DrawMesh, view: View, field: FieldSp
       }
     }
   }
-}
-
-/** The plotted value at local coordinates of element e (for tests and probes). */
-export function fieldValueAt(mesh: DrawMesh, field: FieldSpec, e: number, xi: number, eta: number): number {
-  const per = mesh.order === 2 ? 6 : 3;
-  const N = new Float64Array(6);
-  shape(mesh.order, xi, eta, N);
-  const comp = new Float64Array(field.stride);
-  for (let q = 0; q < field.stride; q++) {
-    let v = 0;
-    for (let m = 0; m < per; m++) v += N[m] * field.data[field.stride * mesh.elements[per * e + m] + q];
-    comp[q] = v;
-  }
-  return field.value(comp);
 }
 
 /** The range of the plotted value over the nodes and the element mid-points of the sub-grids. */

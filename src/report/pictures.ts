@@ -8,6 +8,7 @@
 import { join } from 'node:path';
 import type { StressMeasure } from '../model/schema.js';
 import { FieldProbe } from '../mesh/probe.js';
+import { buildNodeElements } from '../mesh/topology.js';
 import { stressMeasure } from '../post/stress.js';
 import { boxesOverlap, drawLabel, drawLabelAvoiding, drawLegend, drawMarker, drawScaleBar, INK, markerBox, scaleBarBox, SOFT } from '../render/annotate.js';
 import { drawChart, type Series } from '../render/chart.js';
@@ -534,11 +535,10 @@ export function peakWindow(src: PlotSource, measure?: StressMeasure): [number, n
       near = i;
     }
   }
+  const around = buildNodeElements(m);
   let h = 0;
-  for (let e = 0; e < m.nElements; e++) {
-    let has = false;
-    for (let k = 0; k < per; k++) if (m.elements[per * e + k] === near) has = true;
-    if (!has) continue;
+  for (let p = around.ptr[near]; p < around.ptr[near + 1]; p++) {
+    const e = around.idx[p];
     for (let k = 0; k < 3; k++) {
       const a = m.elements[per * e + k];
       const b = m.elements[per * e + ((k + 1) % 3)];

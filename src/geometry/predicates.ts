@@ -12,11 +12,6 @@ export function orientCcw(ax: number, ay: number, bx: number, by: number, cx: nu
   return -orient2d(ax, ay, bx, by, cx, cy);
 }
 
-/** Same as orientCcw without the exact fallback: fast, sign not guaranteed near zero. */
-export function orientCcwFast(ax: number, ay: number, bx: number, by: number, cx: number, cy: number): number {
-  return (bx - ax) * (cy - ay) - (by - ay) * (cx - ax);
-}
-
 /** > 0 when d lies strictly inside the circle through the counter-clockwise triangle (a, b, c); exact in sign. */
 export function inCircleCcw(ax: number, ay: number, bx: number, by: number, cx: number, cy: number, dx: number, dy: number): number {
   return incircle(ax, ay, bx, by, cx, cy, dx, dy);
