@@ -63,9 +63,9 @@ describe('geometry picture: loads and supports', () => {
 
 describe('geometry picture of an imported drawing', () => {
   // meshes/import-plate-hole.svg: our own test drawing, a 200 x 50 plate with a central bore
-  it('draws the loads and supports while the drawing can be read, and says so when it cannot', async () => {
+  it('draws the loads and supports from the solution, also when the model no longer holds its drawing', async () => {
     const { join } = await import('node:path');
-    const { parseModelText, reattachDrawing } = await import('../src/model/load.js');
+    const { parseModelText } = await import('../src/model/load.js');
     const file = join('meshes', 'plate-hole-from-svg.json');
     const text = JSON.stringify({
       material: { E: 210000, nu: 0.3 },
@@ -79,13 +79,11 @@ describe('geometry picture of an imported drawing', () => {
     const a = analyseModel(model);
     const result = buildResult(a, file);
     expect(geometryScene(plotSource(a, result), { width: 800 }).info.boundaryConditions).toEqual({ loads: 1, supports: 2 });
-    // as a saved solution holds it: the model without its drawing
+    // as a saved solution holds it: the model without its drawing; the loads and supports come
+    // from the result (where the finite element stage applied them), not from the drawing
     const saved = JSON.parse(JSON.stringify(model));
     const bare = geometryScene({ ...plotSource(a, result), model: saved }, { width: 800 });
-    expect(bare.info.boundaryConditions).toEqual({ loads: 0, supports: 0 });
-    expect(bare.items.some((it) => it.kind === 'text' && it.text.includes('loads and supports not drawn'))).toBe(true);
-    expect(reattachDrawing(saved, file)).toBe(true);
-    expect(geometryScene({ ...plotSource(a, result), model: saved }, { width: 800 }).info.boundaryConditions).toEqual({ loads: 1, supports: 2 });
-    expect(reattachDrawing(JSON.parse(JSON.stringify(model)), join('no-such-folder', 'm.json'))).toBe(false);
+    expect(bare.info.boundaryConditions).toEqual({ loads: 1, supports: 2 });
+    expect(bare.items.some((it) => it.kind === 'text' && it.text.includes('loads and supports not drawn'))).toBe(false);
   });
 });

@@ -10,27 +10,16 @@ import { Command, Option } from 'commander';
 import { ModelError } from '../model/errors.js';
 import { STRESS_MEASURES, type StressMeasure } from '../model/schema.js';
 import type { Analysis } from '../pipeline/analyse.js';
-import { prepareOutputDir, RESULT_FILES, writeAtomic, type OutputOptions } from '../report/files.js';
+import { writeAtomic } from '../report/atomic.js';
+import { prepareOutputDir, RESULT_FILES, type OutputOptions } from '../report/files.js';
 import { reportHtml } from '../report/html.js';
 import { reportPictures } from '../report/report-pictures.js';
 import { MATRIX_FILES, writeMatrixFiles } from '../report/matrix.js';
-import {
-  closeupScene,
-  contourScene,
-  convergenceScene,
-  deformedScene,
-  geometryScene,
-  lineScene,
-  meshScene,
-  pictureFileNames,
-  writePictures,
-  type PictureOptions,
-  type PictureSet,
-} from '../report/pictures.js';
+import { pictureFileNames, PICTURES, picturesFor, writePictures, type PictureOptions, type PictureSet } from '../report/pictures.js';
 import { readSaved, SAVED_FILE, type PlotSource } from '../report/saved.js';
-import { reattachDrawing } from '../model/load.js';
 
-export const PICTURE_NAMES = ['contour', 'peak', 'mesh', 'deformed', 'geometry', 'section', 'convergence'] as const;
+/** The names `--only` takes, from the registry of pictures (src/report/pictures.ts). */
+export const PICTURE_NAMES: readonly string[] = PICTURES.map((p) => p.name);
 
 export interface PictureFlags {
   pictureSize?: string;
@@ -138,17 +127,15 @@ export function exportMatrixIfAsked(flags: object, a: Analysis): string[] {
 function scenes(src: PlotSource, only: string[], o: PictureOptions): PictureSet[] {
   const want = new Set(only);
   const out: PictureSet[] = [];
-  const small = { ...o, width: o.width ? Math.round(o.width * 0.75) : undefined, height: o.height ? Math.round(o.height * 0.8) : undefined };
-  if (want.has('contour')) out.push({ name: 'contour', scene: contourScene(src, o) });
-  if (want.has('peak')) out.push({ name: 'peak', scene: closeupScene(src, o) });
-  if (want.has('mesh')) out.push({ name: 'mesh', scene: meshScene(src, o) });
-  if (want.has('deformed')) out.push({ name: 'deformed', scene: deformedScene(src, { ...o, range: null }) });
-  if (want.has('geometry')) out.push({ name: 'geometry', scene: geometryScene(src, o) });
-  if (want.has('section')) out.push({ name: 'section', scene: lineScene(src, small) });
-  if (want.has('convergence')) {
-    const c = convergenceScene(src, small);
-    if (!c) throw new ModelError('--only', 'this solution has no convergence series (it was solved on a single mesh)', 'leave convergence out of --only');
-    out.push({ name: 'convergence', scene: c });
+  // in the registry's order, whatever the order of --only
+  for (const kind of PICTURES) {
+    if (!want.has(kind.name)) continue;
+    const scene = kind.scene(src, o);
+    if (!scene) {
+      const why = kind.needsConvergence ? 'no convergence series (it was solved on a single mesh)' : `nothing to show in the ${kind.name} picture`;
+      throw new ModelError('--only', `this solution has ${why}`, `leave ${kind.name} out of --only`);
+    }
+    out.push({ name: kind.stem, scene });
   }
   return out;
 }
@@ -163,15 +150,13 @@ interface PlotFlags extends PictureFlags {
 
 function runPlot(saved: string, flags: PlotFlags): number {
   const src = readSaved(saved);
-  // an imported drawing is not in the saved file: read it again for the loads and supports of the geometry picture
-  reattachDrawing(src.model, src.result.model.file ?? undefined);
   noteDeprecatedSize(flags);
   const o = pictureOptions(flags);
   let only: string[];
   if (flags.only) {
     only = flags.only.split(',').map((x) => x.trim()).filter(Boolean);
-    for (const n of only) if (!(PICTURE_NAMES as readonly string[]).includes(n)) throw new ModelError('--only', `there is no picture "${n}"`, `the pictures are ${PICTURE_NAMES.join(', ')}`);
-  } else only = PICTURE_NAMES.filter((n) => n !== 'convergence' || src.result.convergence.meshes.length >= 2);
+    for (const n of only) if (!PICTURE_NAMES.includes(n)) throw new ModelError('--only', `there is no picture "${n}"`, `the pictures are ${PICTURE_NAMES.join(', ')}`);
+  } else only = picturesFor(src.result.convergence.meshes.length >= 2).map((p) => p.name);
   const formats = (flags.format ?? 'png,svg').split(',').map((x) => x.trim());
   for (const fm of formats) if (fm !== 'png' && fm !== 'svg') throw new ModelError('--format', `"${fm}" is not a picture format raiser writes`, 'give png, svg or png,svg');
   let dir = flags.out;

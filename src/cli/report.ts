@@ -8,7 +8,6 @@ import { statSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { Command, Option } from 'commander';
 import { ModelError } from '../model/errors.js';
-import { reattachDrawing } from '../model/load.js';
 import type { Model, ReportInfo } from '../model/schema.js';
 import { prepareOutputDir, writeAtomic } from '../report/files.js';
 import { reportHtml } from '../report/html.js';
@@ -112,8 +111,6 @@ async function runReport(dir: string, flags: SignOffFlags & PdfFlags): Promise<n
   // A saved solution's file stands for its folder; a path that is neither is said by readSaved.
   const src = readSaved(dir);
   if (!isDir) dir = dirname(dir);
-  // an imported drawing is not in the saved file: read it again for the geometry picture
-  reattachDrawing(src.model, src.result.model.file ?? undefined);
   applySignOff(src.model, flags);
   // report.html and report.pdf are what this command makes: they are replaced.
   prepareOutputDir(dir, [], true);

@@ -105,6 +105,8 @@ export interface CompiledSupports {
   points: { x: number; y: number; support: number; node: number }[];
   /** the pins in holes (bearing loads, rigid-pin loads and supports), checked (src/fem/pins.ts) */
   pins: PinHole[];
+  /** per support of the model: the domain edges it holds (none for a point support) */
+  edges: number[][];
 }
 
 export const HOLD_FREE = 0;
@@ -407,6 +409,7 @@ export function compileSupports(model: Model, domain: Domain, mesh: Mesh, warnin
   };
   const pins = compilePins(model, domain);
   const supportEdges: number[][] = [];
+  const held: number[][] = model.supports.map(() => []);
   model.supports.forEach((sup: Support, i) => {
     const path = `supports[${i}]`;
     if (sup.type !== 'pin') supportEdges[i] = selectTarget(domain, sup.on).edges;
@@ -425,6 +428,7 @@ export function compileSupports(model: Model, domain: Domain, mesh: Mesh, warnin
       return;
     }
     const edges = resolve(domain, sup.on, `${path}.on`, warnings);
+    held[i] = edges;
     const mask = edgeMask(domain, edges);
     for (const e of edges) supported[e] = 1;
     if (sup.type === 'rigid-pin') {
@@ -467,7 +471,7 @@ export function compileSupports(model: Model, domain: Domain, mesh: Mesh, warnin
     supportEdges,
     model.loads.map((l) => (l.on === undefined ? [] : selectTarget(domain, l.on).edges)),
   );
-  return { constraints: { fixed, value }, supported, symmetry, fixedBy, hold, points, pins };
+  return { constraints: { fixed, value }, supported, symmetry, fixedBy, hold, points, pins, edges: held };
 }
 
 /** How a support holds one edge: a roller holding a straight edge's normal motion acts as a mirror plane. */

@@ -326,21 +326,6 @@ function mixedGeometry(data: unknown, placer: Placer, scan: JsonScan, file: stri
 }
 
 /** Reads the drawing of a `"geometry": { "from": ... }` model (relative to the model file) and attaches it; returns its warnings. */
-/**
- * Reads again the drawing a saved model's geometry names (relative to the model file it came
- * from), so that its domain can be rebuilt for pictures; false when it is gone or has changed
- * so that it no longer reads. Models typed as coordinates need nothing and give true.
- */
-export function reattachDrawing(model: Model, file: string | undefined): boolean {
-  if (!('from' in model.geometry)) return true;
-  try {
-    readDrawing(model, file);
-    return true;
-  } catch {
-    return false;
-  }
-}
-
 function readDrawing(model: Model, file: string | undefined, allowOutside = false): ModelError[] {
   const g = model.geometry;
   if (!('from' in g)) return [];

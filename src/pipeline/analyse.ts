@@ -76,6 +76,8 @@ export interface Analysis {
   /** each raiser's peak, section, nominal stresses and Kt on this mesh */
   evaluation: MeshEvaluation;
   load: { fx: number; fy: number; m: number; items: CompiledLoads['items']; remote?: CompiledLoads['remote'] };
+  /** per support of the model: the domain edges the finite element stage holds (none for a point support) */
+  supportEdges: number[][];
   reaction: { fx: number; fy: number; m: number };
   /** |applied + reactions| relative to the applied load */
   equilibriumError: number;
@@ -423,6 +425,7 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
     candidates,
     evaluation,
     load: { ...applied, items: loads.items, remote: loads.remote },
+    supportEdges: supports.edges,
     reaction,
     equilibriumError,
     timeMs: { mesh: t1 - t0, assemble: t2 - t1, solve: t3 - t2, recover: t4 - t3, total: t4 - t0 },

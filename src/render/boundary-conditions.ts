@@ -11,9 +11,6 @@
  * Arrows of a pulling load start on the edge and point away from it; arrows of a pushing load
  * (its direction into the material) end on the edge.
  */
-import type { Domain } from '../geometry/domain.js';
-import { selectTarget } from '../geometry/select.js';
-import { outerEdges } from '../fem/boundary-conditions.js';
 import type { Mesh } from '../mesh/types.js';
 import type { Load, Support } from '../model/schema.js';
 import { toPixel, type View } from './field.js';
@@ -152,18 +149,17 @@ function loadDirection(load: Load, nx: number, ny: number): [number, number] | n
   }
 }
 
-/**
- * Where a remote load with no target acts, as the load compilation chooses it: the outline's
- * straight edges on its bounding box (outerEdges) that no edge support holds.
- */
-function remoteDefaultEdges(domain: Domain, supports: readonly Support[]): number[] {
-  const held = new Set<number>();
-  for (const sp of supports) if (sp.type !== 'pin') for (const e of selectTarget(domain, sp.on).edges) held.add(e);
-  return outerEdges(domain).filter((e) => !held.has(e));
+/** Where the finite element stage applied each load and where each support holds (result.json's boundaryConditions). */
+export interface AppliedBoundary {
+  /** per load of the model, by its index: the domain edges it was applied on */
+  loads: readonly { index: number; edges: readonly number[] }[];
+  /** per support of the model, by its index: the domain edges it holds (none for a point support) */
+  supports: readonly { index: number; edges: readonly number[] }[];
 }
 
 /**
- * Draws the model's loads and supports over the plate. `size` is the picture's text size in
+ * Draws the model's loads and supports over the plate, on the edges the finite element stage
+ * applied them to (`applied`; the edges are never chosen again here). `size` is the picture's text size in
  * pixels; the arrows are 2.6 sizes long. Rigid pins are drawn as discs in their holes
  * (src/render/pins.ts), with the contact arcs of `pins` (result.json's pins.items) when given.
  * Returns how many loads and supports it drew.
@@ -171,9 +167,9 @@ function remoteDefaultEdges(domain: Domain, supports: readonly Support[]): numbe
 export function drawBoundaryConditions(
   s: Scene,
   mesh: Mesh,
-  domain: Domain,
   loads: readonly Load[],
   supports: readonly Support[],
+  applied: AppliedBoundary,
   view: View,
   size: number,
   pins?: readonly SolvedPin[] | null,
@@ -186,10 +182,10 @@ export function drawBoundaryConditions(
   // the loads first: the point supports' labels are then placed clear of theirs
   loads.forEach((ld, i) => {
     if (ld.type === 'rigid-pin') {
-      if (drawRigidPin(s, domain, ld, i, view, size, LOAD_COLOUR, pinArrow, pins)) nLoads++;
+      if (drawRigidPin(s, ld, i, view, size, LOAD_COLOUR, pinArrow, pins)) nLoads++;
       return;
     }
-    const edges = new Set(ld.on !== undefined ? selectTarget(domain, ld.on).edges : remoteDefaultEdges(domain, supports));
+    const edges = new Set(applied.loads.find((x) => x.index === i)?.edges ?? []);
     const all = edgeFrames(mesh, edges);
     if (all.length === 0) return;
     nLoads++;
@@ -227,7 +223,7 @@ export function drawBoundaryConditions(
   });
   supports.forEach((sp, i) => {
     if (sp.type === 'rigid-pin') {
-      if (drawRigidPin(s, domain, sp, i, view, size, SUPPORT_COLOUR, pinArrow, pins)) nSupports++;
+      if (drawRigidPin(s, sp, i, view, size, SUPPORT_COLOUR, pinArrow, pins)) nSupports++;
       return;
     }
     if (sp.type === 'pin') {
@@ -251,7 +247,7 @@ export function drawBoundaryConditions(
       nSupports++;
       return;
     }
-    const edges = new Set(selectTarget(domain, sp.on).edges);
+    const edges = new Set(applied.supports.find((x) => x.index === i)?.edges ?? []);
     const frames = edgeFrames(mesh, edges);
     if (frames.length === 0) return;
     nSupports++;

@@ -10,8 +10,6 @@
  *       |  (  )==|->  contact arc (thick) on the side the force points to
  *        \______/
  */
-import type { Domain } from '../geometry/domain.js';
-import { holeLoop, loopCircle } from '../fem/pins.js';
 import type { Load, Support } from '../model/schema.js';
 import { toPixel, type View } from './field.js';
 import type { Rgb } from './raster.js';
@@ -23,6 +21,8 @@ export const CONTACT_COLOUR: Rgb = [213, 94, 0];
 /** What the drawing needs of a solved pin (the `pins.items` of result.json). */
 export interface SolvedPin {
   item: string;
+  /** the hole as the finite element stage found it: centre and diameter, length units */
+  hole: { center: [number, number]; diameter: number };
   force: [number, number];
   contact: { arcs: { from: number; to: number }[] } | null;
 }
@@ -38,12 +38,12 @@ function circle(view: View, cx: number, cy: number, r: number, from = 0, to = 36
 }
 
 /**
- * Draws the rigid pin of a load or support item (index i in its list) and, when `solved` holds
- * its result, the contact arc. Returns false when the item is not a rigid pin on a round hole.
+ * Draws the rigid pin of a load or support item (index i in its list) in the hole the finite
+ * element stage found for it (its entry in `solved`), with the contact arc when the solve found
+ * one. Returns false when the item is not a rigid pin or the solution has no entry for it.
  */
 export function drawRigidPin(
   s: Scene,
-  domain: Domain,
   item: Load | Support,
   i: number,
   view: View,
@@ -53,12 +53,11 @@ export function drawRigidPin(
   solved: readonly SolvedPin[] | null | undefined,
 ): boolean {
   if (item.type !== 'rigid-pin') return false;
-  const loop = holeLoop(domain, item.on.hole);
-  const circ = loop < 0 ? null : loopCircle(domain, loop);
-  if (!circ) return false;
   const role = 'force' in item ? 'load' : 'support';
   const path = `${role === 'load' ? 'loads' : 'supports'}[${i}]`;
   const result = solved?.find((p) => p.item === path) ?? null;
+  if (!result) return false;
+  const circ = { cx: result.hole.center[0], cy: result.hole.center[1], radius: result.hole.diameter / 2 };
   const clearance = item.diameter !== undefined ? Math.max(0, 2 * circ.radius - item.diameter) : (item.clearance ?? 0);
   const rp = circ.radius - clearance / 2;
   const F = role === 'load' ? (item as Extract<Load, { type: 'rigid-pin' }>).force : (result?.force ?? [0, 0]);

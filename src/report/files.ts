@@ -3,8 +3,7 @@
  * so an interrupted run never leaves a half-written file under the final name; existing
  * results are not replaced unless the caller says so. A solution's result.json is written last.
  */
-import { randomBytes } from 'node:crypto';
-import { existsSync, readdirSync, renameSync, writeFileSync, rmSync } from 'node:fs';
+import { existsSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { InternalError, ModelError } from '../model/errors.js';
 import type { Analysis } from '../pipeline/analyse.js';
@@ -15,33 +14,8 @@ import { reportPictures } from './report-pictures.js';
 import { pictureFileNames, standardPictures, writePictures, type PictureOptions } from './pictures.js';
 import { encodeSaved, plotSource, SAVED_FILE, type PlotSource } from './saved.js';
 import { vtuText } from './vtu.js';
+import { removeStaleTemporaries, writeAtomic } from './atomic.js';
 import { checkOutputDir, lockOutputDir, makeOutputDir, processAlive } from './output-dir.js';
-
-/** The mark of a temporary file: `<name>.raiser-tmp-<pid>-<random>`. */
-const TMP_MARK = '.raiser-tmp-';
-
-export function writeAtomic(path: string, data: string | Uint8Array): void {
-  // Named per run (pid) and per write (random), so no two writers share a temporary file, and
-  // cleaning can tell a dead run's leftovers from a live run's work.
-  const tmp = `${path}${TMP_MARK}${process.pid}-${randomBytes(4).toString('hex')}`;
-  try {
-    writeFileSync(tmp, data);
-    renameSync(tmp, path);
-  } catch (err) {
-    rmSync(tmp, { force: true });
-    throw err;
-  }
-}
-
-/** Removes the temporary files in dir left by runs that have ended (a live run's are its own). */
-function removeStaleTemporaries(dir: string): void {
-  for (const f of readdirSync(dir)) {
-    const at = f.indexOf(TMP_MARK);
-    if (at < 0) continue;
-    const pid = Number(/^(\d+)/.exec(f.slice(at + TMP_MARK.length))?.[1]);
-    if (!processAlive(pid)) rmSync(join(dir, f), { force: true });
-  }
-}
 
 /**
  * Readies an output folder before any work: checks it (a writable folder, or one that can be
@@ -52,13 +26,16 @@ export function prepareOutputDir(dir: string, names: string[], force: boolean, o
   makeOutputDir(dir, option);
   lockOutputDir(dir, option);
   // Temporary files left by an interrupted run are never results: remove them.
-  removeStaleTemporaries(dir);
+  removeStaleTemporaries(dir, processAlive);
   if (force) return;
   const taken = names.filter((n) => existsSync(join(dir, n)));
   if (taken.length > 0) {
     throw new ModelError(option, `the output folder ${dir} already holds ${taken.join(', ')}`, `pass --force to replace them, or choose another folder with ${option}`);
   }
 }
+
+/** Atomic writes live in ./atomic.ts; re-exported for the callers that write beside result files. */
+export { writeAtomic };
 
 /** Nodal results as CSV: position, displacement, recovered stresses and measures. */
 export function nodalCsv(a: Analysis): string {

@@ -9,7 +9,8 @@ import { assembleSystem } from '../fem/assemble.js';
 import { compileLoads, compileSupports } from '../fem/boundary-conditions.js';
 import type { Analysis } from '../pipeline/analyse.js';
 import { writeMatrixMarket, writeMatrixMarketArray } from '../solve/matrixmarket.js';
-import { prepareOutputDir, writeAtomic } from './files.js';
+import { prepareOutputDir } from './files.js';
+import { writeAtomic } from './atomic.js';
 
 export const MATRIX_FILES = ['stiffness.mtx', 'load.mtx', 'dofs.csv'];
 

@@ -7,7 +7,7 @@ import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { writeAtomic } from './files.js';
+import { writeAtomic } from './atomic.js';
 
 /** Where a Chromium or Chrome is commonly installed, tried in this order after $RAISER_CHROMIUM. */
 export const CHROMIUM_PATHS = [

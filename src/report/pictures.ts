@@ -19,8 +19,7 @@ import { Raster, type Rgb } from '../render/raster.js';
 import { addText, newScene, renderPng, renderSvg, type Box, type Scene } from '../render/scene.js';
 import { formatValue } from '../render/ticks.js';
 import { drawBoundaryConditions } from '../render/boundary-conditions.js';
-import { buildDomain } from '../geometry/domain.js';
-import { writeAtomic } from './files.js';
+import { writeAtomic } from './atomic.js';
 import type { PlotSource } from './saved.js';
 import { TOOL_VERSION } from './result.js';
 
@@ -566,15 +565,11 @@ export function geometryScene(model: PlotSource, opts: PictureOptions = {}): Sce
   const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), false, opts.textSize) + 60;
   const r = src.result;
   const s = newScene(W, H, `geometry: ${r.model.title ?? 'raiser'}`);
-  // Loads and supports need the domain's edges and tags; an imported drawing that cannot be read
-  // again (moved since the solve) leaves them out, and the subtitle says so.
-  let domain: ReturnType<typeof buildDomain> | null = null;
-  try {
-    domain = buildDomain(src.model.geometry);
-  } catch {
-    domain = null;
-  }
-  const bcWords = domain ? 'loads L (arrows, not to scale) and supports S' : 'loads and supports not drawn (the drawing the geometry came from could not be read again)';
+  // Where the loads and supports act, as the finite element stage applied them (no domain is
+  // built again here, so a drawing-based model draws without its drawing file); a solution saved
+  // before raiser recorded that has none, and the subtitle says so.
+  const applied = (r as Partial<typeof r>).boundaryConditions ?? null;
+  const bcWords = applied ? 'loads L (arrows, not to scale) and supports S' : 'loads and supports not drawn (this saved solution does not record where they act: solve again)';
   const fr = frame(s, src, `Geometry and nominal sections: ${r.model.title ?? ''}`.trim(), `each raiser's net section (least material across the flow) solid, gross section dashed; ${bcWords}; lengths in ${r.units.length}${wholeWords(planes)}`, false, opts.textSize);
   // room around the plate for the load arrows (2.6 sizes) and their labels
   const { view, bar } = layoutPart(s, fr, opts.window ?? bbox(src.mesh.nodes), fr.size * 4.4, r.units.length, (v) => outlineLoops(src, src.mesh.nodes, v));
@@ -614,7 +609,7 @@ export function geometryScene(model: PlotSource, opts: PictureOptions = {}): Sce
     const carried = x.section.mirror ? 'half of a symmetric section' : `N ${formatValue(x.section.N ?? NaN)} ${r.units.force}, M ${formatValue(x.section.M ?? NaN)} ${r.units.moment}`;
     sec(x.section, NET_COLOUR, undefined, `${x.name}: net ${formatValue(x.section.length)} ${r.units.length}; ${carried}`, false);
   }
-  const drawn = domain ? drawBoundaryConditions(s, model.mesh, domain, src.model.loads, src.model.supports, view, fr.size, r.pins?.items) : { loads: 0, supports: 0 };
+  const drawn = applied ? drawBoundaryConditions(s, model.mesh, src.model.loads, src.model.supports, applied, view, fr.size, r.pins?.items) : { loads: 0, supports: 0 };
   drawMarker(s, px, py, `peak, ${r.peak.feature}`, fr.size * 0.9, fr.draw, 'peak');
   Object.assign(s.info, { view, draw: fr.draw, boundaryConditions: drawn });
   return s;
@@ -718,25 +713,56 @@ export interface PictureSet {
   scene: Scene;
 }
 
+/** The options of the smaller chart pictures (section, convergence): three quarters wide, four fifths high. */
+function smallOptions(opts: PictureOptions): PictureOptions {
+  return { ...opts, width: opts.width ? Math.round(opts.width * 0.75) : undefined, height: opts.height ? Math.round(opts.height * 0.8) : undefined };
+}
+
+/** One picture raiser draws from a solution. */
+export interface PictureKind {
+  /** the name `raiser plot --only` takes */
+  name: string;
+  /** the file name without its extension (.png, .svg) */
+  stem: string;
+  /** what it shows, in a few words */
+  title: string;
+  /** drawn only from a convergence series of two meshes or more */
+  needsConvergence: boolean;
+  /** the standard set draws it with its own window whatever window was asked for */
+  ownWindow: boolean;
+  /** the scene, or null when the solution has nothing to show in it */
+  scene: (src: PlotSource, opts: PictureOptions) => Scene | null;
+}
+
+/** The registry of pictures, in the order they are drawn; everything that lists pictures reads it. */
+export const PICTURES: readonly PictureKind[] = [
+  { name: 'contour', stem: 'contour', title: 'stress contour', needsConvergence: false, ownWindow: false, scene: contourScene },
+  { name: 'peak', stem: 'peak', title: 'close-up of the peak', needsConvergence: false, ownWindow: true, scene: closeupScene },
+  { name: 'mesh', stem: 'mesh', title: 'mesh', needsConvergence: false, ownWindow: false, scene: meshScene },
+  { name: 'deformed', stem: 'deformed', title: 'deformed shape', needsConvergence: false, ownWindow: false, scene: (src, o) => deformedScene(src, { ...o, range: null }) },
+  { name: 'geometry', stem: 'geometry', title: 'geometry, sections, loads and supports', needsConvergence: false, ownWindow: true, scene: geometryScene },
+  { name: 'section', stem: 'section', title: 'stress along the net section', needsConvergence: false, ownWindow: false, scene: (src, o) => lineScene(src, smallOptions(o)) },
+  { name: 'convergence', stem: 'convergence', title: 'Kt against degrees of freedom', needsConvergence: true, ownWindow: false, scene: (src, o) => convergenceScene(src, smallOptions(o)) },
+];
+
+/** The pictures a solution has: all of them, the convergence chart only with a series of two meshes or more. */
+export function picturesFor(withConvergence: boolean): PictureKind[] {
+  return PICTURES.filter((p) => withConvergence || !p.needsConvergence);
+}
+
 /** The standard set drawn by `raiser solve -o` and `raiser plot`. */
 export function standardPictures(src: PlotSource, opts: PictureOptions = {}): PictureSet[] {
-  const out: PictureSet[] = [
-    { name: 'contour', scene: contourScene(src, opts) },
-    { name: 'peak', scene: closeupScene(src, { ...opts, window: null }) },
-    { name: 'mesh', scene: meshScene(src, opts) },
-    { name: 'deformed', scene: deformedScene(src, { ...opts, range: null }) },
-    { name: 'geometry', scene: geometryScene(src, { ...opts, window: null }) },
-    { name: 'section', scene: lineScene(src, { ...opts, width: opts.width ? Math.round(opts.width * 0.75) : undefined, height: opts.height ? Math.round(opts.height * 0.8) : undefined }) },
-  ];
-  const conv = convergenceScene(src, { ...opts, width: opts.width ? Math.round(opts.width * 0.75) : undefined, height: opts.height ? Math.round(opts.height * 0.8) : undefined });
-  if (conv) out.push({ name: 'convergence', scene: conv });
+  const out: PictureSet[] = [];
+  for (const p of PICTURES) {
+    const scene = p.scene(src, p.ownWindow ? { ...opts, window: null } : opts);
+    if (scene) out.push({ name: p.stem, scene });
+  }
   return out;
 }
 
 /** The file names the standard pictures take (PNG and SVG each). */
 export function pictureFileNames(withConvergence: boolean): string[] {
-  const names = ['contour', 'peak', 'mesh', 'deformed', 'geometry', 'section', ...(withConvergence ? ['convergence'] : [])];
-  return names.flatMap((n) => [`${n}.png`, `${n}.svg`]);
+  return picturesFor(withConvergence).flatMap((p) => [`${p.stem}.png`, `${p.stem}.svg`]);
 }
 
 /** Renders and writes the pictures; returns the paths written and the PNG bytes by name. */

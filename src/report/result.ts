@@ -293,6 +293,13 @@ function buildResultUnchecked(a: Analysis, file?: string, cert: Certified | null
       reaction: a.reaction,
       equilibriumError: a.equilibriumError,
     },
+    // Where the finite element stage applied each load of the model and where each support
+    // holds (domain edge ids, src/geometry/domain.ts): the pictures draw from these, never
+    // choosing the edges again.
+    boundaryConditions: {
+      loads: a.load.items.filter((it) => it.index >= 0).map((it) => ({ index: it.index, type: it.type, edges: it.edges })),
+      supports: a.supportEdges.map((edges, index) => ({ index, type: a.model.supports[index].type, edges })),
+    },
     mesh: {
       nodes: a.mesh.nNodes,
       elements: a.mesh.nElements,
