@@ -147,11 +147,6 @@ export function assembleSymmetric(
   };
 }
 
-/** Number of stored (lower triangle) entries. */
-export function nnzLower(a: SymmetricCsc): number {
-  return a.colPtr[a.n];
-}
-
 /** Number of nonzeros of the full symmetric matrix implied by the lower triangle. */
 export function nnzFull(a: SymmetricCsc): number {
   let diag = 0;
