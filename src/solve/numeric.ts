@@ -17,7 +17,7 @@
 import { InternalError } from '../model/errors.js';
 import { type SymmetricCsc, maxDiagonal } from './sparse.js';
 import { PANEL, type SimdKernel } from './dense.js';
-import { sharedWasmHeap } from './wasm-kernel.js';
+import { sharedWasmHeap, type ExtendAdd, type ZeroLower } from './wasm-kernel.js';
 import { childLists } from './etree.js';
 import { checkPattern, type SymbolicFactor } from './symbolic.js';
 import { DEFAULT_PIVOT_TOLERANCE, SolverPivotError } from './pivot.js';
@@ -94,32 +94,7 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
   const lBuffer = split !== null ? new SharedArrayBuffer(symbolic.storedValues * 8) : null;
   const L = lBuffer !== null ? new Float64Array(lBuffer) : new Float64Array(symbolic.storedValues);
   let threadsUsed = 1;
-  const frontLen = maxFront * maxFront;
-  const stackLen = Math.max(1, stackPeak);
-  let front: Float64Array;
-  let stack: Float64Array;
-  let simdFront: SimdKernel | null = null;
-  let simdStack: SimdKernel | null = null;
-  const kernel = options.kernel ?? 'auto';
-  const heap = kernel === 'js' ? null : sharedWasmHeap();
-  // heap layout (doubles): [front | update stack | rel as int32]
-  const relDoubles = Math.ceil(maxFront / 2) + 1;
-  const view = heap === null ? null : heap.reserve(frontLen + stackLen + relDoubles);
-  if (kernel === 'simd' && view === null) throw new InternalError('factorCholesky: the WebAssembly SIMD kernel is not available here');
-  let rel: Int32Array;
-  const relByte = (frontLen + stackLen) * 8;
-  const useHeap = heap !== null && view !== null;
-  if (useHeap) {
-    front = view.subarray(0, frontLen);
-    stack = view.subarray(frontLen, frontLen + stackLen);
-    rel = new Int32Array(view.buffer, relByte, maxFront);
-    simdFront = { rowBlock4: heap.rowBlock4, fByte: 0, outByte: 0 };
-    simdStack = { rowBlock4: heap.rowBlock4, fByte: 0, outByte: frontLen * 8 };
-  } else {
-    front = new Float64Array(frontLen);
-    stack = new Float64Array(stackLen);
-    rel = new Int32Array(maxFront);
-  }
+  const ws = reserveWorkspace(maxFront, stackPeak, options.kernel ?? 'auto');
   // values of A in entry order
   const entryValues = split !== null ? new Float64Array(new SharedArrayBuffer(8 * Math.max(1, entryOrder.length)), 0, entryOrder.length) : new Float64Array(entryOrder.length);
   for (let q = 0; q < entryOrder.length; q++) entryValues[q] = av[entryOrder[q]];
@@ -138,21 +113,21 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
     entryOffset,
     entryBase: 0,
     L,
-    front,
-    stack,
-    rel,
+    front: ws.front,
+    stack: ws.stack,
+    rel: ws.rel,
     map: new Int32Array(n),
     sHead,
     sNext,
     updStart,
     threshold,
     panelScratch: new Float64Array(PANEL),
-    zeroLower: useHeap ? heap.zeroLower : null,
-    extendAdd: useHeap ? heap.extendAdd : null,
-    relByte,
-    stackByte: frontLen * 8,
-    simdFront,
-    simdStack,
+    zeroLower: ws.zeroLower,
+    extendAdd: ws.extendAdd,
+    relByte: ws.relByte,
+    stackByte: ws.stackByte,
+    simdFront: ws.simdFront,
+    simdStack: ws.simdStack,
   });
   const kern = mainThreadKernels();
   const updStart = new Float64Array(nSuper);
@@ -175,7 +150,7 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
           entryOffset,
           threshold,
           lBuffer,
-          useWasm: useHeap,
+          useWasm: ws.wasm,
         })
       : null;
   if (split !== null && worker !== null) {
@@ -191,7 +166,7 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
     if (j.state === 'pivot') throw fail(j.failedColumn, j.pivot);
     if (j.state === 'done') {
       updStart[split.c] = top;
-      stack.set(worker.handoff, top);
+      ws.stack.set(worker.handoff, top);
       top += worker.handoff.length;
     } else {
       worker.terminate();
@@ -209,4 +184,65 @@ export function factorCholesky(a: SymmetricCsc, symbolic: SymbolicFactor, option
   const bytes = L.byteLength + symbolic.superRows.byteLength + symbolic.rowPtr.byteLength + symbolic.valuePtr.byteLength + symbolic.superStart.byteLength + symbolic.perm.byteLength + symbolic.invPerm.byteLength;
   const solveSplit = threadsUsed === 2 ? chooseSplit(superStart, superParent, rowPtr, 'values') : null;
   return { symbolic, values: L, bytes, threads: threadsUsed, split: solveSplit };
+}
+
+/** The fronts, the update stack and the relative-index scratch of one factorisation on this thread. */
+interface Workspace {
+  readonly front: Float64Array;
+  readonly stack: Float64Array;
+  readonly rel: Int32Array;
+  /** byte offsets of rel and of the stack in the WebAssembly memory (used by its helpers) */
+  readonly relByte: number;
+  readonly stackByte: number;
+  readonly simdFront: SimdKernel | null;
+  readonly simdStack: SimdKernel | null;
+  readonly zeroLower: ZeroLower | null;
+  readonly extendAdd: ExtendAdd | null;
+  /** true when the workspace lives in the WebAssembly memory and its kernels run */
+  readonly wasm: boolean;
+}
+
+/**
+ * The workspace for fronts of order maxFront and an update stack of stackPeak doubles: in the
+ * process's WebAssembly memory (layout in doubles: [front | update stack | rel as int32]) unless
+ * kernel is 'js' or WebAssembly is not available here, else plain arrays.
+ */
+function reserveWorkspace(maxFront: number, stackPeak: number, kernel: 'auto' | 'simd' | 'js'): Workspace {
+  const frontLen = maxFront * maxFront;
+  const stackLen = Math.max(1, stackPeak);
+  let front: Float64Array;
+  let stack: Float64Array;
+  let simdFront: SimdKernel | null = null;
+  let simdStack: SimdKernel | null = null;
+  const heap = kernel === 'js' ? null : sharedWasmHeap();
+  // heap layout (doubles): [front | update stack | rel as int32]
+  const relDoubles = Math.ceil(maxFront / 2) + 1;
+  const view = heap === null ? null : heap.reserve(frontLen + stackLen + relDoubles);
+  if (kernel === 'simd' && view === null) throw new InternalError('factorCholesky: the WebAssembly SIMD kernel is not available here');
+  let rel: Int32Array;
+  const relByte = (frontLen + stackLen) * 8;
+  const useHeap = heap !== null && view !== null;
+  if (useHeap) {
+    front = view.subarray(0, frontLen);
+    stack = view.subarray(frontLen, frontLen + stackLen);
+    rel = new Int32Array(view.buffer, relByte, maxFront);
+    simdFront = { rowBlock4: heap.rowBlock4, fByte: 0, outByte: 0 };
+    simdStack = { rowBlock4: heap.rowBlock4, fByte: 0, outByte: frontLen * 8 };
+  } else {
+    front = new Float64Array(frontLen);
+    stack = new Float64Array(stackLen);
+    rel = new Int32Array(maxFront);
+  }
+  return {
+    front,
+    stack,
+    rel,
+    relByte,
+    stackByte: frontLen * 8,
+    simdFront,
+    simdStack,
+    zeroLower: useHeap ? heap.zeroLower : null,
+    extendAdd: useHeap ? heap.extendAdd : null,
+    wasm: useHeap,
+  };
 }

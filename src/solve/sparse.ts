@@ -182,7 +182,6 @@ export function multiplySymmetric(a: SymmetricCsc, x: Float64Array, y: Float64Ar
   }
 }
 
-/** Largest diagonal entry (0 for an empty matrix or one with no diagonal). */
 /**
  * ||A||inf of a symmetric matrix stored as its lower triangle: the largest row sum of |a_ij|.
  * With `scale`, of the matrix a_ij / (s_i s_j) (A given already scaled as S A S, s = scale).
@@ -203,6 +202,7 @@ export function symmetricInfNorm(a: SymmetricCsc, scale?: Float64Array): number 
   return m;
 }
 
+/** Largest diagonal entry (0 for an empty matrix or one with no diagonal). */
 export function maxDiagonal(a: SymmetricCsc): number {
   let m = 0;
   for (let j = 0; j < a.n; j++) {
