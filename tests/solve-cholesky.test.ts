@@ -25,6 +25,8 @@ import { cantileverProblem, jitteredRectangleMesh, planeStressStiffness } from '
 import { denseSymbolic, gridLaplacian, randomSpd, relativeMaxDifference } from './support/matrices.js';
 import { randomVector } from '../src/bench/fixtures/random.js';
 import { chooseSplit } from '../src/solve/multifrontal.js';
+import { postorderTree } from '../src/solve/etree.js';
+import { InternalError } from '../src/model/errors.js';
 
 function toDense(a: SymmetricCsc): Matrix {
   const m = Matrix.zeros(a.n, a.n);
@@ -66,6 +68,13 @@ function orderings(a: SymmetricCsc): [string, Ordering][] {
 }
 
 describe('symbolic analysis', () => {
+  it('a parent array with a cycle is refused as an internal fault (InternalError, exit 1), not a silent postorder', () => {
+    // 0 -> 1 -> 2 -> 0: no root, so no postorder can list the nodes; only a bug upstream makes one
+    expect(() => postorderTree(Int32Array.from([1, 2, 0]))).toThrow(InternalError);
+    expect(() => postorderTree(Int32Array.from([1, 2, 0]))).toThrow(/cycle/);
+    expect(Array.from(postorderTree(Int32Array.from([2, 2, -1])))).toEqual([0, 1, 2]);
+  });
+
   it('elimination tree and column counts equal those of boolean dense elimination', () => {
     for (const { a } of cases) {
       for (const [, ord] of orderings(a)) {
