@@ -258,63 +258,78 @@ export function solveSpd(a: SymmetricCsc, b: Float64Array, options: SolveOptions
     estimatedFactorBytes,
     maxFactorBytes,
   };
-  if (method === 'pcg') {
-    const pc = options.pcg ?? {};
-    // Smoothed-aggregation multigrid needs the rigid motions, so the mesh: node coordinates and
-    // the full DOF of each row with two DOFs a node. Without them, incomplete Cholesky.
-    const geometryKnown = options.coords !== undefined && options.fullDofOfRow !== undefined && (options.dofsPerNode ?? 2) === 2;
-    const useAmg = (pc.preconditioner ?? (geometryKnown ? 'amg' : 'ic')) === 'amg';
-    if (useAmg && !geometryKnown) throw new RangeError('solveSpd: the multigrid preconditioner needs coords and fullDofOfRow (two DOFs a node)');
-    let pre: IncompleteCholesky | PcgPreconditioner;
-    let preBytes: number;
-    let preWords: string;
-    if (useAmg) {
-      const modes = rigidModes(options.coords!, options.fullDofOfRow!);
-      const h = buildAmg(a, modes.blockOf, modes.nBlocks, modes.B);
-      pre = amgPreconditioner(a, h);
-      preBytes = h.bytes;
-      preWords = `smoothed-aggregation multigrid, ${h.sizes.length} levels (${h.sizes.join(', ')} unknowns), operator complexity ${h.complexity.toFixed(2)}`;
-    } else {
-      const ic = factorIncompleteCholesky(a, ordering, { fillLevel: pc.fillLevel ?? 5 });
-      pre = ic;
-      preBytes = ic.bytes;
-      preWords = `IC(${ic.fillLevel}), ${ic.nnz} nonzeros${ic.shift > 0 ? `, diagonal shift ${ic.shift}` : ''}`;
-    }
-    const t3 = performance.now();
-    const x = new Float64Array(b.length);
-    let iterations = 0;
-    for (let r = 0; r < nrhs; r++) {
-      const res = solvePcg(pre, b.subarray(r * n, (r + 1) * n), { tolerance: pc.tolerance, maxIterations: pc.maxIterations });
-      x.set(res.x, r * n);
-      iterations += res.iterations;
-    }
-    const t4 = performance.now();
-    const measured = residualMeasures(a, x, b, nrhs);
-    const stats: SolveStats = {
-      ...common,
-      factorBytes: preBytes,
-      bytesPerNnzL: 0,
-      workspaceBytes: 8 * 6 * n,
-      threads: 1,
-      solveThreads: 1,
-      seconds: { ordering: (t1 - t0) / 1e3, symbolic: (t2 - t1) / 1e3, numeric: (t3 - t2) / 1e3, solve: (t4 - t3) / 1e3 },
-      relativeResidual: measured.relative,
-      backwardError: measured.backward,
-      refinementSteps: 0,
-      method,
-      iterations,
-      preconditioner: preWords,
-    };
-    return { x, stats, factor: null };
-  }
+  const started: Analysed = { common, seconds: [(t1 - t0) / 1e3, (t2 - t1) / 1e3], t2 };
+  if (method === 'pcg') return solveIterative(a, b, nrhs, ordering, options, started);
   if (symbolic === null) throw new InternalError('solveSpd: no symbolic factor for the direct solve');
   const own = options.threads !== 1 && options.workers === undefined ? new SolverThreads() : null;
   try {
     const workers = options.threads === 1 ? undefined : (options.workers ?? own ?? undefined);
-    return solveDirect(a, b, nrhs, symbolic, options, workers, { common, seconds: [(t1 - t0) / 1e3, (t2 - t1) / 1e3], t2 });
+    return solveDirect(a, b, nrhs, symbolic, options, workers, started);
   } finally {
     own?.close();
   }
+}
+
+/**
+ * The iterative branch of solveSpd: conjugate gradients preconditioned by smoothed-aggregation
+ * multigrid where the mesh is known, by IC(fill level) on the fill-reducing ordering otherwise.
+ */
+function solveIterative(
+  a: SymmetricCsc,
+  b: Float64Array,
+  nrhs: number,
+  ordering: Ordering,
+  options: SolveOptions,
+  { common, seconds, t2 }: Analysed,
+): { x: Float64Array; stats: SolveStats; factor: null } {
+  const n = a.n;
+  const pc = options.pcg ?? {};
+  // Smoothed-aggregation multigrid needs the rigid motions, so the mesh: node coordinates and
+  // the full DOF of each row with two DOFs a node. Without them, incomplete Cholesky.
+  const geometryKnown = options.coords !== undefined && options.fullDofOfRow !== undefined && (options.dofsPerNode ?? 2) === 2;
+  const useAmg = (pc.preconditioner ?? (geometryKnown ? 'amg' : 'ic')) === 'amg';
+  if (useAmg && !geometryKnown) throw new RangeError('solveSpd: the multigrid preconditioner needs coords and fullDofOfRow (two DOFs a node)');
+  let pre: IncompleteCholesky | PcgPreconditioner;
+  let preBytes: number;
+  let preWords: string;
+  if (useAmg) {
+    const modes = rigidModes(options.coords!, options.fullDofOfRow!);
+    const h = buildAmg(a, modes.blockOf, modes.nBlocks, modes.B);
+    pre = amgPreconditioner(a, h);
+    preBytes = h.bytes;
+    preWords = `smoothed-aggregation multigrid, ${h.sizes.length} levels (${h.sizes.join(', ')} unknowns), operator complexity ${h.complexity.toFixed(2)}`;
+  } else {
+    const ic = factorIncompleteCholesky(a, ordering, { fillLevel: pc.fillLevel ?? 5 });
+    pre = ic;
+    preBytes = ic.bytes;
+    preWords = `IC(${ic.fillLevel}), ${ic.nnz} nonzeros${ic.shift > 0 ? `, diagonal shift ${ic.shift}` : ''}`;
+  }
+  const t3 = performance.now();
+  const x = new Float64Array(b.length);
+  let iterations = 0;
+  for (let r = 0; r < nrhs; r++) {
+    const res = solvePcg(pre, b.subarray(r * n, (r + 1) * n), { tolerance: pc.tolerance, maxIterations: pc.maxIterations });
+    x.set(res.x, r * n);
+    iterations += res.iterations;
+  }
+  const t4 = performance.now();
+  const measured = residualMeasures(a, x, b, nrhs);
+  const stats: SolveStats = {
+    ...common,
+    factorBytes: preBytes,
+    bytesPerNnzL: 0,
+    workspaceBytes: 8 * 6 * n,
+    threads: 1,
+    solveThreads: 1,
+    seconds: { ordering: seconds[0], symbolic: seconds[1], numeric: (t3 - t2) / 1e3, solve: (t4 - t3) / 1e3 },
+    relativeResidual: measured.relative,
+    backwardError: measured.backward,
+    refinementSteps: 0,
+    method: 'pcg',
+    iterations,
+    preconditioner: preWords,
+  };
+  return { x, stats, factor: null };
 }
 
 /** What solveSpd knows before the numeric work: the shared statistics and the times so far. */
