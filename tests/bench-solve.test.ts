@@ -3,7 +3,7 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { raiser } from './support/cli.js';
-import { cantileverProblem } from '../src/solve/testing.js';
+import { cantileverProblem } from '../src/bench/fixtures/cantilever.js';
 import { multiplySymmetric, writeMatrixMarket, writeMatrixMarketArray } from '../src/solve/index.js';
 
 let dir = '';

@@ -14,7 +14,7 @@ import { buildResult } from '../src/report/result.js';
 import { vtuText, VTK_QUADRATIC_TRIANGLE, VTK_TRIANGLE } from '../src/report/vtu.js';
 import { decodeSaved, encodeSaved, plotSource } from '../src/report/saved.js';
 import { writeMatrixFiles } from '../src/report/matrix.js';
-import { readMatrixMarket, readMatrixMarketArray } from '../src/solve/matrixmarket.js';
+import { readMatrixMarket, readMatrixMarketArray } from '../src/solve/index.js';
 import { measureField } from '../src/post/peak.js';
 
 const { model } = loadModelFile('examples/strap-bolt-hole.json');

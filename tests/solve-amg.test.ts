@@ -23,7 +23,10 @@ import {
   type Csr,
 } from '../src/solve/amg.js';
 import { solveSpd } from '../src/solve/index.js';
-import { cantileverProblem, cantileverProblemP2, randomSpd, randomVector, relativeMaxDifference } from '../src/solve/testing.js';
+import { cantileverProblem } from '../src/bench/fixtures/cantilever.js';
+import { cantileverProblemP2 } from '../src/bench/fixtures/cantilever-p2.js';
+import { randomSpd, relativeMaxDifference } from './support/matrices.js';
+import { randomVector } from '../src/bench/fixtures/random.js';
 
 function dense(a: Csr): Matrix {
   const m = Matrix.zeros(a.rows, a.cols);

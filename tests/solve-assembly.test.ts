@@ -3,7 +3,7 @@ import { buildDomain } from '../src/geometry/domain.js';
 import { generateMesh } from '../src/mesh/generate.js';
 import { assembleSystem, forEachElementStiffness } from '../src/fem/assemble.js';
 import { constitutiveMatrix } from '../src/fem/material.js';
-import { assembleSymmetric } from '../src/solve/sparse.js';
+import { assembleSymmetric } from '../src/solve/index.js';
 import { benchModel } from '../src/bench/model.js';
 
 /** The reference: coordinate triplets of every free-free lower entry, compressed by assembleSymmetric. */

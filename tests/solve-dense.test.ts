@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { factorFrontPivots, rankUpdate, PANEL } from '../src/solve/dense.js';
 import { sharedWasmHeap, wasmKernelAvailable } from '../src/solve/wasm-kernel.js';
-import { seededRandom } from '../src/solve/testing.js';
+import { seededRandom } from '../src/bench/fixtures/random.js';
 
 function randomFront(F: Float64Array, m: number, seed: number): void {
   const rnd = seededRandom(seed);

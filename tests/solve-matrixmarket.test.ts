@@ -1,6 +1,7 @@
 import { describe, it, expect } from 'vitest';
-import { readMatrixMarket, writeMatrixMarket, readMatrixMarketArray, writeMatrixMarketArray } from '../src/solve/matrixmarket.js';
-import { cantileverProblem, randomVector } from '../src/solve/testing.js';
+import { readMatrixMarket, readMatrixMarketArray, writeMatrixMarket, writeMatrixMarketArray } from '../src/solve/index.js';
+import { cantileverProblem } from '../src/bench/fixtures/cantilever.js';
+import { randomVector } from '../src/bench/fixtures/random.js';
 
 describe('Matrix Market', () => {
   it('a symmetric coordinate matrix round-trips exactly', () => {

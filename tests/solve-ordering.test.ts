@@ -1,16 +1,18 @@
 import { describe, it, expect } from 'vitest';
 import {
+  adjacencyGraph,
+  analyzeCholesky,
+  assembleSymmetric,
+  isPermutation,
   orderAmd,
+  type Ordering,
   orderNatural,
   orderNestedDissection,
   orderNestedDissectionNodes,
   restrictOrdering,
-  isPermutation,
-  type Ordering,
-} from '../src/solve/ordering.js';
-import { analyzeCholesky } from '../src/solve/cholesky.js';
-import { adjacencyGraph, assembleSymmetric } from '../src/solve/sparse.js';
-import { cantileverProblem, gridGeometry, gridLaplacian, randomSpd } from '../src/solve/testing.js';
+} from '../src/solve/index.js';
+import { cantileverProblem } from '../src/bench/fixtures/cantilever.js';
+import { gridGeometry, gridLaplacian, randomSpd } from './support/matrices.js';
 
 function expectValid(o: Ordering, n: number): void {
   expect(o.perm.length).toBe(n);

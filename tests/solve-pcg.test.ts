@@ -1,11 +1,22 @@
 import { describe, it, expect } from 'vitest';
-import { adjacencyGraph, assembleSymmetric, multiplySymmetric } from '../src/solve/sparse.js';
-import { orderAmd, orderNatural } from '../src/solve/ordering.js';
-import { factorIncompleteCholesky, applyIncompleteCholesky, IncompleteCholeskyError } from '../src/solve/ic.js';
-import { solvePcg, PcgError } from '../src/solve/pcg.js';
-import { analyzeCholesky } from '../src/solve/cholesky.js';
-import { estimateFactorBytes, solveSpd } from '../src/solve/index.js';
-import { cantileverProblem, gridLaplacian, randomSpd, randomVector, relativeMaxDifference } from '../src/solve/testing.js';
+import {
+  adjacencyGraph,
+  analyzeCholesky,
+  applyIncompleteCholesky,
+  assembleSymmetric,
+  estimateFactorBytes,
+  factorIncompleteCholesky,
+  IncompleteCholeskyError,
+  multiplySymmetric,
+  orderAmd,
+  orderNatural,
+  PcgError,
+  solvePcg,
+  solveSpd,
+} from '../src/solve/index.js';
+import { cantileverProblem } from '../src/bench/fixtures/cantilever.js';
+import { gridLaplacian, randomSpd, relativeMaxDifference } from './support/matrices.js';
+import { randomVector } from '../src/bench/fixtures/random.js';
 
 describe('incomplete Cholesky IC(p)', () => {
   it('with an unlimited fill level equals the complete factor: PCG converges in one iteration', () => {

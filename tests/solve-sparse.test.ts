@@ -1,16 +1,17 @@
 import { describe, it, expect } from 'vitest';
 import { Matrix } from 'ml-matrix';
 import {
-  assembleSymmetric,
-  multiplySymmetric,
-  extractPrincipal,
-  permuteSymmetric,
   adjacencyGraph,
+  assembleSymmetric,
+  extractPrincipal,
+  invertPermutation,
+  multiplySymmetric,
   nnzFull,
+  permuteSymmetric,
   type SymmetricCsc,
-} from '../src/solve/sparse.js';
-import { randomSpd, randomVector, seededRandom } from '../src/solve/testing.js';
-import { invertPermutation } from '../src/solve/ordering.js';
+} from '../src/solve/index.js';
+import { randomSpd } from './support/matrices.js';
+import { randomVector, seededRandom } from '../src/bench/fixtures/random.js';
 
 function toDense(a: SymmetricCsc): Matrix {
   const m = Matrix.zeros(a.n, a.n);

@@ -53,8 +53,7 @@
 import type { Mesh } from '../mesh/types.js';
 import { AnalysisError, InternalError } from '../model/errors.js';
 import type { SolveOptions, SolveStats, SymmetricCsc } from '../solve/index.js';
-import { RepeatedSolver } from '../solve/repeated.js';
-import { solveSymmetricSmall } from '../solve/small.js';
+import { RepeatedSolver, solveSymmetricSmall } from '../solve/index.js';
 import type { FeSystem } from './assemble.js';
 import { holeNodes, type HoleNodes, type PinHole } from './pins.js';
 

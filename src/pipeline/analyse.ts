@@ -33,7 +33,7 @@ import { cutBetween, pointOnCut } from '../post/section.js';
 import { findSingularCandidates, type SingularCandidate } from '../post/singular.js';
 import { sampleElementStresses } from '../post/stress.js';
 import { estimateAnalysisBytes } from '../mesh/estimate.js';
-import { IncompleteCholeskyError, PcgError, SolverPivotError, solveSpd, type SolveStats } from '../solve/index.js';
+import { IncompleteCholeskyError, PcgError, SolverPivotError, SolverThreads, solveSpd, type SolveStats } from '../solve/index.js';
 
 export interface AnalyseOptions {
   /** overrides the model's mesh.element */
@@ -301,11 +301,13 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
 
   let solved;
   let contact: ContactSolution | null = null;
+  // the solver's second thread, kept for every solve of this mesh (the contact iterations) and stopped after them
+  const workers = new SolverThreads();
   try {
     // The direct factor may use what the memory limit leaves beside the rest of the analysis;
     // beyond that the solver switches to conjugate gradients.
     const maxFactorBytes = Math.max(0, prep.maxMemoryBytes - estimateAnalysisBytes(meshStats.triangles, mesh.order as 1 | 2, 'iterative'));
-    const solveOptions = { coords: mesh.nodes, nodeAdjacency: nodeGraph, dofsPerNode: 2, fullDofOfRow: system.freeDof, maxFactorBytes };
+    const solveOptions = { coords: mesh.nodes, nodeAdjacency: nodeGraph, dofsPerNode: 2, fullDofOfRow: system.freeDof, maxFactorBytes, workers };
     // --- pins in holes: rigid pins in frictionless contact replace the linear solve ---
     const planeModulus = state === 'plane-strain' ? model.material.E / (1 - model.material.nu ** 2) : model.material.E;
     if (contactPins.length > 0) solved = contact = solveContact(mesh, system, contactPins, { thickness: model.thickness, planeModulus }, solveOptions, undefined, meshing.contactHints);
@@ -329,6 +331,8 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
       );
     }
     throw err;
+  } finally {
+    workers.close();
   }
   const nDof = 2 * mesh.nNodes;
   const u = new Float64Array(nDof);

@@ -8,7 +8,7 @@ import { join } from 'node:path';
 import { assembleSystem } from '../fem/assemble.js';
 import { compileLoads, compileSupports } from '../fem/boundary-conditions.js';
 import type { Analysis } from '../pipeline/analyse.js';
-import { writeMatrixMarket, writeMatrixMarketArray } from '../solve/matrixmarket.js';
+import { writeMatrixMarket, writeMatrixMarketArray } from '../solve/index.js';
 import { prepareOutputDir } from './files.js';
 import { writeAtomic } from './atomic.js';
 

@@ -21,8 +21,10 @@
  * Matrices are held as full (both triangles) CSR, rows sorted; all arrays are typed.
  */
 import { adjacencyGraph, type SymmetricCsc } from './sparse.js';
-import { analyzeCholesky, factorCholesky, solveCholesky, type CholeskyFactor } from './cholesky.js';
-import { orderAmd } from './ordering.js';
+import { analyzeCholesky } from './symbolic.js';
+import { factorCholesky, type CholeskyFactor } from './numeric.js';
+import { solveCholesky } from './triangular.js';
+import { orderAmd } from './amd.js';
 import type { PcgPreconditioner } from './pcg.js';
 
 /** A sparse matrix in compressed rows. */

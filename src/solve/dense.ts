@@ -32,7 +32,7 @@ export interface SimdKernel {
 }
 
 /**
- * Source text of the kernels below, for a worker thread (multifrontal.ts):
+ * Source text of the kernels below, for a worker thread (threads.ts):
  * their bodies refer only to each other and to PANEL and failedPivotValue.
  */
 export function denseKernelSource(): string {

@@ -6,12 +6,18 @@
  * prescribed, which changes values (rows and columns set to the identity times their diagonal)
  * but not the pattern.
  *
+ * The second thread (threads.ts) is the caller's `workers` when given; otherwise each solve
+ * that needs one starts it and closes it after.
+ *
  * When the direct factor would not fit in `maxFactorBytes` (see solveSpd), each solve falls back
  * to solveSpd's iterative method on the new values; nothing is reused then but the decision.
  */
 import { performance } from 'node:perf_hooks';
-import { analyzeCholeskyWithin, factorCholesky, solveCholesky, type SymbolicFactor } from './cholesky.js';
-import { chooseOrdering, defaultMaxFactorBytes, estimateFactorBytes, residualMeasures, solveSpd, type OrderingMethod, type SolveOptions, type SolveStats } from './index.js';
+import { analyzeCholeskyWithin, type SymbolicFactor } from './symbolic.js';
+import { factorCholesky } from './numeric.js';
+import { solveCholesky } from './triangular.js';
+import { SolverThreads } from './threads.js';
+import { chooseOrdering, defaultMaxFactorBytes, estimateFactorBytes, residualMeasures, solveSpd, type OrderingMethod, type SolveOptions, type SolveStats } from './spd.js';
 import type { SymmetricCsc } from './sparse.js';
 
 export class RepeatedSolver {
@@ -67,12 +73,23 @@ export class RepeatedSolver {
       this.last = stats;
       return x;
     }
+    // the caller's second thread when given; otherwise one for this solve, closed after it
+    const own = this.options.threads !== 1 && this.options.workers === undefined ? new SolverThreads() : null;
+    const workers = this.options.threads === 1 ? undefined : (this.options.workers ?? own ?? undefined);
     const t0 = performance.now();
-    const factor = factorCholesky(a, this.symbolic, { pivotTolerance: this.options.pivotTolerance, threads: this.options.threads });
-    const t1 = performance.now();
+    let t1: number;
+    let t2: number;
+    let factor;
+    let x: Float64Array;
     const report = { threads: 1 };
-    const x = solveCholesky(factor, b, nrhs, { threads: this.options.threads, report });
-    const t2 = performance.now();
+    try {
+      factor = factorCholesky(a, this.symbolic, { pivotTolerance: this.options.pivotTolerance, workers });
+      t1 = performance.now();
+      x = solveCholesky(factor, b, nrhs, { workers, report });
+      t2 = performance.now();
+    } finally {
+      own?.close();
+    }
     this.seconds.numeric += (t1 - t0) / 1e3;
     this.seconds.solve += (t2 - t1) / 1e3;
     const s = this.symbolic;

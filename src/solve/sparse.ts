@@ -147,11 +147,6 @@ export function assembleSymmetric(
   };
 }
 
-/** Number of stored (lower triangle) entries. */
-export function nnzLower(a: SymmetricCsc): number {
-  return a.colPtr[a.n];
-}
-
 /** Number of nonzeros of the full symmetric matrix implied by the lower triangle. */
 export function nnzFull(a: SymmetricCsc): number {
   let diag = 0;
@@ -187,7 +182,6 @@ export function multiplySymmetric(a: SymmetricCsc, x: Float64Array, y: Float64Ar
   }
 }
 
-/** Largest diagonal entry (0 for an empty matrix or one with no diagonal). */
 /**
  * ||A||inf of a symmetric matrix stored as its lower triangle: the largest row sum of |a_ij|.
  * With `scale`, of the matrix a_ij / (s_i s_j) (A given already scaled as S A S, s = scale).
@@ -208,6 +202,7 @@ export function symmetricInfNorm(a: SymmetricCsc, scale?: Float64Array): number 
   return m;
 }
 
+/** Largest diagonal entry (0 for an empty matrix or one with no diagonal). */
 export function maxDiagonal(a: SymmetricCsc): number {
   let m = 0;
   for (let j = 0; j < a.n; j++) {

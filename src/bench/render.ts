@@ -1,12 +1,12 @@
 /**
  * Benchmark of the per-pixel contour: a 6-node mesh of about 2e5 elements on a 500 x 300 plate with a
  * smooth invented stress field, drawn at 2000 x 1200 pixels (median of 3 after a warm-up):
- *   npm run build && node dist/render/bench.js [elements]
+ *   npm run build && node dist/bench/render.js [elements]
  * A benchmark, not a test: times depend on the machine.
  */
-import { DEFAULT_MAP } from './colormap.js';
-import { fitView, paintField, type DrawMesh } from './field.js';
-import { Raster } from './raster.js';
+import { DEFAULT_MAP } from '../render/colormap.js';
+import { fitView, paintField, type DrawMesh } from '../render/field.js';
+import { Raster } from '../render/raster.js';
 
 function stripMesh(nx: number, ny: number, L: number, H: number): DrawMesh {
   // Vertices on a (2nx+1) x (2ny+1) grid: even indices are corners, odd ones midside nodes.

@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
-import { multiplySymmetric } from '../src/solve/sparse.js';
-import { solveSpd } from '../src/solve/index.js';
-import { cantileverProblemP2, jitteredRectangleMeshP2, planeStressStiffnessP2, randomVector } from '../src/solve/testing.js';
+import { multiplySymmetric, solveSpd } from '../src/solve/index.js';
+import { cantileverProblemP2, jitteredRectangleMeshP2, planeStressStiffnessP2 } from '../src/bench/fixtures/cantilever-p2.js';
+import { randomVector } from '../src/bench/fixtures/random.js';
 import { P2Scratch, stiffnessP2 } from '../src/fem/elements.js';
 import { constitutiveMatrix } from '../src/fem/material.js';
 
