@@ -27,7 +27,7 @@ import type { KtKind } from '../post/kt.js';
 import { settleSeries, type Settlement } from '../post/settle.js';
 import { analyseOnMesh, prepareModel, type AnalyseOptions, type Analysis, type PreparedModel } from './analyse.js';
 import type { Model } from '../model/schema.js';
-import { ModelError } from '../model/errors.js';
+import { ModelTooLargeError } from '../model/errors.js';
 
 export interface CertifyOptions extends AnalyseOptions {
   /** relative error target for the peak stress and Kt (default 0.01) */
@@ -179,7 +179,7 @@ export function certifyPrepared(prep: PreparedModel, opts: CertifyOptions = {}):
       a = k === 0 && !limit ? first : analyseOnMesh(prep, { sizeFactor: s0 * f, limit: scaled(limit, f), contactHints });
     } catch (err) {
       // The next mesh would not fit in memory: stop with what the series has.
-      if (err instanceof ModelError && err.path === 'mesh' && runs.length > 0) {
+      if (err instanceof ModelTooLargeError && runs.length > 0) {
         notes.push(`stopped: ${err.message}`);
         break;
       }
