@@ -22,9 +22,9 @@ import { hintsFromContact } from '../fem/contact.js';
 import { SERIES_RATIO, firstSeriesSizeFactor, scaleSizeLimit } from '../mesh/series-size.js';
 import { adaptSizeLimit, findReferencePeak } from '../post/adapt.js';
 import { findGoverningKt, type GoverningKt } from '../post/governing.js';
+import { recordMesh, trackSeries, type MeshRecord, type TrackedQuantity } from '../post/series.js';
 import { gridConvergence, type GciResult } from '../post/convergence.js';
 import type { MeshEvaluation } from '../post/evaluate.js';
-import type { KtKind } from '../post/kt.js';
 import { settleSeries, type Settlement } from '../post/settle.js';
 import { analyseOnMesh, prepareModel, type AnalyseOptions, type Analysis, type PreparedModel } from './analyse.js';
 import type { Model } from '../model/schema.js';
@@ -39,22 +39,6 @@ export interface CertifyOptions extends AnalyseOptions {
   maxDofs?: number;
 }
 
-export interface MeshRecord {
-  elements: number;
-  nodes: number;
-  dofs: number;
-  /** size factor of the family member: the mesh size at the peak relative to the first family mesh */
-  relativeSize: number;
-  /** the highest stress anywhere in the part, and where */
-  peak: number;
-  peakX: number;
-  peakY: number;
-  /** per raiser: its peak and its Kt values on this mesh (null where withheld) */
-  raisers: { peak: number; kt: Partial<Record<KtKind, number | null>> }[];
-  timeMs: number;
-  atSharpCorner: boolean;
-}
-
 export type CertifyStatus = 'converged' | 'not-converged' | 'singular';
 
 export interface Certified {
@@ -64,7 +48,7 @@ export interface Certified {
   /** the band of the quantity the series was stopped on: the governing raiser's headline Kt, else a peak */
   gci: GciResult | null;
   /** what the band is of */
-  quantity: { raiser: number; kind: KtKind | 'peak' };
+  quantity: TrackedQuantity;
   theoreticalOrder: number;
   meshes: MeshRecord[];
   /** what the series says about each raiser and each singular point */
@@ -73,21 +57,6 @@ export interface Certified {
   adapted: { marked: number; of: number };
   notes: string[];
   totalTimeMs: number;
-}
-
-function record(a: Analysis, relativeSize: number): MeshRecord {
-  return {
-    elements: a.mesh.nElements,
-    nodes: a.mesh.nNodes,
-    dofs: 2 * a.mesh.nNodes,
-    relativeSize,
-    peak: a.peak.stress,
-    peakX: a.peak.x,
-    peakY: a.peak.y,
-    raisers: a.evaluation.raisers.map((r) => ({ peak: r.peak.stress, kt: Object.fromEntries(r.kt.map((k) => [k.kind, k.value])) })),
-    timeMs: a.timeMs.total,
-    atSharpCorner: a.peak.atSharpCorner,
-  };
 }
 
 /** The settlement of a series of analyses (coarse to fine, with their relative sizes). */
@@ -135,10 +104,10 @@ export function certifyPrepared(prep: PreparedModel, opts: CertifyOptions = {}):
       throw err;
     }
     runs.push(a);
-    meshes.push(record(a, f));
+    meshes.push(recordMesh(a, f));
     const sizes = meshes.map((m) => m.relativeSize);
     settlement = settleAnalyses(runs, sizes, prep.named);
-    const tracked = trackedSeries(meshes, settlement);
+    const tracked = trackSeries(meshes, settlement);
     quantity = tracked.quantity;
     if (tracked.values.length >= 2) gci = gridConvergence(tracked.sizes, tracked.values, pTh);
     if (runs.length >= 3 && gci) {
@@ -189,27 +158,6 @@ export function certifyPrepared(prep: PreparedModel, opts: CertifyOptions = {}):
   };
 }
 
-/**
- * The series the stopping rule watches: the governing raiser's headline Kt (the meshes where it
- * has a value), else that raiser's peak, else the part's highest stress.
- */
-function trackedSeries(meshes: readonly MeshRecord[], s: Settlement): { quantity: Certified['quantity']; sizes: number[]; values: number[] } {
-  const g = s.governing;
-  if (g >= 0) {
-    const kind = s.raisers[g].primary;
-    const sizes: number[] = [];
-    const values: number[] = [];
-    for (const m of meshes) {
-      const v = kind ? m.raisers[g].kt[kind] : Math.abs(m.raisers[g].peak);
-      if (v === null || v === undefined) continue;
-      sizes.push(m.relativeSize);
-      values.push(v);
-    }
-    return { quantity: { raiser: g, kind: kind ?? 'peak' }, sizes, values };
-  }
-  return { quantity: { raiser: -1, kind: 'peak' }, sizes: meshes.map((m) => m.relativeSize), values: meshes.map((m) => Math.abs(m.peak)) };
-}
-
 /** The governing raiser's Kt values, from a certified series or from one analysis alone. */
 export function governingKt(x: Certified | Analysis): GoverningKt {
   const s = 'settlement' in x ? x.settlement : settleAnalyses([x], [1], x.named);
@@ -218,3 +166,4 @@ export function governingKt(x: Certified | Analysis): GoverningKt {
 }
 
 export type { GoverningKt };
+export type { MeshRecord };
