@@ -96,7 +96,7 @@ const CASES: Case[] = [
   ['a pin away from the boundary', (m) => (m.supports = [{ type: 'pin', at: [50, 35] }, ...m.supports]), 'model', /pins must lie on it/],
   ['a mesh size below the geometric tolerance', (m) => (m.mesh = { size: 1e-9 }), 'model', /below a millionth/],
   ['a raiser size above the global size', (m) => (m.mesh = { size: 2, raiserSize: 5 }), 'model', /raiserSize/],
-  ['a model too large for memory, refused up front', (m) => (m.mesh = { size: 0.02, raiserSize: 0.02 }), 'model', /GB.*--max-memory|--max-memory/],
+  ['a model too large for memory, refused up front (a valid model: an analysis refusal, once "bad input")', (m) => (m.mesh = { size: 0.02, raiserSize: 0.02 }), 'analysis', /GB.*--max-memory|--max-memory/],
   ['a grading out of range', (m) => (m.mesh = { grading: 0.01 }), 'model', /mesh\.grading/],
   ['a minimum angle out of range', (m) => (m.mesh = { minAngle: 40 }), 'model', /mesh\.minAngle/],
   ['an expression naming an undeclared parameter', (m) => ((m.parameters = { d: 10 }), (m.geometry.holes[0].diameter = '=dd')), 'model', /"dd" is not a declared parameter.*did you mean "d"/],
@@ -236,7 +236,21 @@ describe('bad inputs at the command line', () => {
     const big = base();
     big.mesh = { size: 0.02, raiserSize: 0.02 };
     writeFileSync(f, JSON.stringify(big, null, 1));
-    expect(raiser(['solve', f, '--single-mesh', '--max-memory', '1']).stderr).toMatch(/cusp\.json:\d+:\d+: at mesh(\.size)?: .*GB/);
+    const refused = raiser(['solve', f, '--single-mesh', '--max-memory', '1']);
+    expect(refused.code, refused.stderr).toBe(3);
+    expect(refused.stderr).toMatch(/cusp\.json:\d+:\d+: at mesh(\.size)?: .*GB/);
+  });
+
+  it('a valid model too big for --max-memory: exit 3 (cannot analyse, once exit 2 "bad input"), on one mesh and on a series, naming the limit', () => {
+    const f = join(dir, 'too-big.json');
+    writeFileSync(f, JSON.stringify(base(), null, 1));
+    for (const args of [['--single-mesh'], []]) {
+      const r = raiser(['solve', f, ...args, '--max-memory', '1MB']);
+      expect(r.code, r.stderr).toBe(3);
+      expect(r.stderr).toMatch(/^raiser: cannot analyse: \S*too-big\.json:\d+:\d+: .*more than the limit of 1\.0 MB[\s\S]*fix: .*--max-memory/);
+    }
+    // The same model within a sensible limit solves: the refusal is the limit's, not the model's.
+    expect(raiser(['solve', f, '--single-mesh', '--max-memory', '4']).code).toBe(0);
   });
 
   it('--vary "d=5,,6": exit 2 naming the empty value (once a case of d = 0 was solved)', () => {
@@ -263,7 +277,7 @@ describe('bad inputs at the command line', () => {
     big.mesh = { size: 0.1, raiserSize: 0.05 };
     writeFileSync(f, JSON.stringify(big));
     const refused = run(`solve "${f}" --single-mesh`);
-    expect(refused.status, refused.stderr).toBe(2);
+    expect(refused.status, refused.stderr).toBe(3);
     expect(refused.stderr).toMatch(/more than the limit of 1\.\d GB/);
   });
 

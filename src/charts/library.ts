@@ -17,7 +17,7 @@ import {
   ktSteppedBarBending,
   ktSteppedBarTension,
 } from './formulas.js';
-import { edgeNotchPeakStress } from '../verify/exact.js';
+import { edgeNotchPeakStress } from './edge-notch.js';
 
 export interface ChartParam {
   name: string;

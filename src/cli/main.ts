@@ -4,7 +4,7 @@
  */
 import { Command, CommanderError, Option } from 'commander';
 import { STRESS_MEASURES, type StressMeasure } from '../model/schema.js';
-import { AnalysisError, ModelError } from '../model/errors.js';
+import { AnalysisError, ModelError, ModelTooLargeError } from '../model/errors.js';
 import { loadModelFile } from '../model/load.js';
 import { analyseModel } from '../pipeline/analyse.js';
 import { certifyModel } from '../pipeline/certify.js';
@@ -76,7 +76,7 @@ function runSolve(file: string, flags: SolveFlags): number {
     try {
       return work();
     } catch (e) {
-      throw e instanceof ModelError ? loaded.locate(e) : e;
+      throw e instanceof ModelError || e instanceof ModelTooLargeError ? loaded.locate(e) : e;
     }
   };
   if (flags.singleMesh) {

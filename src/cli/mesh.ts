@@ -9,7 +9,7 @@ import { curveLength } from '../geometry/curve.js';
 import { attachedDrawing } from '../geometry/import/index.js';
 import { selectTarget } from '../geometry/select.js';
 import { generateMesh } from '../mesh/generate.js';
-import { ModelError } from '../model/errors.js';
+import { ModelError, ModelTooLargeError } from '../model/errors.js';
 import { loadModelFile } from '../model/load.js';
 import { prepareModel } from '../pipeline/analyse.js';
 import { drawGeometryPicture } from '../render/geometry-picture.js';
@@ -49,7 +49,7 @@ export function runMesh(file: string, flags: MeshFlags): { text: string; json: o
     });
   } catch (e) {
     // A problem found while building the geometry or the mesh is placed in the model file too.
-    throw e instanceof ModelError ? loaded.locate(e) : e;
+    throw e instanceof ModelError || e instanceof ModelTooLargeError ? loaded.locate(e) : e;
   }
   const { domain, order } = prep;
   const { mesh, stats } = meshed;

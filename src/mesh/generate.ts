@@ -6,7 +6,7 @@
 import { curveTurn, evaluateCurve } from '../geometry/curve.js';
 import type { Domain } from '../geometry/domain.js';
 import { findContacts } from '../geometry/intersect.js';
-import { AnalysisError, InternalError, ModelError } from '../model/errors.js';
+import { AnalysisError, InternalError, ModelTooLargeError } from '../model/errors.js';
 import { estimateAnalysisBytes, estimateTriangles } from './estimate.js';
 import { discretiseBoundary, type BoundaryPoints, type HardPoint } from './boundary.js';
 import { checkMesh } from './check.js';
@@ -98,6 +98,11 @@ function placeBoundaryNodes(mesh: Mesh, model: Domain): void {
   }
 }
 
+/** An amount of memory in GB to one decimal, or in MB below a tenth of a GB (so a small limit never reads "0.0 GB"). */
+function formatMemory(bytes: number): string {
+  return bytes >= 0.1 * 2 ** 30 ? `${(bytes / 2 ** 30).toFixed(1)} GB` : `${(bytes / 2 ** 20).toPrecision(2)} MB`;
+}
+
 function meshInFrame(domain: Domain, opts: MeshOptions): MeshResult {
   const t0 = performance.now();
   const size = buildSizeField(domain, opts);
@@ -108,9 +113,9 @@ function meshInFrame(domain: Domain, opts: MeshOptions): MeshResult {
     // between direct and iterative once the factor's size is known.
     const bytes = estimateAnalysisBytes(estimated, opts.order, 'iterative');
     if (bytes > opts.maxBytes) {
-      throw new ModelError(
+      throw new ModelTooLargeError(
         'mesh',
-        `the mesh would have about ${estimated.toExponential(1)} triangles and the analysis would need about ${(bytes / 2 ** 30).toFixed(1)} GB, more than the limit of ${(opts.maxBytes / 2 ** 30).toFixed(1)} GB`,
+        `the mesh would have about ${estimated.toExponential(1)} triangles and the analysis would need about ${formatMemory(bytes)}, more than the limit of ${formatMemory(opts.maxBytes)}`,
         'raise mesh.size or mesh.raiserSize (or mesh.grading), or raise the limit with --max-memory <GB>',
       );
     }

@@ -2,10 +2,36 @@
  * Errors meant for people. Each names where the problem is (a JSON path into the model file,
  * such as `geometry.holes[1].radius`), what is wrong, and how to fix it. The command line turns
  * them into exit codes: ModelError -> 2 (bad input), AnalysisError -> 3 (the model cannot be
- * analysed as given), anything else -> 1 (an internal fault).
+ * analysed as given; ModelTooLargeError is one), anything else -> 1 (an internal fault).
  */
 
-export class ModelError extends Error {
+/** A problem that names a field of the model file, and once placed, the file, line and column. */
+export interface PlacedProblem {
+  /** JSON path of the field, '' for the whole file */
+  readonly path: string;
+  readonly message: string;
+  readonly hint?: string;
+  file?: string;
+  /** 1-based line and column in the file, when the problem can be placed there */
+  line?: number;
+  column?: number;
+  /** the offending lines of the file with a caret under the column, when known */
+  excerpt?: string;
+}
+
+/**
+ * "file:line:column: at path: message", then the excerpt and "fix: hint" on lines of their
+ * own. The file:line:column form is the one terminals and editors turn into a link.
+ */
+function describePlaced(e: PlacedProblem): string {
+  let place = e.file ?? '';
+  if (e.line !== undefined) place += `${place ? ':' : 'line '}${e.line}${e.column !== undefined ? `:${e.column}` : ''}`;
+  const where = [place, e.path ? `at ${quoteText(e.path, 160)}` : ''].filter(Boolean).join(': ');
+  const excerpt = e.excerpt ? `\n${indent(e.excerpt, '    ')}` : '';
+  return `${where ? where + ': ' : ''}${e.message}${excerpt}${e.hint ? `\n  fix: ${e.hint}` : ''}`;
+}
+
+export class ModelError extends Error implements PlacedProblem {
   override readonly name = 'ModelError';
   /** 1-based line and column in the file, when the problem can be placed there */
   line?: number;
@@ -24,16 +50,9 @@ export class ModelError extends Error {
     super(message);
   }
 
-  /**
-   * "file:line:column: at path: message", then the excerpt and "fix: hint" on lines of their
-   * own. The file:line:column form is the one terminals and editors turn into a link.
-   */
+  /** See describePlaced: "file:line:column: at path: message", the excerpt, "fix: hint". */
   describe(): string {
-    let place = this.file ?? '';
-    if (this.line !== undefined) place += `${place ? ':' : 'line '}${this.line}${this.column !== undefined ? `:${this.column}` : ''}`;
-    const where = [place, this.path ? `at ${quoteText(this.path, 160)}` : ''].filter(Boolean).join(': ');
-    const excerpt = this.excerpt ? `\n${indent(this.excerpt, '    ')}` : '';
-    return `${where ? where + ': ' : ''}${this.message}${excerpt}${this.hint ? `\n  fix: ${this.hint}` : ''}`;
+    return describePlaced(this);
   }
 }
 
@@ -94,7 +113,7 @@ function indent(text: string, by: string): string {
 }
 
 export class AnalysisError extends Error {
-  override readonly name = 'AnalysisError';
+  override readonly name: string = 'AnalysisError';
   constructor(
     message: string,
     readonly hint?: string,
@@ -104,6 +123,33 @@ export class AnalysisError extends Error {
 
   describe(): string {
     return `${this.message}${this.hint ? `\n  fix: ${this.hint}` : ''}`;
+  }
+}
+
+/**
+ * A valid model whose analysis would need more memory than the limit allows (the memory guard
+ * of the mesher, src/mesh/estimate.ts): the analysis is refused (exit 3), the input is not
+ * wrong. It names the field that sets the mesh's size (`path`), and once the command line has
+ * placed it, where that field is in the file. A series of meshes that reaches this limit stops
+ * with what it has (src/pipeline/certify.ts catches it by its type).
+ */
+export class ModelTooLargeError extends AnalysisError implements PlacedProblem {
+  override readonly name: string = 'ModelTooLargeError';
+  file?: string;
+  line?: number;
+  column?: number;
+  excerpt?: string;
+  constructor(
+    /** JSON path of the field that sets the size ('mesh') */
+    readonly path: string,
+    message: string,
+    hint?: string,
+  ) {
+    super(message, hint);
+  }
+
+  override describe(): string {
+    return describePlaced(this);
   }
 }
 

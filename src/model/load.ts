@@ -10,7 +10,7 @@
 import { readdirSync } from 'node:fs';
 import { basename, dirname, extname } from 'node:path';
 import { checkModel } from './checks.js';
-import { MAX_REPORTED_PROBLEMS, ModelError, ModelErrorList, formatPath, quoteText } from './errors.js';
+import { MAX_REPORTED_PROBLEMS, ModelError, ModelErrorList, formatPath, quoteText, type PlacedProblem } from './errors.js';
 import { type Problem, translateIssues } from './issues.js';
 import { LineIndex, excerptAt, scanJson, type JsonScan } from './json-text.js';
 import { formatBytes, readRegularFile } from './read-file.js';
@@ -31,7 +31,7 @@ export interface LoadedModel {
    * file: its name, and the line and column of the field its path names (or the nearest
    * enclosing field that is written in the file). Returns the same error.
    */
-  locate(e: ModelError): ModelError;
+  locate<E extends PlacedProblem>(e: E): E;
 }
 
 const MODEL_FIELDS = Object.keys(Model.shape);
@@ -89,7 +89,7 @@ class Placer {
   lines(): LineIndex {
     return (this.index ??= new LineIndex(this.src));
   }
-  place(e: ModelError, offset: number): ModelError {
+  place<E extends PlacedProblem>(e: E, offset: number): E {
     const { line, column } = this.lines().place(offset);
     e.line = line;
     e.column = column;
@@ -216,7 +216,7 @@ export function loadModelText(text: string, file?: string, options: LoadOptions 
     placer,
     file,
   );
-  const locate = (e: ModelError): ModelError => {
+  const locate = <E extends PlacedProblem>(e: E): E => {
     if (e.file === undefined) e.file = file;
     if (e.line === undefined && e.path && !e.path.startsWith('-')) {
       const off = offsetOf(e.path, scan);

@@ -5,31 +5,38 @@
  * ones after it.
  */
 import { totalmem } from 'node:os';
-import { evaluateCurve } from '../geometry/curve.js';
 import { buildDomain, type Domain } from '../geometry/domain.js';
 import { validateDomain } from '../geometry/validate.js';
 import { assembleSystem, internalForces } from '../fem/assemble.js';
-import { compileLoads, compileSupports, HOLD_FREE, HOLD_MIRROR, type CompiledLoads, type ExtraTraction } from '../fem/boundary-conditions.js';
+import { compileLoads, compileSupports, type CompiledLoads, type ExtraTraction } from '../fem/boundary-conditions.js';
+import { classifyEdges } from '../fem/edge-roles.js';
+import { findMirrorPlanes, type MirrorPlane } from '../fem/mirror-planes.js';
+
+export type { MirrorPlane };
 import { constitutiveMatrix, type PlaneState } from '../fem/material.js';
 import { checkRigidMotion } from '../fem/rigid.js';
+import { expandSolution } from '../fem/expand.js';
 import { addContactForces, pinSupportCentres, solveContact, type ContactHint, type ContactSolution, type PinsOfAnalysis } from '../fem/contact.js';
-import { generateMesh, triangleMinAngle } from '../mesh/generate.js';
-import type { SizeField } from '../mesh/sizefield.js';
+import { generateMesh } from '../mesh/generate.js';
+import { checkMeshSizes, placePinHardPoints } from '../mesh/model-points.js';
 import type { HardPoint } from '../mesh/boundary.js';
 import type { SizeLimit } from '../mesh/background.js';
 import { buildNodeAdjacency, buildNodeElements } from '../mesh/topology.js';
 import type { Mesh, MeshStats } from '../mesh/types.js';
-import { AnalysisError, ModelError } from '../model/errors.js';
-import { nearestBoundaryPoint } from '../geometry/project.js';
+import { AnalysisError } from '../model/errors.js';
 import type { Model, StressMeasure } from '../model/schema.js';
 import { resolveUnits, type ResolvedUnits } from '../model/units.js';
 import { evaluateMesh, type MeshEvaluation } from '../post/evaluate.js';
 import type { RaiserNominalInput } from '../post/kt.js';
 import { findPeak, outOfPlaneFactor, type Peak } from '../post/peak.js';
 import { RaiserCutFinder } from '../post/raiser-cut.js';
-import { findRaisers, matchRaisers, type Raiser } from '../post/raisers.js';
-import { recoverNodalStress, type KnownTraction } from '../post/recover.js';
-import { cutBetween, pointOnCut } from '../post/section.js';
+import { findRaisers, type Raiser } from '../post/raisers.js';
+import { resolveRaiserSettings } from '../post/raiser-settings.js';
+import { addBearingStresses } from '../post/bearing-nominal.js';
+import { describeKnownTractions, recoverNodalStress } from '../post/recover.js';
+import { computeBalance, checkBalance } from '../post/balance.js';
+import { checkResolution } from '../post/resolution.js';
+import { checkYield } from '../post/yield.js';
 import { findSingularCandidates, type SingularCandidate } from '../post/singular.js';
 import { sampleElementStresses } from '../post/stress.js';
 import { estimateAnalysisBytes } from '../mesh/estimate.js';
@@ -93,28 +100,6 @@ export interface Analysis {
   mirrorPlanes: MirrorPlane[];
 }
 
-export interface MirrorPlane {
-  axis: 'x' | 'y';
-  at: number;
-  edges: number[];
-}
-
-/** The planes held by symmetry supports, as the support compilation decided them: edges both shear-free and mirror-held. */
-function mirrorPlanesOf(domain: Domain, symmetry: Uint8Array, hold: Uint8Array): MirrorPlane[] {
-  const planes: MirrorPlane[] = [];
-  const tol = 1e-9 * domain.scale;
-  for (let e = 0; e < domain.edges.length; e++) {
-    const c = domain.edges[e].curve;
-    if (!symmetry[e] || hold[e] !== HOLD_MIRROR || c.kind !== 'line') continue;
-    const axis = Math.abs(c.x1 - c.x0) <= tol ? 'x' : 'y';
-    const at = axis === 'x' ? c.x0 : c.y0;
-    const p = planes.find((q) => q.axis === axis && Math.abs(q.at - at) <= tol);
-    if (p) p.edges.push(e);
-    else planes.push({ axis, at, edges: [e] });
-  }
-  return planes;
-}
-
 /** What every mesh of one model shares: the model checked, its domain, units and options. */
 export interface PreparedModel {
   model: Model;
@@ -148,119 +133,13 @@ export function prepareModel(model: Model, opts: AnalyseOptions = {}): PreparedM
   const domain = buildDomain(model.geometry);
   validateDomain(domain);
   const order = (opts.element ?? model.mesh?.element ?? 'quadratic') === 'linear' ? 1 : 2;
-  // Pins must sit on a node: they become hard points of the boundary discretisation.
-  const hardPoints = model.supports.flatMap((s, i) => {
-    if (s.type !== 'pin') return [];
-    const b = nearestBoundaryPoint(domain, s.at[0], s.at[1]);
-    if (b.distance > 1e-3 * domain.scale) {
-      throw new ModelError(`supports[${i}].at`, `the pin at (${s.at.join(', ')}) is ${b.distance.toPrecision(3)} from the boundary; pins must lie on it`, `the nearest boundary point is (${b.x.toPrecision(6)}, ${b.y.toPrecision(6)}) on ${domain.edges[b.edge].label}`);
-    }
-    return [{ edge: b.edge, t: b.t }];
-  });
-  // Sizes below the geometric tolerance cannot be meshed (points would merge).
-  for (const key of ['size', 'raiserSize'] as const) {
-    const v = model.mesh?.[key];
-    if (v !== undefined && v < 1e-6 * domain.scale) {
-      throw new ModelError(`mesh.${key}`, `mesh.${key} = ${v} is below a millionth of the part size (${domain.scale.toPrecision(4)}): it cannot be meshed`, `use a size of at least ${(1e-4 * domain.scale).toPrecision(2)}`);
-    }
-  }
+  const hardPoints = placePinHardPoints(domain, model.supports);
+  checkMeshSizes(domain, model.mesh);
   const maxMemoryBytes = opts.maxMemoryBytes ?? 0.6 * totalmem();
   const raisers = findRaisers(domain);
   const { named, reported, given } = resolveRaiserSettings(model, domain, raisers);
   const finder = new RaiserCutFinder(domain, model.thickness);
   return { model, units, state, measure, domain, order, hardPoints, maxMemoryBytes, raisers, named, reported, given, finder };
-}
-
-/** One raiser by the name a model file uses for it, or a ModelError that lists the names there are. */
-function raiserByName(raisers: readonly Raiser[], name: string, path: string): number {
-  const found = matchRaisers(raisers, name);
-  const names = raisers.map((r) => r.name);
-  if (found.length === 0) {
-    throw new ModelError(
-      path,
-      raisers.length === 0 ? `"${name}" names a stress raiser, but the part has none (no hole, notch, fillet or other concave curved edge)` : `no stress raiser is called "${name}"`,
-      raisers.length === 0 ? 'remove it' : `the raisers are: ${names.map((n) => `'${n}'`).join(', ')} (a hole may also be named by its name or "hole N", an edge by its tag)`,
-    );
-  }
-  if (found.length > 1) throw new ModelError(path, `"${name}" names ${found.length} stress raisers: ${found.map((r) => `'${r.name}'`).join(', ')}`, 'use a name that picks one of them (the printed name, a hole\'s name, or "hole N")');
-  return found[0].index;
-}
-
-/** results.raiser, results.raisers, results.nominal and results.section turned into raiser indices. */
-function resolveRaiserSettings(model: Model, domain: Domain, raisers: readonly Raiser[]) {
-  const res = model.results ?? {};
-  const named = res.raiser !== undefined ? raiserByName(raisers, res.raiser, 'results.raiser') : -1;
-  const reported = res.raisers ? new Set(res.raisers.map((n, i) => raiserByName(raisers, n, `results.raisers[${i}]`))) : null;
-  if (reported && named >= 0) reported.add(named);
-  const given = new Map<number, RaiserNominalInput>();
-  for (const [name, spec] of Object.entries(res.nominal ?? {})) {
-    const i = raiserByName(raisers, name, `results.nominal.${name}`);
-    if (spec.section === undefined && spec.stress === undefined) throw new ModelError(`results.nominal.${name}`, 'gives neither a section nor a stress', 'give "section": { "from": [x, y], "to": [x, y] } or "stress": value');
-    if (spec.section) checkSectionCrossesMaterial(domain, spec.section, `results.nominal.${name}.section`, model.thickness);
-    given.set(i, { section: spec.section, stress: spec.stress });
-  }
-  if (res.section && res.section !== 'auto') {
-    checkSectionCrossesMaterial(domain, res.section, 'results.section', model.thickness);
-    // The raiser the given cut passes nearest.
-    if (raisers.length === 0) throw new ModelError('results.section', 'a section is given, but the part has no stress raiser to take it for', 'remove results.section');
-    const [ax, ay] = res.section.from;
-    const [bx, by] = res.section.to;
-    let best = named;
-    if (best < 0) {
-      let bd = Infinity;
-      for (const r of raisers) {
-        for (const id of r.edges) {
-          const b = nearestOnSegment(domain, id, ax, ay, bx, by);
-          if (b < bd) {
-            bd = b;
-            best = r.index;
-          }
-        }
-      }
-    }
-    given.set(best, { ...given.get(best), section: res.section });
-  }
-  return { named, reported, given };
-}
-
-/**
- * The nominal stresses the model gives per raiser, with the bearing stress F / (d t) of every
- * pin in a hole added to its raiser (a fixed pin's force is the resultant of its contact).
- */
-function withBearing(prep: PreparedModel, pins: PinsOfAnalysis | null, contact: ContactSolution | null, thickness: number): Map<number, RaiserNominalInput> {
-  if (!pins) return prep.given;
-  const out = new Map(prep.given);
-  for (const pin of pins.holes) {
-    const r = prep.raisers.find((x) => x.kind === 'hole' && x.loop === pin.loop);
-    if (!r) continue;
-    const c = contact?.pins.find((x) => x.pin.path === pin.path);
-    const f = c && pin.role === 'support' ? c.resultant : pin.force;
-    const F = Math.hypot(f[0], f[1]);
-    if (F > 0) out.set(r.index, { ...out.get(r.index), bearing: F / (2 * pin.radius * thickness) });
-  }
-  return out;
-}
-
-/** A given section must cross material. */
-function checkSectionCrossesMaterial(domain: Domain, sec: { from: readonly [number, number]; to: readonly [number, number] }, path: string, thickness: number): void {
-  if (!cutBetween(domain, sec.from[0], sec.from[1], sec.to[0], sec.to[1], thickness)) {
-    throw new ModelError(path, `the section from (${sec.from.join(', ')}) to (${sec.to.join(', ')}) crosses no material`, 'give a cut from one edge of the part to the other, across the raiser');
-  }
-}
-
-/** Distance from samples of a domain edge to the segment a-b. */
-function nearestOnSegment(domain: Domain, edge: number, ax: number, ay: number, bx: number, by: number): number {
-  const p = [0, 0];
-  let best = Infinity;
-  const lx = bx - ax;
-  const ly = by - ay;
-  const l2 = lx * lx + ly * ly || 1;
-  for (let k = 0; k <= 32; k++) {
-    evaluateCurve(domain.edges[edge].curve, k / 32, p);
-    const t = Math.max(0, Math.min(1, ((p[0] - ax) * lx + (p[1] - ay) * ly) / l2));
-    best = Math.min(best, Math.hypot(p[0] - ax - t * lx, p[1] - ay - t * ly));
-  }
-  return best;
 }
 
 /** One analysis on the model's own mesh (scaled by opts.sizeFactor). */
@@ -334,13 +213,7 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
   } finally {
     workers.close();
   }
-  const nDof = 2 * mesh.nNodes;
-  const u = new Float64Array(nDof);
-  for (let d = 0; d < nDof; d++) u[d] = supports.constraints.value[d];
-  for (let i = 0; i < system.freeDof.length; i++) u[system.freeDof[i]] = solved.x[i];
-  for (let d = 0; d < nDof; d++) {
-    if (!Number.isFinite(u[d])) throw new AnalysisError('the solution is not finite: the stiffness matrix is too badly conditioned to solve', 'check for parts joined by a very thin ligament or extreme dimensions');
-  }
+  const u = expandSolution(supports.constraints.value, system.freeDof, solved.x);
   // --- pins in holes: pushed pins' contact forces are applied loads, fixed pins' are reactions ---
   if (contact) addContactForces(contact, loads.f, supports.constraints.fixed);
   const pins: PinsOfAnalysis | null =
@@ -349,18 +222,10 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
   const t3 = performance.now();
 
   const r = internalForces(mesh, D, model.thickness, u);
-  const applied = resultant(mesh, loads.f);
-  const reactionVec = new Float64Array(nDof);
-  for (let d = 0; d < nDof; d++) if (supports.constraints.fixed[d]) reactionVec[d] = r[d] - loads.f[d];
-  const reaction = resultant(mesh, reactionVec);
-  let fAbs = 0;
-  for (let d = 0; d < nDof; d++) fAbs += Math.abs(loads.f[d]);
-  const equilibriumError = Math.hypot(applied.fx + reaction.fx, applied.fy + reaction.fy) / (fAbs || 1);
+  const balance = computeBalance(mesh, loads.f, r, supports.constraints.fixed);
 
   const samples = sampleElementStresses(mesh, D, u);
-  // Known tractions: the applied ones, zero on free edges, unknown where a support acts.
-  const zero: KnownTraction = (_x, _y, _nx, _ny, out) => ((out[0] = 0), (out[1] = 0));
-  const known = domain.edges.map((_e, i): KnownTraction => (supports.symmetry[i] ? 'symmetry' : supports.supported[i] ? null : (loads.edgeTraction[i] ?? zero)));
+  const known = describeKnownTractions(supports, loads);
   const stress = recoverNodalStress(mesh, samples, known);
   for (let i = 0; i < stress.length; i++) {
     if (!Number.isFinite(stress[i])) throw new AnalysisError('the recovered stresses are not finite', 'check the model for extreme dimensions');
@@ -368,15 +233,7 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
   const szzFactor = outOfPlaneFactor(state, model.material.nu);
   const peak = findPeak(mesh, domain, stress, measure, szzFactor);
   const candidates = findSingularCandidates(domain, supports, loads, model.supports.map((_s, i) => `supports[${i}]`));
-  const mirrorEdge = new Uint8Array(domain.edges.length);
-  const edgeRole = new Uint8Array(domain.edges.length);
-  for (let e = 0; e < mirrorEdge.length; e++) {
-    mirrorEdge[e] = supports.hold[e] === HOLD_MIRROR ? 1 : 0;
-    edgeRole[e] = supports.hold[e] !== HOLD_FREE && supports.hold[e] !== HOLD_MIRROR ? 1 : loads.loaded[e] ? 2 : 0;
-  }
-  // A pin in its hole (a rigid pin in contact, or the bearing pressure with its own account in
-  // the pins' results) is modelled as a pin: its hole is not an idealised held or loaded edge.
-  for (const p of supports.pins) for (const e of p.edges) edgeRole[e] = 0;
+  const { mirrorEdge, edgeRole } = classifyEdges(supports, loads);
   const evaluation = evaluateMesh({
     domain,
     mesh,
@@ -392,22 +249,13 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
     edgeRole,
     remote: loads.remote ?? prep.extraRemote,
     direction: model.results?.direction,
-    given: withBearing(prep, pins, contact, model.thickness),
+    given: addBearingStresses(prep.given, prep.raisers, pins, contact, model.thickness),
     always: [...(prep.named >= 0 ? [prep.named] : []), ...(prep.reported ?? [])],
     units: { stress: units.stress },
   });
-  const y = model.material.yield;
-  if (y !== undefined && Math.abs(peak.stress) > y) {
-    warnings.push(`the elastic peak stress ${peak.stress.toPrecision(4)} ${units.stress} exceeds the yield strength ${y} ${units.stress}: local plastic flow is expected there and the linear result overstates the real peak stress`);
-  }
+  warnings.push(...checkYield(peak, model.material.yield, units.stress));
   warnings.push(...checkResolution(mesh, meshGen.size, evaluation, peak));
-  if (model.supports.length > 0 && model.supports.every((s) => s.type === 'pin')) {
-    const carried = Math.hypot(reaction.fx, reaction.fy);
-    if (carried > 1e-6 * fAbs) {
-      warnings.push(`the loads do not balance: the pins, meant only to stop rigid motion, carry ${carried.toPrecision(3)} ${units.force}; check the loads or hold the part with real supports`);
-    }
-  }
-  if (equilibriumError > 1e-6) warnings.push(`applied loads and reactions balance only to ${equilibriumError.toExponential(2)} of the load`);
+  warnings.push(...checkBalance(balance, model.supports.length > 0 && model.supports.every((s) => s.type === 'pin'), units.force));
   const t4 = performance.now();
   return {
     model,
@@ -428,52 +276,13 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
     reported: prep.reported,
     candidates,
     evaluation,
-    load: { ...applied, items: loads.items, remote: loads.remote },
+    load: { ...balance.applied, items: loads.items, remote: loads.remote },
     supportEdges: supports.edges,
-    reaction,
-    equilibriumError,
+    reaction: balance.reaction,
+    equilibriumError: balance.equilibriumError,
     timeMs: { mesh: t1 - t0, assemble: t2 - t1, solve: t3 - t2, recover: t4 - t3, total: t4 - t0 },
-    mirrorPlanes: mirrorPlanesOf(domain, supports.symmetry, supports.hold),
+    mirrorPlanes: findMirrorPlanes(domain, supports.symmetry, supports.hold),
     warnings,
     pins,
   };
-}
-
-/**
- * Warnings about the mesh where it matters: a raiser's ligament under two elements wide (the
- * stress across it is then poorly resolved), and badly shaped elements at the peak.
- */
-function checkResolution(mesh: Mesh, size: SizeField, evaluation: MeshEvaluation, peak: Peak): string[] {
-  const out: string[] = [];
-  for (const ev of evaluation.raisers) {
-    const c = ev.section;
-    if (!c) continue;
-    for (let k = 0; k < c.ligaments.length; k += 2) {
-      const [x0, y0] = pointOnCut(c, c.ligaments[k]);
-      const [x1, y1] = pointOnCut(c, c.ligaments[k + 1]);
-      const L = c.ligaments[k + 1] - c.ligaments[k];
-      const h = size.at(0.5 * (x0 + x1), 0.5 * (y0 + y1));
-      if (L > 0 && L / h < 2) {
-        out.push(`the ligament from (${x0.toPrecision(4)}, ${y0.toPrecision(4)}) to (${x1.toPrecision(4)}, ${y1.toPrecision(4)}) at ${ev.raiser.name} is only about ${(L / h).toFixed(1)} elements wide; give mesh.size or mesh.raiserSize a smaller value`);
-      }
-    }
-  }
-  const per = mesh.order === 2 ? 6 : 3;
-  let worst = 180;
-  const around = buildNodeElements(mesh);
-  for (let p = around.ptr[peak.node]; p < around.ptr[peak.node + 1]; p++) worst = Math.min(worst, triangleMinAngle(mesh, per, around.idx[p]));
-  if (worst < 20 && !peak.atSharpCorner) out.push(`an element at the peak has an angle of only ${worst.toFixed(1)} degrees; the peak stress there is less reliable`);
-  return out;
-}
-
-function resultant(mesh: Mesh, f: Float64Array): { fx: number; fy: number; m: number } {
-  let fx = 0;
-  let fy = 0;
-  let m = 0;
-  for (let i = 0; i < mesh.nNodes; i++) {
-    fx += f[2 * i];
-    fy += f[2 * i + 1];
-    m += mesh.nodes[2 * i] * f[2 * i + 1] - mesh.nodes[2 * i + 1] * f[2 * i];
-  }
-  return { fx, fy, m };
 }

@@ -19,16 +19,16 @@
  * clamp's end that never converges does not drive the series to its budget.
  */
 import { hintsFromContact } from '../fem/contact.js';
-import { MeshSizeLimit, type SizeLimit } from '../mesh/background.js';
-import { buildNodeElements } from '../mesh/topology.js';
+import { SERIES_RATIO, firstSeriesSizeFactor, scaleSizeLimit } from '../mesh/series-size.js';
+import { adaptSizeLimit, findReferencePeak } from '../post/adapt.js';
+import { findGoverningKt, type GoverningKt } from '../post/governing.js';
+import { recordMesh, trackSeries, type MeshRecord, type TrackedQuantity } from '../post/series.js';
 import { gridConvergence, type GciResult } from '../post/convergence.js';
-import { estimateErrors } from '../post/estimate.js';
 import type { MeshEvaluation } from '../post/evaluate.js';
-import type { KtKind } from '../post/kt.js';
 import { settleSeries, type Settlement } from '../post/settle.js';
 import { analyseOnMesh, prepareModel, type AnalyseOptions, type Analysis, type PreparedModel } from './analyse.js';
 import type { Model } from '../model/schema.js';
-import { ModelError } from '../model/errors.js';
+import { ModelTooLargeError } from '../model/errors.js';
 
 export interface CertifyOptions extends AnalyseOptions {
   /** relative error target for the peak stress and Kt (default 0.01) */
@@ -37,22 +37,6 @@ export interface CertifyOptions extends AnalyseOptions {
   maxMeshes?: number;
   /** stop before a mesh with more degrees of freedom than this (default 1.5e6) */
   maxDofs?: number;
-}
-
-export interface MeshRecord {
-  elements: number;
-  nodes: number;
-  dofs: number;
-  /** size factor of the family member: the mesh size at the peak relative to the first family mesh */
-  relativeSize: number;
-  /** the highest stress anywhere in the part, and where */
-  peak: number;
-  peakX: number;
-  peakY: number;
-  /** per raiser: its peak and its Kt values on this mesh (null where withheld) */
-  raisers: { peak: number; kt: Partial<Record<KtKind, number | null>> }[];
-  timeMs: number;
-  atSharpCorner: boolean;
 }
 
 export type CertifyStatus = 'converged' | 'not-converged' | 'singular';
@@ -64,7 +48,7 @@ export interface Certified {
   /** the band of the quantity the series was stopped on: the governing raiser's headline Kt, else a peak */
   gci: GciResult | null;
   /** what the band is of */
-  quantity: { raiser: number; kind: KtKind | 'peak' };
+  quantity: TrackedQuantity;
   theoreticalOrder: number;
   meshes: MeshRecord[];
   /** what the series says about each raiser and each singular point */
@@ -75,71 +59,11 @@ export interface Certified {
   totalTimeMs: number;
 }
 
-const RATIO = Math.SQRT2;
-
-function record(a: Analysis, relativeSize: number): MeshRecord {
-  return {
-    elements: a.mesh.nElements,
-    nodes: a.mesh.nNodes,
-    dofs: 2 * a.mesh.nNodes,
-    relativeSize,
-    peak: a.peak.stress,
-    peakX: a.peak.x,
-    peakY: a.peak.y,
-    raisers: a.evaluation.raisers.map((r) => ({ peak: r.peak.stress, kt: Object.fromEntries(r.kt.map((k) => [k.kind, k.value])) })),
-    timeMs: a.timeMs.total,
-    atSharpCorner: a.peak.atSharpCorner,
-  };
-}
-
 /** The settlement of a series of analyses (coarse to fine, with their relative sizes). */
 export function settleAnalyses(runs: readonly Analysis[], sizes: readonly number[], named: number): Settlement {
   const last = runs[runs.length - 1];
   const evals: MeshEvaluation[] = runs.map((r) => r.evaluation);
   return settleSeries(evals, sizes, last.mesh.order, last.candidates, named, last.units.stress);
-}
-
-/** The node of the peak the adaptation aims at: the governing raiser's, else the part's highest. */
-function referenceNode(a: Analysis, s: Settlement): { node: number; stress: number } {
-  if (s.governing >= 0) {
-    const p = a.evaluation.raisers[s.governing].peak;
-    return { node: p.node, stress: p.stress };
-  }
-  return { node: a.peak.node, stress: a.peak.stress };
-}
-
-/**
- * The adapted size limit from the error indicators of one analysis: elements whose relative
- * stress error exceeds the peak elements' get the size that would bring it to that level.
- */
-export function adaptedLimit(a: Analysis, reference: { node: number; stress: number } = { node: a.peak.node, stress: a.peak.stress }): { limit: MeshSizeLimit | null; marked: number } {
-  const mesh = a.mesh;
-  const est = estimateErrors(mesh, a.D, a.model.thickness, a.u, a.stress);
-  const p = mesh.order;
-  const peakMag = Math.abs(reference.stress) || 1;
-  let eRef = 0;
-  const around = buildNodeElements(mesh);
-  for (let q = around.ptr[reference.node]; q < around.ptr[reference.node + 1]; q++) eRef = Math.max(eRef, est.stressRms[around.idx[q]] / peakMag);
-  const desired = new Float64Array(mesh.nElements).fill(Infinity);
-  let marked = 0;
-  if (eRef > 0) {
-    for (let e = 0; e < mesh.nElements; e++) {
-      const rel = est.stressRms[e] / peakMag;
-      if (rel <= eRef) continue;
-      // Edge length of the equilateral triangle of the same area: h = sqrt(4 A / sqrt 3).
-      const h = Math.sqrt((4 * est.area[e]) / Math.sqrt(3));
-      desired[e] = h * Math.max(0.25, Math.pow(eRef / rel, 1 / p));
-      marked++;
-    }
-  }
-  if (marked === 0) return { limit: null, marked };
-  const grading = a.model.mesh?.grading ?? (mesh.order === 2 ? 0.25 : 0.15);
-  return { limit: new MeshSizeLimit(mesh, desired, grading), marked };
-}
-
-function scaled(limit: SizeLimit | null, f: number): SizeLimit | undefined {
-  if (!limit) return undefined;
-  return { at: (x, y) => f * limit.at(x, y) };
 }
 
 export function certifyModel(model: Model, opts: CertifyOptions = {}): Certified {
@@ -153,13 +77,10 @@ export function certifyPrepared(prep: PreparedModel, opts: CertifyOptions = {}):
   const maxDofs = opts.maxDofs ?? 1.5e6;
   const pTh = prep.order; // peak stress converges as h^p for elements of degree p (Strang & Fix, An Analysis of the Finite Element Method, 1973 [M])
   const notes: string[] = [];
-  // The default mesh aims at about 0.5% on the peak with 6-node elements (about 1% with 3-node);
-  // start the series from the size that should give the target, error ~ h^p, so a loose target
-  // does not pay for a fine first mesh nor a tight one for many coarse meshes.
-  const base = prep.order === 2 ? 0.005 : 0.01;
-  const s0 = Math.min(2, Math.max(0.35, Math.pow(target / base, 1 / pTh)));
+  const s0 = firstSeriesSizeFactor(prep.order, target);
   const first = analyseOnMesh(prep, { sizeFactor: s0 });
-  const { limit, marked } = adaptedLimit(first, referenceNode(first, settleAnalyses([first], [1], prep.named)));
+  const reference = findReferencePeak(first.evaluation, first.peak, settleAnalyses([first], [1], prep.named));
+  const { limit, marked } = adaptSizeLimit({ mesh: first.mesh, D: first.D, thickness: first.model.thickness, u: first.u, stress: first.stress }, reference, first.model.mesh?.grading);
   const meshes: MeshRecord[] = [];
   const runs: Analysis[] = [];
   let gci: GciResult | null = null;
@@ -167,26 +88,26 @@ export function certifyPrepared(prep: PreparedModel, opts: CertifyOptions = {}):
   let settlement: Settlement | null = null;
   let status: CertifyStatus = 'not-converged';
   for (let k = 0; k < maxMeshes; k++) {
-    const f = Math.pow(RATIO, -k);
+    const f = Math.pow(SERIES_RATIO, -k);
     let a: Analysis;
     try {
       // Pins in contact start where the previous mesh found their arcs.
       const prev = runs.length > 0 ? runs[runs.length - 1] : first;
       const contactHints = prev.pins?.contact ? hintsFromContact(prev.pins.contact.pins) : undefined;
-      a = k === 0 && !limit ? first : analyseOnMesh(prep, { sizeFactor: s0 * f, limit: scaled(limit, f), contactHints });
+      a = k === 0 && !limit ? first : analyseOnMesh(prep, { sizeFactor: s0 * f, limit: scaleSizeLimit(limit, f), contactHints });
     } catch (err) {
       // The next mesh would not fit in memory: stop with what the series has.
-      if (err instanceof ModelError && err.path === 'mesh' && runs.length > 0) {
+      if (err instanceof ModelTooLargeError && runs.length > 0) {
         notes.push(`stopped: ${err.message}`);
         break;
       }
       throw err;
     }
     runs.push(a);
-    meshes.push(record(a, f));
+    meshes.push(recordMesh(a, f));
     const sizes = meshes.map((m) => m.relativeSize);
     settlement = settleAnalyses(runs, sizes, prep.named);
-    const tracked = trackedSeries(meshes, settlement);
+    const tracked = trackSeries(meshes, settlement);
     quantity = tracked.quantity;
     if (tracked.values.length >= 2) gci = gridConvergence(tracked.sizes, tracked.values, pTh);
     if (runs.length >= 3 && gci) {
@@ -237,47 +158,12 @@ export function certifyPrepared(prep: PreparedModel, opts: CertifyOptions = {}):
   };
 }
 
-/**
- * The series the stopping rule watches: the governing raiser's headline Kt (the meshes where it
- * has a value), else that raiser's peak, else the part's highest stress.
- */
-function trackedSeries(meshes: readonly MeshRecord[], s: Settlement): { quantity: Certified['quantity']; sizes: number[]; values: number[] } {
-  const g = s.governing;
-  if (g >= 0) {
-    const kind = s.raisers[g].primary;
-    const sizes: number[] = [];
-    const values: number[] = [];
-    for (const m of meshes) {
-      const v = kind ? m.raisers[g].kt[kind] : Math.abs(m.raisers[g].peak);
-      if (v === null || v === undefined) continue;
-      sizes.push(m.relativeSize);
-      values.push(v);
-    }
-    return { quantity: { raiser: g, kind: kind ?? 'peak' }, sizes, values };
-  }
-  return { quantity: { raiser: -1, kind: 'peak' }, sizes: meshes.map((m) => m.relativeSize), values: meshes.map((m) => Math.abs(m.peak)) };
-}
-
-export interface GoverningKt {
-  /** the governing raiser's name, or null when no raiser has a Kt */
-  raiser: string | null;
-  /** the headline kind and value (given, remote, net, gross: the first not withheld) */
-  kind: KtKind | null;
-  value: number | null;
-  /** the relative error band of the headline value (null without a series) */
-  error: number | null;
-  net: number | null;
-  gross: number | null;
-  remote: number | null;
-}
-
 /** The governing raiser's Kt values, from a certified series or from one analysis alone. */
 export function governingKt(x: Certified | Analysis): GoverningKt {
   const s = 'settlement' in x ? x.settlement : settleAnalyses([x], [1], x.named);
   const a = 'settlement' in x ? x.analysis : x;
-  if (s.governing < 0) return { raiser: null, kind: null, value: null, error: null, net: null, gross: null, remote: null };
-  const r = s.raisers[s.governing];
-  const get = (k: KtKind) => r.kt.find((q) => q.kind === k)?.value ?? null;
-  const head = r.primary ? r.kt.find((q) => q.kind === r.primary)! : null;
-  return { raiser: a.raisers[s.governing].name, kind: r.primary, value: head?.value ?? null, error: head?.error ?? null, net: get('net'), gross: get('gross'), remote: get('remote') };
+  return findGoverningKt(s, a.raisers);
 }
+
+export type { GoverningKt };
+export type { MeshRecord };

@@ -120,3 +120,29 @@ export function neuberLocal(ktTimesS: number, E: number, K: number, n: number): 
 function withoutRoutineName(err: unknown): string {
   return (err as Error).message.replace(/^[A-Za-z]\w*: /, '');
 }
+
+/** The governing raiser as the design estimates need it: its peak and its headline Kt. */
+export interface GoverningPeak {
+  /** where the peak is (the notch radius is taken at the boundary point there) */
+  x: number;
+  y: number;
+  /** the elastic peak stress */
+  stress: number;
+  /** the headline Kt, or null when withheld */
+  kt: number | null;
+  /** whether the raiser's peak settled (not at a singular point) */
+  settled: boolean;
+}
+
+/**
+ * The design estimates of the governing raiser: q and Kf at its notch radius (null without a
+ * headline Kt or a notch radius there), and Neuber's local stress and strain from its elastic
+ * peak when the material gives a stress-strain curve and the peak settled (null otherwise).
+ */
+export function estimateDesign(domain: Domain, material: Material, units: ResolvedUnits, gov: GoverningPeak | null): { fatigue: FatigueEstimate | null; local: NeuberEstimate | null } {
+  const radius = gov ? notchRadiusAt(domain, gov.x, gov.y) : Infinity;
+  const fatigue = gov?.kt ? estimateFatigue(gov.kt, radius, material, units) : null;
+  const ss = material.stressStrain;
+  const local = ss && gov && gov.settled ? neuberLocal(Math.abs(gov.stress), material.E, ss.K, ss.n) : null;
+  return { fatigue, local };
+}

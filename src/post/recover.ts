@@ -20,6 +20,7 @@
  * "Superconvergent patch recovery with equilibrium and conjoint interpolant enhancements",
  * IJNME 37 (1994) 517-536.
  */
+import type { CompiledLoads, CompiledSupports } from '../fem/boundary-conditions.js';
 import type { Mesh } from '../mesh/types.js';
 import type { ElementSamples } from './stress.js';
 
@@ -53,6 +54,15 @@ export function boundaryNodes(mesh: Mesh): Uint8Array {
  * sigma . n (zero on a free edge); 'symmetry' for a mirror plane, where only the shear traction
  * is known (zero); null where nothing is known (a held edge, whose reaction is unknown).
  */
+/**
+ * The known traction of each domain edge for the recovery: the applied one, zero on a free edge,
+ * 'symmetry' on a mirror, unknown (null) where a support acts.
+ */
+export function describeKnownTractions(supports: Pick<CompiledSupports, 'symmetry' | 'supported'>, loads: Pick<CompiledLoads, 'edgeTraction'>): KnownTraction[] {
+  const zero: KnownTraction = (_x, _y, _nx, _ny, out) => ((out[0] = 0), (out[1] = 0));
+  return Array.from(supports.symmetry, (_s, i): KnownTraction => (supports.symmetry[i] ? 'symmetry' : supports.supported[i] ? null : (loads.edgeTraction[i] ?? zero)));
+}
+
 export type KnownTraction = ((x: number, y: number, nx: number, ny: number, out: number[]) => void) | 'symmetry' | null;
 
 /**

@@ -9,8 +9,8 @@ import { settleAnalyses, type Certified } from '../pipeline/certify.js';
 import { pointOnCut, type Cut } from '../post/section.js';
 import type { KtKind } from '../post/kt.js';
 import type { SettledKt, Settlement } from '../post/settle.js';
-import { compareWithChart } from '../charts/library.js';
-import { estimateFatigue, neuberLocal, notchRadiusAt } from '../post/design.js';
+import { compareRaiserWithChart } from '../post/chart-match.js';
+import { estimateDesign } from '../post/design.js';
 import { pinsResult } from './pins.js';
 import { describeBasis } from '../model/materials.js';
 import type { Model } from '../model/schema.js';
@@ -81,27 +81,6 @@ function ktEntry(k: SettledKt) {
   };
 }
 
-/**
- * The chart family a raiser's own shape belongs to, on any model: a circular hole centred in a
- * prismatic strip whose net section carries tension alone (its two ligaments equal within 1% of
- * the width, the bending part of its nominal stress under 1%) is Howland's hole in a strip.
- * Null when no family's shape and loading hold.
- */
-function recogniseChart(a: Analysis, ev: Analysis['evaluation']['raisers'][number]): { family: string; dims: Record<string, number> } | null {
-  if (ev.raiser.kind !== 'hole' || ev.raiser.edges.length !== 1 || !ev.section || !ev.gross || !ev.loads || ev.section.mirror) return null;
-  const c = a.domain.edges[ev.raiser.edges[0]].curve;
-  if (c.kind !== 'arc' || Math.abs(Math.abs(c.sweep) - 2 * Math.PI) > 1e-9) return null;
-  const lig = ev.section.ligaments;
-  if (lig.length !== 4) return null;
-  const W = ev.gross.cut.length;
-  if (Math.abs(lig[1] - lig[0] - (lig[3] - lig[2])) > 0.01 * W) return null;
-  const net = ev.kt.find((k) => k.kind === 'net');
-  if (!net || net.value === null) return null;
-  const membrane = ev.loads.N / ev.section.area;
-  if (Math.abs(net.nominal - membrane) > 0.01 * Math.abs(net.nominal)) return null;
-  return { family: 'plate-with-hole-tension', dims: { W, d: 2 * c.r } };
-}
-
 /** Every raiser of the last mesh with what the series settled about it, highest peak first. */
 function raisers(a: Analysis, s: Settlement, scale: number, cert: Certified | null, reported: ReadonlySet<number> | null) {
   const chartFor = a.model.chart;
@@ -119,8 +98,7 @@ function raisers(a: Analysis, s: Settlement, scale: number, cert: Certified | nu
     // The published chart of a template model belongs to the raiser it was built around; on any
     // model, a raiser that is a chart's shape gets that chart.
     const kts = { net: kt.net?.value ?? null, gross: kt.gross?.value ?? null };
-    const family = st.status !== 'ok' ? null : governing && chartFor ? chartFor : recogniseChart(a, ev);
-    const chart = family ? compareWithChart(family.family, family.dims, kts) : null;
+    const chart = compareRaiserWithChart(a.domain, ev, st.status, governing, chartFor, kts);
     return {
       index: i,
       name: ev.raiser.name,
@@ -228,10 +206,7 @@ function buildResultUnchecked(a: Analysis, file?: string, cert: Certified | null
   const gov = list.find((r) => r.governing) ?? null;
   const headKind = gov?.headline ?? null;
   const head = gov && headKind ? gov.kt[headKind]! : null;
-  const radius = gov ? notchRadiusAt(a.domain, gov.peak.x, gov.peak.y) : Infinity;
-  const fatigue = head?.value ? estimateFatigue(head.value, radius, m.material, a.units) : null;
-  const ss = m.material.stressStrain;
-  const local = ss && gov && gov.status === 'ok' ? neuberLocal(Math.abs(gov.peak.stress), m.material.E, ss.K, ss.n) : null;
+  const { fatigue, local } = estimateDesign(a.domain, m.material, a.units, gov && { x: gov.peak.x, y: gov.peak.y, stress: gov.peak.stress, kt: head?.value ?? null, settled: gov.status === 'ok' });
   const withheldWhy = !gov
     ? a.raisers.length === 0
       ? 'the part has no stress raiser (no hole, notch, fillet or other concave curved edge), so it has no Kt; the peak stress is reported'

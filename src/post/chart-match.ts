@@ -1,0 +1,44 @@
+/**
+ * A raiser against the published chart of its shape: which chart family it belongs to, and its
+ * computed Kt beside the chart's (src/charts/library.ts).
+ */
+import { compareWithChart, type ChartComparison } from '../charts/library.js';
+import type { Domain } from '../geometry/domain.js';
+import type { RaiserEvaluation } from './evaluate.js';
+
+/** A chart family with the dimensions of one case of it. */
+export interface ChartCase {
+  family: string;
+  dims: Record<string, number>;
+}
+
+/**
+ * The chart family a raiser's own shape belongs to, on any model: a circular hole centred in a
+ * prismatic strip whose net section carries tension alone (its two ligaments equal within 1% of
+ * the width, the bending part of its nominal stress under 1%) is Howland's hole in a strip.
+ * Null when no family's shape and loading hold.
+ */
+export function recogniseChart(domain: Domain, ev: RaiserEvaluation): ChartCase | null {
+  if (ev.raiser.kind !== 'hole' || ev.raiser.edges.length !== 1 || !ev.section || !ev.gross || !ev.loads || ev.section.mirror) return null;
+  const c = domain.edges[ev.raiser.edges[0]].curve;
+  if (c.kind !== 'arc' || Math.abs(Math.abs(c.sweep) - 2 * Math.PI) > 1e-9) return null;
+  const lig = ev.section.ligaments;
+  if (lig.length !== 4) return null;
+  const W = ev.gross.cut.length;
+  if (Math.abs(lig[1] - lig[0] - (lig[3] - lig[2])) > 0.01 * W) return null;
+  const net = ev.kt.find((k) => k.kind === 'net');
+  if (!net || net.value === null) return null;
+  const membrane = ev.loads.N / ev.section.area;
+  if (Math.abs(net.nominal - membrane) > 0.01 * Math.abs(net.nominal)) return null;
+  return { family: 'plate-with-hole-tension', dims: { W, d: 2 * c.r } };
+}
+
+/**
+ * The chart comparison of one raiser: none for a raiser whose Kt did not settle (status not
+ * 'ok'); the model's own chart (a template's) for the governing raiser; else the chart its shape
+ * is recognised as. `kts` are the settled net and gross Kt.
+ */
+export function compareRaiserWithChart(domain: Domain, ev: RaiserEvaluation, status: string, governing: boolean, modelChart: ChartCase | undefined, kts: { net: number | null; gross: number | null }): ChartComparison | null {
+  const family = status !== 'ok' ? null : governing && modelChart ? modelChart : recogniseChart(domain, ev);
+  return family ? compareWithChart(family.family, family.dims, kts) : null;
+}
