@@ -15,7 +15,7 @@ import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { constitutiveMatrix } from '../src/fem/material.js';
 import { isStraightP2 } from '../src/element/triangle.js';
 import { P2Scratch, TRI3, TRI6, internalForceP2, stiffnessP1, stiffnessP2, strainMatrixP2 } from '../src/fem/elements.js';
-import { addEdgeTraction } from '../src/fem/boundary-conditions.js';
+import { addEdgeTraction } from '../src/fem/traction.js';
 import { sampleElementStresses } from '../src/post/stress.js';
 import { boundaryFlags, distortedPatch, solveLinear } from './support/fe.js';
 

@@ -11,7 +11,7 @@
 import { describe, expect, it } from 'vitest';
 import { buildDomain } from '../src/geometry/domain.js';
 import { selectEdges } from '../src/geometry/select.js';
-import { addEdgeTraction } from '../src/fem/boundary-conditions.js';
+import { addEdgeTraction } from '../src/fem/traction.js';
 import { constitutiveMatrix } from '../src/fem/material.js';
 import { generateMesh } from '../src/mesh/generate.js';
 import { findPeak } from '../src/post/peak.js';

@@ -38,7 +38,7 @@ export interface ContactBenchRow {
 }
 
 /** One row: the lug at about `dof` DOF (6-node triangles) with the given diametral clearance. */
-export function benchContactLug(dof: number, clearance: number, runs: number): ContactBenchRow {
+function benchContactLug(dof: number, clearance: number, runs: number): ContactBenchRow {
   const W = 40;
   const d = 20;
   const model = lug({ W, d, clearance });

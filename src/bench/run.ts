@@ -19,8 +19,6 @@ import { runAdaptiveBench } from './adaptive.js';
 import { runContactBench } from './contact.js';
 import { benchAssembly, benchMesherAt, benchScaling, benchWholeMillion } from './scale.js';
 
-export { benchModel };
-
 function median(xs: number[]): number {
   const s = xs.slice().sort((a, b) => a - b);
   const m = s.length >> 1;
@@ -68,7 +66,7 @@ function benchAnalysis(runs: number, log: (s: string) => void): void {
   }
 }
 
-export function runBench(args: string[], log: (s: string) => void = console.log): void {
+function runBench(args: string[], log: (s: string) => void = console.log): void {
   const runs = 3;
   const t0 = performance.now();
   const large = args.includes('--large');

@@ -21,7 +21,7 @@ function median(xs: number[]): number {
 }
 
 /** Least-squares slope of log y against log x. */
-export function observedExponent(x: readonly number[], y: readonly number[]): number {
+function observedExponent(x: readonly number[], y: readonly number[]): number {
   const lx = x.map(Math.log);
   const ly = y.map(Math.log);
   const mx = lx.reduce((a, b) => a + b, 0) / lx.length;
@@ -81,7 +81,7 @@ export function benchAssembly(dofs: readonly number[], runs: number, log: (s: st
 }
 
 /** One whole analysis in a child process (dist/bench/whole.js): its own peak memory. */
-export function runWholeChild(dof: number, runs: number, warmups: number, element: 'linear' | 'quadratic' = 'quadratic'): WholeRow {
+function runWholeChild(dof: number, runs: number, warmups: number, element: 'linear' | 'quadratic' = 'quadratic'): WholeRow {
   const script = fileURLToPath(new URL('./whole.js', import.meta.url));
   const r = spawnSync(process.execPath, [script, '--dof', String(dof), '--runs', String(runs), '--warmups', String(warmups), '--element', element], {
     encoding: 'utf8',

@@ -31,7 +31,7 @@ export type BenchElement = 'linear' | 'quadratic';
  * CHOLMOD called directly with its AMD ordering, ordering + factorisation + solve in seconds,
  * linear / quadratic, on this machine (shared/MEASURED.md, second table, "with AMD, total").
  */
-export const CHOLMOD_AMD_SECONDS: ReadonlyArray<{ dof: number; linear: number; quadratic: number }> = [
+const CHOLMOD_AMD_SECONDS: ReadonlyArray<{ dof: number; linear: number; quadratic: number }> = [
   { dof: 1e4, linear: 0.018, quadratic: 0.028 },
   { dof: 1e5, linear: 0.32, quadratic: 0.37 },
   { dof: 5e5, linear: 2.3, quadratic: 2.8 },
@@ -40,13 +40,13 @@ export const CHOLMOD_AMD_SECONDS: ReadonlyArray<{ dof: number; linear: number; q
 ];
 
 /** The reference time at the listed size within 15 % of dof, or NaN. */
-export function cholmodReference(dof: number, element: BenchElement): number {
+function cholmodReference(dof: number, element: BenchElement): number {
   const r = CHOLMOD_AMD_SECONDS.find((x) => Math.abs(x.dof - dof) <= 0.15 * x.dof);
   return r === undefined ? NaN : r[element];
 }
 
 /** The cantilever benchmark problem of about `target` DOF with 3- or 6-node triangles. */
-export function benchProblem(target: number, element: BenchElement) {
+function benchProblem(target: number, element: BenchElement) {
   // 2:1 rectangle, nx = 2 ny cells: about 4 ny^2 DOF (linear), 16 ny^2 (quadratic)
   const ny = Math.max(2, Math.round(Math.sqrt(target / (element === 'linear' ? 4 : 16))));
   return element === 'linear' ? cantileverProblem(2 * ny, ny, 7) : cantileverProblemP2(2 * ny, ny, 7);

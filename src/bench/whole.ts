@@ -63,7 +63,7 @@ export function sizeFactorForDof(dof: number, element: 'linear' | 'quadratic'): 
   });
 }
 
-export function runWhole(dof: number, element: 'linear' | 'quadratic', runs: number, warmups: number): WholeRow {
+function runWhole(dof: number, element: 'linear' | 'quadratic', runs: number, warmups: number): WholeRow {
   const model = benchModel(sizeFactorForDof(dof, element));
   model.mesh = { ...model.mesh!, element };
   for (let w = 0; w < warmups; w++) analyseModel(model);

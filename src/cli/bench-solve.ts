@@ -59,7 +59,7 @@ function parseVector(file: string, n: number): Float64Array {
 }
 
 /** The printed report of one bench-solve run. */
-export function formatBenchSolve(file: string, a: SymmetricCsc, stats: SolveStats, times: { read: number; total: number; best: number }, runs: number, peakRssBytes: number, backwardErr = NaN): string {
+function formatBenchSolve(file: string, a: SymmetricCsc, stats: SolveStats, times: { read: number; total: number; best: number }, runs: number, peakRssBytes: number, backwardErr = NaN): string {
   const s = stats.seconds;
   const e = (x: number): string => x.toExponential(3);
   const sec = (x: number): string => `${x.toFixed(3)} s`;
@@ -102,7 +102,7 @@ function median(xs: number[]): number {
   return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
 }
 
-export function runBenchSolve(file: string, bFile: string | undefined, flags: BenchSolveFlags): number {
+function runBenchSolve(file: string, bFile: string | undefined, flags: BenchSolveFlags): number {
   const runs = flags.runs === undefined ? 1 : Number(flags.runs);
   if (!Number.isInteger(runs) || runs < 1 || runs > 100) throw new ModelError('--runs', `"${flags.runs}" is not a run count`, 'write --runs 3 (1 to 100)');
   const threads = flags.threads === undefined ? 2 : Number(flags.threads);

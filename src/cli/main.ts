@@ -26,7 +26,7 @@ import { addSolvePictureOptions, exportMatrixIfAsked, plotCommand, prepareSolveO
 import { probeCommand } from './probe.js';
 import { addSignOffOptions, applySignOff, checkSolvePdf, printPdfOf, reportCommand, EXIT_NO_PDF } from './report.js';
 
-export const EXIT = { ok: 0, internal: 1, badInput: 2, cannotAnalyse: 3, noPdf: EXIT_NO_PDF } as const;
+const EXIT = { ok: 0, internal: 1, badInput: 2, cannotAnalyse: 3, noPdf: EXIT_NO_PDF } as const;
 
 interface SolveFlags {
   accuracy?: string;

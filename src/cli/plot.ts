@@ -19,7 +19,7 @@ import { pictureFileNames, PICTURES, picturesFor, writePictures, type PictureOpt
 import { readSaved, SAVED_FILE, type PlotSource } from '../report/saved.js';
 
 /** The names `--only` takes, from the registry of pictures (src/report/pictures.ts). */
-export const PICTURE_NAMES: readonly string[] = PICTURES.map((p) => p.name);
+const PICTURE_NAMES: readonly string[] = PICTURES.map((p) => p.name);
 
 export interface PictureFlags {
   pictureSize?: string;
@@ -40,7 +40,7 @@ function numbers(text: string, count: number, what: string, example: string): nu
 }
 
 /** "1600x1000" -> [1600, 1000], each 200 .. 8000 pixels. */
-export function parseSize(text: string): [number, number] {
+function parseSize(text: string): [number, number] {
   const m = /^\s*(\d+)\s*[xX*]\s*(\d+)\s*$/.exec(text);
   const w = m ? Number(m[1]) : NaN;
   const h = m ? Number(m[2]) : NaN;
@@ -57,17 +57,17 @@ function pictureSizeText(flags: PictureFlags): string | undefined {
 }
 
 /** The one-line notice for the old option name; call once per run. */
-export function noteDeprecatedSize(flags: object): void {
+function noteDeprecatedSize(flags: object): void {
   if ((flags as PictureFlags).size !== undefined) process.stderr.write('raiser: --size is the old name of --picture-size and will be removed; write --picture-size\n');
 }
 
 /** The hidden old name of --picture-size. */
-export function deprecatedSizeOption(): Option {
+function deprecatedSizeOption(): Option {
   return new Option('--size <WxH>', 'old name of --picture-size').hideHelp();
 }
 
 /** The picture options from command-line flags. */
-export function pictureOptions(flags: PictureFlags, measureDefault?: StressMeasure): PictureOptions {
+function pictureOptions(flags: PictureFlags, measureDefault?: StressMeasure): PictureOptions {
   const o: PictureOptions = {};
   const size = pictureSizeText(flags);
   if (size) [o.width, o.height] = parseSize(size);

@@ -42,7 +42,7 @@ function pair(text: string, what: string): [number, number] {
 }
 
 /** The points asked for: each --at, then n points evenly along --line (ends included). */
-export function probePoints(flags: ProbeFlags): [number, number][] {
+function probePoints(flags: ProbeFlags): [number, number][] {
   const pts: [number, number][] = (flags.at ?? []).map((t) => pair(t, '--at'));
   if (flags.line) {
     const v = flags.line.split(/[,\s]+/).filter(Boolean).map(Number);
@@ -59,7 +59,7 @@ export function probePoints(flags: ProbeFlags): [number, number][] {
 }
 
 /** The stresses and displacements at the points of a saved solution. */
-export function probeSaved(saved: string, pts: readonly [number, number][]): { rows: ProbeRow[]; stressUnit: string; lengthUnit: string } {
+function probeSaved(saved: string, pts: readonly [number, number][]): { rows: ProbeRow[]; stressUnit: string; lengthUnit: string } {
   const src = readSaved(saved);
   const probe = new FieldProbe(src.mesh);
   const rows = pts.map(([x, y]): ProbeRow => {

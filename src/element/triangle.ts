@@ -109,7 +109,7 @@ export function isStraightP2(nodes: Float64Array, el: Int32Array, e: number): bo
 }
 
 /** True when midside node im of the side from ia to ib sits at the chord midpoint (to STRAIGHT_EDGE_TOLERANCE). */
-export function isStraightSide(nodes: Float64Array, ia: number, ib: number, im: number): boolean {
+function isStraightSide(nodes: Float64Array, ia: number, ib: number, im: number): boolean {
   const dx = nodes[2 * im] - 0.5 * (nodes[2 * ia] + nodes[2 * ib]);
   const dy = nodes[2 * im + 1] - 0.5 * (nodes[2 * ia + 1] + nodes[2 * ib + 1]);
   const l = Math.abs(nodes[2 * ib] - nodes[2 * ia]) + Math.abs(nodes[2 * ib + 1] - nodes[2 * ia + 1]);

@@ -9,14 +9,14 @@
  * p0 (d/2) t integral cos^2 = p0 pi d t / 4 along F, hence p0 = 4 F / (pi d t) [D].
  *
  * The nodal loads are the consistent ones of that pressure (traction -p n, n the outward normal
- * of the material) on the isoparametric hole edges (boundary-conditions.ts, addEdgeTraction).
+ * of the material) on the isoparametric hole edges (traction.ts, addEdgeTraction).
  * The meshed hole is not exactly the circle, so their sum differs from F by the discretisation
  * error (of the order of the chord error); the nodal forces are then multiplied by one factor
  * and turned by one small angle (a similarity: nothing about the distribution changes) so that
  * their resultant is exactly F. Both corrections are reported.
  */
 import type { Mesh } from '../mesh/types.js';
-import { addEdgeTraction, type TractionField } from './boundary-conditions.js';
+import { addEdgeTraction, type TractionField } from './traction.js';
 import type { PinHole } from './pins.js';
 
 export interface BearingLoad {
@@ -30,7 +30,7 @@ export interface BearingLoad {
 }
 
 /** The idealised cosine pressure of a pin pushed with `force` on the hole, before any correction. */
-export function bearingPressure(pin: PinHole, thickness: number, factor = 1): { q: TractionField; p0: number } {
+function bearingPressure(pin: PinHole, thickness: number, factor = 1): { q: TractionField; p0: number } {
   const [fx, fy] = pin.force;
   const F = Math.hypot(fx, fy);
   const ux = F > 0 ? fx / F : 1;

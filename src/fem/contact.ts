@@ -575,7 +575,7 @@ export function addContactForces(solution: ContactSolution, f: Float64Array, fix
  * for conforming cylinders (see solveContact's comment), at most 90 degrees; 90 degrees for a
  * close fit.
  */
-export function estimatedHalfAngle(pin: PinHole, F: number, material: { thickness: number; planeModulus: number }): number {
+function estimatedHalfAngle(pin: PinHole, F: number, material: { thickness: number; planeModulus: number }): number {
   const Rh = pin.radius;
   const Rp = Rh - pin.clearance / 2;
   if (!(Rh > Rp)) return Math.PI / 2;

@@ -45,16 +45,16 @@ export interface PinHole {
   force: [number, number];
 }
 
-export function isPinLoad(l: Load): l is PinLoad {
+function isPinLoad(l: Load): l is PinLoad {
   return l.type === 'bearing' || l.type === 'rigid-pin';
 }
 
-export function isPinSupport(s: Support): s is PinSupport {
+function isPinSupport(s: Support): s is PinSupport {
   return s.type === 'rigid-pin';
 }
 
 /** The circle a loop of arcs about one centre makes, or null when the loop is not a whole circle. */
-export function loopCircle(domain: Domain, loop: number): { cx: number; cy: number; radius: number } | null {
+function loopCircle(domain: Domain, loop: number): { cx: number; cy: number; radius: number } | null {
   const edges = domain.loops[loop].edges.map((id) => domain.edges[id].curve);
   const first = edges[0];
   if (first.kind !== 'arc') return null;
@@ -70,7 +70,7 @@ export function loopCircle(domain: Domain, loop: number): { cx: number; cy: numb
 }
 
 /** The domain loop of a hole named as in a "hole" selector (number from 1, or name), or -1. */
-export function holeLoop(domain: Domain, h: number | string): number {
+function holeLoop(domain: Domain, h: number | string): number {
   const loop = domain.loops.find((l) => l.hole > 0 && (typeof h === 'number' ? l.hole === h : l.name === h));
   return loop ? loop.index : -1;
 }

@@ -72,7 +72,7 @@ function describeMotion(a: number, b: number, c: number, cx: number, cy: number,
 }
 
 /** Eigen-decomposition of a symmetric 3x3 matrix by Jacobi rotations; vectors are columns. */
-export function symmetricEigen3(A: Float64Array): { values: Float64Array; vectors: Float64Array } {
+function symmetricEigen3(A: Float64Array): { values: Float64Array; vectors: Float64Array } {
   const a = Float64Array.from(A);
   const v = Float64Array.of(1, 0, 0, 0, 1, 0, 0, 0, 1);
   for (let sweep = 0; sweep < 50; sweep++) {

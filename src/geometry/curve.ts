@@ -404,7 +404,7 @@ const GL_X = [-0.906179845938664, -0.5384693101056831, 0, 0.5384693101056831, 0.
 const GL_W = [0.2369268850561891, 0.4786286704993665, 0.5688888888888889, 0.4786286704993665, 0.2369268850561891];
 
 /** Length of the curve between parameters ta and tb (5-point Gauss-Legendre on 16 pieces; adaptive for Bezier curves). */
-export function integrateSpeed(c: Curve, ta: number, tb: number): number {
+function integrateSpeed(c: Curve, ta: number, tb: number): number {
   if (c.kind === 'bezier') {
     const d = [0, 0];
     return Math.abs(
@@ -451,31 +451,6 @@ export function reverseCurve(c: Curve): Curve {
         p[2 * i + 1] = c.p[2 * (n - 1 - i) + 1];
       }
       return c.w ? { kind: 'bezier', p, w: c.w.slice().reverse() } : { kind: 'bezier', p };
-    }
-  }
-}
-
-/** Maps the curve by the similarity x -> s * R(theta) x + (tx, ty), with an optional mirror in x first. */
-export function transformCurve(c: Curve, s: number, theta: number, tx: number, ty: number): Curve {
-  const co = Math.cos(theta);
-  const si = Math.sin(theta);
-  const mx = (x: number, y: number) => s * (co * x - si * y) + tx;
-  const my = (x: number, y: number) => s * (si * x + co * y) + ty;
-  switch (c.kind) {
-    case 'line':
-      return { kind: 'line', x0: mx(c.x0, c.y0), y0: my(c.x0, c.y0), x1: mx(c.x1, c.y1), y1: my(c.x1, c.y1) };
-    case 'arc':
-      return { ...c, cx: mx(c.cx, c.cy), cy: my(c.cx, c.cy), r: s * c.r, a0: c.a0 + theta };
-    case 'ellipse':
-      return { ...c, cx: mx(c.cx, c.cy), cy: my(c.cx, c.cy), a: s * c.a, b: s * c.b, rot: c.rot + theta };
-    case 'bezier': {
-      // A Bezier curve (rational too) maps to the one of its mapped control points.
-      const p = c.p.slice();
-      for (let i = 0; i < p.length; i += 2) {
-        p[i] = mx(c.p[i], c.p[i + 1]);
-        p[i + 1] = my(c.p[i], c.p[i + 1]);
-      }
-      return c.w ? { kind: 'bezier', p, w: c.w.slice() } : { kind: 'bezier', p };
     }
   }
 }

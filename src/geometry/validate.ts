@@ -60,16 +60,16 @@ function fmt(v: number): string {
  * wedge takes about a second, of 0.1 degree it did not finish. A material angle within a degree
  * of a full turn is a slit of no width.
  */
-export const MIN_CORNER_ANGLE = Math.PI / 180;
+const MIN_CORNER_ANGLE = Math.PI / 180;
 
 /**
  * Farthest a part may lie from the origin, in part sizes: a double holds about 16 digits, so a
  * coordinate of 1e9 sizes keeps about 7 of the shape (Kt moves by 6e-7 there; by 3e-10 at 1e6).
  */
-export const MAX_OFFSET = 1e9;
+const MAX_OFFSET = 1e9;
 
 /** Smallest hole, as a fraction of the part (its box diagonal); mesh sizes have the same floor. */
-export const MIN_FEATURE = 1e-6;
+const MIN_FEATURE = 1e-6;
 
 /** Throws a ModelError for the first problem found; returns quietly for a valid domain. */
 export function validateDomain(domain: Domain): void {

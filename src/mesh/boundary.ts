@@ -118,7 +118,7 @@ function placeWithHardPoints(curve: Parameters<typeof evaluateCurve>[0], size: S
 }
 
 /** Parameters 0 = t0 < t1 < ... < tn = 1 of the points on one curve. */
-export function placeOnCurve(curve: Parameters<typeof evaluateCurve>[0], size: SizeField): Float64Array {
+function placeOnCurve(curve: Parameters<typeof evaluateCurve>[0], size: SizeField): Float64Array {
   const turn = curveTurn(curve);
   const whole = (curve.kind === 'arc' || curve.kind === 'ellipse') && (curve.sweep === 2 * Math.PI || curve.sweep === -2 * Math.PI);
   const minSegments = curve.kind === 'line' ? 1 : Math.max(whole ? 8 : 1, Math.ceil(turn / MAX_CHORD_TURN));

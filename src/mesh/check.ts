@@ -41,7 +41,7 @@ const DXI = new Float64Array(6);
 const DETA = new Float64Array(6);
 const JAC = new Float64Array(4);
 /** det J of a 6-node triangle at (xi, eta), by the derivatives of its shape functions. */
-export function detJP2(n: Float64Array, el: Int32Array, o: number, xi: number, eta: number): number {
+function detJP2(n: Float64Array, el: Int32Array, o: number, xi: number, eta: number): number {
   shapeDerivativesP2(xi, eta, DXI, DETA);
   jacobianP2(n, el, o, DXI, DETA, 0, JAC);
   return determinant2(JAC);

@@ -83,7 +83,7 @@ function insideGrid(domain: Domain, n: number): (x: number, y: number) => boolea
 }
 
 /** Degrees of freedom of a mesh of `triangles` triangles (2 per node; nodes per triangle 1/2 or 2). */
-export function estimateDofs(triangles: number, order: 1 | 2): number {
+function estimateDofs(triangles: number, order: 1 | 2): number {
   return 2 * triangles * (order === 2 ? 2 : 0.5);
 }
 

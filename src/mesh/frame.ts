@@ -75,7 +75,7 @@ export function partFrame(domain: Domain): Frame {
 }
 
 /** Frame coordinates of a model point (not rounded). */
-export function pointToFrame(f: Frame, x: number, y: number): [number, number] {
+function pointToFrame(f: Frame, x: number, y: number): [number, number] {
   return [(x - f.ax - f.cx) / f.s, (y - f.ay - f.cy) / f.s];
 }
 

@@ -268,7 +268,7 @@ function endDistance(x: number, y: number, cx: number, cy: number, r: number, a0
 }
 
 /** Default size away from raisers: a twentieth of the longer side, at most a sixth of the shorter. */
-export function defaultGlobalSize(domain: Domain, order: 1 | 2): number {
+function defaultGlobalSize(domain: Domain, order: 1 | 2): number {
   const [x0, y0, x1, y1] = domain.bbox;
   const w = x1 - x0;
   const hgt = y1 - y0;

@@ -53,7 +53,7 @@ const def = (s: Schema): Def => (s as unknown as { _zod: { def: Def } })._zod.de
 
 const WRAPPERS = new Set(['optional', 'nullable', 'default', 'prefault', 'readonly', 'nonoptional', 'catch']);
 
-export function unwrap(s: Schema): Schema {
+function unwrap(s: Schema): Schema {
   let cur = s;
   while (WRAPPERS.has(def(cur).type) && def(cur).innerType) cur = def(cur).innerType!;
   return cur;
@@ -69,7 +69,7 @@ function isOptional(s: Schema): boolean {
 }
 
 /** The first description found on the wrappers or the schema inside them. */
-export function descriptionOf(s: Schema): string | undefined {
+function descriptionOf(s: Schema): string | undefined {
   let cur: Schema | undefined = s;
   while (cur) {
     if (cur.description) return cur.description;
@@ -227,7 +227,7 @@ function childOf(v: unknown, key: Part): unknown {
   return (v as Record<string, unknown>)[key as string];
 }
 
-export function valueAtPath(root: unknown, parts: readonly Part[]): unknown {
+function valueAtPath(root: unknown, parts: readonly Part[]): unknown {
   let v = root;
   for (const p of parts) v = childOf(v, p);
   return v;
@@ -238,7 +238,7 @@ export function valueAtPath(root: unknown, parts: readonly Part[]): unknown {
  * A union at the end of the path is returned as the union, unless resolveLast asks for the
  * option the value there was meant to be.
  */
-export function schemaAtPath(root: Schema, data: unknown, parts: readonly Part[], resolveLast = false): Schema | undefined {
+function schemaAtPath(root: Schema, data: unknown, parts: readonly Part[], resolveLast = false): Schema | undefined {
   let s: Schema | undefined = root;
   let v = data;
   for (let i = 0; i <= parts.length && s; i++) {
@@ -273,7 +273,7 @@ export function schemaAtPath(root: Schema, data: unknown, parts: readonly Part[]
 // Words for values and expectations.
 
 /** A short picture of a value: 12, the text "abc", a list [1, 2], an object {"a": 1}. */
-export function showValue(v: unknown): string {
+function showValue(v: unknown): string {
   if (v === undefined) return 'nothing';
   if (typeof v === 'number' && !Number.isFinite(v)) return String(v);
   let j: string;
@@ -334,7 +334,7 @@ function isPoint(s: Schema): boolean {
 }
 
 /** What a schema wants, as a noun phrase: "a positive number", "a point [x, y]", ... */
-export function expectedPhrase(s: Schema): string {
+function expectedPhrase(s: Schema): string {
   const u = unwrap(s);
   const d = def(u);
   switch (d.type) {
@@ -414,7 +414,7 @@ function patternOf(parts: readonly Part[]): string {
  * Problems for one zod issue. The issue's path is relative to base, and baseSchema is the
  * schema that governs the value at base (the root, or the chosen option of a union there).
  */
-export function translateIssue(issue: z.core.$ZodIssue, base: readonly Part[], baseSchema: Schema, ctx: TranslateContext): Problem[] {
+function translateIssue(issue: z.core.$ZodIssue, base: readonly Part[], baseSchema: Schema, ctx: TranslateContext): Problem[] {
   const rel = issue.path as Part[];
   const parts: Part[] = [...base, ...rel];
   const v = valueAtPath(ctx.data, parts);
@@ -519,7 +519,7 @@ export function translateIssue(issue: z.core.$ZodIssue, base: readonly Part[], b
   }
 }
 
-export const SUPPORT_HINT =
+const SUPPORT_HINT =
   'add supports that stop rigid motion: "symmetry" on mirror edges, a "fixed" or "roller" edge, or "pin" supports at two points';
 
 function translateUnion(issue: z.core.$ZodIssueInvalidUnion, base: readonly Part[], baseSchema: Schema, ctx: TranslateContext): Problem[] {

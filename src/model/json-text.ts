@@ -43,7 +43,7 @@ export interface JsonDuplicate {
  * has one of these names; a file that uses one is refused (as an unknown field) before any
  * object is built from it, so it can never reach an object's prototype.
  */
-export const RESERVED_KEYS: ReadonlySet<string> = new Set(['__proto__', 'constructor', 'prototype']);
+const RESERVED_KEYS: ReadonlySet<string> = new Set(['__proto__', 'constructor', 'prototype']);
 
 export interface JsonScan {
   /** the first syntax error, if the text is not JSON */

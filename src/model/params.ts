@@ -28,9 +28,9 @@ const FUNCTIONS: Record<string, { arity: number | 'any'; fn: (...a: number[]) =>
 };
 
 /** Longest expression read (characters), deepest nesting of parentheses and calls, and most arguments of one call. */
-export const MAX_EXPRESSION_LENGTH = 1000;
-export const MAX_EXPRESSION_DEPTH = 32;
-export const MAX_EXPRESSION_ARGUMENTS = 100;
+const MAX_EXPRESSION_LENGTH = 1000;
+const MAX_EXPRESSION_DEPTH = 32;
+const MAX_EXPRESSION_ARGUMENTS = 100;
 
 const SYNTAX_HINT = 'expressions take numbers, parameter names, + - * / ^, parentheses and sqrt abs min max sind cosd tand atan2d pi';
 

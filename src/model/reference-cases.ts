@@ -109,7 +109,7 @@ export const REFERENCE_CASES: readonly ReferenceCase[] = [
 ];
 
 /** The model of a reference case: the template's output with $schema and the reference note. */
-export function referenceModel(c: ReferenceCase): Model {
+function referenceModel(c: ReferenceCase): Model {
   const m = expandTemplate(c.template, c.params, { schema: '../schema/raiser-model.schema.json' });
   return { ...m, note: `${c.reference} ${m.note}` };
 }

@@ -13,7 +13,7 @@ import { PRODUCT_FORMS, type MaterialBasis } from './materials.js';
 
 const finite = () => z.number();
 const positive = () => z.number().positive();
-export const Point = z.tuple([finite(), finite()]).describe('a point [x, y] in model length units');
+const Point = z.tuple([finite(), finite()]).describe('a point [x, y] in model length units');
 
 // ---------------------------------------------------------------------------------------------
 // Boundary selectors: how loads and supports find the part of the boundary they act on.
@@ -93,14 +93,14 @@ export const PathLoop = z.strictObject({
   path: z.array(Vertex).min(2).describe('vertices in order; the loop closes itself from the last vertex back to the first (two vertices make a loop when at least one of its edges is an arc: a hole of two half circles)'),
   ...loopCommon,
 });
-export const CircleLoop = z.strictObject({
+const CircleLoop = z.strictObject({
   shape: z.literal('circle').describe('a circle'),
   center: Point.describe('centre of the circle'),
   radius: positive().optional().describe('radius (give radius or diameter)'),
   diameter: positive().optional().describe('diameter (give radius or diameter)'),
   ...loopCommon,
 });
-export const EllipseLoop = z.strictObject({
+const EllipseLoop = z.strictObject({
   shape: z.literal('ellipse').describe('an ellipse'),
   center: Point.describe('centre of the ellipse'),
   a: positive().describe('semi-axis along the direction given by angle'),
@@ -108,7 +108,7 @@ export const EllipseLoop = z.strictObject({
   angle: finite().optional().describe('rotation of the a axis from +x, degrees counter-clockwise (default 0)'),
   ...loopCommon,
 });
-export const SlotLoop = z.strictObject({
+const SlotLoop = z.strictObject({
   shape: z.literal('slot').describe('a straight slot with half-circle ends'),
   center: Point.describe('centre of the slot'),
   length: positive().describe('overall length, end to end, including the round ends'),
@@ -116,7 +116,7 @@ export const SlotLoop = z.strictObject({
   angle: finite().optional().describe('rotation of the length direction from +x, degrees counter-clockwise (default 0)'),
   ...loopCommon,
 });
-export const RoundedRectLoop = z.strictObject({
+const RoundedRectLoop = z.strictObject({
   shape: z.literal('rounded-rect').describe('a rectangle with rounded corners'),
   center: Point.describe('centre of the rectangle'),
   width: positive().describe('size along the rotated x direction'),
@@ -139,7 +139,7 @@ export const TypedGeometry = z.strictObject({
 export type TypedGeometry = z.infer<typeof TypedGeometry>;
 
 /** The length units a drawing may be in (src/geometry/import/types.ts gives their sizes). */
-export const DRAWING_UNIT_NAMES = ['mm', 'cm', 'm', 'in', 'ft', 'px', 'pt'] as const;
+const DRAWING_UNIT_NAMES = ['mm', 'cm', 'm', 'in', 'ft', 'px', 'pt'] as const;
 
 export const DrawingGeometry = z.strictObject({
   from: z
@@ -181,7 +181,7 @@ export type Geometry = TypedGeometry | (DrawingGeometry & { holes?: undefined })
 export const LENGTH_UNITS = ['mm', 'cm', 'm', 'in', 'ft'] as const;
 export const FORCE_UNITS = ['N', 'kN', 'MN', 'lbf', 'kip'] as const;
 
-export const Units = z
+const Units = z
   .strictObject({
     length: z.enum(LENGTH_UNITS).optional().describe('length unit (default mm)'),
     force: z.enum(FORCE_UNITS).optional().describe('force unit (default N); stress is force / length^2'),
@@ -357,7 +357,7 @@ export const ResultSettings = z.strictObject({
 });
 export type ResultSettings = z.infer<typeof ResultSettings>;
 
-export const ChartLink = z.strictObject({
+const ChartLink = z.strictObject({
   family: z.string().describe('the published chart family this model was built for'),
   dims: z.record(z.string(), z.number()).describe('the family\'s dimensions, in model length units'),
 });

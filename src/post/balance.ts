@@ -23,7 +23,7 @@ export interface Balance {
 }
 
 /** The resultant force and moment (about the origin) of nodal forces f, 2 per node. */
-export function sumResultant(mesh: Mesh, f: Float64Array): Resultant {
+function sumResultant(mesh: Mesh, f: Float64Array): Resultant {
   let fx = 0;
   let fy = 0;
   let m = 0;

@@ -18,7 +18,7 @@ export interface ChartCase {
  * the width, the bending part of its nominal stress under 1%) is Howland's hole in a strip.
  * Null when no family's shape and loading hold.
  */
-export function recogniseChart(domain: Domain, ev: RaiserEvaluation): ChartCase | null {
+function recogniseChart(domain: Domain, ev: RaiserEvaluation): ChartCase | null {
   if (ev.raiser.kind !== 'hole' || ev.raiser.edges.length !== 1 || !ev.section || !ev.gross || !ev.loads || ev.section.mirror) return null;
   const c = domain.edges[ev.raiser.edges[0]].curve;
   if (c.kind !== 'arc' || Math.abs(Math.abs(c.sweep) - 2 * Math.PI) > 1e-9) return null;

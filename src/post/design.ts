@@ -11,7 +11,7 @@ import type { Material } from '../model/schema.js';
 import type { ResolvedUnits } from '../model/units.js';
 
 /** The radius of curvature of the boundary at the peak (Infinity on a straight edge), length units. */
-export function notchRadiusAt(domain: Domain, x: number, y: number): number {
+function notchRadiusAt(domain: Domain, x: number, y: number): number {
   const b = nearestBoundaryPoint(domain, x, y);
   if (b.edge < 0 || b.distance > 1e-6 * domain.scale) return Infinity;
   return curvatureRadius(domain.edges[b.edge].curve, b.t);

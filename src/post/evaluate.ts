@@ -30,7 +30,7 @@ export interface MeshEvaluation {
 }
 
 /** The most raisers given a section and Kt on one mesh (our choice; the rest report their peaks). */
-export const MAX_EVALUATED = 40;
+const MAX_EVALUATED = 40;
 
 export interface EvaluateInput {
   domain: Domain;

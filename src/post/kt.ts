@@ -43,7 +43,7 @@ import { beamStress, cutBetween, cutOnLine, largestBeamStress, loadsThroughCut, 
  */
 export const KT_LIMIT = 30;
 /** Above this ratio of the second to the first nominal (or remote principal) stress, the state is biaxial (our choice: 10% changes Kirsch's 3 by 0.1). */
-export const BIAXIAL_RATIO = 0.1;
+const BIAXIAL_RATIO = 0.1;
 
 export type KtKind = 'net' | 'gross' | 'remote' | 'given' | 'bearing';
 
@@ -159,7 +159,7 @@ function sectionDoubts(cut: Cut, loads: CutLoads, v: number, units: { stress: st
  * hole, on each side of the raiser that has material; the widths found on the two sides must
  * agree. Null when the part is not prismatic there (a shoulder, a lug's round end).
  */
-export function findGrossSection(domain: Domain, net: Cut, raiser: Raiser, vRaiser: number): GrossSection | null {
+function findGrossSection(domain: Domain, net: Cut, raiser: Raiser, vRaiser: number): GrossSection | null {
   const lo = net.ligaments[0];
   const hi = net.ligaments[net.ligaments.length - 1];
   const mine = new Set(raiser.edges);

@@ -26,7 +26,7 @@ import type { Raiser } from './raisers.js';
 import { makeCut, type Cut } from './section.js';
 
 /** How far a cut may turn from the normal of the flow at the peak, radians. */
-export const CUT_TURN = (40 * Math.PI) / 180;
+const CUT_TURN = (40 * Math.PI) / 180;
 /** A cut square to a straight edge of the outline is preferred when its material is within this fraction of the least (our choice: 1% of the nominal stress). */
 export const ALIGNED_SLACK = 0.01;
 

@@ -43,7 +43,7 @@ export function vertexElements(mesh: Mesh): { ptr: Int32Array; idx: Int32Array }
 }
 
 /** Boundary flag per node. */
-export function boundaryNodes(mesh: Mesh): Uint8Array {
+function boundaryNodes(mesh: Mesh): Uint8Array {
   const on = new Uint8Array(mesh.nNodes);
   for (let s = 0; s < mesh.nBEdges; s++) for (let k = 0; k < 3; k++) if (mesh.bEdges[3 * s + k] >= 0) on[mesh.bEdges[3 * s + k]] = 1;
   return on;
@@ -378,54 +378,6 @@ function solveNormal(ata: Float64Array, atb: Float64Array, n: number, out: Float
     }
   }
   return true;
-}
-
-/**
- * Unit tangents of the boundary at each boundary node (direction of travel, material on the
- * left), from the isoparametric boundary edges; a node where the tangent jumps (a corner) gets
- * NaN, since no single normal applies there.
- */
-export function boundaryTangents(mesh: Mesh): Float64Array {
-  const tan = new Float64Array(2 * mesh.nNodes).fill(NaN);
-  const acc = new Float64Array(2 * mesh.nNodes);
-  const cnt = new Uint8Array(mesh.nNodes);
-  const n = mesh.nodes;
-  const put = (node: number, dx: number, dy: number) => {
-    const l = Math.hypot(dx, dy);
-    const tx = dx / l;
-    const ty = dy / l;
-    if (cnt[node] > 0) {
-      const px = acc[2 * node] / cnt[node];
-      const py = acc[2 * node + 1] / cnt[node];
-      // Tangents that disagree by more than 10 degrees mark a corner.
-      if (px * tx + py * ty < Math.cos(Math.PI / 18)) cnt[node] = 255;
-    }
-    if (cnt[node] === 255) return;
-    acc[2 * node] += tx;
-    acc[2 * node + 1] += ty;
-    cnt[node]++;
-  };
-  for (let s = 0; s < mesh.nBEdges; s++) {
-    const a = mesh.bEdges[3 * s];
-    const b = mesh.bEdges[3 * s + 1];
-    const m = mesh.bEdges[3 * s + 2];
-    if (m >= 0) {
-      // x(u) = Na xa + Nm xm + Nb xb; dx/du at u = 0, 1/2, 1.
-      put(a, -3 * n[2 * a] + 4 * n[2 * m] - n[2 * b], -3 * n[2 * a + 1] + 4 * n[2 * m + 1] - n[2 * b + 1]);
-      put(m, n[2 * b] - n[2 * a], n[2 * b + 1] - n[2 * a + 1]);
-      put(b, n[2 * a] - 4 * n[2 * m] + 3 * n[2 * b], n[2 * a + 1] - 4 * n[2 * m + 1] + 3 * n[2 * b + 1]);
-    } else {
-      put(a, n[2 * b] - n[2 * a], n[2 * b + 1] - n[2 * a + 1]);
-      put(b, n[2 * b] - n[2 * a], n[2 * b + 1] - n[2 * a + 1]);
-    }
-  }
-  for (let i = 0; i < mesh.nNodes; i++) {
-    if (cnt[i] === 0 || cnt[i] === 255) continue;
-    const l = Math.hypot(acc[2 * i], acc[2 * i + 1]);
-    tan[2 * i] = acc[2 * i] / l;
-    tan[2 * i + 1] = acc[2 * i + 1] / l;
-  }
-  return tan;
 }
 
 /**

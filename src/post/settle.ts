@@ -67,7 +67,7 @@ const SINGULAR_RISE = 0.03;
 const NEGLIGIBLE = 0.05;
 
 /** Whether a series of stresses grows under refinement (null with fewer than three values). */
-export function growsUnderRefinement(sizes: readonly number[], values: readonly number[], order: number): boolean | null {
+function growsUnderRefinement(sizes: readonly number[], values: readonly number[], order: number): boolean | null {
   if (values.length < 3) return null;
   const mags = values.map(Math.abs);
   const n = mags.length;

@@ -80,7 +80,7 @@ export function drawLegend(s: Scene, col: Box, heading: string[], map: ColourMap
 }
 
 /** The box drawLabel covers for a label at (x, y). */
-export function labelBox(text: string, x: number, y: number, size: number, anchor: 'start' | 'middle' | 'end' = 'start', weight: 'normal' | 'bold' = 'normal'): Box {
+function labelBox(text: string, x: number, y: number, size: number, anchor: 'start' | 'middle' | 'end' = 'start', weight: 'normal' | 'bold' = 'normal'): Box {
   const w = textWidth(text, size, weight);
   const left = anchor === 'start' ? x : anchor === 'middle' ? x - w / 2 : x - w;
   const pad = size * 0.3;

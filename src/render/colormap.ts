@@ -14,7 +14,7 @@ export interface ColourMap {
   table: Float64Array;
 }
 
-export const COLOUR_MAPS: Record<string, ColourMap> = {
+const COLOUR_MAPS: Record<string, ColourMap> = {
   batlow: {
     name: 'batlow',
     source: 'F. Crameri, Scientific colour maps (2018), doi:10.5281/zenodo.1243862; Crameri, Shephard & Heron, Nat. Commun. 11 (2020) 5444',

@@ -115,7 +115,7 @@ const OVERLAP_PX = 0.3;
  * sagitta d / n^2. With both errors under CHORD_ERROR_PX the sliver is under 2 CHORD_ERROR_PX,
  * which paintField's overlap of OVERLAP_PX covers.
  */
-export function subdivisions(mesh: DrawMesh, e: number, view: View, k = 1, forIso = false): number {
+function subdivisions(mesh: DrawMesh, e: number, view: View, k = 1, forIso = false): number {
   if (mesh.order === 1) return 1;
   const el = mesh.elements;
   const straight = isDrawnStraight(mesh.nodes, el, e);

@@ -38,7 +38,7 @@ export function prepareOutputDir(dir: string, names: string[], force: boolean, o
 export { writeAtomic };
 
 /** Nodal results as CSV: position, displacement, recovered stresses and measures. */
-export function nodalCsv(a: Analysis): string {
+function nodalCsv(a: Analysis): string {
   const n = a.mesh.nNodes;
   const s1 = measureField(a.stress, 'max-principal', a.szzFactor);
   const s2 = measureField(a.stress, 'min-principal', a.szzFactor);
@@ -71,7 +71,7 @@ export interface OutputOptions {
 }
 
 /** Every file writeResultFiles writes with these options. */
-export function resultFileNames(result: ResultJson, opts: OutputOptions = {}): string[] {
+function resultFileNames(result: ResultJson, opts: OutputOptions = {}): string[] {
   const names = [...RESULT_FILES, SAVED_FILE, 'result.vtu'];
   if (opts.pictures !== false) names.push(...pictureFileNames(result.convergence.meshes.length >= 2), 'report.html');
   return names;
@@ -106,7 +106,7 @@ export function writeResultFiles(dir: string, a: Analysis, result: ResultJson, f
 }
 
 /** The standard pictures and report.html from a solution (also what raiser plot redraws). */
-export function writePicturesAndReport(dir: string, src: PlotSource, pictureOptions: PictureOptions, report = true): string[] {
+function writePicturesAndReport(dir: string, src: PlotSource, pictureOptions: PictureOptions, report = true): string[] {
   const { written } = writePictures(dir, standardPictures(src, pictureOptions));
   if (report) {
     const html = join(dir, 'report.html');

@@ -12,7 +12,7 @@ import { hostname } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { ModelError } from '../model/errors.js';
 
-export const LOCK_FILE = '.raiser-lock';
+const LOCK_FILE = '.raiser-lock';
 
 /** What a path that is not a folder is, in words. */
 function kindOf(st: Stats): string {

@@ -10,7 +10,7 @@ import { pathToFileURL } from 'node:url';
 import { writeAtomic } from './atomic.js';
 
 /** Where a Chromium or Chrome is commonly installed, tried in this order after $RAISER_CHROMIUM. */
-export const CHROMIUM_PATHS = [
+const CHROMIUM_PATHS = [
   '/usr/bin/chromium',
   '/usr/bin/chromium-browser',
   '/usr/bin/google-chrome',
@@ -22,7 +22,7 @@ export const CHROMIUM_PATHS = [
 ];
 
 /** How to get a browser, for the message when none is found. */
-export const CHROMIUM_HOWTO =
+const CHROMIUM_HOWTO =
   'install Chromium (on Debian or Ubuntu: apt install chromium) or Google Chrome, or set RAISER_CHROMIUM to the path of a Chromium or Chrome executable; report.html can also be printed to PDF from any browser (File, Print)';
 
 /** A PDF that could not be made: no browser, or the browser failed. The HTML report stands. */

@@ -210,7 +210,7 @@ function describeMesh(src: PlotSource): string {
 }
 
 /** The place and value of the peak of a measure: the analysis's own peak, or the nodal extreme. */
-export function peakOf(src: PlotSource, measure: StressMeasure): { x: number; y: number; value: number } {
+function peakOf(src: PlotSource, measure: StressMeasure): { x: number; y: number; value: number } {
   const r = src.result;
   if (measure === r.peak.measure) return { x: r.peak.x, y: r.peak.y, value: r.peak.stress };
   const f = stressField(src, measure);
@@ -270,7 +270,7 @@ function mirrorPlanes(src: PlotSource): PlaneOfResult[] {
  * boundary edges on the planes, inside the whole part, are left out, so the outline closes round
  * the whole part. Returns the source unchanged for a whole model.
  */
-export function wholePart(src: PlotSource): { src: PlotSource; planes: PlaneOfResult[] } {
+function wholePart(src: PlotSource): { src: PlotSource; planes: PlaneOfResult[] } {
   const planes = mirrorPlanes(src);
   if (planes.length === 0) return { src, planes };
   const m = src.mesh;
@@ -521,7 +521,7 @@ function roundFactor(f: number): number {
 }
 
 /** The model window around the peak for the close-up: several elements and the notch radius. */
-export function peakWindow(src: PlotSource, measure?: StressMeasure): [number, number, number, number] {
+function peakWindow(src: PlotSource, measure?: StressMeasure): [number, number, number, number] {
   const pk = peakOf(src, measure ?? src.result.peak.measure);
   const m = src.mesh;
   const per = m.order === 2 ? 6 : 3;

@@ -225,7 +225,7 @@ function esc(t: unknown): string {
  * about the hole's centre, over the arc in contact and a margin either side, with the arc's ends
  * marked. Plain strokes and text, no script.
  */
-export function pressureChartSvg(c: NonNullable<PinsJson['items'][number]['contact']>, stressUnit: string): string {
+function pressureChartSvg(c: NonNullable<PinsJson['items'][number]['contact']>, stressUnit: string): string {
   const W = 480;
   const H = 200;
   const L = 56;

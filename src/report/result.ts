@@ -19,7 +19,7 @@ import { describeRaiserShape, type RaiserShape } from '../post/raisers.js';
 export const TOOL_VERSION = '0.1.0';
 
 /** The cautions every result carries, in plain words. */
-export const CAUTIONS = [
+const CAUTIONS = [
   'Linear elastic, small-strain analysis: stresses are proportional to the loads; yielding, contact (but that of rigid frictionless pins in holes, when the model has them), buckling and large deflection are not modelled.',
   'A peak stress above the yield strength means local plastic flow: the real peak stress is lower and the local strain higher than this elastic result.',
   'Kt is the elastic (theoretical) stress concentration factor. For fatigue use the fatigue notch factor Kf = 1 + q (Kt - 1), with the notch sensitivity q of the material and notch radius.',
@@ -181,7 +181,7 @@ function convergence(c: Certified | null, scale: number) {
 }
 
 /** NaN never reaches a result: every number must be finite (null stands for "none"). */
-export function assertFiniteResult(value: unknown, path = 'result'): void {
+function assertFiniteResult(value: unknown, path = 'result'): void {
   if (typeof value === 'number') {
     if (!Number.isFinite(value)) throw new InternalError(`the result field ${path} is ${value}: a computation failed; the result is not written`);
     return;

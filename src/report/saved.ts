@@ -212,7 +212,7 @@ export function decodeSaved(buf: Buffer, name = SAVED_FILE): PlotSource {
 }
 
 /** Largest saved solution read (4 GiB): a million-DOF solution is about 200 MB. */
-export const MAX_SAVED_BYTES = 4 * 2 ** 30;
+const MAX_SAVED_BYTES = 4 * 2 ** 30;
 
 /** Reads a saved solution from the file, or from a folder holding solution.raiser. */
 export function readSaved(path: string): PlotSource {

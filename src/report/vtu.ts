@@ -22,7 +22,7 @@ export const VTK_TRIANGLE = 5;
 export const VTK_QUADRATIC_TRIANGLE = 22;
 
 /** VTK point k of a quadratic triangle is raiser's local node VTK_QUADRATIC_TRIANGLE_ORDER[k]. */
-export const VTK_QUADRATIC_TRIANGLE_ORDER = [0, 1, 2, 3, 4, 5] as const;
+const VTK_QUADRATIC_TRIANGLE_ORDER = [0, 1, 2, 3, 4, 5] as const;
 
 export interface VtuInput {
   mesh: Mesh;

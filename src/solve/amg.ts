@@ -127,7 +127,7 @@ function lowerFromFull(a: Csr): SymmetricCsc {
 }
 
 /** y = A x. */
-export function multiplyCsr(a: Csr, x: Float64Array, y: Float64Array): void {
+function multiplyCsr(a: Csr, x: Float64Array, y: Float64Array): void {
   const { ptr, idx, val } = a;
   for (let i = 0; i < a.rows; i++) {
     let s = 0;

@@ -65,7 +65,7 @@ export interface FactorOptions {
 }
 
 /** Factorisations with fewer flops stay on one thread (measured start-up of a worker: about 30 ms). */
-export const PARALLEL_MIN_FLOPS = 5e8;
+const PARALLEL_MIN_FLOPS = 5e8;
 
 /**
  * Numeric factorisation by the supernodal multifrontal method. For each

@@ -90,7 +90,7 @@ export function solveCholesky(factor: CholeskyFactor, b: Float64Array, nrhs = 1,
 }
 
 /** Factors with fewer stored values are solved on one thread. */
-export const PARALLEL_MIN_SOLVE_VALUES = 4e6;
+const PARALLEL_MIN_SOLVE_VALUES = 4e6;
 
 export interface SolveCholeskyOptions {
   /** the second thread, owned by the caller: with it, a factor made on two threads is solved on two */

@@ -394,7 +394,7 @@ export type ExtendAdd = (f: number, m8: number, u: number, rel: number, mc: numb
 export type ZeroLower = (f: number, m8: number) => void;
 
 /** A WebAssembly memory with the compiled kernels; grows on demand. */
-export class WasmHeap {
+class WasmHeap {
   readonly memory: WasmMemory;
   readonly rowBlock4: RowBlock4;
   readonly extendAdd: ExtendAdd;
@@ -417,11 +417,10 @@ export class WasmHeap {
     let memory: WasmMemory;
     try {
       memory = new wasmApi.Memory({ initial: 1 });
-    } catch (e) {
+    } catch {
       // V8 reserves about 10 GB of address space for every WebAssembly memory (guard pages that
       // spare it bounds checks); under a smaller virtual memory limit (ulimit -v) that fails.
       // The JavaScript kernel computes the same factor, more slowly.
-      heapProblem = `the WebAssembly kernel could not reserve its address space (${(e as Error).message}); the slower JavaScript kernel was used`;
       return null;
     }
     const instance = new wasmApi.Instance(new wasmApi.Module(bytes), { env: { mem: memory } });
@@ -446,13 +445,6 @@ export class WasmHeap {
     if (this.view.buffer !== this.memory.buffer) this.view = new Float64Array(this.memory.buffer);
     return this.view;
   }
-}
-
-let heapProblem: string | undefined;
-
-/** Why the WebAssembly kernel could not be used in this process, if it could not. */
-export function wasmHeapProblem(): string | undefined {
-  return heapProblem;
 }
 
 let shared: WasmHeap | null | undefined;

@@ -35,7 +35,7 @@ export interface SweepTitle {
 const short = (v: number) => Number(v.toPrecision(4)).toString();
 
 /** "d from 10 to 50 (5 values)" for each varied name. */
-export function describeVary(vary: Vary[]): string {
+function describeVary(vary: Vary[]): string {
   return vary.map((v) => (v.values.length > 1 ? `${v.name} from ${short(Math.min(...v.values))} to ${short(Math.max(...v.values))} (${v.values.length} values)` : `${v.name} = ${short(v.values[0])}`)).join(', ');
 }
 

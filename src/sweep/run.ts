@@ -145,7 +145,7 @@ export async function runSweep(file: string, opts: SweepOptions): Promise<SweepR
  * model's own title names one case's dimensions, "d/W = 0.2" say), with the dimensions held;
  * for a model with parameters, its title and the parameters held.
  */
-export function sweepTitle(src: SweepSource): SweepTitle {
+function sweepTitle(src: SweepSource): SweepTitle {
   if (src.kind === 'template' && src.model.chart) {
     const found = chartForFamily(src.model.chart.family, src.model.chart.dims);
     const dims = { ...src.model.chart.dims };
@@ -157,7 +157,7 @@ export function sweepTitle(src: SweepSource): SweepTitle {
 }
 
 /** x of a case: the expression evaluated with the case's values and the model's parameters or dimensions. */
-export function caseX(src: SweepSource, row: CaseRow, xExpr: string): number {
+function caseX(src: SweepSource, row: CaseRow, xExpr: string): number {
   const base = src.kind === 'parameters' ? (src.model.parameters ?? {}) : (src.model.chart?.dims ?? {});
   try {
     return evaluateExpression(xExpr, { ...base, ...row.values });

@@ -75,7 +75,7 @@ export interface ManufacturedRow {
 }
 
 /** The manufactured displacement (u, v) at (x, y). */
-export function manufacturedDisplacement(U0: number, x: number, y: number, out: number[]): void {
+function manufacturedDisplacement(U0: number, x: number, y: number, out: number[]): void {
   const sx = Math.sin(Math.PI * x);
   const cx = Math.cos(Math.PI * x);
   const sy = Math.sin(Math.PI * y);
@@ -85,7 +85,7 @@ export function manufacturedDisplacement(U0: number, x: number, y: number, out: 
 }
 
 /** The manufactured strain (exx, eyy, gxy) at (x, y), engineering shear strain. */
-export function manufacturedStrain(U0: number, x: number, y: number, out: number[]): void {
+function manufacturedStrain(U0: number, x: number, y: number, out: number[]): void {
   const p = Math.PI;
   const sx = Math.sin(p * x);
   const cx = Math.cos(p * x);

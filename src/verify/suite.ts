@@ -8,7 +8,7 @@ import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { buildDomain } from '../geometry/domain.js';
 import { selectEdges } from '../geometry/select.js';
-import type { TractionField } from '../fem/boundary-conditions.js';
+import type { TractionField } from '../fem/traction.js';
 import { constitutiveMatrix } from '../fem/material.js';
 import { ktHoleInStripNet, ktOppositeSemicircularNotchesTension, ktSteppedBarBending, ktSteppedBarTension } from '../charts/formulas.js';
 import { fatigueNotchFactor, neuberNotchSensitivity, neuberSqrtASteelSI } from '../charts/fatigue.js';

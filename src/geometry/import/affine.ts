@@ -26,11 +26,11 @@ export function compose(A: Affine, B: Affine): Affine {
   ];
 }
 
-export function applyX(A: Affine, x: number, y: number): number {
+function applyX(A: Affine, x: number, y: number): number {
   return A[0] * x + A[2] * y + A[4];
 }
 
-export function applyY(A: Affine, x: number, y: number): number {
+function applyY(A: Affine, x: number, y: number): number {
   return A[1] * x + A[3] * y + A[5];
 }
 

@@ -61,7 +61,7 @@ export interface ImportedDrawing {
 }
 
 /** Where the loader puts the imported drawing on the geometry object. */
-export const DRAWING = Symbol.for('raiser.drawing');
+const DRAWING = Symbol.for('raiser.drawing');
 
 /** The drawing attached to a geometry object by the loader, if any. */
 export function attachedDrawing(geometry: DrawingGeometry): ImportedDrawing | undefined {
@@ -73,7 +73,7 @@ export function attachDrawing(geometry: DrawingGeometry, drawing: ImportedDrawin
 }
 
 /** Default end-point matching tolerance, relative to the drawing size (the diagonal of its bounding box). */
-export const JOIN_TOLERANCE = 1e-6;
+const JOIN_TOLERANCE = 1e-6;
 
 export interface ImportContext {
   /** the folder `from` is relative to (the model file's folder) */
@@ -90,7 +90,7 @@ export interface ImportContext {
 }
 
 /** The option of the command line that allows a drawing outside the model's folder. */
-export const ALLOW_OUTSIDE_FLAG = '--allow-drawing-outside';
+const ALLOW_OUTSIDE_FLAG = '--allow-drawing-outside';
 
 /** True when path lies inside folder (both absolute and free of links). */
 function isInside(folder: string, path: string): boolean {

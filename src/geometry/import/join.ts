@@ -246,7 +246,7 @@ function merged(a: Curve, b: Curve): Curve {
 }
 
 /** Merges runs of arcs of one circle or ellipse (with the same tags), around the loop's start too. */
-export function mergeConics(curves: DrawnCurve[], tol: number): DrawnCurve[] {
+function mergeConics(curves: DrawnCurve[], tol: number): DrawnCurve[] {
   const out: DrawnCurve[] = [];
   for (const c of curves) {
     const last = out[out.length - 1];

@@ -17,7 +17,7 @@ export const MAX_DRAWING_BYTES = 64 * 2 ** 20;
 export const MAX_EXPANDED_ITEMS = 200_000;
 
 /** Curves (lines, arcs, Bezier pieces) one drawing may give. */
-export const MAX_CURVES = 200_000;
+const MAX_CURVES = 200_000;
 
 /** Copies made by one DXF INSERT's column x row array. */
 export const MAX_ARRAY_COPIES = 10_000;

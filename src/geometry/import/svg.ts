@@ -110,7 +110,7 @@ function parseXml(text: string): XmlElement {
  * text, so the cost is linear in its length whatever it holds; more than MAX_XML_ENTITIES
  * declarations or a value longer than MAX_XML_ENTITY_LENGTH is refused.
  */
-export function declaredEntities(dt: string): [string, string][] {
+function declaredEntities(dt: string): [string, string][] {
   const out: [string, string][] = [];
   const n = dt.length;
   let i = dt.indexOf('<!ENTITY');

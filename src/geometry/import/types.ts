@@ -51,7 +51,7 @@ export interface ReadOptions {
   file: string;
 }
 
-export const DRAWING_UNITS = ['mm', 'cm', 'm', 'in', 'ft', 'px', 'pt'] as const;
+const DRAWING_UNITS = ['mm', 'cm', 'm', 'in', 'ft', 'px', 'pt'] as const;
 export type DrawingUnitName = (typeof DRAWING_UNITS)[number];
 
 /** Metres per drawing unit. px and pt are the CSS units: 1 px = 1/96 in, 1 pt = 1/72 in (CSS Values and Units Level 3, section 6.2 [M]). */
