@@ -8,7 +8,7 @@ import { join } from 'node:path';
 import { InternalError, ModelError } from '../model/errors.js';
 import type { Analysis } from '../pipeline/analyse.js';
 import { measureField } from '../post/peak.js';
-import type { ResultJson } from './result.js';
+import type { ResultJson } from './result-json.js';
 import { reportHtml } from './html.js';
 import { reportPictures } from './report-pictures.js';
 import { pictureFileNames, standardPictures, writePictures, type PictureOptions } from './pictures.js';

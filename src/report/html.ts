@@ -12,7 +12,7 @@ import { measureName } from './pictures.js';
 import { describePinLoad, describePinSupport, pinsHtml } from './pins.js';
 import type { PlotSource } from './saved.js';
 import type { ReportPicture } from './report-pictures.js';
-import type { ResultJson } from './result.js';
+import type { ResultJson } from './result-json.js';
 
 function esc(t: unknown): string {
   return String(t).replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');

@@ -14,7 +14,7 @@ import type { Load, Support } from '../model/schema.js';
 import type { Analysis } from '../pipeline/analyse.js';
 import { stressMeasure } from '../post/stress.js';
 import { formatValue } from '../render/ticks.js';
-import type { ResultJson } from './result.js';
+import type { ResultJson } from './result-json.js';
 
 const DEG = 180 / Math.PI;
 

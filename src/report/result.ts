@@ -3,6 +3,7 @@
  * `-o DIR` writes as result.json. Every field is documented in the README ("Result fields");
  * keep the two in step.
  */
+import type { ResultJson } from './result-json.js';
 import type { Analysis } from '../pipeline/analyse.js';
 import { InternalError } from '../model/errors.js';
 import { settleAnalyses, type Certified } from '../pipeline/certify.js';
@@ -196,7 +197,7 @@ export function buildResult(a: Analysis, file?: string, cert: Certified | null =
   return r;
 }
 
-function buildResultUnchecked(a: Analysis, file?: string, cert: Certified | null = null) {
+function buildResultUnchecked(a: Analysis, file?: string, cert: Certified | null = null): ResultJson {
   const m = a.model;
   const y = m.material.yield;
   const scale = a.domain.scale;
@@ -315,7 +316,6 @@ function buildResultUnchecked(a: Analysis, file?: string, cert: Certified | null
   };
 }
 
-export type ResultJson = ReturnType<typeof buildResultUnchecked>;
 
 /** The material as used, and for a bundled grade where its values came from (src/model/materials.ts). */
 function materialResult(mat: Model['material']) {

@@ -31,7 +31,7 @@ import { ModelError } from '../model/errors.js';
 import type { Model } from '../model/schema.js';
 import type { Mesh } from '../mesh/types.js';
 import type { Analysis } from '../pipeline/analyse.js';
-import type { ResultJson } from './result.js';
+import type { ResultJson } from './result-json.js';
 
 export const SAVED_FILE = 'solution.raiser';
 const MAGIC = 'RAISERSV';

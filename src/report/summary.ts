@@ -1,5 +1,5 @@
 /** The console summary of one analysis: the same facts as the JSON, laid out for a person. */
-import type { ResultJson } from './result.js';
+import type { ResultJson } from './result-json.js';
 import { formatPinsSummary } from './pins.js';
 
 /** A number with `digits` significant figures, without exponent for everyday magnitudes. */

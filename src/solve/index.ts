@@ -39,7 +39,7 @@ export { SolverThreads } from './threads.js';
 export { applyIncompleteCholesky, factorIncompleteCholesky, IncompleteCholeskyError } from './ic.js';
 export { PcgError, solvePcg } from './pcg.js';
 
-export type { OrderingMethod, SolveOptions, SolveStats } from './spd.js';
+export type { OrderingMethod, SolveMethod, SolveOptions, SolveStats } from './spd.js';
 export { backwardError, estimateFactorBytes, relativeResidual, solveSpd } from './spd.js';
 export { RepeatedSolver } from './repeated.js';
 export { solveSymmetricSmall } from './small.js';
