@@ -7,16 +7,18 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { buildDomain } from '../src/geometry/domain.js';
-import { attachedDrawing } from '../src/geometry/import/index.js';
 import { ModelError } from '../src/model/errors.js';
-import { loadModelText, parseModelText } from '../src/model/load.js';
+import { loadModelAndDrawing, type LoadedModelAndDrawing } from '../src/pipeline/load.js';
 
 const MESHES = join(import.meta.dirname, '..', 'meshes');
 
 function load(geometry: Record<string, unknown>, dir = MESHES, loads: unknown[] = [{ type: 'pressure', on: { outline: true }, p: 1 }]) {
   const m = { material: { E: 210000, nu: 0.3 }, thickness: 5, geometry, supports: [{ type: 'fixed', on: { outline: true } }], loads };
-  return loadModelText(JSON.stringify(m, null, 2), join(dir, 'test-model.json'));
+  return loadModelAndDrawing(JSON.stringify(m, null, 2), join(dir, 'test-model.json'));
 }
+
+/** The domain of a loaded model, built from the drawing loaded beside it. */
+const domainOf = (loaded: LoadedModelAndDrawing) => buildDomain(loaded.model.geometry, loaded.drawing);
 
 function errorOf(geometry: Record<string, unknown>, dir?: string): ModelError {
   try {
@@ -38,8 +40,8 @@ describe('bad drawings', () => {
     expect(e.hint).toMatch(/"join": 0\.505/);
   });
   it('the offered "join" closes the gap', () => {
-    const { model } = load({ from: 'import-bad-gap.dxf', join: 0.505 });
-    const d = buildDomain(model.geometry);
+    const loaded = load({ from: 'import-bad-gap.dxf', join: 0.505 });
+    const d = domainOf(loaded);
     expect(d.loops.length).toBe(1);
     // The two line ends meet half way: the rectangle loses a sliver of 0.5 x 100 / 2 / 2 at most.
     expect(Math.abs(Math.abs(d.area) - 4000)).toBeLessThan(0.5 * 100);
@@ -63,13 +65,13 @@ describe('bad drawings', () => {
     expect(d.message).toMatch(/\$INSUNITS 18, astronomical units/);
     expect(d.hint).toMatch(/"unit"/);
     // Saying the unit in the model reads it.
-    expect(buildDomain(load({ from: 'import-bad-units.dxf', unit: 'mm' }).model.geometry).loops.length).toBe(1);
+    expect(domainOf(load({ from: 'import-bad-units.dxf', unit: 'mm' })).loops.length).toBe(1);
   });
   it('unsupported entities are named with their layer and handle, and "ignore" leaves their layer out', () => {
     const e = errorOf({ from: 'import-bad-entities.dxf' });
     expect(e.message).toMatch(/cannot import: 1 XLINE \(on layer "CONSTRUCTION", handle \w+\), 1 RAY \(on layer "CONSTRUCTION", handle \w+\)/);
-    const { model } = load({ from: 'import-bad-entities.dxf', ignore: ['CONSTRUCTION'] });
-    expect(Math.abs(buildDomain(model.geometry).area)).toBeCloseTo(1000, 9);
+    const loaded = load({ from: 'import-bad-entities.dxf', ignore: ['CONSTRUCTION'] });
+    expect(Math.abs(domainOf(loaded).area)).toBeCloseTo(1000, 9);
   });
   it('an outline name the drawing does not have lists the names it has', () => {
     const e = errorOf({ from: 'import-plate-hole.dxf', outline: 'PLATE' });
@@ -78,7 +80,7 @@ describe('bad drawings', () => {
   });
   it('a tag for a load that the drawing does not have suggests the drawing\'s own', () => {
     const m = { material: { E: 210000, nu: 0.3 }, thickness: 5, geometry: { from: 'import-plate-hole.dxf' }, supports: [{ type: 'fixed', on: 'EDGE' }], loads: [{ type: 'traction', on: 'pull', normal: 1 }] };
-    expect(() => parseModelText(JSON.stringify(m), join(MESHES, 'm.json'))).toThrow(/no edge or loop has the tag "pull": did you mean "PULL"\?/);
+    expect(() => loadModelAndDrawing(JSON.stringify(m), join(MESHES, 'm.json'))).toThrow(/no edge or loop has the tag "pull": did you mean "PULL"\?/);
   });
   it('a missing drawing, a file that is not a drawing, and a mix of "from" with written loops', () => {
     expect(errorOf({ from: 'no-such-part.svg' }).message).toMatch(/no such drawing: "no-such-part.svg"/);
@@ -100,9 +102,9 @@ describe('bad drawings', () => {
   it('a drawing that declares no physical size is read by the SVG rules (1 px = 1/96 in), with a warning', () => {
     const dir = mkdtempSync(join(tmpdir(), 'raiser-import-'));
     writeFileSync(join(dir, 'px.svg'), '<svg xmlns="http://www.w3.org/2000/svg"><!-- invented test drawing --><rect width="96" height="48"/></svg>');
-    const { model, warnings } = load({ from: 'px.svg' }, dir);
-    expect(warnings.map((w) => w.message).join('\n')).toMatch(/no physical size.*1\/96 in/);
-    expect(Math.abs(buildDomain(model.geometry).area)).toBeCloseTo(25.4 * 12.7, 9);
+    const loaded = load({ from: 'px.svg' }, dir);
+    expect(loaded.warnings.map((w) => w.message).join('\n')).toMatch(/no physical size.*1\/96 in/);
+    expect(Math.abs(domainOf(loaded).area)).toBeCloseTo(25.4 * 12.7, 9);
   });
 });
 
@@ -114,12 +116,11 @@ describe('drawings with the usual flaws of real ones', () => {
   it('a line drawn twice is left out once, and said so', () => {
     const dir = mkdtempSync(join(tmpdir(), 'raiser-import-'));
     writeFileSync(join(dir, 'dup.dxf'), dxfOf([...rect, ...line('A', 50, 20, 50, 0)]));
-    const { model } = load({ from: 'dup.dxf' }, dir);
-    const d = buildDomain(model.geometry);
+    const loaded = load({ from: 'dup.dxf' }, dir);
+    const d = domainOf(loaded);
     expect(Math.abs(d.area)).toBeCloseTo(1000, 9);
     expect(d.edges.length).toBe(4);
-    const g = model.geometry;
-    expect('from' in g && attachedDrawing(g)!.notes.join('\n')).toMatch(/1 duplicate entity \(the same curve drawn twice\) left out: LINE on layer "A"/);
+    expect(loaded.drawing!.notes.join('\n')).toMatch(/1 duplicate entity \(the same curve drawn twice\) left out: LINE on layer "A"/);
   });
   it('three ends at one point are a branch, named with the entities that meet there', () => {
     const dir = mkdtempSync(join(tmpdir(), 'raiser-import-'));
@@ -139,7 +140,7 @@ describe('drawings with the usual flaws of real ones', () => {
       '<svg xmlns="http://www.w3.org/2000/svg" width="40mm" height="20mm" viewBox="0 0 40 20"><!-- invented test drawing -->' +
         '<path d="M0 20 V10 C 10 0 30 20 40 10 C 40 10 45 15 40 20 Z"/></svg>',
     );
-    const d = buildDomain(load({ from: 's.svg' }, dir).model.geometry);
+    const d = domainOf(load({ from: 's.svg' }, dir));
     const curves = d.edges.filter((e) => e.curve.kind === 'bezier');
     // The S cubic is split at t = 1/2, where it turns the other way; each piece bends one way.
     expect(curves.length).toBe(3);
@@ -158,7 +159,7 @@ describe('drawings with the usual flaws of real ones', () => {
       '<?xml version="1.0"?>\n<!-- invented test drawing -->\n<!DOCTYPE svg PUBLIC "-//W3C//DTD SVG 1.1//EN" "svg11.dtd" [\n<!ENTITY ns_svg "http://www.w3.org/2000/svg">\n]>\n' +
         '<svg xmlns="&ns_svg;" width="100mm" height="40mm" viewBox="0 0 100 40"><rect width="100" height="40"/><circle cx="50" cy="20" r="5"/></svg>',
     );
-    const d = buildDomain(load({ from: 'dtd.svg' }, dir).model.geometry);
+    const d = domainOf(load({ from: 'dtd.svg' }, dir));
     expect(d.loops.length).toBe(2);
     expect(Math.abs(d.area)).toBeCloseTo(4000 - 25 * Math.PI, 9);
   });

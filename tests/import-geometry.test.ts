@@ -11,7 +11,7 @@ import { validateDomain } from '../src/geometry/validate.js';
 import { evaluateCurve, curveAreaTerm, curveLength, curvatureRadius, curveConcavity, reverseCurve, subCurve, type Curve } from '../src/geometry/curve.js';
 import { nearestBoundaryPoint } from '../src/geometry/project.js';
 import { generateMesh } from '../src/mesh/generate.js';
-import { loadModelText, parseModelText } from '../src/model/load.js';
+import { loadModelAndDrawing } from '../src/pipeline/load.js';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { conicArc, mapCurve } from '../src/geometry/import/affine.js';
@@ -29,11 +29,12 @@ function modelFor(geometry: Record<string, unknown>, extra: Record<string, unkno
     loads: [{ type: 'pressure', on: { outline: true }, p: 1 }],
     ...extra,
   };
-  return parseModelText(JSON.stringify(m), join(MESHES, 'test-model.json'));
+  return loadModelAndDrawing(JSON.stringify(m), join(MESHES, 'test-model.json'));
 }
 
 function domainOf(geometry: Record<string, unknown>, extra: Record<string, unknown> = {}): Domain {
-  const d = buildDomain(modelFor(geometry, extra).geometry);
+  const { model, drawing } = modelFor(geometry, extra);
+  const d = buildDomain(model.geometry, drawing);
   validateDomain(d);
   return d;
 }
@@ -275,7 +276,7 @@ describe('meshes/import-bracket.dxf', () => {
 describe('more of the formats', () => {
   const dir = mkdtempSync(join(tmpdir(), 'raiser-import-'));
   const load = (file: string, extra: Record<string, unknown> = {}) =>
-    parseModelText(
+    loadModelAndDrawing(
       JSON.stringify({ material: { E: 1, nu: 0.3 }, thickness: 1, geometry: { from: file, ...extra }, supports: [{ type: 'fixed', on: { outline: true } }], loads: [{ type: 'pressure', on: { outline: true }, p: 1 }] }),
       join(dir, 'm.json'),
     );
@@ -286,7 +287,8 @@ describe('more of the formats', () => {
       '<svg xmlns="http://www.w3.org/2000/svg" width="40mm" height="20mm" viewBox="0 0 40 20"><!-- invented test drawing -->' +
         '<rect width="40" height="20"/><path id="h" transform="rotate(25 20 10) skewY(15)" d="M14 10 a6 3 0 0 1 12 0 a6 3 0 0 1 -12 0 z"/></svg>',
     );
-    const d = buildDomain(load('rot.svg').geometry);
+    const { model, drawing } = load('rot.svg');
+    const d = buildDomain(model.geometry, drawing);
     expect(d.loops.length).toBe(2);
     const hole = d.loops[1];
     expect(hole.edges.length).toBe(1); // the two half arcs are one whole ellipse
@@ -304,12 +306,12 @@ describe('more of the formats', () => {
       g(0, 'ARC', 8, 'H', 10, -5, 20, 4, 30, 0, 40, 2, 50, 180, 51, 360, 210, 0, 220, 0, 230, -1),
     ];
     writeFileSync(join(dir, 'e.dxf'), g(999, 'invented test drawing', 0, 'SECTION', 2, 'ENTITIES', ...ents, 0, 'ENDSEC', 0, 'EOF', ''));
-    const { model, warnings } = loadModelText(
+    const { model, drawing, warnings } = loadModelAndDrawing(
       JSON.stringify({ units: { length: 'in', force: 'lbf' }, material: { E: 3e7, nu: 0.3 }, thickness: 1, geometry: { from: 'e.dxf' }, supports: [{ type: 'fixed', on: 'P' }], loads: [{ type: 'pressure', on: 'H', p: 1 }] }),
       join(dir, 'm.json'),
     );
     expect(warnings.map((w) => w.message).join()).toMatch(/declares no unit .* taken in in, the model's length unit/);
-    const d = buildDomain(model.geometry);
+    const d = buildDomain(model.geometry, drawing);
     expect(rel(Math.abs(d.loops[0].signedArea), 0.5 * PI * 20 * 10)).toBeLessThan(1e-9);
     // Mirrored, the second arc is the lower half about (5, 4) (read without the mirror it would lie about (-5, 4) and leave both open).
     expect(rel(Math.abs(d.loops[1].signedArea), PI * 4)).toBeLessThan(1e-9);

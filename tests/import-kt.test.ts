@@ -8,7 +8,7 @@
 import { describe, expect, it } from 'vitest';
 import { join } from 'node:path';
 import { analyseModel } from '../src/pipeline/analyse.js';
-import { parseModelText } from '../src/model/load.js';
+import { loadModelAndDrawing } from '../src/pipeline/load.js';
 import { ktOf } from './support/kt.js';
 
 const MESHES = join(import.meta.dirname, '..', 'meshes');
@@ -24,7 +24,8 @@ const base = {
 };
 
 function kt(model: Record<string, unknown>) {
-  const a = analyseModel(parseModelText(JSON.stringify({ ...base, ...model }), join(MESHES, 'plate-hole.json')));
+  const { model: m, drawing } = loadModelAndDrawing(JSON.stringify({ ...base, ...model }), join(MESHES, 'plate-hole.json'));
+  const a = analyseModel(m, { drawing });
   return a;
 }
 

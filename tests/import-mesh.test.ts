@@ -11,7 +11,7 @@ import { describe, expect, it } from 'vitest';
 import { drawGeometryPicture, MATERIAL } from '../src/render/geometry-picture.js';
 import { buildDomain } from '../src/geometry/domain.js';
 import { generateMesh } from '../src/mesh/generate.js';
-import { parseModelText } from '../src/model/load.js';
+import { loadModelAndDrawing } from '../src/pipeline/load.js';
 import { raiser, ROOT } from './support/cli.js';
 
 const MESHES = join(ROOT, 'meshes');
@@ -65,8 +65,8 @@ describe('raiser mesh', () => {
     expect(r.stderr).toMatch(/model\.json:\d+:\d+: at geometry\.from: .*open contour/);
   });
   it('the picture colours each tag group apart and paints the material', () => {
-    const model = parseModelText(JSON.stringify({ material: { E: 1, nu: 0.3 }, thickness: 1, geometry: { from: 'import-plate-hole.svg' }, supports: [{ type: 'fixed', on: 'pull' }], loads: [{ type: 'pressure', on: 'bore', p: 1 }] }), join(MESHES, 'm.json'));
-    const domain = buildDomain(model.geometry);
+    const { model, drawing } = loadModelAndDrawing(JSON.stringify({ material: { E: 1, nu: 0.3 }, thickness: 1, geometry: { from: 'import-plate-hole.svg' }, supports: [{ type: 'fixed', on: 'pull' }], loads: [{ type: 'pressure', on: 'bore', p: 1 }] }), join(MESHES, 'm.json'));
+    const domain = buildDomain(model.geometry, drawing);
     const { mesh } = generateMesh(domain, { order: 2, size: 10 });
     const pic = drawGeometryPicture({ domain, mesh, title: 'test', lines: [] });
     // "plate" is on every edge, so the groups are told apart by the other tags.

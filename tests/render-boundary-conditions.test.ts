@@ -65,7 +65,7 @@ describe('geometry picture of an imported drawing', () => {
   // meshes/import-plate-hole.svg: our own test drawing, a 200 x 50 plate with a central bore
   it('draws the loads and supports from the solution, also when the model no longer holds its drawing', async () => {
     const { join } = await import('node:path');
-    const { parseModelText } = await import('../src/model/load.js');
+    const { loadModelAndDrawing } = await import('../src/pipeline/load.js');
     const file = join('meshes', 'plate-hole-from-svg.json');
     const text = JSON.stringify({
       material: { E: 210000, nu: 0.3 },
@@ -75,8 +75,8 @@ describe('geometry picture of an imported drawing', () => {
       loads: [{ type: 'traction', on: 'pull', normal: 100 }],
       mesh: { size: 8, raiserSize: 1 },
     });
-    const model = parseModelText(text, file);
-    const a = analyseModel(model);
+    const { model, drawing } = loadModelAndDrawing(text, file);
+    const a = analyseModel(model, { drawing });
     const result = buildResult(a, file);
     expect(geometryScene(plotSource(a, result), { width: 800 }).info.boundaryConditions).toEqual({ loads: 1, supports: 2 });
     // as a saved solution holds it: the model without its drawing; the loads and supports come

@@ -5,7 +5,7 @@
 import { Command, CommanderError, Option } from 'commander';
 import { STRESS_MEASURES, type StressMeasure } from '../model/schema.js';
 import { AnalysisError, ModelError, ModelTooLargeError } from '../model/errors.js';
-import { loadModelFile } from '../model/load.js';
+import { loadModelFileAndDrawing } from '../pipeline/load.js';
 import { analyseModel } from '../pipeline/analyse.js';
 import { certifyModel } from '../pipeline/certify.js';
 import { buildResult, TOOL_VERSION } from '../report/result.js';
@@ -65,10 +65,10 @@ function runSolve(file: string, flags: SolveFlags): number {
   // The output folders are checked, made and locked before anything is read or solved.
   checkSolvePdf(flags);
   prepareSolveOutputs(flags);
-  const loaded = loadModelFile(file, { allowDrawingOutside: flags.allowDrawingOutside });
-  const { model, warnings } = loaded;
+  const loaded = loadModelFileAndDrawing(file, { allowDrawingOutside: flags.allowDrawingOutside });
+  const { model, drawing, warnings } = loaded;
   applySignOff(model, flags);
-  const opts = { measure: flags.measure, element: flags.element, maxMemoryBytes: flags.maxMemory ? parseMemory(flags.maxMemory) : defaultMemoryLimit() };
+  const opts = { measure: flags.measure, element: flags.element, maxMemoryBytes: flags.maxMemory ? parseMemory(flags.maxMemory) : defaultMemoryLimit(), drawing };
   let analysis;
   let cert = null;
   // A problem found while building the geometry or the mesh is placed in the model file too.

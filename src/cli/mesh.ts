@@ -6,11 +6,10 @@
 import { Option, type Command } from 'commander';
 import { join } from 'node:path';
 import { curveLength } from '../geometry/curve.js';
-import { attachedDrawing } from '../geometry/import/index.js';
 import { selectTarget } from '../geometry/select.js';
 import { generateMesh } from '../mesh/generate.js';
 import { ModelError, ModelTooLargeError } from '../model/errors.js';
-import { loadModelFile } from '../model/load.js';
+import { loadModelFileAndDrawing } from '../pipeline/load.js';
 import { prepareModel } from '../pipeline/analyse.js';
 import { drawGeometryPicture } from '../render/geometry-picture.js';
 import { prepareOutputDir, writeAtomic } from '../report/files.js';
@@ -31,12 +30,12 @@ function fmt(v: number): string {
 
 export function runMesh(file: string, flags: MeshFlags): { text: string; json: object } {
   if (flags.out !== undefined) prepareOutputDir(flags.out, ['mesh-preview.png', 'mesh-preview.svg'], flags.force ?? false);
-  const loaded = loadModelFile(file, { allowDrawingOutside: flags.allowDrawingOutside });
-  const { model, warnings } = loaded;
+  const loaded = loadModelFileAndDrawing(file, { allowDrawingOutside: flags.allowDrawingOutside });
+  const { model, drawing, warnings } = loaded;
   let prep;
   let meshed;
   try {
-    prep = prepareModel(model, { element: flags.element });
+    prep = prepareModel(model, { element: flags.element, drawing });
     const ms = model.mesh ?? {};
     meshed = generateMesh(prep.domain, {
       order: prep.order,
@@ -54,8 +53,6 @@ export function runMesh(file: string, flags: MeshFlags): { text: string; json: o
   const { domain, order } = prep;
   const { mesh, stats } = meshed;
   const u = prep.units.length;
-  const g = model.geometry;
-  const drawing = 'from' in g ? attachedDrawing(g) : undefined;
   const lines: string[] = [];
   lines.push(`raiser mesh: ${model.title ?? file} (${file})`);
   if (drawing) {

@@ -6,7 +6,7 @@
  */
 import { ModelError, formatPath } from '../model/errors.js';
 import type { ArcSpec, DrawingGeometry, Geometry, Loop, Vertex } from '../model/schema.js';
-import { attachedDrawing } from './import/index.js';
+import type { ImportedDrawing } from './import/index.js';
 import { MAX_EDGES, MAX_LOOPS } from './limits.js';
 import { type Curve, curveAreaTerm, curveTangent, evaluateCurve, reverseCurve } from './curve.js';
 
@@ -70,10 +70,14 @@ interface RawEdge {
 const DEG = Math.PI / 180;
 
 
-/** Builds the domain; throws ModelError naming the field when a loop cannot be built. */
-export function buildDomain(geometry: Geometry, basePath = 'geometry'): Domain {
+/**
+ * Builds the domain; throws ModelError naming the field when a loop cannot be built. A geometry
+ * `from` a drawing is built from `drawing`, the drawing it names as read by readModelDrawing
+ * (src/geometry/import), which the caller passes; without it the geometry is refused.
+ */
+export function buildDomain(geometry: Geometry, drawing?: ImportedDrawing, basePath = 'geometry'): Domain {
   const built: { raw: RawEdge[]; path: string; name?: string; label: string }[] = [];
-  if ('from' in geometry) built.push(...drawingLoops(geometry, basePath));
+  if ('from' in geometry) built.push(...drawingLoops(geometry, drawing, basePath));
   else {
     const all: Loop[] = [geometry.outline, ...(geometry.holes ?? [])];
     all.forEach((loop, li) => {
@@ -86,11 +90,11 @@ export function buildDomain(geometry: Geometry, basePath = 'geometry'): Domain {
   return assembleDomain(built);
 }
 
-/** The loops of a drawing the loader has read (src/geometry/import), as raw edges. */
-function drawingLoops(geometry: DrawingGeometry, basePath: string): { raw: RawEdge[]; path: string; name?: string; label: string }[] {
-  const d = attachedDrawing(geometry);
+/** The loops of the drawing the geometry names, read by the caller (src/geometry/import), as raw edges. */
+function drawingLoops(geometry: DrawingGeometry, d: ImportedDrawing | undefined, basePath: string): { raw: RawEdge[]; path: string; name?: string; label: string }[] {
   const path = `${basePath}.from`;
-  if (!d) throw new ModelError(path, `the drawing "${geometry.from}" has not been read`, 'load the model through loadModelFile or parseModelText, which read the drawing it names');
+  if (!d) throw new ModelError(path, `the geometry comes from the drawing "${geometry.from}", and no drawing was given to build it from`, 'load the model with loadModelAndDrawing (src/pipeline/load.ts), which reads the drawing it names, and pass its drawing on');
+  if (d.file !== geometry.from) throw new ModelError(path, `the geometry comes from the drawing "${geometry.from}", but the drawing given was read from "${d.file}"`, 'pass the drawing loaded with this model');
   const edgeWord = (c: Curve) => (c.kind === 'line' ? 'line' : c.kind === 'arc' ? 'arc' : c.kind === 'ellipse' ? 'elliptical arc' : 'curve');
   const loops = [d.outline, ...d.holes];
   return loops.map((loop, li) => {

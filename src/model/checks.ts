@@ -7,13 +7,23 @@
  * Errors stop the run. Warnings are things that are legal but probably not meant; they do not
  * change the result and are for the command line to print.
  */
-import { attachedDrawing } from '../geometry/import/index.js';
 import { ModelError, formatPath, quoteText } from './errors.js';
 import type { Load, Loop, Model, Selector, Target } from './schema.js';
 import { didYouMean, quoteList } from './suggest.js';
 import { resolveUnits } from './units.js';
 
 type Part = string | number;
+
+/**
+ * What the checks need to know of a drawing named by `"geometry": { "from": ... }`, as plain
+ * data: the geometry stage reads the drawing (src/geometry/import) and hands this in.
+ */
+export interface DrawingNames {
+  /** every tag carried by an edge of the outline or a hole */
+  tags: readonly string[];
+  /** each hole's name, in the drawing's order (undefined for a hole without one) */
+  holeNames: readonly (string | undefined)[];
+}
 
 export interface ModelCheck {
   errors: ModelError[];
@@ -31,18 +41,17 @@ interface Declared {
   drawing?: string;
 }
 
-function declaredNames(model: Model): Declared {
+function declaredNames(model: Model, drawing: DrawingNames | undefined): Declared {
   const tags = new Map<string, string>();
   const add = (tag: string | undefined, where: string) => {
     if (tag !== undefined && !tags.has(tag)) tags.set(tag, where);
   };
   const g = model.geometry;
   if ('from' in g) {
-    // Tags and hole names come from the drawing, which the loader has read.
-    const d = attachedDrawing(g);
-    if (!d) return { tags, holeNames: [], holeCount: 0, unknown: true };
-    for (const t of d.tags) add(t, 'geometry.from');
-    return { tags, holeNames: d.holes.map((h) => h.name).filter((n): n is string => n !== undefined), holeCount: d.holes.length, drawing: g.from };
+    // Tags and hole names come from the drawing, when the caller has read it.
+    if (!drawing) return { tags, holeNames: [], holeCount: 0, unknown: true };
+    for (const t of drawing.tags) add(t, 'geometry.from');
+    return { tags, holeNames: drawing.holeNames.filter((n): n is string => n !== undefined), holeCount: drawing.holeNames.length, drawing: g.from };
   }
   const loops: [Loop, Part[]][] = [[g.outline, ['geometry', 'outline']]];
   (g.holes ?? []).forEach((h, i) => loops.push([h, ['geometry', 'holes', i]]));
@@ -153,11 +162,15 @@ function loadIsZero(load: Load): boolean {
   }
 }
 
-/** The semantic checks; the model must already have passed the schema. */
-export function checkModel(model: Model): ModelCheck {
+/**
+ * The semantic checks; the model must already have passed the schema. For a model whose
+ * geometry comes from a drawing, `drawing` gives the drawing's tags and hole names; without it
+ * the selectors that name them cannot be checked and are left alone.
+ */
+export function checkModel(model: Model, drawing?: DrawingNames): ModelCheck {
   const errors: ModelError[] = [];
   const warnings: ModelError[] = [];
-  const names = declaredNames(model);
+  const names = declaredNames(model, drawing);
 
   // Circles: exactly one size. (Both given and equal is accepted.)
   const loops: [Loop, Part[]][] = [];

@@ -9,7 +9,7 @@
  */
 import { readdirSync } from 'node:fs';
 import { basename, dirname, extname } from 'node:path';
-import { checkModel } from './checks.js';
+import { checkModel, type DrawingNames } from './checks.js';
 import { MAX_REPORTED_PROBLEMS, ModelError, ModelErrorList, formatPath, quoteText, type PlacedProblem } from './errors.js';
 import { type Problem, translateIssues } from './issues.js';
 import { LineIndex, excerptAt, scanJson, type JsonScan } from './json-text.js';
@@ -20,7 +20,6 @@ import { closest, quoteList } from './suggest.js';
 import { resolveUnits } from './units.js';
 import { PRODUCT_FORMS, findGrade, gradeNames, lookupGrade, normaliseGradeName, type MaterialBasis, type ProductForm } from './materials.js';
 import { substituteParameters } from './params.js';
-import { DrawingError, attachDrawing, importDrawing } from '../geometry/import/index.js';
 
 export interface LoadedModel {
   model: Model;
@@ -37,7 +36,33 @@ export interface LoadedModel {
 const MODEL_FIELDS = Object.keys(Model.shape);
 const REQUIRED_FIELDS = MODEL_FIELDS.filter((k) => !Model.shape[k as keyof typeof Model.shape].safeParse(undefined).success);
 
-/** Parses and validates model text; throws ModelError (or ModelErrorList) on any problem. */
+/**
+ * A model that has passed the schema, before the checks that may need its drawing's names
+ * (parseModel -> the caller reads the drawing, if any -> checkParsedModel).
+ */
+export interface ParsedModel {
+  model: Model;
+  file?: string;
+  /** warnings found so far (a material grade without strengths for this thickness) */
+  warnings: ModelError[];
+  /** places a problem in the file, as LoadedModel.locate */
+  locate<E extends PlacedProblem>(e: E): E;
+  /** where each field is in the text, for placing the checks' problems */
+  readonly text: ModelText;
+}
+
+/** The text of a model file and where its values are (opaque outside this module). */
+export interface ModelText {
+  readonly scan: JsonScan;
+  readonly placer: Placer;
+}
+
+/**
+ * Parses and validates model text; throws ModelError (or ModelErrorList) on any problem.
+ * A model with `"geometry": { "from": ... }` is loaded without its drawing: the selectors that
+ * name the drawing's tags are not checked, and the geometry cannot be built. Load such a model
+ * with loadModelAndDrawing (src/pipeline/load.ts), which reads the drawing too.
+ */
 export function parseModelText(text: string, file?: string): Model {
   return loadModelText(text, file).model;
 }
@@ -51,15 +76,13 @@ export function readModelFile(path: string): Model {
 export interface LoadOptions {
   /** values that override declared parameters (a sweep's case) */
   parameters?: Readonly<Record<string, number>>;
-  /** let geometry.from name a drawing outside the model file's folder (see importDrawing) */
-  allowDrawingOutside?: boolean;
 }
 
 /** Largest model file read, in bytes (16 MiB): a model of one plate is a few kilobytes. */
-export const MAX_MODEL_BYTES = 16 * 2 ** 20;
+const MAX_MODEL_BYTES = 16 * 2 ** 20;
 
 /** Deepest nesting of objects and lists in a model file (a model nests about 8 deep). */
-export const MAX_MODEL_DEPTH = 32;
+const MAX_MODEL_DEPTH = 32;
 
 
 /** Every number in the data outside NUMBER_RANGE, with its JSON path (free text is not looked at). */
@@ -100,6 +123,14 @@ class Placer {
 
 /** As parseModelText, also returning the warnings. `parameters` override declared parameter values. */
 export function loadModelText(text: string, file?: string, options: LoadOptions = {}): LoadedModel {
+  return checkParsedModel(parseModel(text, file, options));
+}
+
+/**
+ * Text -> JSON -> parameters -> schema: the model, before the semantic checks. Throws
+ * ModelError (or ModelErrorList) on any problem found so far.
+ */
+export function parseModel(text: string, file?: string, options: LoadOptions = {}): ParsedModel {
   // A byte-order mark is not part of the JSON; editors do not count it as a column.
   const src = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
   const placer = new Placer(src);
@@ -192,20 +223,27 @@ export function loadModelText(text: string, file?: string, options: LoadOptions 
     });
     throwAll(problems, placer, file);
   }
-  // A drawing named by geometry.from is read now, so its problems are placed in the file and
-  // its tags are known to the checks.
-  let drawingWarnings: ModelError[];
-  try {
-    drawingWarnings = readDrawing(model, file, options.allowDrawingOutside ?? false);
-  } catch (e) {
-    if (e instanceof ModelError) {
+  const locate = <E extends PlacedProblem>(e: E): E => {
+    if (e.file === undefined) e.file = file;
+    if (e.line === undefined && e.path && !e.path.startsWith('-')) {
       const off = offsetOf(e.path, scan);
       if (off !== undefined) placer.place(e, off);
     }
-    throw e;
-  }
-  const { errors, warnings } = checkModel(model);
-  warnings.unshift(...drawingWarnings, ...grade.warnings);
+    return e;
+  };
+  return { model, file, warnings: grade.warnings, locate, text: { scan, placer } };
+}
+
+/**
+ * The semantic checks of a parsed model (src/model/checks.ts), their problems placed in the
+ * file: errors thrown, warnings returned after `drawingWarnings` and the parse's own. `drawing`
+ * gives the tags and hole names of the drawing the geometry comes from, when it has been read.
+ */
+export function checkParsedModel(parsed: ParsedModel, drawing?: DrawingNames, drawingWarnings: readonly ModelError[] = []): LoadedModel {
+  const { model, file, locate } = parsed;
+  const { scan, placer } = parsed.text;
+  const { errors, warnings } = checkModel(model, drawing);
+  warnings.unshift(...drawingWarnings, ...parsed.warnings);
   for (const e of warnings) {
     e.file = file;
     const off = offsetOf(e.path, scan);
@@ -216,14 +254,6 @@ export function loadModelText(text: string, file?: string, options: LoadOptions 
     placer,
     file,
   );
-  const locate = <E extends PlacedProblem>(e: E): E => {
-    if (e.file === undefined) e.file = file;
-    if (e.line === undefined && e.path && !e.path.startsWith('-')) {
-      const off = offsetOf(e.path, scan);
-      if (off !== undefined) placer.place(e, off);
-    }
-    return e;
-  };
   return { model, warnings, locate };
 }
 
@@ -323,21 +353,6 @@ function mixedGeometry(data: unknown, placer: Placer, scan: JsonScan, file: stri
   );
   const off = offsetOf('geometry.from', scan, 'key');
   throw off !== undefined ? placer.place(e, off) : e;
-}
-
-/** Reads the drawing of a `"geometry": { "from": ... }` model (relative to the model file) and attaches it; returns its warnings. */
-function readDrawing(model: Model, file: string | undefined, allowOutside = false): ModelError[] {
-  const g = model.geometry;
-  if (!('from' in g)) return [];
-  const units = resolveUnits(model.units);
-  try {
-    const d = importDrawing(g, { baseDir: file ? dirname(file) : process.cwd(), modelUnitMetres: units.toSI.length, modelUnitName: units.length, allowOutside });
-    attachDrawing(g, d);
-    return d.warnings.map((w) => new ModelError('geometry.from', w, undefined, file));
-  } catch (e) {
-    if (e instanceof DrawingError) throw new ModelError('geometry.from', `${g.from}: ${e.message}`, e.hint, file);
-    throw e;
-  }
 }
 
 /**

@@ -170,8 +170,8 @@ export const Geometry = z
   .describe('the plate: an outline and holes written in the file, or a drawing to read them from');
 /**
  * Either form. The drawing form is typed with `holes?: undefined` so that code reading
- * `geometry.holes` of a typed model needs no narrowing; the loader resolves the drawing itself
- * (src/geometry/import).
+ * `geometry.holes` of a typed model needs no narrowing. The drawing is read by
+ * src/geometry/import and returned beside the model (src/pipeline/load.ts), never stored in it.
  */
 export type Geometry = TypedGeometry | (DrawingGeometry & { holes?: undefined });
 

@@ -6,6 +6,7 @@
  */
 import { totalmem } from 'node:os';
 import { buildDomain, type Domain } from '../geometry/domain.js';
+import type { ImportedDrawing } from '../geometry/import/index.js';
 import { validateDomain } from '../geometry/validate.js';
 import { assembleSystem, internalForces } from '../fem/assemble.js';
 import { compileLoads, compileSupports, type CompiledLoads, type ExtraTraction } from '../fem/boundary-conditions.js';
@@ -51,6 +52,8 @@ export interface AnalyseOptions {
   sizeFactor?: number;
   /** refuse a model whose analysis is estimated to need more memory (bytes; default 60% of the machine's) */
   maxMemoryBytes?: number;
+  /** the drawing the geometry comes from (`"geometry": { "from": ... }`), as loaded beside the model (src/pipeline/load.ts) */
+  drawing?: ImportedDrawing;
 }
 
 export interface Analysis {
@@ -130,7 +133,7 @@ export function prepareModel(model: Model, opts: AnalyseOptions = {}): PreparedM
   const units = resolveUnits(model.units);
   const state: PlaneState = model.state ?? 'plane-stress';
   const measure: StressMeasure = opts.measure ?? model.results?.measure ?? 'max-principal';
-  const domain = buildDomain(model.geometry);
+  const domain = buildDomain(model.geometry, opts.drawing);
   validateDomain(domain);
   const order = (opts.element ?? model.mesh?.element ?? 'quadratic') === 'linear' ? 1 : 2;
   const hardPoints = placePinHardPoints(domain, model.supports);

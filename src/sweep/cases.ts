@@ -12,8 +12,10 @@
  */
 import { createHash } from 'node:crypto';
 import { ModelError, quoteText } from '../model/errors.js';
-import { loadModelText, readModelText, type LoadOptions } from '../model/load.js';
+import { readModelText } from '../model/load.js';
 import type { Model } from '../model/schema.js';
+import type { ImportedDrawing } from '../geometry/import/index.js';
+import { loadModelAndDrawing, type ModelAndDrawingOptions } from '../pipeline/load.js';
 import { closest } from '../model/suggest.js';
 import { expandTemplate } from '../model/templates.js';
 
@@ -69,18 +71,23 @@ export interface SweepSource {
   text: string;
   file: string;
   model: Model;
+  /** the drawing the base model's geometry comes from (read once; the cases share it) */
+  drawing: ImportedDrawing | undefined;
   /** how the names are realised: model parameters or template dimensions */
   kind: 'parameters' | 'template';
   names: string[];
   /** a short hash of the model text, so a resumed sweep only reuses cases of the same model */
   signature: string;
   /** how each case's model is loaded (a drawing outside the model's folder allowed, say) */
-  load: Omit<LoadOptions, 'parameters'>;
+  load: SweepLoadOptions;
 }
 
-export function readSweepSource(file: string, vary: Vary[], load: Omit<LoadOptions, 'parameters'> = {}): SweepSource {
+/** How the model of a sweep is loaded (its cases' parameters and shared drawing are the sweep's own). */
+export type SweepLoadOptions = Omit<ModelAndDrawingOptions, 'parameters' | 'known'>;
+
+export function readSweepSource(file: string, vary: Vary[], load: SweepLoadOptions = {}): SweepSource {
   const text = readModelText(file);
-  const { model } = loadModelText(text, file, load);
+  const { model, drawing } = loadModelAndDrawing(text, file, load);
   const names = vary.map((v) => v.name);
   if (new Set(names).size !== names.length) throw new ModelError('--vary', 'the same name is varied twice', 'give each --vary a different name');
   const declared = Object.keys(model.parameters ?? {});
@@ -98,19 +105,23 @@ export function readSweepSource(file: string, vary: Vary[], load: Omit<LoadOptio
       file,
     );
   }
-  return { text, file, model, kind: isParam ? 'parameters' : 'template', names, signature: createHash('sha256').update(text).digest('hex').slice(0, 16), load };
+  return { text, file, model, drawing, kind: isParam ? 'parameters' : 'template', names, signature: createHash('sha256').update(text).digest('hex').slice(0, 16), load };
 }
 
-/** The model of one case. */
-export function caseModel(src: SweepSource, values: Record<string, number>): Model {
-  if (src.kind === 'parameters') return loadModelText(src.text, src.file, { ...src.load, parameters: values }).model;
+/** The model of one case, and the drawing its geometry comes from (the base model's, unless a parameter changes how it is read). */
+export function caseModel(src: SweepSource, values: Record<string, number>): { model: Model; drawing: ImportedDrawing | undefined } {
+  if (src.kind === 'parameters') {
+    const { model, drawing } = loadModelAndDrawing(src.text, src.file, { ...src.load, parameters: values, known: { model: src.model, drawing: src.drawing } });
+    return { model, drawing };
+  }
   const chart = src.model.chart!;
   const fam = FAMILY_TEMPLATE[chart.family];
   const dims: Record<string, number | string> = {};
   for (const [k, v] of Object.entries({ ...chart.dims, ...values })) dims[kebab(k)] = v;
   const m = expandTemplate(fam.template, { ...dims, ...(fam.extra ?? {}) });
   const keep = src.model;
-  return { ...m, title: keep.title ?? m.title, material: keep.material, thickness: keep.thickness, units: keep.units, mesh: keep.mesh, results: keep.results, state: keep.state };
+  // A template writes its loops out: no drawing.
+  return { model: { ...m, title: keep.title ?? m.title, material: keep.material, thickness: keep.thickness, units: keep.units, mesh: keep.mesh, results: keep.results, state: keep.state }, drawing: undefined };
 }
 
 export function caseKey(values: Record<string, number>): string {

@@ -49,17 +49,17 @@ export interface SolvedCase {
 export function solveCaseFull(src: SweepSource, key: string, values: Record<string, number>, opts: CaseOptions): SolvedCase {
   const t0 = performance.now();
   let certified: Certified | null = null;
-  const model = caseModel(src, values);
+  const { model, drawing } = caseModel(src, values);
   let status = 'single-mesh';
   let error: number | null = null;
   let meshes = 1;
   let a;
   let kt: GoverningKt;
   if (opts.singleMesh) {
-    a = analyseModel(model, opts);
+    a = analyseModel(model, { ...opts, drawing });
     kt = governingKt(a);
   } else {
-    const c = certifyModel(model, { ...opts, target: opts.target ?? 0.01 });
+    const c = certifyModel(model, { ...opts, target: opts.target ?? 0.01, drawing });
     certified = c;
     a = c.analysis;
     kt = governingKt(c);

@@ -6,7 +6,6 @@
  */
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { buildDomain } from '../geometry/domain.js';
 import { selectEdges } from '../geometry/select.js';
 import type { TractionField } from '../fem/traction.js';
 import { constitutiveMatrix } from '../fem/material.js';
@@ -113,7 +112,8 @@ function bendingFieldError(): number {
 /** A model whose outer edges (tag "far") carry the tractions of an exact field. */
 export function exactTractionPrepared(model: Model, field: StressAt, remote?: { sxx: number; syy: number; sxy: number }): PreparedModel {
   const prep = prepareModel(model);
-  const domain = buildDomain(model.geometry);
+  // The tractions go on the edges of the domain the analysis meshes, as prepareModel built it.
+  const domain = prep.domain;
   const q: TractionField = (x, y, nx, ny, out) => {
     const [sxx, syy, sxy] = field(x, y);
     out[0] = sxx * nx + sxy * ny;

@@ -9,15 +9,18 @@
  * errors. Bezier curves are split where they change their direction of bending, so each piece
  * is convex or concave throughout, as the mesher's size field assumes.
  *
- * The result is plain data (ImportedDrawing). The model loader attaches it to the geometry
- * object (under the symbol DRAWING) so that buildDomain, which turns it into an ordinary
- * Domain, does not read the file again.
+ * The result is plain data (ImportedDrawing), handed on explicitly: readModelDrawing reads the
+ * drawing a loaded model names, the loader (src/pipeline/load.ts) returns it beside the model,
+ * and buildDomain takes it as an argument to turn it into an ordinary Domain. Nothing is
+ * attached to the model, so the model stays the plain data of its file.
  */
 import { realpathSync } from 'node:fs';
-import { extname, isAbsolute, relative, resolve, sep } from 'node:path';
+import { dirname, extname, isAbsolute, relative, resolve, sep } from 'node:path';
+import { ModelError } from '../../model/errors.js';
 import { formatBytes, readRegularFile } from '../../model/read-file.js';
 import { NUMBER_RANGE, inNumberRange } from '../../model/number-range.js';
-import type { DrawingGeometry } from '../../model/schema.js';
+import type { DrawingGeometry, Model } from '../../model/schema.js';
+import { resolveUnits } from '../../model/units.js';
 import { type Curve, curveAreaTerm, curveLength, curveTangent, evaluateCurve, splitBezier } from '../curve.js';
 import { findContacts, indexLoops, pointInLoop, type Polylines } from '../intersect.js';
 import { readDxf } from './dxf.js';
@@ -27,7 +30,6 @@ import { MAX_LOOPS } from '../limits.js';
 import { readSvg } from './svg.js';
 import { DrawingError, type DrawnCurve, type ReadDrawing, type ReadOptions } from './types.js';
 
-export { DrawingError } from './types.js';
 
 export interface ImportedLoop {
   edges: DrawnCurve[];
@@ -58,18 +60,6 @@ export interface ImportedDrawing {
   warnings: string[];
   /** the end-point matching tolerance used, model length unit */
   joinTolerance: number;
-}
-
-/** Where the loader puts the imported drawing on the geometry object. */
-const DRAWING = Symbol.for('raiser.drawing');
-
-/** The drawing attached to a geometry object by the loader, if any. */
-export function attachedDrawing(geometry: DrawingGeometry): ImportedDrawing | undefined {
-  return (geometry as unknown as Record<symbol, ImportedDrawing | undefined>)[DRAWING];
-}
-
-export function attachDrawing(geometry: DrawingGeometry, drawing: ImportedDrawing): void {
-  (geometry as unknown as Record<symbol, ImportedDrawing>)[DRAWING] = drawing;
 }
 
 /** Default end-point matching tolerance, relative to the drawing size (the diagonal of its bounding box). */
@@ -111,8 +101,26 @@ function fmt(v: number): string {
   return Number(v.toPrecision(5)).toString();
 }
 
+/**
+ * The drawing a loaded model names with `"geometry": { "from": ... }`, read relative to the
+ * folder of the model file (the current folder for a model without a file); undefined for a
+ * model whose loops are written out. A drawing that cannot be read or does not make a plate is
+ * a ModelError at geometry.from, in the model file.
+ */
+export function readModelDrawing(model: Model, file: string | undefined, allowOutside = false): ImportedDrawing | undefined {
+  const g = model.geometry;
+  if (!('from' in g)) return undefined;
+  const units = resolveUnits(model.units);
+  try {
+    return importDrawing(g, { baseDir: file ? dirname(file) : process.cwd(), modelUnitMetres: units.toSI.length, modelUnitName: units.length, allowOutside });
+  } catch (e) {
+    if (e instanceof DrawingError) throw new ModelError('geometry.from', `${g.from}: ${e.message}`, e.hint, file);
+    throw e;
+  }
+}
+
 /** Reads and sorts the drawing; throws DrawingError for a drawing that does not make a plate. */
-export function importDrawing(g: DrawingGeometry, ctx: ImportContext): ImportedDrawing {
+function importDrawing(g: DrawingGeometry, ctx: ImportContext): ImportedDrawing {
   const path = resolve(ctx.baseDir, g.from);
   const ext = extname(g.from).toLowerCase();
   if (ext !== '.svg' && ext !== '.dxf') {
