@@ -12,7 +12,7 @@
 import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import { ModelError } from '../model/errors.js';
+import { AnalysisError, InternalError, ModelError } from '../model/errors.js';
 import { resolveUnits } from '../model/units.js';
 import { readSweepSource, type Vary } from './cases.js';
 import { solveCaseFull, type CaseOptions, type CaseRow, type SolvedCase } from './solve-case.js';
@@ -64,6 +64,32 @@ interface Evaluated {
   full?: SolvedCase;
 }
 
+/** What a worker posts back when a value cannot be solved: the error's kind, message and hint. */
+interface WorkerFailure {
+  ok: false;
+  message: string;
+  name: string;
+  hint?: string;
+}
+
+/**
+ * The worker's error as the kind it was thrown as, so the command exits as a solve in this
+ * process would: bad input 2, an analysis refused 3 (a model too big among them), a fault 1.
+ */
+export function errorOfWorker(msg: WorkerFailure): Error {
+  switch (msg.name) {
+    case 'ModelError':
+      return new ModelError('--vary', msg.message, msg.hint);
+    case 'AnalysisError':
+    case 'ModelTooLargeError':
+      return new AnalysisError(msg.message, msg.hint);
+    case 'InternalError':
+      return new InternalError(msg.message);
+    default:
+      return new Error(msg.message);
+  }
+}
+
 /** Worker threads running the sweep worker: each posts back the row of a value it is sent. */
 class CasePool {
   private workers: Worker[] = [];
@@ -83,10 +109,10 @@ class CasePool {
         (item, k) =>
           new Promise<CaseRow>((resolve, reject) => {
             const w = this.workers[k];
-            const onMessage = (msg: { ok: true; row: CaseRow } | { ok: false; message: string; name: string }) => {
+            const onMessage = (msg: { ok: true; row: CaseRow } | WorkerFailure) => {
               w.off('error', onError);
               if (msg.ok) resolve(msg.row);
-              else reject(msg.name === 'ModelError' ? new ModelError('--vary', msg.message) : new Error(msg.message));
+              else reject(errorOfWorker(msg));
             };
             const onError = (err: Error) => {
               w.off('message', onMessage);

@@ -12,6 +12,6 @@ parentPort!.on('message', (msg: { key: string; values: Record<string, number> } 
   try {
     parentPort!.postMessage({ ok: true, row: solveCase(src, msg.key, msg.values, options) });
   } catch (err) {
-    parentPort!.postMessage({ ok: false, key: msg.key, values: msg.values, message: (err as Error).message, name: (err as Error).name });
+    parentPort!.postMessage({ ok: false, key: msg.key, values: msg.values, message: (err as Error).message, name: (err as Error).name, hint: (err as { hint?: string }).hint });
   }
 });
