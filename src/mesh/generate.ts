@@ -115,7 +115,7 @@ function meshInFrame(domain: Domain, opts: MeshOptions): MeshResult {
     if (bytes > opts.maxBytes) {
       throw new ModelTooLargeError(
         'mesh',
-        `the mesh would have about ${estimated.toExponential(1)} triangles and the analysis would need about ${formatMemory(bytes)}, more than the limit of ${formatMemory(opts.maxBytes)}`,
+        `the mesh would have about ${estimated < 1e5 ? Number(estimated.toPrecision(2)) : estimated.toExponential(1)} triangles and the analysis would need about ${formatMemory(bytes)}, more than the limit of ${formatMemory(opts.maxBytes)}`,
         'raise mesh.size or mesh.raiserSize (or mesh.grading), or raise the limit with --max-memory <GB>',
       );
     }

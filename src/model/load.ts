@@ -225,7 +225,9 @@ export function parseModel(text: string, file?: string, options: LoadOptions = {
   }
   const locate = <E extends PlacedProblem>(e: E): E => {
     if (e.file === undefined) e.file = file;
-    if (e.line === undefined && e.path && !e.path.startsWith('-')) {
+    // Placed only where the field is written: a default (a field the file leaves out) has no
+    // line of its own, and pointing at the enclosing object would show an unrelated excerpt.
+    if (e.line === undefined && e.path && !e.path.startsWith('-') && (scan.valueAt.has(e.path) || scan.keyAt.has(e.path))) {
       const off = offsetOf(e.path, scan);
       if (off !== undefined) placer.place(e, off);
     }
