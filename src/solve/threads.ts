@@ -16,26 +16,21 @@ import { Worker } from 'node:worker_threads';
 import { denseKernelSource } from './dense.js';
 import { wasmModuleBytes } from './wasm-kernel.js';
 import { childLists } from './etree.js';
-import { backwardRange, factorRange, forwardRange } from './multifrontal.js';
+import { backwardRange, factorRange, forwardRange, type RangeContext } from './multifrontal.js';
 
-/** One job for the worker (structured-cloned; the SharedArrayBuffers are shared). */
-interface WorkerJob {
+/**
+ * One job for the worker (structured-cloned; the SharedArrayBuffers are shared): the slice of
+ * the factorisation's range context that crosses the thread boundary, and the shared buffers
+ * the worker builds its own working arrays on.
+ */
+interface WorkerJob
+  extends Pick<
+    RangeContext,
+    's0' | 's1' | 'superStart' | 'superParent' | 'rowPtr' | 'superRows' | 'rowBase' | 'valuePtr' | 'entryPtr' | 'entryValues' | 'entryOffset' | 'entryBase' | 'threshold'
+  > {
   readonly n: number;
-  readonly s0: number;
-  readonly s1: number;
-  readonly superStart: Int32Array;
-  readonly superParent: Int32Array;
-  readonly rowPtr: Int32Array;
-  readonly superRows: Int32Array;
-  readonly rowBase: number;
-  readonly valuePtr: Float64Array;
-  readonly entryPtr: Int32Array;
-  readonly entryValues: Float64Array;
-  readonly entryOffset: Int32Array;
-  readonly entryBase: number;
   readonly maxFront: number;
   readonly stackPeak: number;
-  readonly threshold: number;
   readonly useWasm: boolean;
   /** shared: factor values */
   readonly lBuffer: SharedArrayBuffer;
