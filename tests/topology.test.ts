@@ -8,7 +8,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import type { Geometry } from '../src/model/schema.js';
-import { buildNodeAdjacency, buildNodeElements, type MeshConnectivity } from '../src/mesh/topology.js';
+import { buildNodeAdjacency, findElementsAtNode, measureSizeAtNode, type MeshConnectivity } from '../src/mesh/topology.js';
 import { meshGeometry } from './support/fe.js';
 
 /** Random connectivity: nElements elements of distinct nodes among nNodes (some nodes may be unused). */
@@ -47,14 +47,13 @@ function bruteRows(m: MeshConnectivity, node: number, els: number[][]): { elemen
 
 /** The rows that differ from the brute-force build, and the adjacency's self loops, repeats and missing mirror entries. */
 function topologyFaults(m: MeshConnectivity): string[] {
-  const around = buildNodeElements(m);
   const adj = buildNodeAdjacency(m);
   const els = elementNodes(m);
   const faults: string[] = [];
-  if (around.ptr.length !== m.nNodes + 1 || adj.ptr.length !== m.nNodes + 1) faults.push('ptr length');
+  if (adj.ptr.length !== m.nNodes + 1) faults.push('ptr length');
   for (let i = 0; i < m.nNodes; i++) {
     const want = bruteRows(m, i, els);
-    const got = row(around, i);
+    const got = findElementsAtNode(m, i);
     const nb = row(adj, i);
     if (got.join() !== want.elements.join()) faults.push(`elements of node ${i}: ${got} vs ${want.elements}`);
     if (nb.join() !== want.neighbours.join()) faults.push(`neighbours of node ${i}: ${nb} vs ${want.neighbours}`);
@@ -73,5 +72,27 @@ describe('mesh topology', () => {
   it('agrees with the brute-force builds on generated 3- and 6-node meshes of a plate with a hole', () => {
     const plate: Geometry = { outline: { shape: 'path', path: [[0, 0], [80, 0], [80, 40], [0, 40]] }, holes: [{ shape: 'circle', center: [40, 20], diameter: 10 }] };
     for (const order of [1, 2] as const) expect(topologyFaults(meshGeometry(plate, order, { size: 8 }).mesh)).toEqual([]);
+  });
+
+  it('the element size at a node is the longest corner-to-corner side of the elements touching it (brute force over all elements)', () => {
+    const plate: Geometry = { outline: { shape: 'path', path: [[0, 0], [80, 0], [80, 40], [0, 40]] }, holes: [{ shape: 'circle', center: [40, 20], diameter: 10 }] };
+    for (const order of [1, 2] as const) {
+      const m = meshGeometry(plate, order, { size: 8 }).mesh;
+      const per = order === 2 ? 6 : 3;
+      for (let node = 0; node < m.nNodes; node += 7) {
+        let want = 0;
+        for (let e = 0; e < m.nElements; e++) {
+          const corners = [0, 1, 2].map((k) => m.elements[per * e + k]);
+          if (![...m.elements.subarray(per * e, per * e + per)].includes(node)) continue;
+          for (let k = 0; k < 3; k++) {
+            const a = corners[k];
+            const b = corners[(k + 1) % 3];
+            want = Math.max(want, Math.hypot(m.nodes[2 * a] - m.nodes[2 * b], m.nodes[2 * a + 1] - m.nodes[2 * b + 1]));
+          }
+        }
+        expect(measureSizeAtNode(m, node)).toBe(want);
+        expect(want).toBeGreaterThan(0);
+      }
+    }
   });
 });

@@ -1,7 +1,7 @@
 /**
- * Who touches whom in a triangle mesh, built once as flat CSR arrays: the elements around each
- * node, and the nodes sharing an element with each node (node adjacency, no self loops).
- * Entries of node i are idx[ptr[i]] .. idx[ptr[i + 1] - 1].
+ * Who touches whom in a triangle mesh: the elements around a node (and the element size there),
+ * and the nodes sharing an element with each node (node adjacency, no self loops, as flat CSR
+ * arrays: entries of node i are idx[ptr[i]] .. idx[ptr[i + 1] - 1]).
  */
 
 /** Compressed rows: entries of row i are idx[ptr[i]] .. idx[ptr[i + 1] - 1]. */
@@ -18,17 +18,39 @@ export interface MeshConnectivity {
   readonly order: 1 | 2;
 }
 
-/** The elements touching each node (through any of its 3 or 6 nodes), in increasing element order. */
-export function buildNodeElements(mesh: MeshConnectivity): CsrRows {
+/**
+ * The elements touching `node` (through any of their 3 or 6 nodes), in increasing element order:
+ * one pass over the connectivity, nothing built for the other nodes (every caller asks about one
+ * node: the peak's).
+ */
+export function findElementsAtNode(mesh: MeshConnectivity, node: number): number[] {
   const per = mesh.order === 2 ? 6 : 3;
-  const { elements: el, nElements, nNodes } = mesh;
-  const ptr = new Int32Array(nNodes + 1);
-  for (let k = 0; k < per * nElements; k++) ptr[el[k] + 1]++;
-  for (let i = 0; i < nNodes; i++) ptr[i + 1] += ptr[i];
-  const fill = ptr.slice(0, nNodes);
-  const idx = new Int32Array(ptr[nNodes]);
-  for (let e = 0; e < nElements; e++) for (let i = 0; i < per; i++) idx[fill[el[per * e + i]]++] = e;
-  return { ptr, idx };
+  const el = mesh.elements;
+  const out: number[] = [];
+  for (let e = 0; e < mesh.nElements; e++) {
+    for (let i = 0; i < per; i++) {
+      if (el[per * e + i] === node) {
+        out.push(e);
+        break;
+      }
+    }
+  }
+  return out;
+}
+
+/** The longest corner-to-corner side of the elements touching `node`: the element size there. */
+export function measureSizeAtNode(mesh: MeshConnectivity & { readonly nodes: Float64Array }, node: number): number {
+  const per = mesh.order === 2 ? 6 : 3;
+  const { elements: el, nodes: xy } = mesh;
+  let h = 0;
+  for (const e of findElementsAtNode(mesh, node)) {
+    for (let i = 0; i < 3; i++) {
+      const a = el[per * e + i];
+      const b = el[per * e + ((i + 1) % 3)];
+      h = Math.max(h, Math.hypot(xy[2 * a] - xy[2 * b], xy[2 * a + 1] - xy[2 * b + 1]));
+    }
+  }
+  return h;
 }
 
 /**

@@ -22,7 +22,7 @@ import { generateMesh } from '../mesh/generate.js';
 import { checkMeshSizes, placePinHardPoints } from '../mesh/model-points.js';
 import type { HardPoint } from '../mesh/boundary.js';
 import type { SizeLimit } from '../mesh/background.js';
-import { buildNodeAdjacency, buildNodeElements } from '../mesh/topology.js';
+import { buildNodeAdjacency } from '../mesh/topology.js';
 import type { Mesh, MeshStats } from '../mesh/types.js';
 import { AnalysisError } from '../model/errors.js';
 import type { Model, StressMeasure } from '../model/schema.js';

@@ -5,7 +5,7 @@
  * h (e_peak / e)^(1/p), graded smoothly into the rest (src/mesh/background.ts).
  */
 import { MeshSizeLimit } from '../mesh/background.js';
-import { buildNodeElements } from '../mesh/topology.js';
+import { findElementsAtNode } from '../mesh/topology.js';
 import type { Mesh } from '../mesh/types.js';
 import { estimateErrors } from './estimate.js';
 import type { MeshEvaluation } from './evaluate.js';
@@ -51,8 +51,7 @@ export function adaptSizeLimit(a: SolvedMesh, reference: ReferencePeak, grading:
   const p = mesh.order;
   const peakMag = Math.abs(reference.stress) || 1;
   let eRef = 0;
-  const around = buildNodeElements(mesh);
-  for (let q = around.ptr[reference.node]; q < around.ptr[reference.node + 1]; q++) eRef = Math.max(eRef, est.stressRms[around.idx[q]] / peakMag);
+  for (const e of findElementsAtNode(mesh, reference.node)) eRef = Math.max(eRef, est.stressRms[e] / peakMag);
   const desired = new Float64Array(mesh.nElements).fill(Infinity);
   let marked = 0;
   if (eRef > 0) {

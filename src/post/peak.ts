@@ -3,7 +3,7 @@
  * the feature of the part it sits on.
  */
 import type { Domain } from '../geometry/domain.js';
-import { buildNodeElements } from '../mesh/topology.js';
+import { measureSizeAtNode } from '../mesh/topology.js';
 import type { Mesh } from '../mesh/types.js';
 import type { StressMeasure } from '../model/schema.js';
 import { stressMeasure } from './stress.js';
@@ -130,17 +130,7 @@ export function findPeak(mesh: Mesh, domain: Domain, stress: Float64Array, measu
   }
   if (!atSharp) {
     // Next to a re-entrant corner (within two elements of it) counts as at it.
-    const per = mesh.order === 2 ? 6 : 3;
-    const around = buildNodeElements(mesh);
-    let h = 0;
-    for (let p = around.ptr[best]; p < around.ptr[best + 1]; p++) {
-      const el = around.idx[p];
-      for (let i = 0; i < 3; i++) {
-        const a = mesh.elements[per * el + i];
-        const b = mesh.elements[per * el + ((i + 1) % 3)];
-        h = Math.max(h, Math.hypot(mesh.nodes[2 * a] - mesh.nodes[2 * b], mesh.nodes[2 * a + 1] - mesh.nodes[2 * b + 1]));
-      }
-    }
+    const h = measureSizeAtNode(mesh, best);
     for (const c of domain.corners) {
       if (c.materialAngle <= Math.PI + 1e-6) continue;
       if (Math.hypot(c.x - mesh.nodes[2 * best], c.y - mesh.nodes[2 * best + 1]) <= 2 * h) {

@@ -3,7 +3,7 @@
  * wide (the stress across it is then poorly resolved), and badly shaped elements at the peak.
  */
 import { triangleMinAngle } from '../mesh/generate.js';
-import { buildNodeElements } from '../mesh/topology.js';
+import { findElementsAtNode } from '../mesh/topology.js';
 import type { SizeField } from '../mesh/sizefield.js';
 import type { Mesh } from '../mesh/types.js';
 import type { MeshEvaluation } from './evaluate.js';
@@ -28,8 +28,7 @@ export function checkResolution(mesh: Mesh, size: SizeField, evaluation: MeshEva
   }
   const per = mesh.order === 2 ? 6 : 3;
   let worst = 180;
-  const around = buildNodeElements(mesh);
-  for (let p = around.ptr[peak.node]; p < around.ptr[peak.node + 1]; p++) worst = Math.min(worst, triangleMinAngle(mesh, per, around.idx[p]));
+  for (const e of findElementsAtNode(mesh, peak.node)) worst = Math.min(worst, triangleMinAngle(mesh, per, e));
   if (worst < 20 && !peak.atSharpCorner) out.push(`an element at the peak has an angle of only ${worst.toFixed(1)} degrees; the peak stress there is less reliable`);
   return out;
 }

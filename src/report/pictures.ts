@@ -8,7 +8,7 @@
 import { join } from 'node:path';
 import type { StressMeasure } from '../model/schema.js';
 import { FieldProbe } from '../mesh/probe.js';
-import { buildNodeElements } from '../mesh/topology.js';
+import { measureSizeAtNode } from '../mesh/topology.js';
 import { stressMeasure } from '../post/stress.js';
 import { boxesOverlap, drawLabel, drawLabelAvoiding, drawLegend, drawMarker, drawScaleBar, INK, markerBox, scaleBarBox, SOFT } from '../render/annotate.js';
 import { drawChart, type Series } from '../render/chart.js';
@@ -524,7 +524,6 @@ function roundFactor(f: number): number {
 function peakWindow(src: PlotSource, measure?: StressMeasure): [number, number, number, number] {
   const pk = peakOf(src, measure ?? src.result.peak.measure);
   const m = src.mesh;
-  const per = m.order === 2 ? 6 : 3;
   let near = 0;
   let nd = Infinity;
   for (let i = 0; i < m.nNodes; i++) {
@@ -534,16 +533,7 @@ function peakWindow(src: PlotSource, measure?: StressMeasure): [number, number, 
       near = i;
     }
   }
-  const around = buildNodeElements(m);
-  let h = 0;
-  for (let p = around.ptr[near]; p < around.ptr[near + 1]; p++) {
-    const e = around.idx[p];
-    for (let k = 0; k < 3; k++) {
-      const a = m.elements[per * e + k];
-      const b = m.elements[per * e + ((k + 1) % 3)];
-      h = Math.max(h, Math.hypot(m.nodes[2 * a] - m.nodes[2 * b], m.nodes[2 * a + 1] - m.nodes[2 * b + 1]));
-    }
-  }
+  const h = measureSizeAtNode(m, near);
   const box = bbox(m.nodes);
   const scale = Math.hypot(box[2] - box[0], box[3] - box[1]);
   const radius = src.result.fatigue?.radius;
