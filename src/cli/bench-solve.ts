@@ -152,10 +152,8 @@ function runBenchSolve(file: string, bFile: string | undefined, flags: BenchSolv
 }
 
 /** Registers `raiser bench-solve`. */
-export function benchSolveCommand(program: Command, setCode: (c: number) => void): void {
-  program
-    .command('bench-solve')
-    .description('factor and solve a symmetric positive definite Matrix Market file; print times, fill, flops, memory and the residual')
+export function declareBenchSolve(cmd: Command, setCode: (c: number) => void): void {
+  cmd
     .argument('<K.mtx>', 'the matrix (Matrix Market coordinate, symmetric or general)')
     .argument('[b.mtx]', 'the right-hand side (Matrix Market array); default b = A * ones')
     .addOption(new Option('--ordering <method>', 'fill-reducing ordering (default amd)').choices(['amd', 'natural']))

@@ -126,10 +126,8 @@ function runFamily(template: string, charts: Chart[], rest: string[], json: bool
   process.stdout.write(out.join('\n').trimEnd() + '\n');
 }
 
-export function chartsCommand(program: Command, setCode: (c: number) => void): void {
-  program
-    .command('charts')
-    .description('list the published Kt formulas, or evaluate one: raiser charts fillet-tension --D 60 --d 40 --r 6, or those of a template family: raiser charts stepped-bar --D 60 --d 40 --r 6')
+export function declareCharts(cmd: Command, setCode: (c: number) => void): void {
+  cmd
     .argument('[chart]', 'chart id, or a template name of raiser new for the charts of its family; omit it to list the library')
     .argument('[params...]', 'dimensions as --name value')
     .allowUnknownOption()

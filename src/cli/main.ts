@@ -1,182 +1,130 @@
 /**
  * The command line: parses arguments, calls the library, prints. No analysis logic lives here.
  * Exit codes: 0 done, 2 bad input, 3 the model cannot be analysed as given, 1 internal fault.
+ *
+ * Start-up loads only this file and commander: each command's module (and through it the
+ * schema, the analysis, the fonts, the parsers) is imported when that command is run, so
+ * `raiser --version` and `raiser --help` do no work they do not need.
  */
-import { Command, CommanderError, Option } from 'commander';
-import { STRESS_MEASURES, type StressMeasure } from '../model/schema.js';
-import { AnalysisError, ModelError, ModelTooLargeError } from '../model/errors.js';
-import { loadModelFileAndDrawing } from '../pipeline/load.js';
-import { analyseModel } from '../pipeline/analyse.js';
-import { certifyModel } from '../pipeline/certify.js';
-import { buildResult, TOOL_VERSION } from '../report/result.js';
-import { formatSummary } from '../report/summary.js';
-import { prepareOutputDir, writeAtomic, writeResultFiles } from '../report/files.js';
-import { environment, formatVerifyLine, formatVerifySummary, verifyReportMarkdown } from '../report/verify-report.js';
-import { runVerify, verifyCases } from '../verify/suite.js';
-import { join } from 'node:path';
-import { totalmem } from 'node:os';
-import { newCommand } from './new.js';
-import { chartsCommand } from './charts.js';
-import { sweepCommands } from './sweep.js';
-import { meshCommand } from './mesh.js';
-import { benchSolveCommand } from './bench-solve.js';
-import { parseAccuracy } from './accuracy.js';
+import { Command, CommanderError, Help } from 'commander';
+import { AnalysisError, ModelError } from '../model/errors.js';
+import { TOOL_VERSION } from '../model/version.js';
 import { addressSpaceLimit } from './address-space.js';
-import { addSolvePictureOptions, exportMatrixIfAsked, plotCommand, prepareSolveOutputs, solveOutputOptions } from './plot.js';
-import { probeCommand } from './probe.js';
-import { addSignOffOptions, applySignOff, checkSolvePdf, printPdfOf, reportCommand, EXIT_NO_PDF } from './report.js';
 
-const EXIT = { ok: 0, internal: 1, badInput: 2, cannotAnalyse: 3, noPdf: EXIT_NO_PDF } as const;
+const EXIT = { ok: 0, internal: 1, badInput: 2, cannotAnalyse: 3 } as const;
 
-interface SolveFlags {
-  accuracy?: string;
-  maxMemory?: string;
-  singleMesh?: boolean;
-  json?: boolean;
-  out?: string;
-  force?: boolean;
-  measure?: StressMeasure;
-  element?: 'linear' | 'quadratic';
-  debug?: boolean;
-  allowDrawingOutside?: boolean;
-  pdf?: boolean;
-  paper?: string;
-}
+type Declare = (cmd: Command, setCode: (c: number) => void) => void;
 
 /**
- * The default memory limit under a virtual memory limit (ulimit -v): 60% of it when that is
- * less than 60% of the machine, so a model too large is refused up front with its size said,
- * rather than failing in an allocation part way. Undefined: the analysis's own default.
+ * The commands: name, the usage shown in the list, the one-line description, and the module
+ * that declares the rest (arguments, options, action). The list is the only place a command's
+ * name and description are written.
  */
-function defaultMemoryLimit(): number | undefined {
-  const limit = addressSpaceLimit();
-  return limit !== undefined && 0.6 * limit < 0.6 * totalmem() ? 0.6 * limit : undefined;
+const COMMANDS: readonly { name: string; usage: string; description: string; load: () => Promise<Declare> }[] = [
+  {
+    name: 'solve',
+    usage: '[options] <model>',
+    description: 'mesh, solve and report the peak stress, nominal stress and Kt of a model file',
+    load: async () => (await import('./solve.js')).declareSolve,
+  },
+  {
+    name: 'new',
+    usage: '[template] [params...]',
+    description: 'print a model file for a standard family (plate with a hole, stepped bar, notched bars ...)',
+    load: async () => (await import('./new.js')).declareNew,
+  },
+  {
+    name: 'charts',
+    usage: '[options] [chart] [params...]',
+    description:
+      'list the published Kt formulas, or evaluate one: raiser charts fillet-tension --D 60 --d 40 --r 6, or those of a template family: raiser charts stepped-bar --D 60 --d 40 --r 6',
+    load: async () => (await import('./charts.js')).declareCharts,
+  },
+  {
+    name: 'sweep',
+    usage: '[options] <model>',
+    description: 'solve a model over a range of a dimension and write a Kt chart: raiser sweep m.json --vary fillet=1:10:10',
+    load: async () => (await import('./sweep.js')).declareSweep,
+  },
+  {
+    name: 'size',
+    usage: '[options] <model>',
+    description: 'find the smallest (or largest) value of a dimension that meets a Kt or stress limit: raiser size m.json --vary fillet=1:20 --kt-max 1.8',
+    load: async () => (await import('./sweep.js')).declareSize,
+  },
+  {
+    name: 'plot',
+    usage: '[options] <saved>',
+    description: 'draw the pictures again from a saved solution (solution.raiser written by solve -o, or its folder), without solving',
+    load: async () => (await import('./plot.js')).declarePlot,
+  },
+  {
+    name: 'report',
+    usage: '[options] <dir>',
+    description: 'write report.html again from a saved solution (the folder solve -o wrote), with the sign-off fields, and with --pdf print it to report.pdf',
+    load: async () => (await import('./report.js')).declareReport,
+  },
+  {
+    name: 'probe',
+    usage: '[options] <saved>',
+    description: 'print the stresses and displacements of a saved solution at given points or along a line',
+    load: async () => (await import('./probe.js')).declareProbe,
+  },
+  {
+    name: 'mesh',
+    usage: '[options] <model>',
+    description: 'mesh a model without solving it: the geometry with its tags and the mesh, as a summary and (with -o) a picture',
+    load: async () => (await import('./mesh.js')).declareMesh,
+  },
+  {
+    name: 'bench-solve',
+    usage: '[options] <K.mtx> [b.mtx]',
+    description: 'factor and solve a symmetric positive definite Matrix Market file; print times, fill, flops, memory and the residual',
+    load: async () => (await import('./bench-solve.js')).declareBenchSolve,
+  },
+  {
+    name: 'verify',
+    usage: '[options]',
+    description: 'run the verification suite: published and closed-form cases, with sources and tolerances',
+    load: async () => (await import('./verify.js')).declareVerify,
+  },
+];
+
+/** A command's term in the list of commands: from the table, as commander would write it once declared. */
+function termOf(cmd: Command): string {
+  const c = COMMANDS.find((x) => x.name === cmd.name());
+  return c ? `${c.name} ${c.usage}` : new Help().subcommandTerm(cmd);
 }
 
-/** "8", "8GB", "512MB" -> bytes. */
-function parseMemory(text: string): number {
-  const m = /^\s*(\d*\.?\d+)\s*(GB|G|MB|M)?\s*$/i.exec(text);
-  const v = m ? Number(m[1]) * (m[2] && /^m/i.test(m[2]) ? 2 ** 20 : 2 ** 30) : NaN;
-  if (!(v > 0)) throw new ModelError('--max-memory', `"${text}" is not an amount of memory`, 'write --max-memory 8 (gigabytes) or 512MB');
-  return v;
-}
-
-function runSolve(file: string, flags: SolveFlags): number {
-  // The output folders are checked, made and locked before anything is read or solved.
-  checkSolvePdf(flags);
-  prepareSolveOutputs(flags);
-  const loaded = loadModelFileAndDrawing(file, { allowDrawingOutside: flags.allowDrawingOutside });
-  const { model, drawing, warnings } = loaded;
-  applySignOff(model, flags);
-  const opts = { measure: flags.measure, element: flags.element, maxMemoryBytes: flags.maxMemory ? parseMemory(flags.maxMemory) : defaultMemoryLimit(), drawing };
-  let analysis;
-  let cert = null;
-  // A problem found while building the geometry or the mesh is placed in the model file too.
-  const placed = <T>(work: () => T): T => {
-    try {
-      return work();
-    } catch (e) {
-      throw e instanceof ModelError || e instanceof ModelTooLargeError ? loaded.locate(e) : e;
-    }
-  };
-  if (flags.singleMesh) {
-    analysis = placed(() => analyseModel(model, opts));
-  } else {
-    cert = placed(() => certifyModel(model, { ...opts, target: parseAccuracy(flags.accuracy ?? '1%') }));
-    analysis = cert.analysis;
-    if (cert.status === 'not-converged') {
-      analysis.warnings.push(`the accuracy target ${(100 * cert.target).toPrecision(2)}% was not met; the error band shown is what the meshes support`);
-    }
-  }
-  analysis.warnings.unshift(...warnings.map((w) => w.describe()));
-  const result = buildResult(analysis, file, cert);
-  let written: string[] = [];
-  if (flags.out !== undefined) written = writeResultFiles(flags.out, analysis, result, flags.force ?? false, solveOutputOptions(flags));
-  written.push(...exportMatrixIfAsked(flags, analysis));
-  if (flags.json) {
-    process.stdout.write(JSON.stringify(result, null, 2) + '\n');
-  } else {
-    process.stdout.write(formatSummary(result) + '\n');
-    if (written.length) process.stdout.write(`\n  wrote ${written.join(', ')}\n`);
-  }
-  return EXIT.ok;
-}
-
-function runVerifyCommand(flags: { json?: boolean; out?: string; force?: boolean; only?: string }): number {
-  const only = flags.only ? flags.only.split(',').map((x) => x.trim()).filter(Boolean) : undefined;
-  if (flags.out !== undefined) prepareOutputDir(flags.out, ['verify-report.md', 'verify.json'], flags.force ?? false);
-  if (!flags.json) process.stdout.write(`raiser ${TOOL_VERSION} verification suite\n`);
-  const rows = runVerify(only, flags.json ? undefined : (r) => process.stdout.write(formatVerifyLine(r) + '\n'));
-  if (rows.length === 0) throw new ModelError('--only', `no verification case starts with ${flags.only}`, `the cases are ${verifyCases().map((c) => c.id).join(', ')}`);
-  const summary = { environment: environment(), pass: rows.every((r) => r.pass), rows };
-  if (flags.out !== undefined) {
-    writeAtomic(join(flags.out, 'verify-report.md'), verifyReportMarkdown(rows));
-    writeAtomic(join(flags.out, 'verify.json'), JSON.stringify(summary, null, 2) + '\n');
-  }
-  if (flags.json) process.stdout.write(JSON.stringify(summary, null, 2) + '\n');
-  else {
-    process.stdout.write(formatVerifySummary(rows) + '\n');
-    if (flags.out !== undefined) process.stdout.write(`  wrote ${join(flags.out, 'verify-report.md')} and ${join(flags.out, 'verify.json')}\n`);
-  }
-  // A failed case means this installation does not reproduce a published value: a fault.
-  return summary.pass ? EXIT.ok : EXIT.internal;
+/** The command a command line runs: its first word, or the word after `help`. */
+function commandWord(argv: string[]): string | undefined {
+  const words = argv.filter((a) => !a.startsWith('-'));
+  return words[0] === 'help' ? words[1] : words[0];
 }
 
 /** Runs the program; returns the exit code (the process is not exited here, so tests can call it). */
 export async function main(argv: string[]): Promise<number> {
   let code: number = EXIT.ok;
-  let debug = argv.includes('--debug');
+  const debug = argv.includes('--debug');
+  const setCode = (c: number) => {
+    code = c;
+  };
   const program = new Command();
   program
     .name('raiser')
     .description('Stress concentration factors of flat parts by finite elements')
     .version(TOOL_VERSION)
     .exitOverride()
-    .configureOutput({ writeErr: (s) => process.stderr.write(s) });
-
-  program
-    .command('solve')
-    .description('mesh, solve and report the peak stress, nominal stress and Kt of a model file')
-    .argument('<model>', 'model file (JSON)')
-    .option('--accuracy <target>', 'refine until the estimated error of the peak (and Kt) is below this, e.g. 0.5% (default 1%)')
-    .option('--single-mesh', 'solve on one mesh only, without the convergence study (no error estimate)')
-    .option('--max-memory <GB>', 'refuse models estimated to need more memory than this (default 60% of this machine)')
-    .option('--json', 'print the result as one JSON object on stdout, nothing else')
-    .option('-o, --out <dir>', 'write result files (result.json, nodes.csv, the saved solution, VTU, pictures, report.html) into this folder')
-    .option('--force', 'replace result files that already exist in the output folder')
-    .addOption(new Option('--measure <measure>', 'stress measure for the peak and Kt').choices(STRESS_MEASURES as unknown as string[]))
-    .addOption(new Option('--element <type>', 'element type, overriding the model file').choices(['linear', 'quadratic']))
-    .option('--debug', 'show internal details (stack traces) on errors')
-    .option('--allow-drawing-outside', 'let geometry.from read a drawing outside the model file\'s folder (an absolute path, or one through ..)')
-    .action(async (file: string, flags: SolveFlags) => {
-      debug = debug || !!flags.debug;
-      code = runSolve(file, flags);
-      if (code === EXIT.ok && flags.pdf && flags.out !== undefined) code = await printPdfOf(flags.out, flags, !!flags.json);
-    });
-
-  newCommand(program, (c) => (code = c));
-  chartsCommand(program, (c) => (code = c));
-  sweepCommands(program, (c) => (code = c));
-  addSolvePictureOptions(program.commands.find((c) => c.name() === 'solve')!);
-  addSignOffOptions(program.commands.find((c) => c.name() === 'solve')!, true);
-  plotCommand(program, (c) => (code = c));
-  reportCommand(program, (c) => (code = c));
-  probeCommand(program, (c) => (code = c));
-  meshCommand(program, (c) => (code = c));
-  benchSolveCommand(program, (c) => (code = c));
-
-  program
-    .command('verify')
-    .description('run the verification suite: published and closed-form cases, with sources and tolerances')
-    .option('--json', 'print the rows as one JSON object on stdout, nothing else')
-    .option('-o, --out <dir>', 'write verify-report.md and verify.json into this folder')
-    .option('--force', 'replace report files that already exist')
-    .option('--only <ids>', 'run only the cases whose id starts with one of these (comma separated)')
-    .action((flags: { json?: boolean; out?: string; force?: boolean; only?: string }) => {
-      code = runVerifyCommand(flags);
-    });
+    .configureOutput({ writeErr: (s) => process.stderr.write(s) })
+    .configureHelp({ subcommandTerm: termOf });
 
   try {
+    const word = commandWord(argv);
+    for (const c of COMMANDS) {
+      const cmd = program.command(c.name).description(c.description);
+      // only the command being run is declared in full (and its module loaded)
+      if (c.name === word) (await c.load())(cmd, setCode);
+    }
     await program.parseAsync(argv, { from: 'user' });
   } catch (err) {
     return reportError(err, debug);
@@ -188,7 +136,6 @@ export async function main(argv: string[]): Promise<number> {
 function outOfMemory(err: unknown): boolean {
   return err instanceof RangeError && /could not allocate memory|Array buffer allocation failed|Invalid typed array length|out of memory/i.test(err.message);
 }
-
 function reportError(err: unknown, debug: boolean): number {
   if (err instanceof CommanderError) {
     // commander has already printed its message (help and version exit with code 0).

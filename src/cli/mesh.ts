@@ -14,7 +14,7 @@ import { prepareModel } from '../pipeline/analyse.js';
 import { drawGeometryPicture } from '../render/geometry-picture.js';
 import { prepareOutputDir, writeAtomic } from '../report/files.js';
 import { CAUTION_LINE } from '../report/pictures.js';
-import { TOOL_VERSION } from '../report/result.js';
+import { TOOL_VERSION } from '../model/version.js';
 
 interface MeshFlags {
   out?: string;
@@ -122,10 +122,8 @@ export function runMesh(file: string, flags: MeshFlags): { text: string; json: o
   return { text: lines.join('\n'), json };
 }
 
-export function meshCommand(program: Command, setCode: (c: number) => void): void {
-  program
-    .command('mesh')
-    .description('mesh a model without solving it: the geometry with its tags and the mesh, as a summary and (with -o) a picture')
+export function declareMesh(cmd: Command, setCode: (c: number) => void): void {
+  cmd
     .argument('<model>', 'model file (JSON)')
     .option('-o, --out <dir>', 'write mesh-preview.png and mesh-preview.svg into this folder')
     .option('--force', 'replace picture files that already exist in the output folder')

@@ -63,10 +63,8 @@ export function parseParamPairs(args: string[]): Record<string, string> {
   return values;
 }
 
-export function newCommand(program: Command, setCode: (c: number) => void): void {
-  program
-    .command('new')
-    .description('print a model file for a standard family (plate with a hole, stepped bar, notched bars ...)')
+export function declareNew(cmd: Command, setCode: (c: number) => void): void {
+  cmd
     .argument('[template]', 'template name; omit it to list the templates')
     .argument('[params...]', 'parameters as --name value')
     .allowUnknownOption()

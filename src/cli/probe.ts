@@ -111,10 +111,8 @@ function runProbe(saved: string, flags: ProbeFlags): number {
   return 0;
 }
 
-export function probeCommand(program: Command, setCode: (c: number) => void): void {
-  program
-    .command('probe')
-    .description('print the stresses and displacements of a saved solution at given points or along a line')
+export function declareProbe(cmd: Command, setCode: (c: number) => void): void {
+  cmd
     .argument('<saved>', 'solution.raiser written by solve -o, or its folder')
     .option('--at <x,y>', 'a point (repeatable)', (v: string, prev: string[] = []) => [...prev, v])
     .option('--line <x0,y0,x1,y1>', 'points evenly along this line, ends included')

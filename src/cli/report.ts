@@ -14,64 +14,7 @@ import { reportHtml } from '../report/html.js';
 import { PdfError, printReportPdf, type Paper } from '../report/pdf.js';
 import { reportPictures } from '../report/report-pictures.js';
 import { readSaved, SAVED_FILE } from '../report/saved.js';
-
-/** Exit status when everything else was written but the PDF could not be printed. */
-export const EXIT_NO_PDF = 4;
-
-export interface SignOffFlags {
-  project?: string;
-  part?: string;
-  revision?: string;
-  reportDate?: string;
-  preparedBy?: string;
-  checkedBy?: string;
-  approvedBy?: string;
-}
-
-export interface PdfFlags {
-  pdf?: boolean;
-  paper?: string;
-}
-
-const FIELDS: [keyof SignOffFlags, keyof ReportInfo][] = [
-  ['project', 'project'],
-  ['part', 'part'],
-  ['revision', 'revision'],
-  ['reportDate', 'date'],
-  ['preparedBy', 'preparedBy'],
-  ['checkedBy', 'checkedBy'],
-  ['approvedBy', 'approvedBy'],
-];
-
-/** The model's `report` object with the options given on the command line put over it. */
-export function applySignOff(model: Model, flags: object): void {
-  const f = flags as SignOffFlags;
-  const info: ReportInfo = { ...(model.report ?? {}) };
-  let any = false;
-  for (const [flag, field] of FIELDS) {
-    const v = f[flag];
-    if (v === undefined) continue;
-    if (v.trim() === '') throw new ModelError(`--${flag.replace(/[A-Z]/g, (c) => '-' + c.toLowerCase())}`, 'the value is empty', 'give the text, in quotes if it has spaces');
-    info[field] = v;
-    any = true;
-  }
-  if (any || model.report) model.report = info;
-}
-
-/** Adds the sign-off options and --pdf (to `raiser solve` and `raiser report`). */
-export function addSignOffOptions(cmd: Command, withOut: boolean): Command {
-  const w = withOut ? 'with -o: ' : '';
-  return cmd
-    .option('--project <text>', 'project name for the report (over the model\'s report.project)')
-    .option('--part <number>', 'part or drawing number for the report (over report.part)')
-    .option('--revision <rev>', 'revision of the analysis for the report (over report.revision)')
-    .option('--report-date <date>', 'date of the revision as printed in the report (over report.date; default: the date of the analysis)')
-    .option('--prepared-by <name>', 'engineer who prepared the analysis (over report.preparedBy)')
-    .option('--checked-by <name>', 'engineer who checked it (over report.checkedBy)')
-    .option('--approved-by <name>', 'who approved it (over report.approvedBy)')
-    .option('--pdf', `${w}also print report.pdf through a headless Chromium (RAISER_CHROMIUM or /usr/bin/chromium)`)
-    .addOption(new Option('--paper <size>', `${w}paper size of report.pdf`).choices(['a4', 'letter']).default('a4'));
-}
+import { addSignOffOptions, applySignOff, EXIT_NO_PDF, type PdfFlags, type SignOffFlags } from './output-options.js';
 
 function paperOf(flags: PdfFlags): Paper {
   return flags.paper === 'letter' ? 'Letter' : 'A4';
@@ -94,13 +37,6 @@ export async function printPdfOf(dir: string, flags: PdfFlags, quiet = false): P
   }
 }
 
-/** `solve --pdf` needs `-o`: said before anything is solved. */
-export function checkSolvePdf(flags: object): void {
-  const f = flags as PdfFlags & { out?: string; pictures?: boolean };
-  if (f.pdf && f.out === undefined) throw new ModelError('--pdf', 'a PDF report needs an output folder', 'add -o DIR (report.pdf is written beside report.html)');
-  if (f.pdf && f.pictures === false) throw new ModelError('--pdf', '--no-pictures writes no report to print', 'leave out --no-pictures, or --pdf');
-}
-
 async function runReport(dir: string, flags: SignOffFlags & PdfFlags): Promise<number> {
   let isDir = false;
   try {
@@ -121,10 +57,7 @@ async function runReport(dir: string, flags: SignOffFlags & PdfFlags): Promise<n
   return flags.pdf ? printPdfOf(dir, flags) : 0;
 }
 
-export function reportCommand(program: Command, setCode: (c: number) => void): void {
-  const cmd = program
-    .command('report')
-    .description(`write report.html again from a saved solution (the folder solve -o wrote), with the sign-off fields, and with --pdf print it to report.pdf`)
-    .argument('<dir>', `the folder holding ${SAVED_FILE} (or that file); report.html is written there`);
+export function declareReport(cmd: Command, setCode: (c: number) => void): void {
+  cmd.argument('<dir>', `the folder holding ${SAVED_FILE} (or that file); report.html is written there`);
   addSignOffOptions(cmd, false).action(async (dir: string, flags: SignOffFlags & PdfFlags) => setCode(await runReport(dir, flags)));
 }

@@ -2,7 +2,7 @@
 import { basename, join } from 'node:path';
 import { Option, type Command } from 'commander';
 import { ModelError } from '../model/errors.js';
-import { STRESS_MEASURES, type StressMeasure } from '../model/schema.js';
+import { STRESS_MEASURES, type StressMeasure } from '../model/measures.js';
 import { fmt } from '../report/summary.js';
 import { prepareOutputDir, writeAtomic, writeResultFiles } from '../report/files.js';
 import { buildResult } from '../report/result.js';
@@ -10,7 +10,8 @@ import { formatJson } from '../model/format-json.js';
 import { parseVary } from '../sweep/cases.js';
 import { runSweep } from '../sweep/run.js';
 import { runSize, solveChosen, type SizeOptions, type SizeResult } from '../sweep/size.js';
-import { prepareSolveOutputs, solveOutputOptions } from './plot.js';
+import { prepareSolveOutputs } from './plot.js';
+import { solveOutputOptions } from './output-options.js';
 import { parseAccuracy } from './accuracy.js';
 
 const collect = (v: string, prev: string[] = []) => [...prev, v];
@@ -115,10 +116,8 @@ function sizeJson(res: SizeResult): Omit<SizeResult, 'solved'> {
 /** Files `raiser size -o` writes besides those of `raiser solve -o`. */
 const SIZE_FILES = ['model.json', 'size.json'];
 
-export function sweepCommands(program: Command, setCode: (c: number) => void): void {
-  program
-    .command('sweep')
-    .description('solve a model over a range of a dimension and write a Kt chart: raiser sweep m.json --vary fillet=1:10:10')
+export function declareSweep(cmd: Command, setCode: (c: number) => void): void {
+  cmd
     .argument('<model>', 'model file (JSON) with the parameters, or made by raiser new')
     .requiredOption('--vary <name=from:to:count>', 'a parameter and its values (give two for a family of curves)', collect)
     .option('-o, --out <dir>', 'folder for the chart and the finished cases (default: <model>-sweep)')
@@ -167,10 +166,10 @@ export function sweepCommands(program: Command, setCode: (c: number) => void): v
         setCode(3);
       } else setCode(0);
     });
+}
 
-  program
-    .command('size')
-    .description('find the smallest (or largest) value of a dimension that meets a Kt or stress limit: raiser size m.json --vary fillet=1:20 --kt-max 1.8')
+export function declareSize(cmd: Command, setCode: (c: number) => void): void {
+  cmd
     .argument('<model>', 'model file (JSON) with the parameter, or made by raiser new')
     .requiredOption('--vary <name=low:high>', 'the dimension and its range')
     .option('--kt-max <limit>', 'the largest Kt allowed')

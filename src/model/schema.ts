@@ -8,6 +8,7 @@
  * Conventions: y points up; lengths, forces and stresses are in the units the file declares
  * (default mm, N, MPa). Indices shown to people (hole 2, corner 5) count from 1.
  */
+import { STRESS_MEASURES, type StressMeasure } from './measures.js';
 import { z } from 'zod';
 import { PRODUCT_FORMS, type MaterialBasis } from './materials.js';
 
@@ -329,8 +330,7 @@ export const MeshSettings = z.strictObject({
 });
 export type MeshSettings = z.infer<typeof MeshSettings>;
 
-export const STRESS_MEASURES = ['max-principal', 'von-mises', 'tresca', 'sxx', 'syy', 'sxy', 'min-principal'] as const;
-export type StressMeasure = (typeof STRESS_MEASURES)[number];
+export type { StressMeasure };
 
 export const ResultSettings = z.strictObject({
   measure: z.enum(STRESS_MEASURES).optional().describe('the stress measure for the peak and Kt (default max-principal)'),

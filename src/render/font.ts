@@ -7,7 +7,10 @@
  */
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
-import opentype, { type Font } from 'opentype.js';
+import type { Font } from 'opentype.js';
+
+/** opentype.js, loaded on the first text drawn (not at start-up: most commands draw nothing). */
+const loadOpentype = (): typeof import('opentype.js') => createRequire(import.meta.url)('opentype.js') as typeof import('opentype.js');
 
 export type Weight = 'normal' | 'bold';
 
@@ -19,7 +22,7 @@ function font(weight: Weight): Font {
     const require = createRequire(import.meta.url);
     const file = require.resolve(`dejavu-fonts-ttf/ttf/${weight === 'bold' ? 'DejaVuSans-Bold.ttf' : 'DejaVuSans.ttf'}`);
     const b = readFileSync(file);
-    f = opentype.parse(b.buffer.slice(b.byteOffset, b.byteOffset + b.byteLength) as ArrayBuffer);
+    f = loadOpentype().parse(b.buffer.slice(b.byteOffset, b.byteOffset + b.byteLength) as ArrayBuffer);
     fonts[weight] = f;
   }
   return f;

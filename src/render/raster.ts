@@ -11,7 +11,10 @@
  * are filled as one path of consistently oriented quads and round joins, so a polyline
  * overlapping itself does not darken twice.
  */
-import { PNG } from 'pngjs';
+import { createRequire } from 'node:module';
+
+/** pngjs, loaded on the first PNG written (not at start-up). */
+const loadPng = (): typeof import('pngjs') => createRequire(import.meta.url)('pngjs') as typeof import('pngjs');
 
 export type Rgb = readonly [number, number, number];
 
@@ -224,6 +227,7 @@ export class Raster {
 
   /** PNG bytes: RGB when every pixel is opaque, RGBA otherwise (deflate level 6, Paeth filter on every row). */
   toPng(): Buffer {
+    const { PNG } = loadPng();
     const png = new PNG({ width: this.width, height: this.height });
     png.data = Buffer.from(this.data.buffer, this.data.byteOffset, this.data.byteLength);
     let opaque = true;

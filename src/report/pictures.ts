@@ -21,7 +21,7 @@ import { formatValue } from '../render/ticks.js';
 import { drawBoundaryConditions } from '../render/boundary-conditions.js';
 import { writeAtomic } from './atomic.js';
 import type { PlotSource } from './saved.js';
-import { TOOL_VERSION } from './result.js';
+import { TOOL_VERSION } from '../model/version.js';
 
 export interface PictureOptions {
   /** picture size in pixels (default 1600 x 1000) */

@@ -3,6 +3,7 @@
  * `-o DIR` writes as result.json. Every field is documented in the README ("Result fields");
  * keep the two in step.
  */
+import { TOOL_VERSION } from '../model/version.js';
 import type { ResultJson } from './result-json.js';
 import type { Analysis } from '../pipeline/analyse.js';
 import { InternalError } from '../model/errors.js';
@@ -17,7 +18,6 @@ import { describeBasis } from '../model/materials.js';
 import type { Model } from '../model/schema.js';
 import { describeRaiserShape, type RaiserShape } from '../post/raisers.js';
 
-export const TOOL_VERSION = '0.1.0';
 
 /** The cautions every result carries, in plain words. */
 const CAUTIONS = [

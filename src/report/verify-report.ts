@@ -1,7 +1,7 @@
 /** The verification table: for the console and, as Markdown, for quality records. */
 import { arch, cpus, platform, release } from 'node:os';
 import type { VerifyRow } from '../verify/suite.js';
-import { TOOL_VERSION } from './result.js';
+import { TOOL_VERSION } from '../model/version.js';
 import { fmt } from './summary.js';
 
 export function environment() {

@@ -18,17 +18,19 @@
  * that is the drawing plane seen from below, x mirrored (the "arbitrary axis algorithm" of the
  * DXF reference [M]). Entities that do not lie in the drawing plane are refused.
  */
-import dxfParserModule, { type DxfParser as DxfParserClass } from 'dxf-parser';
+import { createRequire } from 'node:module';
+import type { DxfParser as DxfParserClass } from 'dxf-parser';
 import type { Curve } from '../curve.js';
 import { type Affine, IDENTITY, compose, mapCurve, rotation, scaling, translation } from './affine.js';
 import { ExpansionBudget, MAX_ARRAY_COPIES, MAX_EXPANDED_ITEMS, MAX_SPLINE_DEGREE, MAX_SPLINE_POINTS, MAX_SPLINE_WORK, ccwSweep, usableAngle } from './limits.js';
 import { DRAWING_UNIT_METRES, DrawingError, type DrawnCurve, type Piece, type ReadDrawing, type ReadOptions } from './types.js';
 
 /**
- * The package's main file is a CommonJS bundle whose export is the parser class itself, while
- * its type declarations describe an ES module with the class as its default export.
+ * The parser class, loaded when a DXF file is first read (not at start-up). The package's main
+ * file is a CommonJS bundle whose export is the parser class itself, while its type declarations
+ * describe an ES module with the class as its default export.
  */
-const DxfParser = dxfParserModule as unknown as typeof DxfParserClass;
+const loadDxfParser = (): typeof DxfParserClass => createRequire(import.meta.url)('dxf-parser') as typeof DxfParserClass;
 
 /** $INSUNITS codes that are lengths a plate is drawn in, as metres (DXF reference, HEADER section [M]). */
 const INSUNITS: Record<number, [string, number]> = {
@@ -149,7 +151,7 @@ export function readDxf(text: string, opts: ReadOptions): ReadDrawing {
       'a plate profile needs far fewer: export only the part (without title block, hatching and other parts), or simplify it',
     );
   }
-  const parser = new DxfParser();
+  const parser = new (loadDxfParser())();
   for (const name of names) {
     if (STRUCTURE.has(name) || LIBRARY.has(name) || !/^[A-Z0-9_]+$/i.test(name)) continue;
     parser.registerEntityHandler(rawHandler(name) as never);

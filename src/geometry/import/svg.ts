@@ -15,8 +15,12 @@
  * Coordinates: y is flipped to point up, with the model origin at the bottom-left corner of the
  * viewBox (of the width x height canvas without one).
  */
-import { SaxesParser, type SaxesTagNS } from 'saxes';
-import svgpath from 'svgpath';
+import { createRequire } from 'node:module';
+import type { SaxesTagNS } from 'saxes';
+
+/** The XML and path-data parsers, loaded when an SVG file is first read (not at start-up). */
+const loadSaxes = (): typeof import('saxes') => createRequire(import.meta.url)('saxes') as typeof import('saxes');
+const svgpath = (d: string): ReturnType<typeof import('svgpath')> => (createRequire(import.meta.url)('svgpath') as typeof import('svgpath'))(d);
 import { type Curve } from '../curve.js';
 import { type Affine, IDENTITY, compose, mapCurve, scaling, translation } from './affine.js';
 import { ExpansionBudget, MAX_EXPANDED_ITEMS, MAX_XML_DEPTH, MAX_XML_ENTITIES, MAX_XML_ENTITY_LENGTH, MAX_XML_EXPANSION } from './limits.js';
@@ -39,7 +43,7 @@ interface XmlElement {
 
 /** The elements of an SVG document as a tree (text and comments dropped). */
 function parseXml(text: string): XmlElement {
-  const parser = new SaxesParser({ xmlns: true, position: true });
+  const parser = new (loadSaxes().SaxesParser)({ xmlns: true, position: true });
   const stack: XmlElement[] = [];
   let elements = 0;
   let root: XmlElement | undefined;
