@@ -17,6 +17,7 @@ import type { MeshStats } from '../mesh/types.js';
 import { runSolveBench } from './solve.js';
 import { runAdaptiveBench } from './adaptive.js';
 import { runContactBench } from './contact.js';
+import { runProcessBench } from './process.js';
 import { benchAssembly, benchMesherAt, benchScaling, benchWholeMillion } from './scale.js';
 
 function median(xs: number[]): number {
@@ -78,6 +79,8 @@ function runBench(args: string[], log: (s: string) => void = console.log): void 
     return;
   }
   log('command: npm run bench' + (large ? ' -- --large' : ''));
+  log('\nWhole process from the shell (start-up included; node dist/bench/process.js)');
+  runProcessBench(log);
   benchMesher(runs, log, large);
   benchAnalysis(runs, log);
   benchAssembly(large ? [1e5, 5e5, 1e6] : [1e5], runs, log);
