@@ -1,4 +1,5 @@
 import { describe, it, expect } from 'vitest';
+import fc from 'fast-check';
 import {
   adjacencyGraph,
   analyzeCholesky,
@@ -11,6 +12,7 @@ import {
   orderNestedDissectionNodes,
   restrictOrdering,
 } from '../src/solve/index.js';
+import { SeparatorRefiner } from '../src/solve/nested-dissection.js';
 import { cantileverProblem } from '../src/bench/fixtures/cantilever.js';
 import { gridGeometry, gridLaplacian, randomSpd } from './support/matrices.js';
 
@@ -114,6 +116,71 @@ describe('orderings are valid permutations', () => {
         expect(geo.coords[2 * u] < cut).toBe(geo.coords[2 * v] < cut);
       }
     }
+  });
+});
+
+describe('separator refinement', () => {
+  // A vertex separator S of a graph splits the rest into halves A and B with no edge between them
+  // (George 1973; the definition used by every nested dissection). The refinement must keep that
+  // property, never make S larger, and keep both halves non-empty and within the balance bound.
+  it('keeps a separator a separator, never larger, halves non-empty and balanced, on random cuts of grids', () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 4, max: 24 }), fc.integer({ min: 4, max: 24 }), fc.constantFrom(5 as const, 9 as const), fc.double({ min: 0.2, max: 0.8, noNaN: true }), fc.double({ min: -1, max: 1, noNaN: true }), (nx, ny, stencil, at, tilt) => {
+        const geo = gridGeometry(nx, ny, stencil);
+        const { ptr, idx } = geo.adjacency;
+        const n = nx * ny;
+        // a straight cut across the grid at a slant: A left of it, S the nodes of A next to B
+        const key = (v: number) => geo.coords[2 * v] + tilt * geo.coords[2 * v + 1];
+        const keys = Array.from({ length: n }, (_, v) => key(v)).sort((a, b) => a - b);
+        const cut = keys[Math.min(n - 1, Math.max(1, Math.round(at * n)))];
+        const side = new Int8Array(n);
+        for (let v = 0; v < n; v++) side[v] = key(v) < cut ? 0 : 1;
+        const boundary: number[] = [];
+        for (let v = 0; v < n; v++) {
+          if (side[v] !== 0) continue;
+          for (let q = ptr[v]; q < ptr[v + 1]; q++) if (side[idx[q]] === 1) (boundary.push(v), (q = ptr[v + 1]));
+        }
+        for (const v of boundary) side[v] = 2;
+        const count = (s: number) => side.reduce((c, x) => c + (x === s ? 1 : 0), 0);
+        const [a0, b0, s0] = [count(0), count(1), count(2)];
+        const nodes = Int32Array.from({ length: n }, (_, v) => v);
+        const stampOf = new Int32Array(n).fill(7);
+        new SeparatorRefiner(n).refine(nodes, 0, n, side, stampOf, 7, ptr, idx);
+        for (let v = 0; v < n; v++) for (let q = ptr[v]; q < ptr[v + 1]; q++) expect(side[v] + side[idx[q]] === 1).toBe(false); // no A-B edge
+        const [a1, b1, s1] = [count(0), count(1), count(2)];
+        expect(a1 + b1 + s1).toBe(n);
+        expect(s1).toBeLessThanOrEqual(s0);
+        const bound = (1.2 * n) / 2;
+        expect(a1).toBeLessThanOrEqual(Math.max(a0, bound));
+        expect(b1).toBeLessThanOrEqual(Math.max(b0, bound));
+        if (a0 > 0) expect(a1).toBeGreaterThan(0);
+        if (b0 > 0) expect(b1).toBeGreaterThan(0);
+      }),
+      { numRuns: 150, seed: 17 },
+    );
+  });
+
+  it('shortens the slanted boundary of a nine-point grid towards the one-column separator', () => {
+    // On a 9-point 30 x 10 grid a cut along the diagonal needs a separator two diagonals thick
+    // (the diagonal edges cross a single one); the smallest balanced separator is one column of
+    // 10 nodes. Refinement from the diagonal's one-sided boundary must shorten it.
+    const geo = gridGeometry(30, 10, 9);
+    const { ptr, idx } = geo.adjacency;
+    const n = 300;
+    const side = new Int8Array(n);
+    for (let v = 0; v < n; v++) side[v] = geo.coords[2 * v] + geo.coords[2 * v + 1] < 19 ? 0 : 1;
+    const boundary: number[] = [];
+    for (let v = 0; v < n; v++) {
+      if (side[v] !== 0) continue;
+      for (let q = ptr[v]; q < ptr[v + 1]; q++) if (side[idx[q]] === 1) (boundary.push(v), (q = ptr[v + 1]));
+    }
+    for (const v of boundary) side[v] = 2;
+    const before = boundary.length;
+    new SeparatorRefiner(n).refine(Int32Array.from({ length: n }, (_, v) => v), 0, n, side, new Int32Array(n).fill(1), 1, ptr, idx);
+    const after = side.filter((x) => x === 2).length;
+    expect(before).toBe(19);
+    expect(after).toBeGreaterThanOrEqual(10); // no separator of a 10-node-high grid is smaller
+    expect(after).toBeLessThan(before); // measured 12
   });
 });
 
