@@ -218,6 +218,24 @@ describe('charts per raiser on any model', () => {
     expect(Math.abs(x.chart!.difference!)).toBeLessThanOrEqual(x.chart!.spread);
   });
 
+  it('the hole-in-strip chart is not compared where the strip is not long and plain: an end or another hole within one width of the hole (Saint-Venant; one width is common practice)', () => {
+    // the same strip, 100 long: the ends lie 50 from the hole's centre, within W = 60
+    const short = strip(30);
+    short.geometry.outline = { shape: 'path', path: [[70, 0], { at: [170, 0], edge: 'end' }, [170, 60], { at: [70, 60], edge: 'held' }] };
+    const s = buildResult(analyseModel(short)).raisers[0].chart!;
+    expect(s.id).toBe('hole-in-strip');
+    expect(s.difference).toBeNull();
+    expect(s.outside.join(' ')).toMatch(/edge "(end|held)" lies 50 from the hole's centre, within one strip width \(60\)/);
+    // a second, small hole 40 from the first: the first is still centred, but not in a plain strip
+    const crowded = strip(30);
+    crowded.geometry.holes!.push({ shape: 'circle', center: [160, 30], diameter: 6, name: 'small' });
+    const r = buildResult(analyseModel(crowded));
+    const first = r.raisers.find((x) => x.name.includes('"hole"'))!;
+    expect(first.chart!.difference).toBeNull();
+    expect(first.chart!.outside.join(' ')).toMatch(/"small" lies 37 from the hole's centre/);
+    expect(formatSummary(r)).toMatch(/not compared: outside its range or conditions \(.*within one strip width/);
+  });
+
   it('an off-centre hole is no chart\'s shape: no comparison', () => {
     const r = buildResult(analyseModel(strip(36)));
     expect(r.raisers[0].chart).toBeNull();

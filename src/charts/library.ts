@@ -347,7 +347,7 @@ export interface ChartComparison {
   value: number;
   /** the computed Kt on the chart's nominal stress (null when withheld) */
   computed: number | null;
-  /** computed / chart - 1; null when the dimensions lie outside the chart's range or no Kt was computed */
+  /** computed / chart - 1; null when the part lies outside the chart's range or conditions (`outside` says why) or no Kt was computed */
   difference: number | null;
   spread: number;
   outside: string[];

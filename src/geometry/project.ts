@@ -54,6 +54,14 @@ function projectOnCurve(c: Curve, x: number, y: number): number {
   return best;
 }
 
+/** The distance from (x, y) to one domain edge (its nearest point, ends included). */
+export function distanceToEdge(domain: Domain, edge: number, x: number, y: number): number {
+  const c = domain.edges[edge].curve;
+  const p = [0, 0];
+  evaluateCurve(c, projectOnCurve(c, x, y), p);
+  return Math.hypot(p[0] - x, p[1] - y);
+}
+
 export function nearestBoundaryPoint(domain: Domain, x: number, y: number): BoundaryPoint {
   const p = [0, 0];
   let out: BoundaryPoint = { edge: -1, t: 0, x: NaN, y: NaN, distance: Infinity };

@@ -4,6 +4,7 @@
  */
 import { compareWithChart, type ChartComparison } from '../charts/library.js';
 import type { Domain } from '../geometry/domain.js';
+import { distanceToEdge } from '../geometry/project.js';
 import type { RaiserEvaluation } from './evaluate.js';
 
 /** A chart family with the dimensions of one case of it. */
@@ -34,11 +35,42 @@ function recogniseChart(domain: Domain, ev: RaiserEvaluation): ChartCase | null 
 }
 
 /**
+ * Why the part around a recognised hole is not the long plain strip Howland's chart assumes, or
+ * null: an edge of the boundary other than the hole and the strip's two sides (an end, a step, a
+ * notch, another hole) nearer the hole's centre than one strip width. The disturbance a hole
+ * makes in a strip dies out within about one width of it (Saint-Venant's principle; taking one
+ * width as the distance is common practice), so a feature, a support or a load nearer than that
+ * changes the peak and the chart does not describe the part.
+ */
+function strayFromStrip(domain: Domain, ev: RaiserEvaluation, W: number): string | null {
+  const hole = ev.raiser.edges[0];
+  const c = domain.edges[hole].curve;
+  if (c.kind !== 'arc' || !ev.gross) return null;
+  const sides = new Set(ev.gross.cut.ligamentEdges);
+  let nearest: { edge: number; d: number } | null = null;
+  for (const e of domain.edges) {
+    if (e.id === hole || sides.has(e.id)) continue;
+    const d = distanceToEdge(domain, e.id, c.cx, c.cy);
+    if (d < W * (1 - 1e-9) && (!nearest || d < nearest.d)) nearest = { edge: e.id, d };
+  }
+  if (!nearest) return null;
+  const e = domain.edges[nearest.edge];
+  const what = e.label || 'an edge of the part';
+  return `${what} lies ${Number(nearest.d.toPrecision(3))} from the hole's centre, within one strip width (${Number(W.toPrecision(3))}); the chart is for a hole in a long plain strip`;
+}
+
+/**
  * The chart comparison of one raiser: none for a raiser whose Kt did not settle (status not
  * 'ok'); the model's own chart (a template's) for the governing raiser; else the chart its shape
  * is recognised as. `kts` are the settled net and gross Kt.
  */
 export function compareRaiserWithChart(domain: Domain, ev: RaiserEvaluation, status: string, governing: boolean, modelChart: ChartCase | undefined, kts: { net: number | null; gross: number | null }): ChartComparison | null {
-  const family = status !== 'ok' ? null : governing && modelChart ? modelChart : recogniseChart(domain, ev);
-  return family ? compareWithChart(family.family, family.dims, kts) : null;
+  if (status !== 'ok') return null;
+  if (governing && modelChart) return compareWithChart(modelChart.family, modelChart.dims, kts);
+  const family = recogniseChart(domain, ev);
+  if (!family) return null;
+  const comparison = compareWithChart(family.family, family.dims, kts);
+  // recognised on a part of the user's own: the chart holds only where the strip is long and plain
+  const stray = comparison && strayFromStrip(domain, ev, family.dims.W);
+  return comparison && stray ? { ...comparison, difference: null, outside: [...comparison.outside, stray] } : comparison;
 }

@@ -223,8 +223,8 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
           ['source', esc(ch.source)],
           [`chart Kt ${ch.nominal}`, f(ch.value, 4)],
           [`computed Kt ${ch.nominal}`, f(ch.computed, 4)],
-          ['difference', ch.difference === null ? `not compared${ch.outside.length ? ': the dimensions lie outside the chart\'s range' : ''}` : `${ch.difference >= 0 ? '+' : ''}${pct(ch.difference)} (the chart is good to about ${pct(ch.spread)})`],
-          ['range', ch.outside.length ? `outside the chart's range: ${esc(ch.outside.join('; '))}` : "inside the chart's range"],
+          ['difference', ch.difference === null ? `not compared${ch.outside.length ? ': the part lies outside the chart\'s range or conditions' : ''}` : `${ch.difference >= 0 ? '+' : ''}${pct(ch.difference)} (the chart is good to about ${pct(ch.spread)})`],
+          ['range', ch.outside.length ? `outside the chart's range or conditions: ${esc(ch.outside.join('; '))}` : "inside the chart's range"],
         ])}</tbody></table>`,
       );
     }

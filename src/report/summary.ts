@@ -71,7 +71,7 @@ export function formatSummary(r: ResultJson): string {
       }
       if (x.chart) {
         const ch = x.chart;
-        const diff = ch.difference === null ? `not compared${ch.outside.length ? `: outside its range (${ch.outside.join('; ')})` : ''}` : `computed differs by ${ch.difference >= 0 ? '+' : ''}${fmt(100 * ch.difference, 2)}% (the chart is good to about ${fmt(100 * ch.spread, 2)}%)`;
+        const diff = ch.difference === null ? `not compared${ch.outside.length ? `: outside its range or conditions (${ch.outside.join('; ')})` : ''}` : `computed differs by ${ch.difference >= 0 ? '+' : ''}${fmt(100 * ch.difference, 2)}% (the chart is good to about ${fmt(100 * ch.spread, 2)}%)`;
         out.push(`      chart ${ch.id} [${ch.provenance}]: Kt ${ch.nominal} ${ch.value === null ? 'n/a' : fmt(ch.value, 4)}; ${diff}`);
         out.push(`        ${ch.source}`);
       }
