@@ -48,6 +48,31 @@ describe('what a section carries', () => {
     for (const v of cut.ligaments) expect(Math.abs(beamStress(cut, loads, v) / nominal - 1)).toBeLessThan(1e-12 + Math.abs(loads.M) * 20 / cut.inertia / nominal);
   });
 
+  it('a cut through the centre of a loaded pin hole of a symmetric link: the hole\'s top and bottom nodes lie on the cut and share their force, so M = 0 by symmetry on every mesh (statics; it was 2.5e3, 1.7e3 or -1.7e3 N mm by round-off)', () => {
+    // the invented link-plate example's shape: symmetric about y = 25, pulled through the right hole
+    const m: Model = {
+      material: steel,
+      thickness: 6,
+      geometry: {
+        outline: { shape: 'path', path: [[0, 0], [160, 0], [160, 50], [0, 50]] },
+        holes: [
+          { shape: 'circle', center: [20, 25], diameter: 16, name: 'held' },
+          { shape: 'circle', center: [140, 25], diameter: 16, name: 'pulled' },
+        ],
+      },
+      supports: [{ type: 'fixed', on: { hole: 'held' } }],
+      loads: [{ type: 'force', on: { hole: 'pulled' }, fx: 30000 }],
+    };
+    for (const size of [4, 2.5]) {
+      const a = analyseModel({ ...m, mesh: { size, raiserSize: size / 4 } });
+      // the net section the analysis found for the pulled hole: square to the pull, through its centre
+      const ev = a.evaluation.raisers.find((r) => r.raiser.name.includes('pulled'))!;
+      expect(Math.abs(ev.section!.ex)).toBeLessThan(1e-12);
+      expect(Math.abs(Math.abs(ev.loads!.N) - 15000)).toBeLessThan(1e-6 * 15000); // the two sides of the hole share the pull: symmetry
+      expect(Math.abs(ev.loads!.M)).toBeLessThan(1e-9 * 30000 * 50);
+    }
+  });
+
   it('a plain bar in pure bending: N = 0, M = the applied moment, and the beam formula gives 6 M / (t d^2) at the fibres', () => {
     const M = 4e5;
     const t = 2;
