@@ -1,12 +1,12 @@
 /**
- * `raiser size` solves on worker threads; an error crosses the thread boundary as its name,
+ * `raiser size` and `raiser sweep` solve on worker threads (one pool, src/sweep/pool.ts); an error crosses the thread boundary as its name,
  * message and hint. It must come back as the kind it was thrown as, so the command's exit status
  * is the one a solve in the main thread would give (2 bad input, 3 analysis refused, 1 fault):
  * a too-big model is a refusal, not a fault.
  */
 import { describe, expect, it } from 'vitest';
 import { AnalysisError, InternalError, ModelError, ModelTooLargeError } from '../src/model/errors.js';
-import { errorOfWorker } from '../src/sweep/size.js';
+import { errorOfWorker } from '../src/sweep/pool.js';
 
 function across(err: Error) {
   return errorOfWorker({ ok: false, message: err.message, name: err.name, hint: (err as { hint?: string }).hint });
