@@ -6,7 +6,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { AnalysisError, InternalError, ModelError, ModelTooLargeError } from '../src/model/errors.js';
-import { errorOfWorker } from '../src/sweep/pool.js';
+import { CasePool, errorOfWorker } from '../src/sweep/pool.js';
 
 function across(err: Error) {
   return errorOfWorker({ ok: false, message: err.message, name: err.name, hint: (err as { hint?: string }).hint });
@@ -32,5 +32,22 @@ describe('errors posted back by a size worker', () => {
     const other = across(new RangeError('bad'));
     expect(other).not.toBeInstanceOf(ModelError);
     expect(other).not.toBeInstanceOf(AnalysisError);
+  });
+});
+
+/**
+ * Regression (issue 17, the pool started before the model is read): a worker that fails as it
+ * starts must make its cases fail with its error, never leave them waiting forever nor throw an
+ * 'error' event nobody listens to. Run from the sources, the pool's worker file does not exist
+ * (only dist/ has worker.js), which is such a failure at start.
+ */
+describe('a sweep worker that fails at start', () => {
+  it('fails its case with its error, whether the case is sent before or after the failure', async () => {
+    const pool = new CasePool('no-model.json', [{ name: 'd', values: [1, 2] }], {}, 2);
+    const early = pool.solveEach([{ key: 'd=1', values: { d: 1 } }]);
+    await expect(early).rejects.toThrow();
+    await new Promise((r) => setTimeout(r, 200));
+    await expect(pool.solveEach([{ key: 'd=1', values: { d: 1 } }, { key: 'd=2', values: { d: 2 } }])).rejects.toThrow();
+    await pool.close();
   });
 });
