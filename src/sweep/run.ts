@@ -14,6 +14,7 @@ import { allCases, caseKey, readSweepSource, type SweepSource, type Vary } from 
 import { solveCase, type CaseOptions, type CaseRow } from './solve-case.js';
 import { decodeCaseFile, encodeCaseFile } from './case-file.js';
 import { renderPng, renderSvg } from '../render/scene.js';
+import { loadFonts } from '../render/font.js';
 import { sweepScene, type SweepTitle } from './plot.js';
 import { chartForFamily } from '../charts/library.js';
 import { CasePool } from './pool.js';
@@ -102,7 +103,10 @@ export async function runSweep(file: string, opts: SweepOptions): Promise<SweepR
       opts.onProgress?.({ key, failed: message }, done, cases.length);
     };
     if (pool) {
-      await pool.solveAll(todo, (c, reply) => (reply.ok ? keep(reply.row) : fail(c.key, reply.message)));
+      const solving = pool.solveAll(todo, (c, reply) => (reply.ok ? keep(reply.row) : fail(c.key, reply.message)));
+      // this thread waits for the workers: the chart's fonts are read now, not after the last case
+      if (todo.length > 0) loadFonts();
+      await solving;
     } else {
       for (const c of todo) {
         try {
