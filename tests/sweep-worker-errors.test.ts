@@ -1,12 +1,12 @@
 /**
- * `raiser size` solves on worker threads; an error crosses the thread boundary as its name,
+ * `raiser size` and `raiser sweep` solve on worker threads (one pool, src/sweep/pool.ts); an error crosses the thread boundary as its name,
  * message and hint. It must come back as the kind it was thrown as, so the command's exit status
  * is the one a solve in the main thread would give (2 bad input, 3 analysis refused, 1 fault):
  * a too-big model is a refusal, not a fault.
  */
 import { describe, expect, it } from 'vitest';
 import { AnalysisError, InternalError, ModelError, ModelTooLargeError } from '../src/model/errors.js';
-import { errorOfWorker } from '../src/sweep/size.js';
+import { CasePool, errorOfWorker } from '../src/sweep/pool.js';
 
 function across(err: Error) {
   return errorOfWorker({ ok: false, message: err.message, name: err.name, hint: (err as { hint?: string }).hint });
@@ -32,5 +32,22 @@ describe('errors posted back by a size worker', () => {
     const other = across(new RangeError('bad'));
     expect(other).not.toBeInstanceOf(ModelError);
     expect(other).not.toBeInstanceOf(AnalysisError);
+  });
+});
+
+/**
+ * Regression (issue 17, the pool started before the model is read): a worker that fails as it
+ * starts must make its cases fail with its error, never leave them waiting forever nor throw an
+ * 'error' event nobody listens to. Run from the sources, the pool's worker file does not exist
+ * (only dist/ has worker.js), which is such a failure at start.
+ */
+describe('a sweep worker that fails at start', () => {
+  it('fails its case with its error, whether the case is sent before or after the failure', async () => {
+    const pool = new CasePool('no-model.json', [{ name: 'd', values: [1, 2] }], {}, 2);
+    const early = pool.solveEach([{ key: 'd=1', values: { d: 1 } }]);
+    await expect(early).rejects.toThrow();
+    await new Promise((r) => setTimeout(r, 200));
+    await expect(pool.solveEach([{ key: 'd=1', values: { d: 1 } }, { key: 'd=2', values: { d: 2 } }])).rejects.toThrow();
+    await pool.close();
   });
 });

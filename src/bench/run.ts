@@ -18,6 +18,9 @@ import { runSolveBench } from './solve.js';
 import { runAdaptiveBench } from './adaptive.js';
 import { runContactBench } from './contact.js';
 import { runProcessBench } from './process.js';
+import { runMatrixMarketBench } from './matrixmarket.js';
+import { runRepeatedSolveBench } from './repeated.js';
+import { runSweepBench } from './sweep.js';
 import { benchAssembly, benchMesherAt, benchScaling, benchWholeMillion } from './scale.js';
 
 function median(xs: number[]): number {
@@ -90,6 +93,12 @@ function runBench(args: string[], log: (s: string) => void = console.log): void 
   runContactBench(log, runs);
   log('\nSparse Cholesky on plane-stress stiffness matrices of a jittered rectangle, left edge fixed');
   runSolveBench({ sizes: large ? [1e4, 1e5, 5e5, 1e6] : [1e4, 1e5], runs, log });
+  log('\nRepeated solves on one pattern (RepeatedSolver, one thread): the first solve against a repeat with new values');
+  runRepeatedSolveBench(log, [1e4, 1e5], runs);
+  log('\nSweeps, whole processes (raiser sweep of an invented plate with a hole, certified 1% cases)');
+  runSweepBench(log, 5, runs);
+  log('\nMatrix Market reading: a ~200 MB stiffness file (block-diagonal copies of a 6-node cantilever matrix, written to the temporary folder and deleted after)');
+  runMatrixMarketBench(log, 200, runs);
   if (large) benchWholeMillion(log);
   log(`\nbench finished in ${((performance.now() - t0) / 1e3).toFixed(1)} s`);
 }

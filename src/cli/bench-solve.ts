@@ -29,9 +29,10 @@ export interface BenchSolveFlags {
   json?: boolean;
 }
 
-function readText(file: string, what: string): string {
+/** The file's bytes: the Matrix Market reader parses them without decoding the whole text. */
+function readText(file: string, what: string): Uint8Array {
   try {
-    return readFileSync(file, 'utf8');
+    return readFileSync(file);
   } catch (err) {
     throw new ModelError(what, `cannot read ${file}: ${(err as Error).message}`, 'give the path of a Matrix Market file');
   }

@@ -28,6 +28,19 @@ function font(weight: Weight): Font {
   return f;
 }
 
+/**
+ * Reads and parses both weights and measures every printable ASCII character once, so a later
+ * picture does not wait for it (a sweep does this while its workers solve).
+ */
+export function loadFonts(): void {
+  let ascii = '';
+  for (let c = 32; c < 127; c++) ascii += String.fromCharCode(c);
+  for (const weight of ['normal', 'bold'] as const) {
+    const f = font(weight);
+    for (let k = 0; k < ascii.length; k++) f.getAdvanceWidth(ascii[k] + ascii, 10, { kerning: true });
+  }
+}
+
 /** Advance width of the text at `size` pixels (em size), kerning included. */
 export function textWidth(text: string, size: number, weight: Weight = 'normal'): number {
   return font(weight).getAdvanceWidth(text, size, { kerning: true });

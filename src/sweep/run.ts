@@ -7,8 +7,6 @@
 import { existsSync, mkdirSync, readdirSync, readFileSync } from 'node:fs';
 import { cpus } from 'node:os';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
-import { Worker } from 'node:worker_threads';
 import { evaluateExpression } from '../model/params.js';
 import { ModelError } from '../model/errors.js';
 import { writeAtomic } from '../report/files.js';
@@ -16,8 +14,10 @@ import { allCases, caseKey, readSweepSource, type SweepSource, type Vary } from 
 import { solveCase, type CaseOptions, type CaseRow } from './solve-case.js';
 import { decodeCaseFile, encodeCaseFile } from './case-file.js';
 import { renderPng, renderSvg } from '../render/scene.js';
+import { loadFonts } from '../render/font.js';
 import { sweepScene, type SweepTitle } from './plot.js';
 import { chartForFamily } from '../charts/library.js';
+import { CasePool } from './pool.js';
 
 export interface SweepOptions extends CaseOptions {
   vary: Vary[];
@@ -57,87 +57,72 @@ function optionsSignature(src: SweepSource, opts: CaseOptions): string {
 }
 
 export async function runSweep(file: string, opts: SweepOptions): Promise<SweepResult> {
-  const src = readSweepSource(file, opts.vary, { allowDrawingOutside: opts.allowDrawingOutside });
   const cases = allCases(opts.vary).map((values) => ({ key: caseKey(values), values }));
-  const dir = join(opts.outDir, 'cases');
-  mkdirSync(dir, { recursive: true });
-  const sig = optionsSignature(src, opts);
-  const rows = new Map<string, CaseRow>();
-  // Resume: a case file of the same model and options counts as done, if it reads back whole
-  // (valid, checksum matching); anything else is solved again and said so.
-  const redone: string[] = [];
-  for (const name of existsSync(dir) ? readdirSync(dir) : []) {
-    if (!name.endsWith('.json')) continue;
-    let text: string;
-    try {
-      text = readFileSync(join(dir, name), 'utf8');
-    } catch {
-      continue;
-    }
-    const saved = decodeCaseFile(text);
-    if (!saved.ok) {
-      redone.push(`${name} (${saved.why})`);
-      continue;
-    }
-    if (saved.signature === sig && cases.some((c) => c.key === saved.row.key)) rows.set(saved.row.key, saved.row);
-  }
-  const reused = rows.size;
-  const todo = cases.filter((c) => !rows.has(c.key));
-  const failed: { key: string; message: string }[] = [];
-  let done = reused;
-  const keep = (row: CaseRow) => {
-    rows.set(row.key, row);
-    writeAtomic(join(dir, fileName(row.key)), encodeCaseFile(sig, row));
-    done++;
-    opts.onProgress?.(row, done, cases.length);
-  };
-  const workerFile = fileURLToPath(new URL('./worker.js', import.meta.url));
-  const jobs = Math.max(1, Math.min(opts.jobs ?? Math.min(2, cpus().length), todo.length));
   const caseOpts: CaseOptions = { target: opts.target, singleMesh: opts.singleMesh, element: opts.element, measure: opts.measure };
-  if (jobs === 1 || !existsSync(workerFile)) {
-    for (const c of todo) {
+  const jobs = Math.max(1, Math.min(opts.jobs ?? Math.min(2, cpus().length), cases.length));
+  // The workers start first: they load their modules and read the model while this thread
+  // reads it too and looks for the finished cases of an earlier run.
+  const pool = jobs > 1 && CasePool.available() ? new CasePool(file, opts.vary, { ...caseOpts, allowDrawingOutside: opts.allowDrawingOutside }, jobs) : null;
+  try {
+    const src = readSweepSource(file, opts.vary, { allowDrawingOutside: opts.allowDrawingOutside });
+    const dir = join(opts.outDir, 'cases');
+    mkdirSync(dir, { recursive: true });
+    const sig = optionsSignature(src, opts);
+    const rows = new Map<string, CaseRow>();
+    // Resume: a case file of the same model and options counts as done, if it reads back whole
+    // (valid, checksum matching); anything else is solved again and said so.
+    const redone: string[] = [];
+    for (const name of existsSync(dir) ? readdirSync(dir) : []) {
+      if (!name.endsWith('.json')) continue;
+      let text: string;
       try {
-        keep(solveCase(src, c.key, c.values, caseOpts));
-      } catch (err) {
-        failed.push({ key: c.key, message: (err as Error).message });
-        done++;
-        opts.onProgress?.({ key: c.key, failed: (err as Error).message }, done, cases.length);
+        text = readFileSync(join(dir, name), 'utf8');
+      } catch {
+        continue;
+      }
+      const saved = decodeCaseFile(text);
+      if (!saved.ok) {
+        redone.push(`${name} (${saved.why})`);
+        continue;
+      }
+      if (saved.signature === sig && cases.some((c) => c.key === saved.row.key)) rows.set(saved.row.key, saved.row);
+    }
+    const reused = rows.size;
+    const todo = cases.filter((c) => !rows.has(c.key));
+    const failed: { key: string; message: string }[] = [];
+    let done = reused;
+    const keep = (row: CaseRow) => {
+      rows.set(row.key, row);
+      writeAtomic(join(dir, fileName(row.key)), encodeCaseFile(sig, row));
+      done++;
+      opts.onProgress?.(row, done, cases.length);
+    };
+    const fail = (key: string, message: string) => {
+      failed.push({ key, message });
+      done++;
+      opts.onProgress?.({ key, failed: message }, done, cases.length);
+    };
+    if (pool) {
+      const solving = pool.solveAll(todo, (c, reply) => (reply.ok ? keep(reply.row) : fail(c.key, reply.message)));
+      // this thread waits for the workers: the chart's fonts are read now, not after the last case
+      if (todo.length > 0) loadFonts();
+      await solving;
+    } else {
+      for (const c of todo) {
+        try {
+          keep(solveCase(src, c.key, c.values, caseOpts));
+        } catch (err) {
+          fail(c.key, (err as Error).message);
+        }
       }
     }
-  } else {
-    await new Promise<void>((resolve, reject) => {
-      let next = 0;
-      let active = 0;
-      const start = () => {
-        const w = new Worker(workerFile, { workerData: { file, vary: opts.vary, options: { ...caseOpts, allowDrawingOutside: opts.allowDrawingOutside } } });
-        active++;
-        const feed = () => {
-          if (next < todo.length) w.postMessage(todo[next++]);
-          else w.postMessage(null);
-        };
-        w.on('message', (msg: { ok: true; row: CaseRow } | { ok: false; key: string; message: string }) => {
-          if (msg.ok) keep(msg.row);
-          else {
-            failed.push({ key: msg.key, message: msg.message });
-            done++;
-            opts.onProgress?.({ key: msg.key, failed: msg.message }, done, cases.length);
-          }
-          feed();
-        });
-        w.on('error', reject);
-        w.on('exit', () => {
-          active--;
-          if (active === 0) resolve();
-        });
-        feed();
-      };
-      for (let k = 0; k < jobs; k++) start();
-    });
+    const ordered = cases.map((c) => rows.get(c.key)).filter((r): r is CaseRow => !!r);
+    const xExpr = opts.x ?? (src.kind === 'template' && src.model.chart ? FAMILY_X[src.model.chart.family] : undefined) ?? opts.vary[0].name;
+    const files = writeSweepFiles(opts.outDir, src, ordered, opts.vary, xExpr);
+    return { rows: ordered, failed, reused, redone, files, xLabel: xExpr };
+  } finally {
+    await pool?.close();
   }
-  const ordered = cases.map((c) => rows.get(c.key)).filter((r): r is CaseRow => !!r);
-  const xExpr = opts.x ?? (src.kind === 'template' && src.model.chart ? FAMILY_X[src.model.chart.family] : undefined) ?? opts.vary[0].name;
-  const files = writeSweepFiles(opts.outDir, src, ordered, opts.vary, xExpr);
-  return { rows: ordered, failed, reused, redone, files, xLabel: xExpr };
 }
 
 /**

@@ -9,13 +9,11 @@
  * model's units), or, when no tolerance is given, at 0.2% of the range or as soon as the
  * meeting value is within 2% of the limit.
  */
-import { existsSync } from 'node:fs';
-import { fileURLToPath } from 'node:url';
-import { Worker } from 'node:worker_threads';
-import { AnalysisError, InternalError, ModelError } from '../model/errors.js';
+import { ModelError } from '../model/errors.js';
 import { resolveUnits } from '../model/units.js';
 import { readSweepSource, type Vary } from './cases.js';
 import { solveCaseFull, type CaseOptions, type CaseRow, type SolvedCase } from './solve-case.js';
+import { CasePool } from './pool.js';
 
 export interface SizeOptions extends CaseOptions {
   name: string;
@@ -64,73 +62,6 @@ interface Evaluated {
   full?: SolvedCase;
 }
 
-/** What a worker posts back when a value cannot be solved: the error's kind, message and hint. */
-interface WorkerFailure {
-  ok: false;
-  message: string;
-  name: string;
-  hint?: string;
-}
-
-/**
- * The worker's error as the kind it was thrown as, so the command exits as a solve in this
- * process would: bad input 2, an analysis refused 3 (a model too big among them), a fault 1.
- */
-export function errorOfWorker(msg: WorkerFailure): Error {
-  switch (msg.name) {
-    case 'ModelError':
-      return new ModelError('--vary', msg.message, msg.hint);
-    case 'AnalysisError':
-    case 'ModelTooLargeError':
-      return new AnalysisError(msg.message, msg.hint);
-    case 'InternalError':
-      return new InternalError(msg.message);
-    default:
-      return new Error(msg.message);
-  }
-}
-
-/** Worker threads running the sweep worker: each posts back the row of a value it is sent. */
-class CasePool {
-  private workers: Worker[] = [];
-  constructor(file: string, vary: Vary[], options: CaseOptions, n: number) {
-    const workerFile = fileURLToPath(new URL('./worker.js', import.meta.url));
-    for (let k = 0; k < n; k++) this.workers.push(new Worker(workerFile, { workerData: { file, vary, options } }));
-  }
-
-  static available(): boolean {
-    return existsSync(fileURLToPath(new URL('./worker.js', import.meta.url)));
-  }
-
-  /** Solves one value on each worker (at most as many values as workers). */
-  solve(items: { key: string; values: Record<string, number> }[]): Promise<CaseRow[]> {
-    return Promise.all(
-      items.map(
-        (item, k) =>
-          new Promise<CaseRow>((resolve, reject) => {
-            const w = this.workers[k];
-            const onMessage = (msg: { ok: true; row: CaseRow } | WorkerFailure) => {
-              w.off('error', onError);
-              if (msg.ok) resolve(msg.row);
-              else reject(errorOfWorker(msg));
-            };
-            const onError = (err: Error) => {
-              w.off('message', onMessage);
-              reject(err);
-            };
-            w.once('message', onMessage);
-            w.once('error', onError);
-            w.postMessage(item);
-          }),
-      ),
-    );
-  }
-
-  async close(): Promise<void> {
-    await Promise.all(this.workers.map((w) => w.terminate()));
-  }
-}
-
 export async function runSize(file: string, opts: SizeOptions): Promise<SizeResult> {
   if ((opts.ktMax === undefined) === (opts.stressMax === undefined)) {
     throw new ModelError('--kt-max', 'give one limit: --kt-max or --stress-max', 'for example --kt-max 1.8');
@@ -138,14 +69,21 @@ export async function runSize(file: string, opts: SizeOptions): Promise<SizeResu
   if (!(opts.hi > opts.lo)) throw new ModelError('--vary', `the range ${opts.lo}:${opts.hi} must run upward`, 'write --vary name=low:high');
   if (opts.tolerance !== undefined && !(opts.tolerance > 0)) throw new ModelError('--tolerance', `the tolerance ${opts.tolerance} must be a positive length`, 'for example --tolerance 0.05');
   const vary: Vary[] = [{ name: opts.name, values: [opts.lo, opts.hi] }];
-  const src = readSweepSource(file, vary, { allowDrawingOutside: opts.allowDrawingOutside });
+  const caseOpts: CaseOptions = { target: opts.target ?? 0.005, singleMesh: opts.singleMesh, element: opts.element, measure: opts.measure };
+  const jobs = Math.max(1, opts.jobs ?? 1);
+  // the workers start first: they load their modules while this thread reads the model
+  const pool = jobs > 1 && CasePool.available() ? new CasePool(file, vary, { ...caseOpts, allowDrawingOutside: opts.allowDrawingOutside }, jobs) : null;
+  let src;
+  try {
+    src = readSweepSource(file, vary, { allowDrawingOutside: opts.allowDrawingOutside });
+  } catch (err) {
+    await pool?.close();
+    throw err;
+  }
   const u = resolveUnits(src.model.units);
   const which = opts.kt ?? 'net';
   const limit = (opts.ktMax ?? opts.stressMax)!;
   const quantity = opts.ktMax !== undefined ? `Kt ${which}` : 'peak stress';
-  const caseOpts: CaseOptions = { target: opts.target ?? 0.005, singleMesh: opts.singleMesh, element: opts.element, measure: opts.measure };
-  const jobs = Math.max(1, opts.jobs ?? 1);
-  const pool = jobs > 1 && CasePool.available() ? new CasePool(file, vary, { ...caseOpts, allowDrawingOutside: opts.allowDrawingOutside }, jobs) : null;
   const steps: SizeResult['steps'] = [];
   const cache = new Map<number, Evaluated>();
   const judge = (v: number, row: CaseRow, full?: SolvedCase): Evaluated => {
@@ -164,7 +102,7 @@ export async function runSize(file: string, opts: SizeOptions): Promise<SizeResu
   const evaluate = async (values: number[]): Promise<Evaluated[]> => {
     const todo = values.filter((v, i) => !cache.has(v) && values.indexOf(v) === i);
     if (pool && todo.length > 1) {
-      const rows = await pool.solve(todo.map((v) => ({ key: key(v), values: { [opts.name]: v } })));
+      const rows = await pool.solveEach(todo.map((v) => ({ key: key(v), values: { [opts.name]: v } })));
       rows.forEach((row, i) => judge(todo[i], row));
     } else {
       for (const v of todo) {

@@ -1,14 +1,12 @@
-/** Worker thread of a sweep: solves the cases it is sent and posts each row back. */
+/** Worker thread of a sweep or a sizing (pool.ts): solves the cases it is sent and posts each row back. */
 import { parentPort, workerData } from 'node:worker_threads';
 import { readSweepSource } from './cases.js';
 import { solveCase, type CaseOptions } from './solve-case.js';
 
 const { file, vary, options } = workerData as { file: string; vary: { name: string; values: number[] }[]; options: CaseOptions };
 const src = readSweepSource(file, vary, { allowDrawingOutside: options.allowDrawingOutside });
-parentPort!.on('message', (msg: { key: string; values: Record<string, number> } | null) => {
-  if (msg === null) {
-    process.exit(0);
-  }
+// the pool (pool.ts) stops the worker when the sweep is done
+parentPort!.on('message', (msg: { key: string; values: Record<string, number> }) => {
   try {
     parentPort!.postMessage({ ok: true, row: solveCase(src, msg.key, msg.values, options) });
   } catch (err) {
