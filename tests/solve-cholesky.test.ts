@@ -383,13 +383,15 @@ describe('pivot guard', () => {
 });
 
 describe('solveSpd', () => {
-  it('uses nested dissection when coordinates are given and AMD otherwise, both solving to 1e-12', () => {
+  it('uses AMD below 50,000 equations and without coordinates, nested dissection when asked for with coordinates, both solving to 1e-12', () => {
     const p = cantileverProblem(20, 10, 9);
     const b = randomVector(p.matrix.n, 4);
-    const withGeo = solveSpd(p.matrix, b, { coords: p.mesh.coords, nodeAdjacency: p.adjacency, dofsPerNode: 2, fullDofOfRow: p.fullDofOfRow });
+    const geo = { coords: p.mesh.coords, nodeAdjacency: p.adjacency, dofsPerNode: 2, fullDofOfRow: p.fullDofOfRow };
+    const withGeo = solveSpd(p.matrix, b, { ...geo, ordering: 'nested-dissection' });
     const without = solveSpd(p.matrix, b);
     expect(withGeo.stats.ordering).toBe('nested-dissection');
     expect(without.stats.ordering).toBe('amd');
+    expect(solveSpd(p.matrix, b, geo).stats.ordering).toBe('amd'); // small: AMD fills less
     expect(withGeo.stats.relativeResidual).toBeLessThan(1e-12);
     expect(without.stats.relativeResidual).toBeLessThan(1e-12);
     expect(relativeMaxDifference(withGeo.x, without.x)).toBeLessThan(1e-10);
@@ -409,7 +411,7 @@ describe('solveSpd', () => {
 
   it('a reduced matrix without fullDofOfRow is refused for nested dissection rather than silently misordered', () => {
     const p = cantileverProblem(6, 3, 9);
-    expect(() => solveSpd(p.matrix, new Float64Array(p.matrix.n).fill(1), { coords: p.mesh.coords, nodeAdjacency: p.adjacency })).toThrow(RangeError);
+    expect(() => solveSpd(p.matrix, new Float64Array(p.matrix.n).fill(1), { coords: p.mesh.coords, nodeAdjacency: p.adjacency, ordering: 'nested-dissection' })).toThrow(RangeError);
   });
 
   it('the nested dissection ordering restricted to free DOFs equals the one solveSpd uses', () => {
