@@ -33,6 +33,11 @@ export class FieldProbe {
   private readonly x0: number;
   private readonly y0: number;
   private readonly cell: number;
+  /** coarse cells of side `coarse` from (x0, y0), coarseX by coarseY; each element's range of them (i0, i1, j0, j1) */
+  private readonly coarse: number;
+  private readonly coarseX: number;
+  private readonly coarseY: number;
+  private readonly coarseBox: Int32Array;
   private readonly per: number;
   /** per element: how far outside (local coordinates) the corner coordinates may put a point Newton puts inside */
   private readonly skipMargin: Float64Array;
@@ -60,10 +65,25 @@ export class FieldProbe {
     }
     this.x0 = xmin;
     this.y0 = ymin;
-    this.cell = Math.max(xmax - xmin, ymax - ymin) / Math.max(1, Math.ceil(Math.sqrt(mesh.nElements / 2)));
+    // About 8 cells per element over the box: a graded mesh crowds its small elements near the
+    // raisers, where a cell of the mean element size held some 40 of them (measured on the strap
+    // example's size limits) and now holds about 4; a large element is listed in every cell its
+    // box touches. A box without area (no mesh) falls back to one cell per two elements along the longer side.
+    this.cell = Math.sqrt(((xmax - xmin) * (ymax - ymin)) / (8 * Math.max(1, mesh.nElements))) || Math.max(xmax - xmin, ymax - ymin) / Math.max(1, Math.ceil(Math.sqrt(mesh.nElements / 2)));
     const nEl = mesh.nElements;
     this.nx = mesh.nNodes > 0 ? this.ix(xmax) + 1 : 0;
     this.ny = mesh.nNodes > 0 ? this.iy(ymax) + 1 : 0;
+    // The candidates are those of the coarse cells used before the cells were made finer (one
+    // per two elements along the longer side, each element listed in the coarse cells its nodes'
+    // box touches), kept so that every answer stays the same to the last bit: the fine cell
+    // only narrows the search. Those coarse cells miss a point a rounding outside an element's
+    // nodes' box when a coarse cell's side falls there (a boundary node at y = 90 and a coarse
+    // cell 10 high; the point at y = 90 - 1e-10 is then outside, though within 1e-9 of the
+    // element): kept as it was, see the worktree's report.
+    this.coarse = Math.max(xmax - xmin, ymax - ymin) / Math.max(1, Math.ceil(Math.sqrt(nEl / 2)));
+    this.coarseX = mesh.nNodes > 0 ? this.cx(xmax) + 1 : 0;
+    this.coarseY = mesh.nNodes > 0 ? this.cy(ymax) + 1 : 0;
+    this.coarseBox = new Int32Array(4 * nEl);
     // Element boxes in cells, counted then filled (two passes over the same loops).
     const box = new Int32Array(4 * nEl);
     const count = new Int32Array(this.nx * this.ny + 1);
@@ -72,6 +92,11 @@ export class FieldProbe {
       let ey0 = Infinity;
       let ex1 = -Infinity;
       let ey1 = -Infinity;
+      // The region of a 6-node element lies within the box of its corners and of each curved
+      // side's control point 2 m - (a + b) / 2 (a quadratic curve lies in the triangle of its
+      // control points), padded by what 1e-6 in local coordinates can reach (at most 1e-6 times
+      // the two side vectors' lengths): every element that could hold the point is then listed
+      // in its cell, however fine the cells.
       for (let k = 0; k < per; k++) {
         const v = el[per * e + k];
         ex0 = Math.min(ex0, n[2 * v]);
@@ -79,10 +104,28 @@ export class FieldProbe {
         ey0 = Math.min(ey0, n[2 * v + 1]);
         ey1 = Math.max(ey1, n[2 * v + 1]);
       }
-      box[4 * e] = this.ix(ex0);
-      box[4 * e + 1] = this.ix(ex1);
-      box[4 * e + 2] = this.iy(ey0);
-      box[4 * e + 3] = this.iy(ey1);
+      this.coarseBox[4 * e] = this.cx(ex0);
+      this.coarseBox[4 * e + 1] = this.cx(ex1);
+      this.coarseBox[4 * e + 2] = this.cy(ey0);
+      this.coarseBox[4 * e + 3] = this.cy(ey1);
+      if (per === 6) {
+        for (let m = 0; m < 3; m++) {
+          const a = el[6 * e + m];
+          const b = el[6 * e + ((m + 1) % 3)];
+          const mid = el[6 * e + 3 + m];
+          const px = 2 * n[2 * mid] - 0.5 * (n[2 * a] + n[2 * b]);
+          const py = 2 * n[2 * mid + 1] - 0.5 * (n[2 * a + 1] + n[2 * b + 1]);
+          ex0 = Math.min(ex0, px);
+          ex1 = Math.max(ex1, px);
+          ey0 = Math.min(ey0, py);
+          ey1 = Math.max(ey1, py);
+        }
+      }
+      const pad = 4e-6 * (ex1 - ex0 + ey1 - ey0);
+      box[4 * e] = Math.max(0, this.ix(ex0 - pad));
+      box[4 * e + 1] = Math.min(this.nx - 1, this.ix(ex1 + pad));
+      box[4 * e + 2] = Math.max(0, this.iy(ey0 - pad));
+      box[4 * e + 3] = Math.min(this.ny - 1, this.iy(ey1 + pad));
       for (let i = box[4 * e]; i <= box[4 * e + 1]; i++) for (let j = box[4 * e + 2]; j <= box[4 * e + 3]; j++) count[i * this.ny + j + 1]++;
     }
     for (let c = 0; c < this.nx * this.ny; c++) count[c + 1] += count[c];
@@ -130,6 +173,12 @@ export class FieldProbe {
     return this.eta;
   }
 
+  private cx(x: number): number {
+    return Math.floor((x - this.x0) / this.coarse);
+  }
+  private cy(y: number): number {
+    return Math.floor((y - this.y0) / this.coarse);
+  }
   private ix(x: number): number {
     return Math.floor((x - this.x0) / this.cell);
   }
@@ -169,9 +218,11 @@ export class FieldProbe {
    * containing the point, else the nearest within 1e-6. Allocates nothing.
    */
   findElement(x: number, y: number): number {
-    const i = this.ix(x);
-    const j = this.iy(y);
-    if (!(i >= 0 && i < this.nx && j >= 0 && j < this.ny)) return -1;
+    const ci = this.cx(x);
+    const cj = this.cy(y);
+    if (!(ci >= 0 && ci < this.coarseX && cj >= 0 && cj < this.coarseY)) return -1;
+    const i = Math.min(this.ix(x), this.nx - 1);
+    const j = Math.min(this.iy(y), this.ny - 1);
     const c = i * this.ny + j;
     const n = this.mesh.nodes;
     const el = this.mesh.elements;
@@ -182,6 +233,8 @@ export class FieldProbe {
     let bestEta = 0;
     for (let k = this.cellStart[c], end = this.cellStart[c + 1]; k < end; k++) {
       const e = this.cellElements[k];
+      const cb = 4 * e;
+      if (ci < this.coarseBox[cb] || ci > this.coarseBox[cb + 1] || cj < this.coarseBox[cb + 2] || cj > this.coarseBox[cb + 3]) continue;
       const a = el[per * e];
       const b = el[per * e + 1];
       const cc = el[per * e + 2];
