@@ -121,6 +121,21 @@ describe('generateMesh', () => {
     }
   });
 
+  it('the size field a mesh returns (grid deferred to its 2000th query) gives exactly the minimum over all sources before and after its grid', () => {
+    // The field in model coordinates is asked about a few ligaments only, so it answers its
+    // first 2000 queries by every source and builds its grid after: both must be the minimum.
+    const domain = buildDomain(SHAPES['bracket with fillets, slot, ellipse and rounded rectangle']);
+    const { size } = generateMesh(domain, { order: 2, sizeFactor: 2 });
+    expect(size.count).toBeGreaterThan(8);
+    let seed = 11;
+    const rnd = () => ((seed = (seed * 16807) % 2147483647) / 2147483647);
+    for (let k = 0; k < 5000; k++) {
+      const x = -10 + 140 * rnd();
+      const y = -10 + 100 * rnd();
+      expect(size.at(x, y)).toBe(size.atExhaustive(x, y));
+    }
+  });
+
   it('the mesh checker rejects a flipped element and a missing element', () => {
     const domain = buildDomain(SHAPES['plate with a circular hole']);
     const { mesh } = generateMesh(domain, { order: 1 });

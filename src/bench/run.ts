@@ -21,6 +21,7 @@ import { runProcessBench } from './process.js';
 import { runMatrixMarketBench } from './matrixmarket.js';
 import { runRepeatedSolveBench } from './repeated.js';
 import { runSweepBench } from './sweep.js';
+import { runSeriesBench } from './series.js';
 import { benchAssembly, benchMesherAt, benchScaling, benchWholeMillion } from './scale.js';
 
 function median(xs: number[]): number {
@@ -89,6 +90,8 @@ function runBench(args: string[], log: (s: string) => void = console.log): void 
   benchAssembly(large ? [1e5, 5e5, 1e6] : [1e5], runs, log);
   log('\nCertified Kt: adaptive series against uniform refinement (same accuracy, true error against the reference)');
   runAdaptiveBench(log);
+  log('\nCertified Kt in a fresh process (the analysis only; each run a new Node process, compilation included)');
+  runSeriesBench(log);
   log('\nPin contact: a lug (lug template, W 40, d 20 mm) with a rigid pin, against one linear solve of the same mesh');
   runContactBench(log, runs);
   log('\nSparse Cholesky on plane-stress stiffness matrices of a jittered rectangle, left edge fixed');

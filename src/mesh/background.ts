@@ -54,15 +54,17 @@ export class MeshSizeLimit implements SizeLimit {
   }
 
   at(x: number, y: number): number {
-    const loc = this.probe.locate(x, y);
-    if (!loc) return Infinity;
+    const e = this.probe.findElement(x, y);
+    if (e < 0) return Infinity;
     const per = this.mesh.order === 2 ? 6 : 3;
     const el = this.mesh.elements;
-    const o = per * loc.e;
+    const o = per * e;
     const h0 = this.nodal[el[o]];
     const h1 = this.nodal[el[o + 1]];
     const h2 = this.nodal[el[o + 2]];
     if (h0 === Infinity || h1 === Infinity || h2 === Infinity) return Math.min(h0, h1, h2) === Infinity ? Infinity : Math.max(Math.min(h0, h1, h2), 0);
-    return (1 - loc.xi - loc.eta) * h0 + loc.xi * h1 + loc.eta * h2;
+    const xi = this.probe.foundXi;
+    const eta = this.probe.foundEta;
+    return (1 - xi - eta) * h0 + xi * h1 + eta * h2;
   }
 }

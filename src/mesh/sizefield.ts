@@ -46,6 +46,8 @@ const ARC = 0;
 const POINT = 1;
 const SEGMENT = 2;
 const STRIDE = 8;
+/** queries a field with a deferred grid answers by every source before it builds the grid */
+const DEFERRED_QUERIES = 2000;
 
 export class SizeField {
   readonly hGlobal: number;
@@ -72,11 +74,18 @@ export class SizeField {
   private cellList = new Int32Array(0);
   private gridN = 0;
   private gridBox?: readonly [number, number, number, number];
+  /** queries answered without the grid while it is deferred (see fromFrame); Infinity when it is not */
+  private queriesBeforeGrid: number;
 
   private readonly limit?: SizeLimit;
 
-  constructor(hGlobal: number, grading: number, sources: { meta: SizeSource; geom: number[] }[], bbox?: readonly [number, number, number, number], limit?: SizeLimit) {
+  /**
+   * `deferGrid`: the candidate grid is built only once the field has answered DEFERRED_QUERIES
+   * queries, each until then by every source (as beyond the grid), for a field asked a few times.
+   */
+  constructor(hGlobal: number, grading: number, sources: { meta: SizeSource; geom: number[] }[], bbox?: readonly [number, number, number, number], limit?: SizeLimit, deferGrid = false) {
     this.limit = limit;
+    this.queriesBeforeGrid = Infinity;
     this.hGlobal = hGlobal;
     this.grading = grading;
     this.count = sources.length;
@@ -104,12 +113,19 @@ export class SizeField {
       else if (q[0] === POINT) this.box.set([q[2], q[3], q[2], q[3]], o);
       else this.box.set([Math.min(q[2], q[4]), Math.min(q[3], q[5]), Math.max(q[2], q[4]), Math.max(q[3], q[5])], o);
     });
-    if (bbox && sources.length > 8) this.buildGrid(bbox);
+    if (bbox && sources.length > 8) {
+      if (deferGrid) {
+        this.gridBox = bbox;
+        this.queriesBeforeGrid = 0;
+      } else this.buildGrid(bbox);
+    }
   }
 
   /**
    * The same field for coordinates x = cx + s xi of a field built in a frame (sizes times s),
    * so that callers in model coordinates can ask it; `limit` is the caller's own, unscaled.
+   * Its grid waits for its first DEFERRED_QUERIES queries: the mesh is made, and the analysis
+   * asks this field about a few ligaments, so a grid of 3e5 source evaluations would be wasted.
    */
   fromFrame(cx: number, cy: number, s: number, bbox: readonly [number, number, number, number], limit?: SizeLimit): SizeField {
     const sources = this.sources.map((meta, i) => {
@@ -126,7 +142,7 @@ export class SizeField {
       }
       return { meta: { ...meta, h: meta.h * s }, geom: g };
     });
-    return new SizeField(this.hGlobal * s, this.grading, sources, bbox, limit);
+    return new SizeField(this.hGlobal * s, this.grading, sources, bbox, limit, true);
   }
 
   /** The value h_s + g dist of source i at (x, y). */
@@ -182,6 +198,7 @@ export class SizeField {
     // About `budget` source evaluations to build it: 3e5 (a few milliseconds) at first; a field
     // that will be queried millions of times is given a finer grid by tuneGrid. The grid changes
     // only the speed: every cell keeps every source that can be the least in it.
+    this.queriesBeforeGrid = Infinity;
     const n = Math.max(8, Math.min(256, Math.round(Math.sqrt(budget / this.count))));
     if (n <= this.gridN) return;
     this.gridN = n;
@@ -228,6 +245,7 @@ export class SizeField {
 
   private atSources(x: number, y: number): number {
     let h = this.hGlobal;
+    if (this.queriesBeforeGrid < DEFERRED_QUERIES && ++this.queriesBeforeGrid === DEFERRED_QUERIES) this.buildGrid(this.gridBox!);
     if (this.nx > 0) {
       const i = Math.floor((x - this.gx0) / this.cell);
       const j = Math.floor((y - this.gy0) / this.cell);
