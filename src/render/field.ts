@@ -266,15 +266,16 @@ export function paintField(r: Raster, mesh: DrawMesh, view: View, field: FieldSp
       const a1 = b1c + b1y * cy;
       const a2 = b2c + b2y * cy;
       const a0 = 1 - a1 - a2;
-      for (const [a, k, eps] of [
-        [a0, b0x, eps0],
-        [a1, b1x, eps1],
-        [a2, b2x, eps2],
-      ]) {
-        if (k > 0) lo = Math.max(lo, (eps - a) / k);
-        else if (k < 0) hi = Math.min(hi, (eps - a) / k);
-        else if (a < eps) hi = -Infinity;
-      }
+      // (written out for the three corners: no array per row)
+      if (b0x > 0) lo = Math.max(lo, (eps0 - a0) / b0x);
+      else if (b0x < 0) hi = Math.min(hi, (eps0 - a0) / b0x);
+      else if (a0 < eps0) hi = -Infinity;
+      if (b1x > 0) lo = Math.max(lo, (eps1 - a1) / b1x);
+      else if (b1x < 0) hi = Math.min(hi, (eps1 - a1) / b1x);
+      else if (a1 < eps1) hi = -Infinity;
+      if (b2x > 0) lo = Math.max(lo, (eps2 - a2) / b2x);
+      else if (b2x < 0) hi = Math.min(hi, (eps2 - a2) / b2x);
+      else if (a2 < eps2) hi = -Infinity;
       const pxStart = Math.max(loX, Math.ceil(lo - 0.5));
       const pxEnd = Math.min(hiX, Math.floor(hi - 0.5));
       for (let px = pxStart; px <= pxEnd; px++) {
