@@ -293,11 +293,32 @@ export function paintField(r: Raster, mesh: DrawMesh, view: View, field: FieldSp
         const b0 = 1 - b1 - b2;
         const xi = b0 * xa + b1 * xb + b2 * xc;
         const eta = b0 * ea + b1 * eb + b2 * ec;
-        shape(mesh.order, xi, eta, N);
-        for (let q = 0; q < stride; q++) {
-          let v = 0;
-          for (let m = 0; m < per; m++) v += N[m] * local[m * stride + q];
-          comp[q] = v;
+        if (per === 6) {
+          // shapeValuesP2 and the sum over the nodes written out, in the same order (the same bits)
+          const l0 = 1 - xi - eta;
+          const n0 = l0 * (2 * l0 - 1);
+          const n1 = xi * (2 * xi - 1);
+          const n2 = eta * (2 * eta - 1);
+          const n3 = 4 * l0 * xi;
+          const n4 = 4 * xi * eta;
+          const n5 = 4 * eta * l0;
+          for (let q = 0; q < stride; q++) {
+            comp[q] =
+              0 +
+              n0 * local[q] +
+              n1 * local[stride + q] +
+              n2 * local[2 * stride + q] +
+              n3 * local[3 * stride + q] +
+              n4 * local[4 * stride + q] +
+              n5 * local[5 * stride + q];
+          }
+        } else {
+          shape(mesh.order, xi, eta, N);
+          for (let q = 0; q < stride; q++) {
+            let v = 0;
+            for (let m = 0; m < per; m++) v += N[m] * local[m * stride + q];
+            comp[q] = v;
+          }
         }
         const val = field.value(comp);
         let t = Math.round((val - scale.lo) * inv1023);
