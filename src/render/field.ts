@@ -359,12 +359,39 @@ export function isoSegments(mesh: DrawMesh, view: View, field: FieldSpec, levels
   const N = new Float64Array(6);
   const comp = new Float64Array(field.stride);
   const el = mesh.elements;
+  // the sub-grid's pixel positions and values, grown as needed and reused from element to element
+  let vx = new Float64Array(16);
+  let vy = new Float64Array(16);
+  let vv = new Float64Array(16);
+  // the crossings of one sub-triangle with the level: up to three points
+  const pts = new Float64Array(6);
+  /** Appends the crossing of sub-grid side p-q with the level (where the sign changes) to pts; returns the new count. */
+  const cross = (p: number, q: number, lev: number, m: number): number => {
+    const fp = vv[p] - lev;
+    const fq = vv[q] - lev;
+    if ((fp < 0 && fq >= 0) || (fp >= 0 && fq < 0)) {
+      const t = fp / (fp - fq);
+      pts[m] = vx[p] + (vx[q] - vx[p]) * t;
+      pts[m + 1] = vy[p] + (vy[q] - vy[p]) * t;
+      return m + 2;
+    }
+    return m;
+  };
+  /** The segment of sub-triangle a, b, c at the level, when its sides cross it exactly twice. */
+  const tri = (seg: number[], lev: number, a: number, b: number, c: number): void => {
+    let m = cross(a, b, lev, 0);
+    m = cross(b, c, lev, m);
+    m = cross(c, a, lev, m);
+    if (m === 4) seg.push(pts[0], pts[1], pts[2], pts[3]);
+  };
   for (let e = 0; e < mesh.nElements; e++) {
     const n = subdivisions(mesh, e, view, k, true);
     const g = (n + 1) * (n + 1);
-    const vx = new Float64Array(g);
-    const vy = new Float64Array(g);
-    const vv = new Float64Array(g);
+    if (vx.length < g) {
+      vx = new Float64Array(g);
+      vy = new Float64Array(g);
+      vv = new Float64Array(g);
+    }
     let lo = Infinity;
     let hi = -Infinity;
     for (let i = 0; i <= n; i++) {
@@ -388,32 +415,18 @@ export function isoSegments(mesh: DrawMesh, view: View, field: FieldSpec, levels
         if (val > hi) hi = val;
       }
     }
-    levels.forEach((lev, li) => {
-      if (lev < lo || lev > hi) return;
+    for (let li = 0; li < levels.length; li++) {
+      const lev = levels[li];
+      if (lev < lo || lev > hi) continue;
       const seg = out[li];
-      const tri = (a: number, b: number, c: number) => {
-        const pts: number[] = [];
-        const edge = (p: number, q: number) => {
-          const fp = vv[p] - lev;
-          const fq = vv[q] - lev;
-          if ((fp < 0 && fq >= 0) || (fp >= 0 && fq < 0)) {
-            const t = fp / (fp - fq);
-            pts.push(vx[p] + (vx[q] - vx[p]) * t, vy[p] + (vy[q] - vy[p]) * t);
-          }
-        };
-        edge(a, b);
-        edge(b, c);
-        edge(c, a);
-        if (pts.length === 4) seg.push(pts[0], pts[1], pts[2], pts[3]);
-      };
       for (let i = 0; i < n; i++) {
         for (let j = 0; j < n - i; j++) {
           const a = i * (n + 1) + j;
-          tri(a, a + 1, a + n + 1);
-          if (j < n - i - 1) tri(a + 1, a + n + 2, a + n + 1);
+          tri(seg, lev, a, a + 1, a + n + 1);
+          if (j < n - i - 1) tri(seg, lev, a + 1, a + n + 2, a + n + 1);
         }
       }
-    });
+    }
   }
   return out;
 }

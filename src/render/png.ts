@@ -95,11 +95,17 @@ function paethScanlines(rgba: Uint8Array, width: number, height: number, bpp: 3 
       const a = cur[x - bpp];
       const b = prev[x];
       const c = prev[x - bpp];
-      const p = a + b - c;
-      const pa = p > a ? p - a : a - p;
-      const pb = p > b ? p - b : b - p;
-      const pc = p > c ? p - c : c - p;
-      out[o + x] = cur[x] - (pa <= pb && pa <= pc ? a : pb <= pc ? b : c);
+      // Where up-left equals left the predictor is `up`, where it equals up it is `left` (p is
+      // then b or a, at distance 0): the flat regions of a picture take no further test.
+      if (c === a) out[o + x] = cur[x] - b;
+      else if (c === b) out[o + x] = cur[x] - a;
+      else {
+        const p = a + b - c;
+        const pa = p > a ? p - a : a - p;
+        const pb = p > b ? p - b : b - p;
+        const pc = p > c ? p - c : c - p;
+        out[o + x] = cur[x] - (pa <= pb && pa <= pc ? a : pb <= pc ? b : c);
+      }
     }
     const t = prev;
     prev = cur;
