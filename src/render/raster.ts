@@ -260,15 +260,17 @@ export class Raster {
  */
 function accumulateClipped(acc: Float32Array, stride: number, w: number, h: number, x0: number, y0: number, x1: number, y1: number): void {
   if (y0 === y1 || !Number.isFinite(x0 + y0 + x1 + y1)) return;
-  // Split at x = 0 and x = w.
-  const ts: number[] = [0];
-  if ((x0 < 0) !== (x1 < 0)) ts.push((0 - x0) / (x1 - x0));
-  if ((x0 > w) !== (x1 > w)) ts.push((w - x0) / (x1 - x0));
-  ts.push(1);
-  ts.sort((a, b) => a - b);
-  for (let k = 0; k + 1 < ts.length; k++) {
-    const ta = ts[k];
-    const tb = ts[k + 1];
+  // Split at x = 0 and x = w: the parameters 0 <= t <= 1 of the crossings, in increasing order
+  // (no array per edge: this runs for every edge of every fill).
+  let tl = -1;
+  let tr = -1;
+  if ((x0 < 0) !== (x1 < 0)) tl = (0 - x0) / (x1 - x0);
+  if ((x0 > w) !== (x1 > w)) tr = (w - x0) / (x1 - x0);
+  if (tl >= 0 && tr >= 0 && tr < tl) [tl, tr] = [tr, tl];
+  const pieces = 1 + (tl >= 0 ? 1 : 0) + (tr >= 0 ? 1 : 0);
+  for (let k = 0; k < pieces; k++) {
+    const ta = k === 0 ? 0 : k === 1 ? (tl >= 0 ? tl : tr) : tr;
+    const tb = k === pieces - 1 ? 1 : k === 0 ? (tl >= 0 ? tl : tr) : tr;
     if (tb <= ta) continue;
     const ax = x0 + (x1 - x0) * ta;
     const ay = y0 + (y1 - y0) * ta;
