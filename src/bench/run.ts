@@ -18,6 +18,7 @@ import { runSolveBench } from './solve.js';
 import { runAdaptiveBench } from './adaptive.js';
 import { runContactBench } from './contact.js';
 import { runProcessBench } from './process.js';
+import { runPicturesBench } from './pictures.js';
 import { benchAssembly, benchMesherAt, benchScaling, benchWholeMillion } from './scale.js';
 
 function median(xs: number[]): number {
@@ -81,6 +82,8 @@ function runBench(args: string[], log: (s: string) => void = console.log): void 
   log('command: npm run bench' + (large ? ' -- --large' : ''));
   log('\nWhole process from the shell (start-up included; node dist/bench/process.js)');
   runProcessBench(log);
+  log('\nPictures and report of the strap example (the -o overhead apart from the solve; node dist/bench/pictures.js)');
+  runPicturesBench(log);
   benchMesher(runs, log, large);
   benchAnalysis(runs, log);
   benchAssembly(large ? [1e5, 5e5, 1e6] : [1e5], runs, log);
