@@ -97,6 +97,31 @@ function isDrawnStraight(nodes: Float64Array, el: Int32Array, e: number): boolea
   return off <= 1e-9 * size;
 }
 
+/**
+ * Whether element e, drawn at k times the view's scale, lies wholly outside the pixel box: its
+ * nodes' box, grown by half its size on every side (room for a curved side's bulge), misses the
+ * box. The same test as paintField's, for the lines drawn over a window of the part.
+ */
+function outsideBox(mesh: DrawMesh, e: number, view: View, k: number, box: readonly number[]): boolean {
+  const per = mesh.order === 2 ? 6 : 3;
+  const s = view.s * k;
+  let x0 = Infinity;
+  let x1 = -Infinity;
+  let y0 = Infinity;
+  let y1 = -Infinity;
+  for (let a = 0; a < per; a++) {
+    const v = mesh.elements[per * e + a];
+    const px = view.ox * k + s * mesh.nodes[2 * v];
+    const py = view.oy * k - s * mesh.nodes[2 * v + 1];
+    if (px < x0) x0 = px;
+    if (px > x1) x1 = px;
+    if (py < y0) y0 = py;
+    if (py > y1) y1 = py;
+  }
+  const pad = 0.5 * Math.max(x1 - x0, y1 - y0);
+  return x1 + pad < box[0] || x0 - pad > box[2] || y1 + pad < box[1] || y0 - pad > box[3];
+}
+
 /** The chord error, in pixels, allowed where a curved side is drawn as a polyline. */
 const CHORD_ERROR_PX = 0.1;
 /** How far outside a sub-triangle, in pixels, a pixel centre may lie and still be painted by it. */
@@ -350,9 +375,10 @@ export function fieldRange(mesh: DrawMesh, field: FieldSpec): [number, number] {
 
 /**
  * Iso-lines of the plotted value at the given levels, as pixel segments (x0, y0, x1, y1 per
- * segment, one list per level), from the subdivided elements by marching triangles.
+ * segment, one list per level), from the subdivided elements by marching triangles. With
+ * `within` (a pixel box: the drawing area of a close-up), elements wholly outside it are left out.
  */
-export function isoSegments(mesh: DrawMesh, view: View, field: FieldSpec, levels: readonly number[], k = 1): number[][] {
+export function isoSegments(mesh: DrawMesh, view: View, field: FieldSpec, levels: readonly number[], k = 1, within?: readonly number[]): number[][] {
   const out = levels.map(() => [] as number[]);
   if (levels.length === 0) return out;
   const per = mesh.order === 2 ? 6 : 3;
@@ -385,6 +411,7 @@ export function isoSegments(mesh: DrawMesh, view: View, field: FieldSpec, levels
     if (m === 4) seg.push(pts[0], pts[1], pts[2], pts[3]);
   };
   for (let e = 0; e < mesh.nElements; e++) {
+    if (within && outsideBox(mesh, e, view, k, within)) continue;
     const n = subdivisions(mesh, e, view, k, true);
     const g = (n + 1) * (n + 1);
     if (vx.length < g) {
@@ -431,14 +458,18 @@ export function isoSegments(mesh: DrawMesh, view: View, field: FieldSpec, levels
   return out;
 }
 
-/** Every element side once, as pixel polylines (curved sides of 6-node elements in 4 pieces). */
-export function meshEdgeLines(mesh: DrawMesh, view: View): number[][] {
+/**
+ * Every element side once, as pixel polylines (curved sides of 6-node elements in 4 pieces); with
+ * `within` (a pixel box), only the sides of elements not wholly outside it.
+ */
+export function meshEdgeLines(mesh: DrawMesh, view: View, within?: readonly number[]): number[][] {
   const per = mesh.order === 2 ? 6 : 3;
   const seen = new Set<number>();
   const lines: number[][] = [];
   const el = mesh.elements;
   const mids = [3, 4, 5];
   for (let e = 0; e < mesh.nElements; e++) {
+    if (within && outsideBox(mesh, e, view, 1, within)) continue;
     for (let i = 0; i < 3; i++) {
       const a = el[per * e + i];
       const b = el[per * e + ((i + 1) % 3)];
