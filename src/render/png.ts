@@ -76,8 +76,17 @@ function paethScanlines(rgba: Uint8Array, width: number, height: number, bpp: 3 
   // the raw samples of this row and the previous one (zeros above the first)
   let cur = new Uint8Array(row);
   let prev = new Uint8Array(row);
+  const pixels = Buffer.from(rgba.buffer, rgba.byteOffset, rgba.byteLength);
+  const rgbaRow = 4 * width;
   for (let y = 0; y < height; y++) {
     const src = 4 * width * y;
+    // A row equal to the one above filters to zeros (up = x, and left = up-left, so the
+    // predictor is up): the output is zero already, and the previous row stays what it was.
+    // Common in the margins and flat backgrounds; compared natively.
+    if (y > 0 && pixels.compare(pixels, src - rgbaRow, src, src, src + rgbaRow) === 0) {
+      out[y * (row + 1)] = 4;
+      continue;
+    }
     if (bpp === 4) cur.set(rgba.subarray(src, src + row));
     else {
       for (let x = 0, i = src, o = 0; x < width; x++, i += 4, o += 3) {
