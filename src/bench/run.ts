@@ -22,6 +22,7 @@ import { runMatrixMarketBench } from './matrixmarket.js';
 import { runRepeatedSolveBench } from './repeated.js';
 import { runSweepBench } from './sweep.js';
 import { runSeriesBench } from './series.js';
+import { runPicturesBench } from './pictures.js';
 import { benchAssembly, benchMesherAt, benchScaling, benchWholeMillion } from './scale.js';
 
 function median(xs: number[]): number {
@@ -85,6 +86,8 @@ function runBench(args: string[], log: (s: string) => void = console.log): void 
   log('command: npm run bench' + (large ? ' -- --large' : ''));
   log('\nWhole process from the shell (start-up included; node dist/bench/process.js)');
   runProcessBench(log);
+  log('\nPictures and report of the strap example (the -o overhead apart from the solve; node dist/bench/pictures.js)');
+  runPicturesBench(log);
   benchMesher(runs, log, large);
   benchAnalysis(runs, log);
   benchAssembly(large ? [1e5, 5e5, 1e6] : [1e5], runs, log);

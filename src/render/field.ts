@@ -97,6 +97,31 @@ function isDrawnStraight(nodes: Float64Array, el: Int32Array, e: number): boolea
   return off <= 1e-9 * size;
 }
 
+/**
+ * Whether element e, drawn at k times the view's scale, lies wholly outside the pixel box: its
+ * nodes' box, grown by half its size on every side (room for a curved side's bulge), misses the
+ * box. The same test as paintField's, for the lines drawn over a window of the part.
+ */
+function outsideBox(mesh: DrawMesh, e: number, view: View, k: number, box: readonly number[]): boolean {
+  const per = mesh.order === 2 ? 6 : 3;
+  const s = view.s * k;
+  let x0 = Infinity;
+  let x1 = -Infinity;
+  let y0 = Infinity;
+  let y1 = -Infinity;
+  for (let a = 0; a < per; a++) {
+    const v = mesh.elements[per * e + a];
+    const px = view.ox * k + s * mesh.nodes[2 * v];
+    const py = view.oy * k - s * mesh.nodes[2 * v + 1];
+    if (px < x0) x0 = px;
+    if (px > x1) x1 = px;
+    if (py < y0) y0 = py;
+    if (py > y1) y1 = py;
+  }
+  const pad = 0.5 * Math.max(x1 - x0, y1 - y0);
+  return x1 + pad < box[0] || x0 - pad > box[2] || y1 + pad < box[1] || y0 - pad > box[3];
+}
+
 /** The chord error, in pixels, allowed where a curved side is drawn as a polyline. */
 const CHORD_ERROR_PX = 0.1;
 /** How far outside a sub-triangle, in pixels, a pixel centre may lie and still be painted by it. */
@@ -266,15 +291,16 @@ export function paintField(r: Raster, mesh: DrawMesh, view: View, field: FieldSp
       const a1 = b1c + b1y * cy;
       const a2 = b2c + b2y * cy;
       const a0 = 1 - a1 - a2;
-      for (const [a, k, eps] of [
-        [a0, b0x, eps0],
-        [a1, b1x, eps1],
-        [a2, b2x, eps2],
-      ]) {
-        if (k > 0) lo = Math.max(lo, (eps - a) / k);
-        else if (k < 0) hi = Math.min(hi, (eps - a) / k);
-        else if (a < eps) hi = -Infinity;
-      }
+      // (written out for the three corners: no array per row)
+      if (b0x > 0) lo = Math.max(lo, (eps0 - a0) / b0x);
+      else if (b0x < 0) hi = Math.min(hi, (eps0 - a0) / b0x);
+      else if (a0 < eps0) hi = -Infinity;
+      if (b1x > 0) lo = Math.max(lo, (eps1 - a1) / b1x);
+      else if (b1x < 0) hi = Math.min(hi, (eps1 - a1) / b1x);
+      else if (a1 < eps1) hi = -Infinity;
+      if (b2x > 0) lo = Math.max(lo, (eps2 - a2) / b2x);
+      else if (b2x < 0) hi = Math.min(hi, (eps2 - a2) / b2x);
+      else if (a2 < eps2) hi = -Infinity;
       const pxStart = Math.max(loX, Math.ceil(lo - 0.5));
       const pxEnd = Math.min(hiX, Math.floor(hi - 0.5));
       for (let px = pxStart; px <= pxEnd; px++) {
@@ -292,11 +318,32 @@ export function paintField(r: Raster, mesh: DrawMesh, view: View, field: FieldSp
         const b0 = 1 - b1 - b2;
         const xi = b0 * xa + b1 * xb + b2 * xc;
         const eta = b0 * ea + b1 * eb + b2 * ec;
-        shape(mesh.order, xi, eta, N);
-        for (let q = 0; q < stride; q++) {
-          let v = 0;
-          for (let m = 0; m < per; m++) v += N[m] * local[m * stride + q];
-          comp[q] = v;
+        if (per === 6) {
+          // shapeValuesP2 and the sum over the nodes written out, in the same order (the same bits)
+          const l0 = 1 - xi - eta;
+          const n0 = l0 * (2 * l0 - 1);
+          const n1 = xi * (2 * xi - 1);
+          const n2 = eta * (2 * eta - 1);
+          const n3 = 4 * l0 * xi;
+          const n4 = 4 * xi * eta;
+          const n5 = 4 * eta * l0;
+          for (let q = 0; q < stride; q++) {
+            comp[q] =
+              0 +
+              n0 * local[q] +
+              n1 * local[stride + q] +
+              n2 * local[2 * stride + q] +
+              n3 * local[3 * stride + q] +
+              n4 * local[4 * stride + q] +
+              n5 * local[5 * stride + q];
+          }
+        } else {
+          shape(mesh.order, xi, eta, N);
+          for (let q = 0; q < stride; q++) {
+            let v = 0;
+            for (let m = 0; m < per; m++) v += N[m] * local[m * stride + q];
+            comp[q] = v;
+          }
         }
         const val = field.value(comp);
         let t = Math.round((val - scale.lo) * inv1023);
@@ -328,21 +375,50 @@ export function fieldRange(mesh: DrawMesh, field: FieldSpec): [number, number] {
 
 /**
  * Iso-lines of the plotted value at the given levels, as pixel segments (x0, y0, x1, y1 per
- * segment, one list per level), from the subdivided elements by marching triangles.
+ * segment, one list per level), from the subdivided elements by marching triangles. With
+ * `within` (a pixel box: the drawing area of a close-up), elements wholly outside it are left out.
  */
-export function isoSegments(mesh: DrawMesh, view: View, field: FieldSpec, levels: readonly number[], k = 1): number[][] {
+export function isoSegments(mesh: DrawMesh, view: View, field: FieldSpec, levels: readonly number[], k = 1, within?: readonly number[]): number[][] {
   const out = levels.map(() => [] as number[]);
   if (levels.length === 0) return out;
   const per = mesh.order === 2 ? 6 : 3;
   const N = new Float64Array(6);
   const comp = new Float64Array(field.stride);
   const el = mesh.elements;
+  // the sub-grid's pixel positions and values, grown as needed and reused from element to element
+  let vx = new Float64Array(16);
+  let vy = new Float64Array(16);
+  let vv = new Float64Array(16);
+  // the crossings of one sub-triangle with the level: up to three points
+  const pts = new Float64Array(6);
+  /** Appends the crossing of sub-grid side p-q with the level (where the sign changes) to pts; returns the new count. */
+  const cross = (p: number, q: number, lev: number, m: number): number => {
+    const fp = vv[p] - lev;
+    const fq = vv[q] - lev;
+    if ((fp < 0 && fq >= 0) || (fp >= 0 && fq < 0)) {
+      const t = fp / (fp - fq);
+      pts[m] = vx[p] + (vx[q] - vx[p]) * t;
+      pts[m + 1] = vy[p] + (vy[q] - vy[p]) * t;
+      return m + 2;
+    }
+    return m;
+  };
+  /** The segment of sub-triangle a, b, c at the level, when its sides cross it exactly twice. */
+  const tri = (seg: number[], lev: number, a: number, b: number, c: number): void => {
+    let m = cross(a, b, lev, 0);
+    m = cross(b, c, lev, m);
+    m = cross(c, a, lev, m);
+    if (m === 4) seg.push(pts[0], pts[1], pts[2], pts[3]);
+  };
   for (let e = 0; e < mesh.nElements; e++) {
+    if (within && outsideBox(mesh, e, view, k, within)) continue;
     const n = subdivisions(mesh, e, view, k, true);
     const g = (n + 1) * (n + 1);
-    const vx = new Float64Array(g);
-    const vy = new Float64Array(g);
-    const vv = new Float64Array(g);
+    if (vx.length < g) {
+      vx = new Float64Array(g);
+      vy = new Float64Array(g);
+      vv = new Float64Array(g);
+    }
     let lo = Infinity;
     let hi = -Infinity;
     for (let i = 0; i <= n; i++) {
@@ -366,44 +442,34 @@ export function isoSegments(mesh: DrawMesh, view: View, field: FieldSpec, levels
         if (val > hi) hi = val;
       }
     }
-    levels.forEach((lev, li) => {
-      if (lev < lo || lev > hi) return;
+    for (let li = 0; li < levels.length; li++) {
+      const lev = levels[li];
+      if (lev < lo || lev > hi) continue;
       const seg = out[li];
-      const tri = (a: number, b: number, c: number) => {
-        const pts: number[] = [];
-        const edge = (p: number, q: number) => {
-          const fp = vv[p] - lev;
-          const fq = vv[q] - lev;
-          if ((fp < 0 && fq >= 0) || (fp >= 0 && fq < 0)) {
-            const t = fp / (fp - fq);
-            pts.push(vx[p] + (vx[q] - vx[p]) * t, vy[p] + (vy[q] - vy[p]) * t);
-          }
-        };
-        edge(a, b);
-        edge(b, c);
-        edge(c, a);
-        if (pts.length === 4) seg.push(pts[0], pts[1], pts[2], pts[3]);
-      };
       for (let i = 0; i < n; i++) {
         for (let j = 0; j < n - i; j++) {
           const a = i * (n + 1) + j;
-          tri(a, a + 1, a + n + 1);
-          if (j < n - i - 1) tri(a + 1, a + n + 2, a + n + 1);
+          tri(seg, lev, a, a + 1, a + n + 1);
+          if (j < n - i - 1) tri(seg, lev, a + 1, a + n + 2, a + n + 1);
         }
       }
-    });
+    }
   }
   return out;
 }
 
-/** Every element side once, as pixel polylines (curved sides of 6-node elements in 4 pieces). */
-export function meshEdgeLines(mesh: DrawMesh, view: View): number[][] {
+/**
+ * Every element side once, as pixel polylines (curved sides of 6-node elements in 4 pieces); with
+ * `within` (a pixel box), only the sides of elements not wholly outside it.
+ */
+export function meshEdgeLines(mesh: DrawMesh, view: View, within?: readonly number[]): number[][] {
   const per = mesh.order === 2 ? 6 : 3;
   const seen = new Set<number>();
   const lines: number[][] = [];
   const el = mesh.elements;
   const mids = [3, 4, 5];
   for (let e = 0; e < mesh.nElements; e++) {
+    if (within && outsideBox(mesh, e, view, 1, within)) continue;
     for (let i = 0; i < 3; i++) {
       const a = el[per * e + i];
       const b = el[per * e + ((i + 1) % 3)];

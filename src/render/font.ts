@@ -22,7 +22,9 @@ function font(weight: Weight): Font {
     const require = createRequire(import.meta.url);
     const file = require.resolve(`dejavu-fonts-ttf/ttf/${weight === 'bold' ? 'DejaVuSans-Bold.ttf' : 'DejaVuSans.ttf'}`);
     const b = readFileSync(file);
-    f = loadOpentype().parse(b.buffer.slice(b.byteOffset, b.byteOffset + b.byteLength) as ArrayBuffer);
+    // lowMemory: glyphs are read from the file when first drawn instead of all ~6000 at once
+    // (the same outlines, advances and kerning; a faster start for the few dozen glyphs a picture uses)
+    f = loadOpentype().parse(b.buffer.slice(b.byteOffset, b.byteOffset + b.byteLength) as ArrayBuffer, { lowMemory: true });
     fonts[weight] = f;
   }
   return f;
@@ -41,9 +43,29 @@ export function loadFonts(): void {
   }
 }
 
+/**
+ * A cache of text measured or laid out, by weight, size and text: the pictures ask for the same
+ * texts many times (a text's box when it is placed, its outline in the PNG and again in the SVG,
+ * the caution line word by word in every frame). Emptied when it holds MEMO_MOST entries, so a
+ * long run that draws many pictures does not grow it without end.
+ */
+const MEMO_MOST = 4096;
+
+function remember<T>(memo: Map<string, T>, key: string, make: () => T): T {
+  let v = memo.get(key);
+  if (v === undefined) {
+    if (memo.size >= MEMO_MOST) memo.clear();
+    v = make();
+    memo.set(key, v);
+  }
+  return v;
+}
+
+const widths = new Map<string, number>();
+
 /** Advance width of the text at `size` pixels (em size), kerning included. */
 export function textWidth(text: string, size: number, weight: Weight = 'normal'): number {
-  return font(weight).getAdvanceWidth(text, size, { kerning: true });
+  return remember(widths, `${weight} ${size} ${text}`, () => font(weight).getAdvanceWidth(text, size, { kerning: true }));
 }
 
 /** Height above the baseline of capitals and digits (DejaVu Sans: 0.729 em). */
@@ -65,73 +87,20 @@ export interface TextLayout {
  * radians about (x, y) (counter-clockwise on the screen for negative values, y being down).
  */
 export function layoutText(text: string, x: number, y: number, size: number, anchor: Anchor = 'start', weight: Weight = 'normal', rotate = 0): TextLayout {
-  const f = font(weight);
-  const w = f.getAdvanceWidth(text, size, { kerning: true });
-  const x0 = anchor === 'start' ? 0 : anchor === 'middle' ? -w / 2 : -w;
-  const path = f.getPath(text, x0, 0, size, { kerning: true });
-  const tol = 0.125;
-  const polygons: number[][] = [];
-  let cur: number[] = [];
-  let px = 0;
-  let py = 0;
+  const g = glyphOutlines(text, size, anchor, weight);
   const cos = Math.cos(rotate);
   const sin = Math.sin(rotate);
-  const put = (qx: number, qy: number) => {
-    cur.push(x + qx * cos - qy * sin, y + qx * sin + qy * cos);
-  };
-  const close = () => {
-    if (cur.length >= 6) polygons.push(cur);
-    cur = [];
-  };
-  for (const c of path.commands) {
-    switch (c.type) {
-      case 'M':
-        close();
-        px = c.x!;
-        py = c.y!;
-        put(px, py);
-        break;
-      case 'L':
-        px = c.x!;
-        py = c.y!;
-        put(px, py);
-        break;
-      case 'Q': {
-        // Segments so that the flattening error (|p0 - 2 p1 + p2| / (4 n^2)) stays below tol.
-        const dd = Math.hypot(px - 2 * c.x1! + c.x!, py - 2 * c.y1! + c.y!);
-        const n = Math.max(1, Math.min(32, Math.ceil(Math.sqrt(dd / (4 * tol)))));
-        for (let k = 1; k <= n; k++) {
-          const t = k / n;
-          const u = 1 - t;
-          put(u * u * px + 2 * u * t * c.x1! + t * t * c.x!, u * u * py + 2 * u * t * c.y1! + t * t * c.y!);
-        }
-        px = c.x!;
-        py = c.y!;
-        break;
-      }
-      case 'C': {
-        const dd = Math.max(Math.hypot(px - 2 * c.x1! + c.x2!, py - 2 * c.y1! + c.y2!), Math.hypot(c.x1! - 2 * c.x2! + c.x!, c.y1! - 2 * c.y2! + c.y!));
-        const n = Math.max(1, Math.min(48, Math.ceil(Math.sqrt((3 * dd) / (4 * tol)))));
-        for (let k = 1; k <= n; k++) {
-          const t = k / n;
-          const u = 1 - t;
-          put(
-            u * u * u * px + 3 * u * u * t * c.x1! + 3 * u * t * t * c.x2! + t * t * t * c.x!,
-            u * u * u * py + 3 * u * u * t * c.y1! + 3 * u * t * t * c.y2! + t * t * t * c.y!,
-          );
-        }
-        px = c.x!;
-        py = c.y!;
-        break;
-      }
-      case 'Z':
-        close();
-        break;
+  const polygons = g.local.map((p) => {
+    const out = new Array<number>(p.length);
+    for (let k = 0; k < p.length; k += 2) {
+      const qx = p[k];
+      const qy = p[k + 1];
+      out[k] = x + qx * cos - qy * sin;
+      out[k + 1] = y + qx * sin + qy * cos;
     }
-  }
-  close();
-  const asc = (f.ascender / f.unitsPerEm) * size;
-  const desc = (-f.descender / f.unitsPerEm) * size;
+    return out;
+  });
+  const { x0, w, asc, desc } = g;
   // The box is given unrotated for rotate = 0 and as the bounding box of the rotated box otherwise.
   const corners = [
     [x0, -asc],
@@ -142,4 +111,86 @@ export function layoutText(text: string, x: number, y: number, size: number, anc
   const xs = corners.map((p) => p[0]);
   const ys = corners.map((p) => p[1]);
   return { polygons, box: [Math.min(...xs), Math.min(...ys), Math.max(...xs), Math.max(...ys)] };
+}
+
+/** The outlines of a text with its anchor at the origin, unrotated: flat polygons and the advance box. */
+interface LocalText {
+  local: number[][];
+  /** the left end of the advance, its width, the ascender and descender (pixels) */
+  x0: number;
+  w: number;
+  asc: number;
+  desc: number;
+}
+
+const outlines = new Map<string, LocalText>();
+
+/**
+ * The glyph outlines of `text` with its baseline at 0 and its anchor at 0, flattened (quadratic
+ * and cubic segments cut so that the flattening error stays under 1/8 pixel); kept in the cache.
+ */
+function glyphOutlines(text: string, size: number, anchor: Anchor, weight: Weight): LocalText {
+  return remember(outlines, `${weight} ${anchor} ${size} ${text}`, () => {
+    const f = font(weight);
+    const w = f.getAdvanceWidth(text, size, { kerning: true });
+    const x0 = anchor === 'start' ? 0 : anchor === 'middle' ? -w / 2 : -w;
+    const path = f.getPath(text, x0, 0, size, { kerning: true });
+    const tol = 0.125;
+    const local: number[][] = [];
+    let cur: number[] = [];
+    let px = 0;
+    let py = 0;
+    const close = () => {
+      if (cur.length >= 6) local.push(cur);
+      cur = [];
+    };
+    for (const c of path.commands) {
+      switch (c.type) {
+        case 'M':
+          close();
+          px = c.x!;
+          py = c.y!;
+          cur.push(px, py);
+          break;
+        case 'L':
+          px = c.x!;
+          py = c.y!;
+          cur.push(px, py);
+          break;
+        case 'Q': {
+          // Segments so that the flattening error (|p0 - 2 p1 + p2| / (4 n^2)) stays below tol.
+          const dd = Math.hypot(px - 2 * c.x1! + c.x!, py - 2 * c.y1! + c.y!);
+          const n = Math.max(1, Math.min(32, Math.ceil(Math.sqrt(dd / (4 * tol)))));
+          for (let k = 1; k <= n; k++) {
+            const t = k / n;
+            const u = 1 - t;
+            cur.push(u * u * px + 2 * u * t * c.x1! + t * t * c.x!, u * u * py + 2 * u * t * c.y1! + t * t * c.y!);
+          }
+          px = c.x!;
+          py = c.y!;
+          break;
+        }
+        case 'C': {
+          const dd = Math.max(Math.hypot(px - 2 * c.x1! + c.x2!, py - 2 * c.y1! + c.y2!), Math.hypot(c.x1! - 2 * c.x2! + c.x!, c.y1! - 2 * c.y2! + c.y!));
+          const n = Math.max(1, Math.min(48, Math.ceil(Math.sqrt((3 * dd) / (4 * tol)))));
+          for (let k = 1; k <= n; k++) {
+            const t = k / n;
+            const u = 1 - t;
+            cur.push(
+              u * u * u * px + 3 * u * u * t * c.x1! + 3 * u * t * t * c.x2! + t * t * t * c.x!,
+              u * u * u * py + 3 * u * u * t * c.y1! + 3 * u * t * t * c.y2! + t * t * t * c.y!,
+            );
+          }
+          px = c.x!;
+          py = c.y!;
+          break;
+        }
+        case 'Z':
+          close();
+          break;
+      }
+    }
+    close();
+    return { local, x0, w, asc: (f.ascender / f.unitsPerEm) * size, desc: (-f.descender / f.unitsPerEm) * size };
+  });
 }

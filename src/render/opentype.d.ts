@@ -23,7 +23,8 @@ declare module 'opentype.js' {
     getPath(text: string, x: number, y: number, fontSize: number, options?: RenderOptions): Path;
     getAdvanceWidth(text: string, fontSize: number, options?: RenderOptions): number;
   }
-  export function parse(buffer: ArrayBuffer): Font;
+  /** lowMemory: glyphs are parsed when first used */
+  export function parse(buffer: ArrayBuffer, options?: { lowMemory?: boolean }): Font;
   const opentype: { parse: typeof parse };
   export default opentype;
 }

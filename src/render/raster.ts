@@ -1,5 +1,5 @@
 /**
- * A small RGBA raster with antialiased vector fills, PNG output through pngjs.
+ * A small RGBA raster with antialiased vector fills, PNG output through ./png.ts.
  * Pixel (0, 0) is the top-left corner, y down; callers map model coordinates (y up) to it.
  *
  * Filled paths are rasterised by exact signed-area accumulation: every edge adds, to the cells
@@ -11,10 +11,7 @@
  * are filled as one path of consistently oriented quads and round joins, so a polyline
  * overlapping itself does not darken twice.
  */
-import { createRequire } from 'node:module';
-
-/** pngjs, loaded on the first PNG written (not at start-up). */
-const loadPng = (): typeof import('pngjs') => createRequire(import.meta.url)('pngjs') as typeof import('pngjs');
+import { encodePng } from './png.js';
 
 export type Rgb = readonly [number, number, number];
 
@@ -35,12 +32,13 @@ export class Raster {
     this.data = new Uint8Array(4 * width * height);
     this.clipBox = [0, 0, width, height];
     if (background) {
-      for (let i = 0; i < width * height; i++) {
-        this.data[4 * i] = background[0];
-        this.data[4 * i + 1] = background[1];
-        this.data[4 * i + 2] = background[2];
-        this.data[4 * i + 3] = 255;
-      }
+      // the first pixel, then copies doubling in length (no per-pixel loop)
+      const d = this.data;
+      d[0] = background[0];
+      d[1] = background[1];
+      d[2] = background[2];
+      d[3] = 255;
+      for (let filled = 4; filled < d.length; filled *= 2) d.copyWithin(filled, 0, Math.min(filled, d.length - filled));
     }
   }
 
@@ -137,13 +135,37 @@ export class Raster {
         accumulateClipped(acc, stride, w, h, p[2 * k] - bx0, p[2 * k + 1] - by0, p[2 * j] - bx0, p[2 * j + 1] - by0);
       }
     }
+    // The blend of `blend` written out for the covered pixels (all inside the clip box): where the
+    // coverage times alpha is 1 the result is the colour itself, whatever was below.
+    const d = this.data;
+    const [c0, c1, c2] = c;
+    const r0 = Math.round(c0);
+    const r1 = Math.round(c1);
+    const r2 = Math.round(c2);
     for (let y = 0; y < h; y++) {
       let s = 0;
       const row = y * stride;
-      for (let x = 0; x < w; x++) {
+      let o = 4 * ((by0 + y) * this.width + bx0);
+      for (let x = 0; x < w; x++, o += 4) {
         s += acc[row + x];
         const cov = Math.min(1, Math.abs(s));
-        if (cov > 1 / 512) this.blend(bx0 + x, by0 + y, c, cov * alpha);
+        if (!(cov > 1 / 512)) continue;
+        const a = cov * alpha;
+        if (a <= 0) continue;
+        if (a >= 1) {
+          d[o] = r0;
+          d[o + 1] = r1;
+          d[o + 2] = r2;
+          d[o + 3] = 255;
+          continue;
+        }
+        const da = d[o + 3] / 255;
+        const oa = a + da * (1 - a);
+        if (oa <= 0) continue;
+        d[o] = Math.round((c0 * a + d[o] * da * (1 - a)) / oa);
+        d[o + 1] = Math.round((c1 * a + d[o + 1] * da * (1 - a)) / oa);
+        d[o + 2] = Math.round((c2 * a + d[o + 2] * da * (1 - a)) / oa);
+        d[o + 3] = Math.round(255 * oa);
       }
     }
   }
@@ -225,19 +247,9 @@ export class Raster {
     }
   }
 
-  /** PNG bytes: RGB when every pixel is opaque, RGBA otherwise (deflate level 6, Paeth filter on every row). */
+  /** PNG bytes: RGB when every pixel is opaque, RGBA otherwise (Paeth filter on every row, see ./png.ts). */
   toPng(): Buffer {
-    const { PNG } = loadPng();
-    const png = new PNG({ width: this.width, height: this.height });
-    png.data = Buffer.from(this.data.buffer, this.data.byteOffset, this.data.byteLength);
-    let opaque = true;
-    for (let i = 3; i < this.data.length; i += 4) {
-      if (this.data[i] !== 255) {
-        opaque = false;
-        break;
-      }
-    }
-    return PNG.sync.write(png, { colorType: opaque ? 2 : 6, inputColorType: 6, deflateLevel: 6, filterType: 4 });
+    return encodePng(this.data, this.width, this.height);
   }
 }
 
@@ -248,15 +260,17 @@ export class Raster {
  */
 function accumulateClipped(acc: Float32Array, stride: number, w: number, h: number, x0: number, y0: number, x1: number, y1: number): void {
   if (y0 === y1 || !Number.isFinite(x0 + y0 + x1 + y1)) return;
-  // Split at x = 0 and x = w.
-  const ts: number[] = [0];
-  if ((x0 < 0) !== (x1 < 0)) ts.push((0 - x0) / (x1 - x0));
-  if ((x0 > w) !== (x1 > w)) ts.push((w - x0) / (x1 - x0));
-  ts.push(1);
-  ts.sort((a, b) => a - b);
-  for (let k = 0; k + 1 < ts.length; k++) {
-    const ta = ts[k];
-    const tb = ts[k + 1];
+  // Split at x = 0 and x = w: the parameters 0 <= t <= 1 of the crossings, in increasing order
+  // (no array per edge: this runs for every edge of every fill).
+  let tl = -1;
+  let tr = -1;
+  if ((x0 < 0) !== (x1 < 0)) tl = (0 - x0) / (x1 - x0);
+  if ((x0 > w) !== (x1 > w)) tr = (w - x0) / (x1 - x0);
+  if (tl >= 0 && tr >= 0 && tr < tl) [tl, tr] = [tr, tl];
+  const pieces = 1 + (tl >= 0 ? 1 : 0) + (tr >= 0 ? 1 : 0);
+  for (let k = 0; k < pieces; k++) {
+    const ta = k === 0 ? 0 : k === 1 ? (tl >= 0 ? tl : tr) : tr;
+    const tb = k === pieces - 1 ? 1 : k === 0 ? (tl >= 0 ? tl : tr) : tr;
     if (tb <= ta) continue;
     const ax = x0 + (x1 - x0) * ta;
     const ay = y0 + (y1 - y0) * ta;

@@ -9,8 +9,7 @@ import { InternalError, ModelError } from '../model/errors.js';
 import type { Analysis } from '../pipeline/analyse.js';
 import { measureField } from '../post/peak.js';
 import type { ResultJson } from './result-json.js';
-import { reportHtml } from './html.js';
-import { reportPictures } from './report-pictures.js';
+import { startReportHtml } from './report-thread.js';
 import { pictureFileNames, standardPictures, writePictures, type PictureOptions } from './pictures.js';
 import { encodeSaved, plotSource, SAVED_FILE, type PlotSource } from './saved.js';
 import { vtuText } from './vtu.js';
@@ -107,10 +106,18 @@ export function writeResultFiles(dir: string, a: Analysis, result: ResultJson, f
 
 /** The standard pictures and report.html from a solution (also what raiser plot redraws). */
 function writePicturesAndReport(dir: string, src: PlotSource, pictureOptions: PictureOptions, report = true): string[] {
-  const { written } = writePictures(dir, standardPictures(src, pictureOptions));
-  if (report) {
+  // the report's pictures are drawn in a second thread while this one draws the picture files
+  const pending = report ? startReportHtml(src) : null;
+  let written: string[];
+  try {
+    written = writePictures(dir, standardPictures(src, pictureOptions)).written;
+  } catch (err) {
+    pending?.cancel();
+    throw err;
+  }
+  if (pending) {
     const html = join(dir, 'report.html');
-    writeAtomic(html, reportHtml(src, reportPictures(src)));
+    writeAtomic(html, pending.finish());
     written.push(html);
   }
   return written;
