@@ -6,9 +6,9 @@ import { Command, CommanderError, Option } from 'commander';
 import { STRESS_MEASURES, type StressMeasure } from '../model/schema.js';
 import { AnalysisError, ModelError, ModelTooLargeError } from '../model/errors.js';
 import { loadModelFileAndDrawing } from '../pipeline/load.js';
-import { analyseModel } from '../pipeline/analyse.js';
-import { certifyModel } from '../pipeline/certify.js';
-import { buildResult, TOOL_VERSION } from '../report/result.js';
+import { analyseModelCases, type Analysis } from '../pipeline/analyse.js';
+import { certifyModelCases, type Certified } from '../pipeline/certify.js';
+import { buildCasesResult, TOOL_VERSION } from '../report/result.js';
 import { formatSummary } from '../report/summary.js';
 import { prepareOutputDir, writeAtomic, writeResultFiles } from '../report/files.js';
 import { environment, formatVerifyLine, formatVerifySummary, verifyReportMarkdown } from '../report/verify-report.js';
@@ -69,8 +69,6 @@ function runSolve(file: string, flags: SolveFlags): number {
   const { model, drawing, warnings } = loaded;
   applySignOff(model, flags);
   const opts = { measure: flags.measure, element: flags.element, maxMemoryBytes: flags.maxMemory ? parseMemory(flags.maxMemory) : defaultMemoryLimit(), drawing };
-  let analysis;
-  let cert = null;
   // A problem found while building the geometry or the mesh is placed in the model file too.
   const placed = <T>(work: () => T): T => {
     try {
@@ -79,17 +77,22 @@ function runSolve(file: string, flags: SolveFlags): number {
       throw e instanceof ModelError || e instanceof ModelTooLargeError ? loaded.locate(e) : e;
     }
   };
+  // One run per load case (one for a model of plain loads), all cases on shared meshes.
+  let runs: { analysis: Analysis; cert: Certified | null }[];
   if (flags.singleMesh) {
-    analysis = placed(() => analyseModel(model, opts));
+    runs = placed(() => analyseModelCases(model, opts)).map((analysis) => ({ analysis, cert: null }));
   } else {
-    cert = placed(() => certifyModel(model, { ...opts, target: parseAccuracy(flags.accuracy ?? '1%') }));
-    analysis = cert.analysis;
-    if (cert.status === 'not-converged') {
-      analysis.warnings.push(`the accuracy target ${(100 * cert.target).toPrecision(2)}% was not met; the error band shown is what the meshes support`);
+    runs = placed(() => certifyModelCases(model, { ...opts, target: parseAccuracy(flags.accuracy ?? '1%') })).map((cert) => ({ analysis: cert.analysis, cert }));
+    for (const { analysis, cert } of runs) {
+      if (cert!.status === 'not-converged') {
+        analysis.warnings.push(`the accuracy target ${(100 * cert!.target).toPrecision(2)}% was not met; the error band shown is what the meshes support`);
+      }
     }
   }
-  analysis.warnings.unshift(...warnings.map((w) => w.describe()));
-  const result = buildResult(analysis, file, cert);
+  for (const { analysis } of runs) analysis.warnings.unshift(...warnings.map((w) => w.describe()));
+  const result = buildCasesResult(runs, file);
+  // the files and pictures are of the governing case (result.loadCase), the summary names it
+  const analysis = runs.find((r) => r.analysis.loadCase === result.loadCase)!.analysis;
   let written: string[] = [];
   if (flags.out !== undefined) written = writeResultFiles(flags.out, analysis, result, flags.force ?? false, solveOutputOptions(flags));
   written.push(...exportMatrixIfAsked(flags, analysis));
