@@ -17,6 +17,7 @@ import type { MeshStats } from '../mesh/types.js';
 import { runSolveBench } from './solve.js';
 import { runAdaptiveBench } from './adaptive.js';
 import { runContactBench } from './contact.js';
+import { runCasesBench } from './cases.js';
 import { benchAssembly, benchMesherAt, benchScaling, benchWholeMillion } from './scale.js';
 
 function median(xs: number[]): number {
@@ -85,6 +86,8 @@ function runBench(args: string[], log: (s: string) => void = console.log): void 
   runAdaptiveBench(log);
   log('\nPin contact: a lug (lug template, W 40, d 20 mm) with a rigid pin, against one linear solve of the same mesh');
   runContactBench(log, runs);
+  log('\nLoad cases: 4 cases of the bench strap on one mesh (one factorisation) against one case and 4 separate analyses');
+  runCasesBench(log, runs);
   log('\nSparse Cholesky on plane-stress stiffness matrices of a jittered rectangle, left edge fixed');
   runSolveBench({ sizes: large ? [1e4, 1e5, 5e5, 1e6] : [1e4, 1e5], runs, log });
   if (large) benchWholeMillion(log);
