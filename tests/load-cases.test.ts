@@ -25,6 +25,7 @@ import { certifyModelCases } from '../src/pipeline/certify.js';
 import { buildCasesResult } from '../src/report/result.js';
 import { formatSummary } from '../src/report/summary.js';
 import { ktOf } from './support/kt.js';
+import { raiser } from './support/cli.js';
 
 /** An invented strap with an off-centre hole, clamped at x = 0, loaded at x = 100. */
 function strap(cases: unknown): any {
@@ -185,5 +186,43 @@ describe('a certified series of two cases', () => {
     const kq = ktOf(q.analysis).net!;
     expect(Math.abs(kq / kp - 1)).toBeLessThan(1e-9);
     expect(p.status).toBe(q.status);
+  });
+});
+
+describe('a model with loadCases where one case is expected', () => {
+  it('analyseModel refuses it with a ModelError naming loadCases and raiser solve', () => {
+    const model = parseModelText(JSON.stringify(strap([{ name: 'pull', loads: [A] }])), 'cases.json');
+    expect(() => analyseModel(model)).toThrow(/one load case.*|loadCases/);
+  });
+});
+
+describe('the invented example examples/strap-two-cases.json through the command line', () => {
+  it('prints a block per case and the governing case; result.json has both cases, each balanced, one factorisation per mesh', () => {
+    const json = raiser(['solve', 'examples/strap-two-cases.json', '--json']);
+    expect(json.code).toBe(0);
+    const r = JSON.parse(json.stdout);
+    expect(r.cases.map((c: any) => c.name)).toEqual(['pull', 'sideways']);
+    expect(r.loadCase).toBe('pull');
+    const [pull, side] = r.cases;
+    // regression values of this invented scenario (first run of this feature), to 1%
+    expect(Math.abs(pull.kt.value / 2.278 - 1)).toBeLessThan(0.01);
+    expect(Math.abs(side.kt.value / 2.231 - 1)).toBeLessThan(0.01);
+    for (const c of r.cases) {
+      expect(c.convergence.status).toBe('converged');
+      expect(c.kt.band[0]).toBeLessThanOrEqual(c.kt.value);
+      expect(c.kt.band[1]).toBeGreaterThanOrEqual(c.kt.value);
+      expect(c.load.equilibriumError).toBeLessThan(1e-9);
+      expect(c.solve).toEqual({ casesOnMesh: 2, factorisations: 1 });
+    }
+    expect(pull.load.resultant.fx).toBeCloseTo(40000, 6);
+    expect(side.load.resultant.fy).toBeCloseTo(-2000, 6);
+    // the sideways case's highest stress is at the clamp's end, a singular point: it says so
+    expect(side.warnings.join(' ')).toMatch(/singular point/);
+    const text = raiser(['solve', 'examples/strap-two-cases.json']);
+    expect(text.code).toBe(0);
+    expect(text.stdout).toContain('case "pull"');
+    expect(text.stdout).toContain('case "sideways"');
+    expect(text.stdout).toContain('governing case: "pull"');
+    expect(text.stdout).toContain('qualified engineer');
   });
 });

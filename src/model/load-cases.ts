@@ -23,6 +23,13 @@ export function loadsOf(model: Model): Load[] {
   return model.loads;
 }
 
+/** Refuses a model with loadCases where a command takes one load case (a sweep, for one). */
+export function refuseLoadCases(model: Model, where: string): void {
+  if (model.loadCases) {
+    throw new ModelError('loadCases', `${where} takes a model of one load case, and this one has ${model.loadCases.length}`, 'give "loads" (one case), or solve every case with raiser solve');
+  }
+}
+
 /**
  * The refusals about loads versus loadCases: exactly one of the two, names unique. (An empty
  * case, or an empty name, is refused by the schema.)

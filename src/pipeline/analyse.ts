@@ -25,7 +25,7 @@ import type { SizeLimit } from '../mesh/background.js';
 import { buildNodeAdjacency } from '../mesh/topology.js';
 import type { Mesh, MeshStats } from '../mesh/types.js';
 import { AnalysisError, InternalError } from '../model/errors.js';
-import { splitLoadCases } from '../model/load-cases.js';
+import { refuseLoadCases, splitLoadCases } from '../model/load-cases.js';
 import type { Model, StressMeasure } from '../model/schema.js';
 import { resolveUnits, type ResolvedUnits } from '../model/units.js';
 import { evaluateMesh, type MeshEvaluation } from '../post/evaluate.js';
@@ -166,6 +166,7 @@ export function prepareLoadCases(prep: PreparedModel): PreparedModel[] {
 
 /** One analysis on the model's own mesh (scaled by opts.sizeFactor). */
 export function analyseModel(model: Model, opts: AnalyseOptions = {}): Analysis {
+  refuseLoadCases(model, 'an analysis of one case');
   return analyseOnMesh(prepareModel(model, opts), { sizeFactor: opts.sizeFactor });
 }
 

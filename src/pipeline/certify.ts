@@ -30,6 +30,7 @@ import { analyseCasesOnMesh, prepareLoadCases, prepareModel, type AnalyseOptions
 import type { SizeLimit } from '../mesh/background.js';
 import type { Model } from '../model/schema.js';
 import { ModelTooLargeError } from '../model/errors.js';
+import { refuseLoadCases } from '../model/load-cases.js';
 
 export interface CertifyOptions extends AnalyseOptions {
   /** relative error target for the peak stress and Kt (default 0.01) */
@@ -68,6 +69,7 @@ export function settleAnalyses(runs: readonly Analysis[], sizes: readonly number
 }
 
 export function certifyModel(model: Model, opts: CertifyOptions = {}): Certified {
+  refuseLoadCases(model, 'a certified analysis of one case');
   return certifyPrepared(prepareModel(model, opts), opts);
 }
 
