@@ -289,7 +289,7 @@ function casesSection(r: ResultJson): string[] {
       const kt = c.kt.value === null ? `none: ${esc(c.kt.withheld ?? '')}` : `${f(c.kt.value, 4)} (${esc(c.kt.kind ?? '')} at ${esc(c.kt.raiser ?? '')})${c.kt.error === null ? '' : `, +-${pct(c.kt.error)}`}`;
       const cv = c.convergence;
       const acc = cv.status === 'single-mesh' ? 'one mesh, error not estimated' : `${esc(cv.status)} on ${cv.meshes} meshes`;
-      return `<tr><td>${c.governing ? '<strong>' : ''}${esc(c.name)}${c.governing ? '</strong> (governs)' : ''}</td><td>${kt}</td><td>${f(c.peak.stress)} ${esc(u.stress)}</td><td>${acc}</td><td>(${f(c.load.resultant.fx)}, ${f(c.load.resultant.fy)}) ${esc(u.force)}; balanced to ${esc(c.load.equilibriumError.toExponential(1))}</td></tr>`;
+      return `<tr><td>${c.governing ? '<strong>' : ''}${esc(c.name)}${c.governing ? '</strong> (governs)' : ''}</td><td>${kt}</td><td>${f(c.peak.stress)} ${esc(u.stress)}, ${esc(c.peak.feature)}${c.peak.atSharpCorner ? ' (a sharp corner: singular, not a peak to design to)' : ''}</td><td>${acc}</td><td>(${f(c.load.resultant.fx)}, ${f(c.load.resultant.fy)}) ${esc(u.force)}; balanced to ${esc(c.load.equilibriumError.toExponential(1))}</td></tr>`;
     })
     .join('');
   return [
