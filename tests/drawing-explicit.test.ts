@@ -106,7 +106,7 @@ describe('the cases of a sweep share the drawing', () => {
     expect(src.drawing?.file).toBe('plate.svg');
     const load = caseModel(src, { p: 50 });
     expect(load.drawing).toBe(src.drawing);
-    expect(load.model.loads[0]).toMatchObject({ normal: 50 });
+    expect(load.model.loads![0]).toMatchObject({ normal: 50 });
     const scaled = caseModel(src, { s: 2 });
     expect(scaled.drawing).not.toBe(src.drawing);
     // Twice the scale, four times the area.

@@ -64,7 +64,7 @@ describe('Kt invariance (plate with a hole, d/W = 0.3)', () => {
     const m = transformModel(base, { scale: 1e-3 });
     m.units = { length: 'm', force: 'N' };
     m.material.E *= 1e6;
-    for (const l of m.loads) if (l.type === 'traction' && l.normal) l.normal *= 1e6;
+    for (const l of m.loads!) if (l.type === 'traction' && l.normal) l.normal *= 1e6;
     const a = analyseModel(m);
     expect(a.units.stress).toBe('Pa');
     expect(Math.abs(ktOf(a).net! / ktOf(ref).net! - 1)).toBeLessThan(1e-3);

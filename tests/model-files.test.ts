@@ -36,7 +36,7 @@ describe('schema/raiser-model.schema.json', () => {
   });
   it('refers to the shared pieces by name', () => {
     const schema = JSON.parse(modelJsonSchemaText());
-    expect(Object.keys(schema.$defs).sort()).toEqual(['ArcSpec', 'Load', 'Loop', 'Selector', 'Support', 'Target', 'Vertex']);
+    expect(Object.keys(schema.$defs).sort()).toEqual(['ArcSpec', 'Load', 'LoadCase', 'Loop', 'Selector', 'Support', 'Target', 'Vertex']);
   });
 });
 

@@ -119,7 +119,7 @@ describe('files that are not model files', () => {
     expect(only('{}').message).toBe('the file holds an empty object {}, not a model');
     const e = only('{"name": "raiser", "version": "0.1.0", "dependencies": {}}');
     expect(e.message).toMatch(/not a raiser model: none of its fields/);
-    expect(e.hint).toMatch(/"material", "thickness", "geometry", "supports" and "loads"/);
+    expect(e.hint).toMatch(/"material", "thickness", "geometry" and "supports", with "loads" or "loadCases"/);
   });
   it('an empty file', () => {
     expect(only('  \n').message).toBe('the file is empty');

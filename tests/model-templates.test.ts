@@ -153,7 +153,7 @@ describe('stepped-bar', () => {
       expect(m.chart!.family).toBe('stepped-bar-bending');
       const want = 2 * ((100 * D) / 2 + (90 * d) / 2 + shoulderArea((D - d) / 2, r));
       expect(Math.abs(area(m) / want - 1)).toBeLessThan(1e-12);
-      expect(m.loads[0]).toEqual({ type: 'moment', on: 'load', m: (100 * 10 * d * d) / 6 });
+      expect(m.loads![0]).toEqual({ type: 'moment', on: 'load', m: (100 * 10 * d * d) / 6 });
     }
   });
   it('the fillet joins the narrow edge without a corner (tangent)', () => {
@@ -235,13 +235,13 @@ describe('lug', () => {
   });
   it('pulls with F = stress (W - d) t at the given angle, through a rigid pin or as a bearing pressure', () => {
     const m = lug({ W: 40, d: 20, stress: 50, angle: 90, thickness: 4, clearance: 0.2 });
-    const load = m.loads[0] as { type: string; force: [number, number]; clearance: number };
+    const load = m.loads![0] as { type: string; force: [number, number]; clearance: number };
     expect(load.type).toBe('rigid-pin');
     expect(Math.abs(load.force[0])).toBeLessThan(1e-9);
     expect(load.force[1]).toBeCloseTo(50 * 20 * 4, 9);
     expect(load.clearance).toBe(0.2);
     const b = lug({ W: 40, d: 20, load: 'bearing' });
-    expect(b.loads[0].type).toBe('bearing');
+    expect(b.loads![0].type).toBe('bearing');
     expect(b.chart!.family).toBe('bearing-loaded-lug');
   });
   it('refuses a hole as wide as the lug, a hole past the end, a round end shorter than W/2, a clearance with a bearing pressure', () => {
@@ -262,7 +262,7 @@ describe('link', () => {
       expectValid(m);
       expect(Math.abs(area(m) / (p * W + (PI * W * W) / 4 - (PI * d * d) / 2) - 1)).toBeLessThan(1e-12);
       expect(m.supports[0]).toMatchObject({ type: 'rigid-pin', on: { hole: 'A' } });
-      expect(m.loads[0]).toMatchObject({ type: 'rigid-pin', on: { hole: 'B' } });
+      expect(m.loads![0]).toMatchObject({ type: 'rigid-pin', on: { hole: 'B' } });
     }
     expect(() => link({ W: 40, d: 20, p: 20 })).toThrow(/overlap/);
   });

@@ -23,6 +23,7 @@ import { runRepeatedSolveBench } from './repeated.js';
 import { runSweepBench } from './sweep.js';
 import { runSeriesBench } from './series.js';
 import { runPicturesBench } from './pictures.js';
+import { runCasesBench } from './cases.js';
 import { benchAssembly, benchMesherAt, benchScaling, benchWholeMillion } from './scale.js';
 
 function median(xs: number[]): number {
@@ -97,6 +98,8 @@ function runBench(args: string[], log: (s: string) => void = console.log): void 
   runSeriesBench(log);
   log('\nPin contact: a lug (lug template, W 40, d 20 mm) with a rigid pin, against one linear solve of the same mesh');
   runContactBench(log, runs);
+  log('\nLoad cases: 4 cases of the bench strap on one mesh (one factorisation) against one case and 4 separate analyses');
+  runCasesBench(log, runs);
   log('\nSparse Cholesky on plane-stress stiffness matrices of a jittered rectangle, left edge fixed');
   runSolveBench({ sizes: large ? [1e4, 1e5, 5e5, 1e6] : [1e4, 1e5], runs, log });
   log('\nRepeated solves on one pattern (RepeatedSolver, one thread): the first solve against a repeat with new values');

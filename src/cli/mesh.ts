@@ -15,6 +15,7 @@ import { drawGeometryPicture } from '../render/geometry-picture.js';
 import { prepareOutputDir, writeAtomic } from '../report/files.js';
 import { CAUTION_LINE } from '../report/pictures.js';
 import { TOOL_VERSION } from '../model/version.js';
+import { loadsOf, splitLoadCases } from '../model/load-cases.js';
 
 interface MeshFlags {
   out?: string;
@@ -78,14 +79,18 @@ export function runMesh(file: string, flags: MeshFlags): { text: string; json: o
     const { edges } = selectTarget(domain, s.on);
     items.push({ what: `support ${i + 1} (${s.type})`, edges: edges.length, length: edges.reduce((a, id) => a + curveLength(domain.edges[id].curve), 0) });
   });
-  model.loads.forEach((l, i) => {
-    if (!l.on) {
-      items.push({ what: `load ${i + 1} (${l.type}, on the outer edges)`, edges: 0, length: 0 });
-      return;
-    }
-    const { edges } = selectTarget(domain, l.on);
-    items.push({ what: `load ${i + 1} (${l.type})`, edges: edges.length, length: edges.reduce((a, id) => a + curveLength(domain.edges[id].curve), 0) });
-  });
+  // every case's loads (src/model/load-cases.ts), named by their case when there are several
+  for (const { name, model: one } of splitLoadCases(model)) {
+    loadsOf(one).forEach((l, i) => {
+      const what = `${name === null ? '' : `case "${name}" `}load ${i + 1} (${l.type}`;
+      if (!l.on) {
+        items.push({ what: `${what}, on the outer edges)`, edges: 0, length: 0 });
+        return;
+      }
+      const { edges } = selectTarget(domain, l.on);
+      items.push({ what: `${what})`, edges: edges.length, length: edges.reduce((a, id) => a + curveLength(domain.edges[id].curve), 0) });
+    });
+  }
   for (const it of items) lines.push(`  ${it.what}${it.edges ? `: ${it.edges} edge${it.edges === 1 ? '' : 's'}, ${fmt(it.length)} ${u} long` : ''}`);
   lines.push(`  mesh: ${mesh.nNodes} nodes, ${mesh.nElements} ${order === 2 ? 'quadratic triangles (6-node)' : 'linear triangles (3-node)'}, smallest angle ${stats.minAngleUnforcedDeg.toFixed(1)} deg`);
   for (const w of warnings) lines.push(`  warning: ${w.message}`);

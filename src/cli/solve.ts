@@ -7,9 +7,9 @@ import { totalmem } from 'node:os';
 import { STRESS_MEASURES, type StressMeasure } from '../model/measures.js';
 import { ModelError, ModelTooLargeError } from '../model/errors.js';
 import { loadModelFileAndDrawing } from '../pipeline/load.js';
-import { analyseModel } from '../pipeline/analyse.js';
-import { certifyModel } from '../pipeline/certify.js';
-import { buildResult } from '../report/result.js';
+import { analyseModelCases, type Analysis } from '../pipeline/analyse.js';
+import { certifyModelCases, type Certified } from '../pipeline/certify.js';
+import { buildCasesResult } from '../report/result.js';
 import { formatSummary } from '../report/summary.js';
 import { parseAccuracy } from './accuracy.js';
 import { addressSpaceLimit } from './address-space.js';
@@ -65,8 +65,6 @@ function runSolve(file: string, flags: SolveFlags, writers: Writers | undefined)
   const { model, drawing, warnings } = loaded;
   applySignOff(model, flags);
   const opts = { measure: flags.measure, element: flags.element, maxMemoryBytes: flags.maxMemory ? parseMemory(flags.maxMemory) : defaultMemoryLimit(), drawing };
-  let analysis;
-  let cert = null;
   // A problem found while building the geometry or the mesh is placed in the model file too.
   const placed = <T>(work: () => T): T => {
     try {
@@ -75,17 +73,22 @@ function runSolve(file: string, flags: SolveFlags, writers: Writers | undefined)
       throw e instanceof ModelError || e instanceof ModelTooLargeError ? loaded.locate(e) : e;
     }
   };
+  // One run per load case (one for a model of plain loads), all cases on shared meshes.
+  let runs: { analysis: Analysis; cert: Certified | null }[];
   if (flags.singleMesh) {
-    analysis = placed(() => analyseModel(model, opts));
+    runs = placed(() => analyseModelCases(model, opts)).map((analysis) => ({ analysis, cert: null }));
   } else {
-    cert = placed(() => certifyModel(model, { ...opts, target: parseAccuracy(flags.accuracy ?? '1%') }));
-    analysis = cert.analysis;
-    if (cert.status === 'not-converged') {
-      analysis.warnings.push(`the accuracy target ${(100 * cert.target).toPrecision(2)}% was not met; the error band shown is what the meshes support`);
+    runs = placed(() => certifyModelCases(model, { ...opts, target: parseAccuracy(flags.accuracy ?? '1%') })).map((cert) => ({ analysis: cert.analysis, cert }));
+    for (const { analysis, cert } of runs) {
+      if (cert!.status === 'not-converged') {
+        analysis.warnings.push(`the accuracy target ${(100 * cert!.target).toPrecision(2)}% was not met; the error band shown is what the meshes support`);
+      }
     }
   }
-  analysis.warnings.unshift(...warnings.map((w) => w.describe()));
-  const result = buildResult(analysis, file, cert);
+  for (const { analysis } of runs) analysis.warnings.unshift(...warnings.map((w) => w.describe()));
+  const result = buildCasesResult(runs, file);
+  // the files and pictures are of the governing case (result.loadCase), the summary names it
+  const analysis = runs.find((r) => r.analysis.loadCase === result.loadCase)!.analysis;
   let written: string[] = [];
   if (writers) {
     if (flags.out !== undefined) written = writers.writeResultFiles(flags.out, analysis, result, flags.force ?? false, solveOutputOptions(flags));

@@ -13,6 +13,7 @@ import { describeSelector, selectTarget } from '../geometry/select.js';
 import type { Mesh } from '../mesh/types.js';
 import { ModelError } from '../model/errors.js';
 import type { Load, Model, Support, Target } from '../model/schema.js';
+import { loadsOf } from '../model/load-cases.js';
 import type { Constraints } from './assemble.js';
 import { addBearingLoad } from './bearing.js';
 import { addEdgeTraction, type TractionField } from './traction.js';
@@ -114,7 +115,7 @@ export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports:
     addEdgeTraction(mesh, mask, q, t, f);
     for (let e = 0; e < mask.length; e++) if (mask[e]) fields[e].push(q);
   };
-  model.loads.forEach((load, index) => {
+  loadsOf(model).forEach((load, index) => {
     const path = `loads[${index}]`;
     let edges: number[];
     if (load.type === 'remote') {
@@ -417,7 +418,7 @@ export function compileSupports(model: Model, domain: Domain, mesh: Mesh, warnin
     pins,
     model,
     supportEdges,
-    model.loads.map((l) => (l.on === undefined ? [] : selectTarget(domain, l.on).edges)),
+    loadsOf(model).map((l) => (l.on === undefined ? [] : selectTarget(domain, l.on).edges)),
   );
   return { constraints: { fixed, value }, supported, symmetry, fixedBy, hold, points, pins, edges: held };
 }

@@ -16,6 +16,7 @@ import type { Domain } from '../geometry/domain.js';
 import type { Mesh } from '../mesh/types.js';
 import { ModelError } from '../model/errors.js';
 import type { Load, Model, Support } from '../model/schema.js';
+import { loadsOf } from '../model/load-cases.js';
 
 export type PinLoad = Extract<Load, { type: 'bearing' | 'rigid-pin' }>;
 export type PinSupport = Extract<Support, { type: 'rigid-pin' }>;
@@ -139,7 +140,7 @@ export function compilePins(model: Model, domain: Domain): PinHole[] {
     pins.push({ role, kind: item.type, index, path, loop, hole: domain.loops[loop].hole, label, edges: domain.loops[loop].edges.slice(), ...circle, clearance, force });
   };
   model.supports.forEach((s, i) => isPinSupport(s) && add(s, 'support', i));
-  model.loads.forEach((l, i) => isPinLoad(l) && add(l, 'load', i));
+  loadsOf(model).forEach((l, i) => isPinLoad(l) && add(l, 'load', i));
   return pins;
 }
 
@@ -156,7 +157,7 @@ export function checkPinNeighbours(pins: readonly PinHole[], model: Model, suppo
       throw new ModelError(`supports[${i}].on`, `supports[${i}] holds edges of ${p.label}, which has a pin (${p.path})`, 'hold the part elsewhere: the pin and a support on the same hole would fight');
     });
     if (p.kind !== 'rigid-pin') continue;
-    model.loads.forEach((l, i) => {
+    loadsOf(model).forEach((l, i) => {
       if ((p.role === 'load' && i === p.index) || !loadEdges[i]?.some((e) => mine.has(e))) return;
       throw new ModelError(`loads[${i}].on`, `loads[${i}] acts on ${p.label}, whose rigid pin (${p.path}) decides the pressure there`, 'load the part through the pin (its "force"), or on other edges');
     });

@@ -11,6 +11,7 @@ import { ModelError, formatPath, quoteText } from './errors.js';
 import type { Load, Loop, Model, Selector, Target } from './schema.js';
 import { didYouMean, quoteList } from './suggest.js';
 import { resolveUnits } from './units.js';
+import { checkLoadCases, loadsWithPaths } from './load-cases.js';
 
 type Part = string | number;
 
@@ -195,13 +196,18 @@ export function checkModel(model: Model, drawing?: DrawingNames): ModelCheck {
   });
 
   // Loads.
-  model.loads.forEach((load, i) => {
+  // Loads: exactly one of loads and loadCases (src/model/load-cases.ts), then each load where it is.
+  errors.push(...checkLoadCases(model));
+  for (const { load, path } of loadsWithPaths(model)) {
     const nothing = loadCarriesNothing(load);
-    if (nothing) errors.push(new ModelError(formatPath(['loads', i]), `this "${load.type}" load ${nothing}`, 'give at least one component'));
-    if (load.on !== undefined) for (const [sel, parts] of selectorsOf(load.on, ['loads', i, 'on'])) checkSelector(sel, parts, names, errors);
-  });
-  if (model.loads.length > 0 && model.loads.every(loadIsZero) && !model.loads.some((l) => loadCarriesNothing(l))) {
-    errors.push(new ModelError('loads', 'every load is zero, so there is no stress and no Kt', 'give at least one load a value other than 0'));
+    if (nothing) errors.push(new ModelError(formatPath(path), `this "${load.type}" load ${nothing}`, 'give at least one component'));
+    if (load.on !== undefined) for (const [sel, parts] of selectorsOf(load.on, [...path, 'on'])) checkSelector(sel, parts, names, errors);
+  }
+  const caseLoads: [string, Load[]][] = model.loads ? [['loads', model.loads]] : (model.loadCases ?? []).map((c, i) => [`loadCases[${i}].loads`, c.loads]);
+  for (const [path, loads] of caseLoads) {
+    if (loads.length > 0 && loads.every(loadIsZero) && !loads.some((l) => loadCarriesNothing(l))) {
+      errors.push(new ModelError(path, 'every load is zero, so there is no stress and no Kt', 'give at least one load a value other than 0'));
+    }
   }
 
   // Material.

@@ -407,7 +407,8 @@ function unitsOf(data: unknown): { length: string; force: string; stress: string
 
 /** Throws when the JSON value is plainly not a model at all (rather than a model with mistakes). */
 function notAModel(data: unknown, placer: Placer, file?: string): void {
-  const required = quoteList(REQUIRED_FIELDS, 'and');
+  // exactly one of "loads" and "loadCases" (src/model/load-cases.ts): both optional in the schema
+  const required = `${quoteList(REQUIRED_FIELDS, 'and')}, with "loads" or "loadCases"`;
   const fail = (message: string, hint: string) => {
     const e = new ModelError('', message, hint, file);
     const first = placer.src.search(/\S/);
@@ -430,7 +431,7 @@ function notAModel(data: unknown, placer: Placer, file?: string): void {
     fail(
       `this JSON file is not a raiser model: none of its fields (${quoteList(keys.slice(0, 8).map((k) => quoteText(k, 40)), 'and')}${keys.length > 8 ? ', ...' : ''}) belongs to a model`,
       `a model file has the fields ${required}, and may have ${quoteList(
-        MODEL_FIELDS.filter((k) => !REQUIRED_FIELDS.includes(k)),
+        MODEL_FIELDS.filter((k) => !REQUIRED_FIELDS.includes(k) && k !== 'loads' && k !== 'loadCases'),
         'and',
       )}`,
     );

@@ -321,6 +321,16 @@ export const Load = z.discriminatedUnion('type', [
 ]).describe('a load on part of the boundary, chosen by "type"');
 export type Load = z.infer<typeof Load>;
 
+/** One named load case: the loads that act together (the supports are the model's, shared by every case). */
+export const LoadCase = z
+  .strictObject({
+    name: z.string().trim().min(1).describe('the name of the case, unique in the model, printed with its results (for example "pull" or "side")'),
+    loads: z.array(Load).min(1).describe('the loads of this case; at least one'),
+    note: itemNote(),
+  })
+  .describe('a named load case: loads that act together, solved on the same mesh as the other cases');
+export type LoadCase = z.infer<typeof LoadCase>;
+
 export const MeshSettings = z.strictObject({
   element: z.enum(['quadratic', 'linear']).optional().describe('6-node (default) or 3-node triangles'),
   size: positive().optional().describe('target element edge length away from stress raisers (default: from the part size)'),
@@ -388,7 +398,12 @@ export const Model = z.strictObject({
   state: z.enum(['plane-stress', 'plane-strain']).optional().describe('plane-stress (thin plates; the default) or plane-strain (thick parts, no strain through the thickness)'),
   geometry: Geometry,
   supports: z.array(Support).min(1).describe('at least enough to stop rigid motion'),
-  loads: z.array(Load).min(1).describe('the loads; at least one'),
+  loads: z.array(Load).min(1).optional().describe('the loads; at least one. Give either "loads" (one load case) or "loadCases", not both'),
+  loadCases: z
+    .array(LoadCase)
+    .min(1)
+    .optional()
+    .describe('named load cases on the same part and supports, each with its own loads: every mesh is factorised once and solved for each case, and each case gets its own Kt; instead of "loads"'),
   mesh: MeshSettings.optional().describe('mesh settings; all optional'),
   results: ResultSettings.optional().describe('how the peak stress and the nominal stress for Kt are taken'),
   chart: ChartLink.optional().describe('the published chart family and dimensions a generated model was built for'),
@@ -407,6 +422,7 @@ for (const [schema, id] of [
   [Loop, 'Loop'],
   [Support, 'Support'],
   [Load, 'Load'],
+  [LoadCase, 'LoadCase'],
 ] as const) {
   z.globalRegistry.add(schema, { ...z.globalRegistry.get(schema), id });
 }

@@ -18,7 +18,7 @@
  */
 import { checkModel } from './checks.js';
 import { InternalError, ModelError } from './errors.js';
-import { FORCE_UNITS, LENGTH_UNITS, Model } from './schema.js';
+import { FORCE_UNITS, LENGTH_UNITS, Model, type Load } from './schema.js';
 import { didYouMean, quoteList } from './suggest.js';
 import { type ForceUnit, type LengthUnit, resolveUnits } from './units.js';
 
@@ -645,7 +645,7 @@ export function lug(p: LugParams = {}): Model {
     `The force is F = stress (W - d) t with stress = ${fmt(stress)} ${u.stress}: the net nominal stress of an axial pull, F / ((W - d) t); the bearing stress is F / (d t) = ${fmt(F / (d * t))} ${u.stress}.` +
     (loadKind === 'pin' && clearance > 0 ? ' With clearance the contact arc, and so Kt, depends on the size of the load.' : '') +
     (angle !== 0 ? ' At an angle the pin bends the shank: the corners of the held end then carry a stress of the clamping, singular in theory and nothing to do with the lug; read the peak on the hole (the pins of the result).' : '');
-  const loadItem: Model['loads'][number] =
+  const loadItem: Load =
     loadKind === 'pin' ? { type: 'rigid-pin', on: { hole: 'pin' }, force, clearance } : { type: 'bearing', on: { hole: 'pin' }, force };
   return finish({
     ...baseModel(c, `Lug loaded through a pin, d/W = ${fmt(d / W)}, e/W = ${fmt(e / W)}`, note),

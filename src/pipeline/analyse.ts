@@ -8,8 +8,8 @@ import { totalmem } from 'node:os';
 import { buildDomain, type Domain } from '../geometry/domain.js';
 import type { ImportedDrawing } from '../geometry/import/index.js';
 import { validateDomain } from '../geometry/validate.js';
-import { assembleSystem, internalForces } from '../fem/assemble.js';
-import { compileLoads, compileSupports, type CompiledLoads, type ExtraTraction } from '../fem/boundary-conditions.js';
+import { assembleSystem, internalForces, type FeSystem } from '../fem/assemble.js';
+import { compileLoads, compileSupports, type CompiledLoads, type CompiledSupports, type ExtraTraction } from '../fem/boundary-conditions.js';
 import { classifyEdges } from '../fem/edge-roles.js';
 import { findMirrorPlanes, type MirrorPlane } from '../fem/mirror-planes.js';
 
@@ -24,7 +24,8 @@ import type { HardPoint } from '../mesh/boundary.js';
 import type { SizeLimit } from '../mesh/background.js';
 import { buildNodeAdjacency } from '../mesh/topology.js';
 import type { Mesh, MeshStats } from '../mesh/types.js';
-import { AnalysisError } from '../model/errors.js';
+import { AnalysisError, InternalError } from '../model/errors.js';
+import { refuseLoadCases, splitLoadCases } from '../model/load-cases.js';
 import type { Model, StressMeasure } from '../model/schema.js';
 import { resolveUnits, type ResolvedUnits } from '../model/units.js';
 import { evaluateMesh, type MeshEvaluation } from '../post/evaluate.js';
@@ -101,6 +102,10 @@ export interface Analysis {
    * mirrors are not among them: they stand for real supports, not for a part cut in half)
    */
   mirrorPlanes: MirrorPlane[];
+  /** the name of the load case this analysis is of (model.loadCases); absent for a model's plain loads */
+  loadCase?: string;
+  /** with several load cases on this mesh: how many, and the numeric factorisations of the stiffness they shared (1 direct, 0 iterative) */
+  sharedSolve?: { cases: number; factorisations: number };
 }
 
 /** What every mesh of one model shares: the model checked, its domain, units and options. */
@@ -127,6 +132,8 @@ export interface PreparedModel {
   given: Map<number, RaiserNominalInput>;
   /** finds the raisers' net sections; keeps what it found across the meshes of a series */
   finder: RaiserCutFinder;
+  /** the name of the load case this is prepared for (prepareLoadCases); absent for a model's plain loads */
+  loadCase?: string;
 }
 
 export function prepareModel(model: Model, opts: AnalyseOptions = {}): PreparedModel {
@@ -145,16 +152,54 @@ export function prepareModel(model: Model, opts: AnalyseOptions = {}): PreparedM
   return { model, units, state, measure, domain, order, hardPoints, maxMemoryBytes, raisers, named, reported, given, finder };
 }
 
+/**
+ * One prepared model per load case (src/model/load-cases.ts): the domain, raisers and settings
+ * are the shared ones; each case has its own loads and its own net-section finder (a cut found
+ * across one case's flow of stress is no answer for another's). A model of plain loads gives
+ * back the prepared model itself.
+ */
+export function prepareLoadCases(prep: PreparedModel): PreparedModel[] {
+  const split = splitLoadCases(prep.model);
+  if (split.length === 1 && split[0].name === null) return [prep];
+  return split.map((c) => ({ ...prep, model: c.model, loadCase: c.name ?? undefined, finder: new RaiserCutFinder(prep.domain, prep.model.thickness) }));
+}
+
 /** One analysis on the model's own mesh (scaled by opts.sizeFactor). */
 export function analyseModel(model: Model, opts: AnalyseOptions = {}): Analysis {
+  refuseLoadCases(model, 'an analysis of one case');
   return analyseOnMesh(prepareModel(model, opts), { sizeFactor: opts.sizeFactor });
 }
 
+/** Every load case of the model (one for plain loads) on the model's own mesh, factorised once. */
+export function analyseModelCases(model: Model, opts: AnalyseOptions = {}): Analysis[] {
+  return analyseCasesOnMesh(prepareLoadCases(prepareModel(model, opts)), { sizeFactor: opts.sizeFactor });
+}
+
 /** Meshes (with the given scaling and size limit), solves and evaluates. */
-export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: number; limit?: SizeLimit; contactHints?: ReadonlyMap<string, ContactHint> } = {}): Analysis {
+export function analyseOnMesh(prep: PreparedModel, meshing: MeshingOptions = {}): Analysis {
+  return analyseCasesOnMesh([prep], meshing)[0];
+}
+
+/** How analyseOnMesh meshes: the scaling of the model's sizes, a size limit, where pins in contact start. */
+export interface MeshingOptions {
+  sizeFactor?: number;
+  limit?: SizeLimit;
+  contactHints?: ReadonlyMap<string, ContactHint>;
+}
+
+/**
+ * The load cases of one model (prepareLoadCases) on one mesh: the mesh, the supports and the
+ * stiffness are built once from the first case, the stiffness is factorised once, and every
+ * case's right-hand side is solved with that factor (the stiffness does not depend on the
+ * loads); then each case is evaluated on its own. One case is exactly analyseOnMesh. Pins in
+ * contact change the matrix per load, so they are refused with several cases (the model
+ * checks refuse them first: src/model/load-cases.ts).
+ */
+export function analyseCasesOnMesh(cases: readonly PreparedModel[], meshing: MeshingOptions = {}): Analysis[] {
   const t0 = performance.now();
   const warnings: string[] = [];
-  const { model, units, state, measure, domain, order, hardPoints } = prep;
+  const prep = cases[0];
+  const { model, domain, order, hardPoints } = prep;
   const ms = model.mesh ?? {};
   const meshGen = generateMesh(domain, {
     order,
@@ -171,14 +216,17 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
   const t1 = performance.now();
 
   const supports = compileSupports(model, domain, mesh, warnings);
-  const loads = compileLoads(model, domain, mesh, supports, warnings, prep.extraTractions);
+  const caseWarnings = cases.map(() => [] as string[]);
+  const loads = cases.map((c, k) => compileLoads(c.model, domain, mesh, supports, caseWarnings[k], c.extraTractions));
   // --- pins in holes: a fixed rigid pin holds the part at the hole's centre (src/fem/contact.ts) ---
   const contactPins = supports.pins.filter((p) => p.kind === 'rigid-pin');
   checkRigidMotion(mesh, supports.constraints.fixed, domain.scale, pinSupportCentres(contactPins));
+  if (cases.length > 1 && supports.pins.length > 0) throw new InternalError('analyseCasesOnMesh: pins in holes reached several load cases (the model checks refuse them)');
   // --- end of pins ---
-  const D = constitutiveMatrix(model.material.E, model.material.nu, state);
+  const D = constitutiveMatrix(model.material.E, model.material.nu, prep.state);
   const nodeGraph = buildNodeAdjacency(mesh);
-  const system = assembleSystem(mesh, D, model.thickness, loads.f, supports.constraints, nodeGraph);
+  const system = assembleSystem(mesh, D, model.thickness, loads[0].f, supports.constraints, nodeGraph);
+  const rhs = stackRightHandSides(system, loads.map((l) => l.f));
   const t2 = performance.now();
 
   let solved;
@@ -191,9 +239,9 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
     const maxFactorBytes = Math.max(0, prep.maxMemoryBytes - estimateAnalysisBytes(meshStats.triangles, mesh.order as 1 | 2, 'iterative'));
     const solveOptions = { coords: mesh.nodes, nodeAdjacency: nodeGraph, dofsPerNode: 2, fullDofOfRow: system.freeDof, maxFactorBytes, workers };
     // --- pins in holes: rigid pins in frictionless contact replace the linear solve ---
-    const planeModulus = state === 'plane-strain' ? model.material.E / (1 - model.material.nu ** 2) : model.material.E;
+    const planeModulus = prep.state === 'plane-strain' ? model.material.E / (1 - model.material.nu ** 2) : model.material.E;
     if (contactPins.length > 0) solved = contact = solveContact(mesh, system, contactPins, { thickness: model.thickness, planeModulus }, solveOptions, undefined, meshing.contactHints);
-    else solved = solveSpd(system.K, system.f, solveOptions);
+    else solved = solveSpd(system.K, rhs, solveOptions);
     // --- end of pins ---
   } catch (err) {
     if (err instanceof SolverPivotError) {
@@ -216,13 +264,63 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
   } finally {
     workers.close();
   }
-  const u = expandSolution(supports.constraints.value, system.freeDof, solved.x);
+  const nFree = system.freeDof.length;
+  const shared = cases.length > 1 || prep.loadCase !== undefined ? { cases: cases.length, factorisations: 'factor' in solved && solved.factor ? 1 : 0 } : undefined;
+  const t3 = performance.now();
+  return cases.map((c, k) => {
+    const x = cases.length === 1 ? solved.x : solved.x.subarray(k * nFree, (k + 1) * nFree);
+    const u = expandSolution(supports.constraints.value, system.freeDof, x);
+    return evaluateCase(c, { mesh, meshGen, supports, loads: loads[k], contact, D, u, warnings: [...warnings, ...caseWarnings[k]], solveStats: solved.stats, shared, times: [t0, t1, t2, t3] });
+  });
+}
+
+/**
+ * The right-hand sides of the load cases on the free DOFs, one after another: the first is the
+ * assembled system's own; each other case's loads restricted to the free DOFs plus what the
+ * prescribed displacements add (the same for every case: the system's minus the first case's
+ * loads, exactly zero without prescribed displacements).
+ */
+function stackRightHandSides(system: FeSystem, full: readonly Float64Array[]): Float64Array {
+  if (full.length === 1) return system.f;
+  const n = system.freeDof.length;
+  const out = new Float64Array(n * full.length);
+  out.set(system.f);
+  for (let k = 1; k < full.length; k++) {
+    for (let i = 0; i < n; i++) {
+      const d = system.freeDof[i];
+      out[k * n + i] = full[k][d] + (system.f[i] - full[0][d]);
+    }
+  }
+  return out;
+}
+
+/** What one load case's evaluation takes from the shared mesh and solve. */
+interface SolvedCase {
+  mesh: Mesh;
+  meshGen: ReturnType<typeof generateMesh>;
+  supports: CompiledSupports;
+  loads: CompiledLoads;
+  contact: ContactSolution | null;
+  D: Float64Array;
+  u: Float64Array;
+  warnings: string[];
+  solveStats: SolveStats;
+  shared: Analysis['sharedSolve'];
+  /** performance.now() at the start, after meshing, after assembly, after the solve */
+  times: [number, number, number, number];
+}
+
+/** Recovered stresses, peak, raisers' Kt and balance of one load case on a solved mesh. */
+function evaluateCase(prep: PreparedModel, solvedCase: SolvedCase): Analysis {
+  const { model, units, state, measure, domain } = prep;
+  const { mesh, meshGen, supports, loads, contact, D, u, warnings } = solvedCase;
+  const { stats: meshStats } = meshGen;
+  const [t0, t1, t2, t3] = solvedCase.times;
   // --- pins in holes: pushed pins' contact forces are applied loads, fixed pins' are reactions ---
   if (contact) addContactForces(contact, loads.f, supports.constraints.fixed);
   const pins: PinsOfAnalysis | null =
     supports.pins.length === 0 ? null : { holes: supports.pins, contact: contact && { pins: contact.pins, iterations: contact.iterations, activeHistory: contact.activeHistory, tolerance: contact.tolerance } };
   // --- end of pins ---
-  const t3 = performance.now();
 
   const r = internalForces(mesh, D, model.thickness, u);
   const balance = computeBalance(mesh, loads.f, r, supports.constraints.fixed);
@@ -267,7 +365,7 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
     domain,
     mesh,
     meshStats,
-    solveStats: solved.stats,
+    solveStats: solvedCase.solveStats,
     u,
     stress,
     nodalForce: r,
@@ -287,5 +385,7 @@ export function analyseOnMesh(prep: PreparedModel, meshing: { sizeFactor?: numbe
     mirrorPlanes: findMirrorPlanes(domain, supports.symmetry, supports.hold),
     warnings,
     pins,
+    ...(prep.loadCase !== undefined ? { loadCase: prep.loadCase } : {}),
+    ...(solvedCase.shared ? { sharedSolve: solvedCase.shared } : {}),
   };
 }

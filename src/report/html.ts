@@ -7,6 +7,7 @@
  */
 import { describeSelector } from '../geometry/select.js';
 import type { Load, ReportInfo, Selector, Support } from '../model/schema.js';
+import { loadsOf } from '../model/load-cases.js';
 import { formatValue } from '../render/ticks.js';
 import { measureName } from './pictures.js';
 import { describePinLoad, describePinSupport, pinsHtml } from './pins.js';
@@ -140,6 +141,7 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
 </section>`);
   parts.push(`<div class="caution" role="note"><strong>Read before use.</strong> This is a linear elastic, small-strain analysis of the model as described. A peak above the yield strength means local plastic flow; Kt is not the fatigue factor Kf. The results must be checked by a qualified engineer under the applicable codes and standards before they are used for design. See the cautions at the end.</div>`);
 
+  parts.push(...casesSection(r));
   parts.push('<h2>Inputs</h2>');
   const mat = m.material;
   parts.push(
@@ -155,7 +157,7 @@ ${m.note ? `<p>${esc(m.note)}</p>` : ''}</header>`);
       ['ultimate strength', mat.ultimate === undefined ? 'not given' : `${f(mat.ultimate)} ${esc(u.stress)}`],
       ['stress measure', esc(measureName(r.analysis.measure))],
       ['supports', `<ul class="plain">${m.supports.map((s) => `<li>${esc(describeSupport(s, u.length))}${s.note ? ` (${esc(s.note)})` : ''}</li>`).join('')}</ul>`],
-      ['loads', `<ul class="plain">${m.loads.map((l) => `<li>${esc(describeLoad(l, u.stress, u.force, u.moment, u.length))}${l.note ? ` (${esc(l.note)})` : ''}</li>`).join('')}</ul>`],
+      [r.loadCase === undefined ? 'loads' : `loads of case "${esc(r.loadCase)}"`, `<ul class="plain">${loadsOf(m).map((l) => `<li>${esc(describeLoad(l, u.stress, u.force, u.moment, u.length))}${l.note ? ` (${esc(l.note)})` : ''}</li>`).join('')}</ul>`],
     ])}</tbody></table>`,
   );
   parts.push(geometryTable(r));
@@ -275,6 +277,28 @@ ${parts.filter(Boolean).join('\n')}
 }
 
 /** The table of stress raisers: peak, section, nominal stresses, every Kt with its band or the reason it is withheld. */
+/**
+ * With load cases: each case's headline Kt with its band (or why it is withheld), its peak and
+ * how its series ended, and which case the rest of the report shows. Nothing for plain loads.
+ */
+function casesSection(r: ResultJson): string[] {
+  if (!r.cases) return [];
+  const u = r.units;
+  const body = r.cases
+    .map((c) => {
+      const kt = c.kt.value === null ? `none: ${esc(c.kt.withheld ?? '')}` : `${f(c.kt.value, 4)} (${esc(c.kt.kind ?? '')} at ${esc(c.kt.raiser ?? '')})${c.kt.error === null ? '' : `, +-${pct(c.kt.error)}`}`;
+      const cv = c.convergence;
+      const acc = cv.status === 'single-mesh' ? 'one mesh, error not estimated' : `${esc(cv.status)} on ${cv.meshes} meshes`;
+      return `<tr><td>${c.governing ? '<strong>' : ''}${esc(c.name)}${c.governing ? '</strong> (governs)' : ''}</td><td>${kt}</td><td>${f(c.peak.stress)} ${esc(u.stress)}, ${esc(c.peak.feature)}${c.peak.atSharpCorner ? ' (a sharp corner: singular, not a peak to design to)' : ''}</td><td>${acc}</td><td>(${f(c.load.resultant.fx)}, ${f(c.load.resultant.fy)}) ${esc(u.force)}; balanced to ${esc(c.load.equilibriumError.toExponential(1))}</td></tr>`;
+    })
+    .join('');
+  return [
+    '<h2>Load cases</h2>',
+    `<p>${r.cases.length} load cases on the same part and supports, solved on shared meshes${r.cases.every((c) => c.solve.factorisations === 1) ? ' with one factorisation of the stiffness per mesh' : ''}. The case with the highest peak stress governs: the rest of this report and its pictures are of case "${esc(r.loadCase)}".</p>`,
+    `<table><thead><tr><th>case</th><th>Kt</th><th>highest stress</th><th>accuracy</th><th>load resultant</th></tr></thead><tbody>${body}</tbody></table>`,
+  ];
+}
+
 function raisersTable(r: ResultJson): string {
   const u = r.units;
   if (r.raisers.length === 0) return '<p>The part has no stress raiser (no hole, notch, fillet or other concave curved edge), so no Kt is given.</p>';

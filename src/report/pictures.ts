@@ -7,6 +7,8 @@
  */
 import { join } from 'node:path';
 import type { StressMeasure } from '../model/schema.js';
+import type { ResultJson } from './result-json.js';
+import { loadsOf } from '../model/load-cases.js';
 import { FieldProbe } from '../mesh/probe.js';
 import { measureSizeAtNode } from '../mesh/topology.js';
 import { stressMeasure } from '../post/stress.js';
@@ -134,6 +136,12 @@ export interface FooterSource {
 /** The base text size of a W x H picture when none is asked for: 11 to 22 pixels, growing with the picture. */
 function defaultTextSize(W: number, H: number): number {
   return Math.max(11, Math.min(22, Math.min(W / 1.6, H) / 58));
+}
+
+/** The model's title for a picture, with the load case it shows when the model has several (result.loadCase). */
+function pictureTitle(r: ResultJson): string | null {
+  if (r.loadCase === undefined) return r.model.title;
+  return r.model.title ? `${r.model.title}, load case "${r.loadCase}"` : `load case "${r.loadCase}"`;
 }
 
 /**
@@ -427,8 +435,8 @@ export function contourScene(model: PlotSource, opts: PictureOptions = {}, title
   const H = opts.height ?? (opts.window ? 1000 : autoHeight(W, win, true, opts.textSize));
   const measure = opts.measure ?? src.result.peak.measure;
   const unit = src.result.units.stress;
-  const s = newScene(W, H, title ?? `${measureName(measure)}: ${src.result.model.title ?? 'raiser'}`);
-  const fr = frame(s, src, title ?? src.result.model.title ?? 'Stress', `${measureName(measure)} (${unit}), recovered nodal stresses interpolated per pixel; ${describeMesh(model)}${wholeWords(planes)}`, true, opts.textSize);
+  const s = newScene(W, H, title ?? `${measureName(measure)}: ${pictureTitle(src.result) ?? 'raiser'}`);
+  const fr = frame(s, src, title ?? pictureTitle(src.result) ?? 'Stress', `${measureName(measure)} (${unit}), recovered nodal stresses interpolated per pixel; ${describeMesh(model)}${wholeWords(planes)}`, true, opts.textSize);
   const field = stressField(src, measure);
   const dataRange = fieldRange(src.mesh, field);
   const peak = peakOf(src, measure);
@@ -467,8 +475,8 @@ export function meshScene(model: PlotSource, opts: PictureOptions = {}): Scene {
   const W = opts.width ?? 1600;
   const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), false, opts.textSize);
   const r = src.result;
-  const s = newScene(W, H, `mesh: ${r.model.title ?? 'raiser'}`);
-  const fr = frame(s, src, `Mesh: ${r.model.title ?? ''}`.trim(), `${describeMesh(model)}, ${r.mesh.dofs} DOF, smallest angle ${formatValue(r.mesh.minAngleDeg, 3)} deg, largest ${formatValue(r.mesh.maxAngleDeg, 3)} deg${wholeWords(planes)}`, false, opts.textSize);
+  const s = newScene(W, H, `mesh: ${pictureTitle(r) ?? 'raiser'}`);
+  const fr = frame(s, src, `Mesh: ${pictureTitle(r) ?? ''}`.trim(), `${describeMesh(model)}, ${r.mesh.dofs} DOF, smallest angle ${formatValue(r.mesh.minAngleDeg, 3)} deg, largest ${formatValue(r.mesh.maxAngleDeg, 3)} deg${wholeWords(planes)}`, false, opts.textSize);
   const { view, bar } = layoutPart(s, fr, opts.window ?? bbox(src.mesh.nodes), fr.size * 0.8, r.units.length, (v) => outlineLoops(src, src.mesh.nodes, v));
   s.items.push({ kind: 'fill', paths: outlineLoops(src, src.mesh.nodes, view), colour: PLATE_FILL, clip: fr.draw });
   s.items.push({ kind: 'stroke', lines: meshEdgeLines(src.mesh, view), width: 0.7, colour: [40, 44, 56], alpha: 0.75, clip: fr.draw });
@@ -491,8 +499,8 @@ export function deformedScene(model: PlotSource, opts: PictureOptions = {}): Sce
   const size = Math.max(box[2] - box[0], box[3] - box[1]);
   const factor = umax > 0 ? roundFactor((0.08 * size) / umax) : 1;
   const unit = r.units.length;
-  const s = newScene(W, H, `deformed shape: ${r.model.title ?? 'raiser'}`);
-  const fr = frame(s, src, `Deformed shape: ${r.model.title ?? ''}`.trim(), `displacements drawn ${formatValue(factor, 3)} times magnified; largest displacement ${formatValue(umax)} ${unit}; undeformed outline dashed${wholeWords(planes)}`, true, opts.textSize);
+  const s = newScene(W, H, `deformed shape: ${pictureTitle(r) ?? 'raiser'}`);
+  const fr = frame(s, src, `Deformed shape: ${pictureTitle(r) ?? ''}`.trim(), `displacements drawn ${formatValue(factor, 3)} times magnified; largest displacement ${formatValue(umax)} ${unit}; undeformed outline dashed${wholeWords(planes)}`, true, opts.textSize);
   const dm = drawMesh(src, factor);
   const dbox = bbox(dm.nodes);
   const all: [number, number, number, number] = opts.window ?? [Math.min(box[0], dbox[0]), Math.min(box[1], dbox[1]), Math.max(box[2], dbox[2]), Math.max(box[3], dbox[3])];
@@ -548,7 +556,7 @@ function peakWindow(src: PlotSource, measure?: StressMeasure): [number, number, 
 export function closeupScene(src: PlotSource, opts: PictureOptions = {}): Scene {
   const measure = opts.measure ?? src.result.peak.measure;
   const win = opts.window ?? peakWindow(src, measure);
-  return contourScene(src, { ...opts, window: win, meshLines: opts.meshLines ?? true }, `Close-up of the peak: ${src.result.model.title ?? ''}`.trim());
+  return contourScene(src, { ...opts, window: win, meshLines: opts.meshLines ?? true }, `Close-up of the peak: ${pictureTitle(src.result) ?? ''}`.trim());
 }
 
 /** The geometry with the net and gross sections and the peak. */
@@ -557,13 +565,13 @@ export function geometryScene(model: PlotSource, opts: PictureOptions = {}): Sce
   const W = opts.width ?? 1600;
   const H = opts.height ?? autoHeight(W, opts.window ?? bbox(src.mesh.nodes), false, opts.textSize) + 60;
   const r = src.result;
-  const s = newScene(W, H, `geometry: ${r.model.title ?? 'raiser'}`);
+  const s = newScene(W, H, `geometry: ${pictureTitle(r) ?? 'raiser'}`);
   // Where the loads and supports act, as the finite element stage applied them (no domain is
   // built again here, so a drawing-based model draws without its drawing file); a solution saved
   // before raiser recorded that has none, and the subtitle says so.
   const applied = (r as Partial<typeof r>).boundaryConditions ?? null;
   const bcWords = applied ? 'loads L (arrows, not to scale) and supports S' : 'loads and supports not drawn (this saved solution does not record where they act: solve again)';
-  const fr = frame(s, src, `Geometry and nominal sections: ${r.model.title ?? ''}`.trim(), `each raiser's net section (least material across the flow) solid, gross section dashed; ${bcWords}; lengths in ${r.units.length}${wholeWords(planes)}`, false, opts.textSize);
+  const fr = frame(s, src, `Geometry and nominal sections: ${pictureTitle(r) ?? ''}`.trim(), `each raiser's net section (least material across the flow) solid, gross section dashed; ${bcWords}; lengths in ${r.units.length}${wholeWords(planes)}`, false, opts.textSize);
   // room around the plate for the load arrows (2.6 sizes) and their labels
   const { view, bar } = layoutPart(s, fr, opts.window ?? bbox(src.mesh.nodes), fr.size * 4.4, r.units.length, (v) => outlineLoops(src, src.mesh.nodes, v));
   // The peak's ring is kept free of the section labels placed before it is drawn.
@@ -602,7 +610,7 @@ export function geometryScene(model: PlotSource, opts: PictureOptions = {}): Sce
     const carried = x.section.mirror ? 'half of a symmetric section' : `N ${formatValue(x.section.N ?? NaN)} ${r.units.force}, M ${formatValue(x.section.M ?? NaN)} ${r.units.moment}`;
     sec(x.section, NET_COLOUR, undefined, `${x.name}: net ${formatValue(x.section.length)} ${r.units.length}; ${carried}`, false);
   }
-  const drawn = applied ? drawBoundaryConditions(s, model.mesh, src.model.loads, src.model.supports, applied, view, fr.size, r.pins?.items) : { loads: 0, supports: 0 };
+  const drawn = applied ? drawBoundaryConditions(s, model.mesh, loadsOf(src.model), src.model.supports, applied, view, fr.size, r.pins?.items) : { loads: 0, supports: 0 };
   drawMarker(s, px, py, `peak, ${r.peak.feature}`, fr.size * 0.9, fr.draw, 'peak');
   Object.assign(s.info, { view, draw: fr.draw, boundaryConditions: drawn });
   return s;
@@ -615,10 +623,10 @@ export function convergenceScene(src: PlotSource, opts: PictureOptions = {}): Sc
   if (c.meshes.length < 2) return null;
   const W = opts.width ?? 1200;
   const H = opts.height ?? 800;
-  const s = newScene(W, H, `convergence: ${r.model.title ?? 'raiser'}`);
+  const s = newScene(W, H, `convergence: ${pictureTitle(r) ?? 'raiser'}`);
   const gov = r.raisers.find((x) => x.governing);
   const what = r.kt.kind ? `Kt ${r.kt.kind} of ${r.kt.raiser}` : gov ? `the peak of ${gov.name}` : 'the highest stress';
-  const fr = frame(s, src, `Convergence: ${r.model.title ?? ''}`.trim(), `${what} on each mesh of the series; error band ${c.estimatedError === null ? 'not available' : `+-${formatValue(100 * c.estimatedError, 2)}%`} on the finest (grid convergence index)`, false, opts.textSize);
+  const fr = frame(s, src, `Convergence: ${pictureTitle(r) ?? ''}`.trim(), `${what} on each mesh of the series; error band ${c.estimatedError === null ? 'not available' : `+-${formatValue(100 * c.estimatedError, 2)}%`} on the finest (grid convergence index)`, false, opts.textSize);
   const values = c.meshes.map((m) => (r.kt.kind ? m.kt : gov ? m.raiserPeak : m.peak));
   const series: Series[] = [{ name: what, points: c.meshes.flatMap((m, i) => [m.dofs, values[i] ?? NaN]), colour: NET_COLOUR, markers: true }];
   const last = c.meshes[c.meshes.length - 1];
@@ -645,11 +653,11 @@ export function lineScene(src: PlotSource, opts: PictureOptions = {}): Scene {
   const [x0, y0, x1, y1] = line;
   const L = Math.hypot(x1 - x0, y1 - y0);
   const isNet = !opts.line && govSec !== null;
-  const s = newScene(W, H, `stress along a line: ${r.model.title ?? 'raiser'}`);
+  const s = newScene(W, H, `stress along a line: ${pictureTitle(r) ?? 'raiser'}`);
   const fr = frame(
     s,
     src,
-    `Stress along ${isNet ? `the net section of ${gov!.name}` : 'a line'}: ${r.model.title ?? ''}`.trim(),
+    `Stress along ${isNet ? `the net section of ${gov!.name}` : 'a line'}: ${pictureTitle(r) ?? ''}`.trim(),
     `from (${formatValue(x0, 5)}, ${formatValue(y0, 5)}) to (${formatValue(x1, 5)}, ${formatValue(y1, 5)}) ${r.units.length}; gaps where the line leaves the material`,
     false,
     opts.textSize,

@@ -272,6 +272,25 @@ export interface ResultPins {
   notes: string[];
 }
 
+/**
+ * One load case of a model with loadCases: its headline Kt, every raiser's peak and Kt (each
+ * with its band, or why it is withheld, as in the top-level fields), its peak, its loads and
+ * reactions, and how its series ended. The top-level fields describe the governing case.
+ */
+export interface ResultCase {
+  name: string;
+  /** the case with the highest peak stress (|peak|): the one the top-level fields and the pictures show */
+  governing: boolean;
+  kt: ResultKt;
+  raisers: { name: string; governing: boolean; status: RaiserStatus; reason: string | null; peak: ResultPeakStresses; headline: KtKind | null; kt: Partial<Record<KtKind, ResultKtEntry>> }[];
+  peak: ResultPeak;
+  load: ResultJson['load'];
+  convergence: { status: CertifyStatus | 'single-mesh'; target: number | null; estimatedError: number | null; quantity: string | null; meshes: number; dofs: number };
+  /** the last mesh of this case: how many cases were solved on it and the factorisations of its stiffness they shared */
+  solve: { casesOnMesh: number; factorisations: number };
+  warnings: string[];
+}
+
 /** result.json. */
 export interface ResultJson {
   tool: { name: string; version: string };
@@ -307,4 +326,8 @@ export interface ResultJson {
   mirrorPlanes: { axis: 'x' | 'y'; at: number; edges: number[] }[];
   warnings: string[];
   cautions: string[];
+  /** with loadCases: the name of the case the fields above describe (the governing one) */
+  loadCase?: string;
+  /** with loadCases: every case, in the model's order */
+  cases?: ResultCase[];
 }

@@ -4,7 +4,7 @@
  * keep the two in step.
  */
 import { TOOL_VERSION } from '../model/version.js';
-import type { ResultJson } from './result-json.js';
+import type { ResultCase, ResultJson } from './result-json.js';
 import type { Analysis } from '../pipeline/analyse.js';
 import { InternalError } from '../model/errors.js';
 import { settleAnalyses, type Certified } from '../pipeline/certify.js';
@@ -316,6 +316,41 @@ function buildResultUnchecked(a: Analysis, file?: string, cert: Certified | null
   };
 }
 
+
+/**
+ * The result of a model with load cases: the governing case's full result (the case with the
+ * highest |peak stress|, the first such in the model's order on a tie) with `loadCase` naming
+ * it and `cases` summing up every case, each built by buildResult so every Kt goes through the
+ * same withholding rules. One case without a name is buildResult's result unchanged.
+ */
+export function buildCasesResult(runs: readonly { analysis: Analysis; cert: Certified | null }[], file?: string): ResultJson {
+  if (runs.length === 1 && runs[0].analysis.loadCase === undefined) return buildResult(runs[0].analysis, file, runs[0].cert);
+  const each = runs.map((r) => buildResult(r.analysis, file, r.cert));
+  let gov = 0;
+  each.forEach((r, i) => {
+    if (Math.abs(r.peak.stress) > Math.abs(each[gov].peak.stress)) gov = i;
+  });
+  const cases = each.map((r, i): ResultCase => {
+    const a = runs[i].analysis;
+    const c = r.convergence;
+    return {
+      name: a.loadCase ?? refuseUnnamedCase(),
+      governing: i === gov,
+      kt: r.kt,
+      raisers: r.raisers.map((x) => ({ name: x.name, governing: x.governing, status: x.status, reason: x.reason, peak: x.peak, headline: x.headline, kt: x.kt })),
+      peak: r.peak,
+      load: r.load,
+      convergence: { status: c.status, target: c.target, estimatedError: c.estimatedError, quantity: c.quantity, meshes: c.status === 'single-mesh' ? 1 : c.meshes.length, dofs: r.mesh.dofs },
+      solve: { casesOnMesh: a.sharedSolve?.cases ?? refuseUnnamedCase(), factorisations: a.sharedSolve?.factorisations ?? refuseUnnamedCase() },
+      warnings: r.warnings,
+    };
+  });
+  return { ...each[gov], loadCase: cases[gov].name, cases };
+}
+
+function refuseUnnamedCase(): never {
+  throw new InternalError('buildCasesResult: a load case without its name or its shared-solve record');
+}
 
 /** The material as used, and for a bundled grade where its values came from (src/model/materials.ts). */
 function materialResult(mat: Model['material']) {

@@ -31,6 +31,7 @@ export function formatSummary(r: ResultJson): string {
   }
   out.push('');
   const pct = (v: number) => `${fmt(100 * v, 2)}%`;
+  out.push(...formatCasesSummary(r, pct));
   const c = r.convergence;
   // The headline: the governing raiser's Kt, or why there is none.
   if (r.kt.value !== null) {
@@ -144,4 +145,36 @@ export function formatSummary(r: ResultJson): string {
   out.push('  cautions');
   for (const c of r.cautions) out.push(`   - ${c}`);
   return out.join('\n');
+}
+
+/**
+ * With load cases: one short block per case (headline Kt with its band or why it is withheld,
+ * each raiser's Kt, the peak, how its series ended), then the governing case, which the rest of
+ * the summary and the pictures describe. Nothing for a model of plain loads.
+ */
+function formatCasesSummary(r: ResultJson, pct: (v: number) => string): string[] {
+  if (!r.cases) return [];
+  const u = r.units;
+  const out: string[] = [];
+  const last = r.cases.map((c) => c.solve);
+  out.push(`  load cases: ${r.cases.length}, solved together on shared meshes (${last.every((s) => s.factorisations === 1) ? 'one factorisation of the stiffness per mesh' : 'the iterative solver: no factorisation to share'})`);
+  for (const c of r.cases) {
+    out.push(`  ${c.governing ? '*' : ' '} case "${c.name}"`);
+    if (c.kt.value !== null) out.push(`      Kt ${c.kt.kind} ${fmt(c.kt.value, 4)}${c.kt.error === null ? '' : ` +- ${pct(c.kt.error)}`} at ${c.kt.raiser}`);
+    else out.push(`      Kt  none: ${c.kt.withheld}`);
+    for (const x of c.raisers) {
+      if (x.name === c.kt.raiser) continue;
+      const k = x.headline ? x.kt[x.headline] : undefined;
+      const what = x.status !== 'ok' ? `no Kt: ${x.reason}` : k && k.value !== null ? `Kt ${x.headline} ${fmt(k.value, 4)}${k.error === null ? '' : ` +- ${pct(k.error)}`}` : `Kt withheld: ${k?.withheld ?? 'no nominal stress'}`;
+      out.push(`      ${x.name}: peak ${fmt(x.peak.stress)} ${u.stress}; ${what}`);
+    }
+    const cv = c.convergence;
+    const acc = cv.status === 'single-mesh' ? 'one mesh, error not estimated' : cv.status === 'converged' ? `target met on ${cv.meshes} meshes` : cv.status === 'singular' ? `no raiser converges (${cv.meshes} meshes)` : `target NOT met on ${cv.meshes} meshes`;
+    out.push(`      highest ${c.peak.measure} stress ${fmt(c.peak.stress)} ${u.stress} at ${pt([c.peak.x, c.peak.y])}, ${c.peak.feature}; ${acc}; loads (${fmt(c.load.resultant.fx)}, ${fmt(c.load.resultant.fy)}) ${u.force}, balanced to ${c.load.equilibriumError.toExponential(1)}`);
+    // the governing case's warnings are listed below with the rest of its summary
+    if (!c.governing) for (const w of c.warnings) out.push(`      warning: ${w}`);
+  }
+  out.push(`  governing case: "${r.loadCase}" (the highest peak stress); everything below, and the pictures, are of this case`);
+  out.push('');
+  return out;
 }

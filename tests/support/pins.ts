@@ -3,7 +3,7 @@
  * with a round end concentric with a hole of diameter d) loaded through the hole. Invented
  * test parts.
  */
-import type { Model } from '../../src/model/schema.js';
+import type { Load, Model } from '../../src/model/schema.js';
 
 export interface LugOptions {
   W: number;
@@ -13,7 +13,7 @@ export interface LugOptions {
   thickness?: number;
   nu?: number;
   /** the load on the hole */
-  load: Model['loads'][number];
+  load: Load;
   mesh?: Model['mesh'];
 }
 
