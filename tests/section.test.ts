@@ -146,6 +146,24 @@ describe('the net section of a raiser', () => {
     expect(k.gross! / k.net!).toBeCloseTo(W / (W - d), 9);
   });
 
+  it('the same quarter plate pulled along y by a remote stress: the net section lies along the mirror plane y = 0 to the far end (an edge the remote syy leaves free), N / A', () => {
+    // once the remote load counted the end x = L/2 as loaded although syy puts no traction on it,
+    // and the cut went obliquely to the top edge: Kt net 5.00 (statics: N = syy x L/2 x t here)
+    const m = structuredClone(model);
+    m.loads = [{ type: 'remote', syy: 100 }];
+    delete m.chart;
+    const a = analyseModel(m);
+    const g = governing(a);
+    let L2 = 0; // the far end of the quarter plate
+    for (let i = 0; i < a.mesh.nNodes; i++) L2 = Math.max(L2, a.mesh.nodes[2 * i]);
+    expect(g.section!.length).toBeCloseTo(L2 - d / 2, 6);
+    expect(Math.abs(g.section!.ey)).toBeLessThan(1e-9);
+    expect(g.section!.mirror).toBe(true);
+    expect(Math.abs(Math.abs(g.loads!.N) - 100 * L2 * m.thickness)).toBeLessThan(1e-9 * 100 * L2 * m.thickness);
+    const k = ktOf(a);
+    expect(k.net! / k.remote!).toBeCloseTo((L2 - d / 2) / L2, 9);
+  });
+
   it('a section given for the raiser on the same line gives the same nominal stress; one across part of the plate only its material', () => {
     const m = structuredClone(model);
     m.results = { nominal: { hole: { section: { from: [0, 0], to: [0, W / 2] } } } };

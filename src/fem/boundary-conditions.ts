@@ -8,6 +8,7 @@
  * boundary's direction of travel, material on the left); a positive normal traction pulls
  * outward (tension); pressure pushes inward; a remote stress state s acts as traction s . n.
  */
+import { curveTangent, type Curve } from '../geometry/curve.js';
 import type { Domain } from '../geometry/domain.js';
 import { describeSelector, selectTarget } from '../geometry/select.js';
 import type { Mesh } from '../mesh/types.js';
@@ -100,6 +101,18 @@ function outerEdges(domain: Domain): number[] {
 export interface ExtraTraction {
   edges: number[];
   q: TractionField;
+}
+
+/** Whether the plane stress state (sxx, syy, sxy) puts a traction sigma . n on the curve anywhere (sampled at 17 points; exactly zero on a straight edge it leaves free). */
+function remoteLoads(c: Curve, sxx: number, syy: number, sxy: number): boolean {
+  const scale = Math.max(Math.abs(sxx), Math.abs(syy), Math.abs(sxy));
+  const tan = [0, 0];
+  for (let k = 0; k <= 16; k++) {
+    curveTangent(c, k / 16, tan);
+    const [nx, ny] = [tan[1], -tan[0]];
+    if (Math.hypot(sxx * nx + sxy * ny, sxy * nx + syy * ny) > 1e-12 * scale) return true;
+  }
+  return false;
 }
 
 export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports: CompiledSupports, warnings: string[], extra: readonly ExtraTraction[] = []): CompiledLoads {
@@ -201,7 +214,9 @@ export function compileLoads(model: Model, domain: Domain, mesh: Mesh, supports:
     }
     if (load.type === 'rigid-pin') [fx, fy] = load.force;
     checkLoadPath(model, domain, supports, f, before, edges, index, warnings);
-    for (const e of edges) loaded[e] = 1;
+    // A remote stress state loads only the edges it puts a traction on: under syy alone an
+    // edge square to x carries none and stays a free edge for the raisers and singular points.
+    for (const e of edges) if (load.type !== 'remote' || remoteLoads(domain.edges[e].curve, load.sxx ?? 0, load.syy ?? 0, load.sxy ?? 0)) loaded[e] = 1;
     items.push({ index, type: load.type, fx, fy, edges });
   });
   for (const x of extra) {
