@@ -18,6 +18,7 @@ import { buildDomain } from '../src/geometry/domain.js';
 import { expandTemplate } from '../src/model/templates.js';
 import type { Model } from '../src/model/schema.js';
 import { analyseModel } from '../src/pipeline/analyse.js';
+import { buildResult } from '../src/report/result.js';
 import { beamStress, cutBetween, loadsThroughCut, pointOnCut } from '../src/post/section.js';
 import { governing, ktOf } from './support/kt.js';
 
@@ -162,6 +163,14 @@ describe('the net section of a raiser', () => {
     expect(Math.abs(Math.abs(g.loads!.N) - 100 * L2 * m.thickness)).toBeLessThan(1e-9 * 100 * L2 * m.thickness);
     const k = ktOf(a);
     expect(k.net! / k.remote!).toBeCloseTo((L2 - d / 2) / L2, 9);
+    // the template's chart (a strip of width W pulled along it) kept on the model: not compared, with the reason
+    const withChart = structuredClone(model);
+    withChart.loads = [{ type: 'remote', syy: 100 }];
+    const ch = buildResult(analyseModel(withChart)).raisers[0].chart!;
+    expect(ch.difference).toBeNull();
+    expect(ch.outside.join(' ')).toMatch(new RegExp(`chart is for a width W = ${W}, but the part's gross width across the flow at this raiser is ${2 * L2}`));
+    // pulled along the strip as the template made it, the chart is compared
+    expect(buildResult(auto).raisers[0].chart!.difference).not.toBeNull();
   });
 
   it('a section given for the raiser on the same line gives the same nominal stress; one across part of the plate only its material', () => {

@@ -60,13 +60,31 @@ function strayFromStrip(domain: Domain, ev: RaiserEvaluation, W: number): string
 }
 
 /**
+ * Why the model's own chart (written by a template) does not describe the part as loaded, or
+ * null: its width W differs by more than 1% from the gross width the analysis found across the
+ * flow at the raiser (a whole symmetric section where the cut is half of one). A template's
+ * model whose loads were changed to pull across the strip keeps the chart of the strip.
+ */
+function widthDiffers(ev: RaiserEvaluation, chart: ChartCase): string | null {
+  const W = chart.dims.W;
+  if (!(W > 0) || !ev.gross) return null;
+  const width = ev.gross.cut.length * (ev.gross.cut.mirror ? 2 : 1);
+  if (Math.abs(width - W) <= 0.01 * W) return null;
+  return `the model's chart is for a width W = ${Number(W.toPrecision(4))}, but the part's gross width across the flow at this raiser is ${Number(width.toPrecision(4))}: the chart does not describe the part as it is loaded`;
+}
+
+/**
  * The chart comparison of one raiser: none for a raiser whose Kt did not settle (status not
  * 'ok'); the model's own chart (a template's) for the governing raiser; else the chart its shape
  * is recognised as. `kts` are the settled net and gross Kt.
  */
 export function compareRaiserWithChart(domain: Domain, ev: RaiserEvaluation, status: string, governing: boolean, modelChart: ChartCase | undefined, kts: { net: number | null; gross: number | null }): ChartComparison | null {
   if (status !== 'ok') return null;
-  if (governing && modelChart) return compareWithChart(modelChart.family, modelChart.dims, kts);
+  if (governing && modelChart) {
+    const comparison = compareWithChart(modelChart.family, modelChart.dims, kts);
+    const stale = comparison && widthDiffers(ev, modelChart);
+    return comparison && stale ? { ...comparison, difference: null, outside: [...comparison.outside, stale] } : comparison;
+  }
   const family = recogniseChart(domain, ev);
   if (!family) return null;
   const comparison = compareWithChart(family.family, family.dims, kts);
