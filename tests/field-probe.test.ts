@@ -21,19 +21,8 @@ import { shapeP2 } from '../src/element/triangle.js';
 import { generateMesh } from '../src/mesh/generate.js';
 import { FieldProbe } from '../src/mesh/probe.js';
 import type { Mesh } from '../src/mesh/types.js';
-import type { Geometry } from '../src/model/schema.js';
+import { BRACKET } from './support/shapes.js';
 
-const BRACKET: Geometry = {
-  outline: {
-    shape: 'path',
-    path: [{ at: [0, 0], round: 5 }, [120, 0], { at: [120, 30], round: 8 }, { at: [60, 30], round: 6 }, { at: [60, 80], round: 10 }, { at: [0, 80], round: 3 }],
-  },
-  holes: [
-    { shape: 'slot', center: [90, 15], length: 30, width: 8 },
-    { shape: 'ellipse', center: [30, 55], a: 12, b: 4, angle: 30 },
-    { shape: 'rounded-rect', center: [30, 20], width: 20, height: 12, radius: 2, angle: -15 },
-  ],
-};
 
 /** The plain definition: Newton (as the probe iterates it) on every element, in ascending order. */
 function findByEveryElement(mesh: Mesh, x: number, y: number): { e: number; xi: number; eta: number } | null {

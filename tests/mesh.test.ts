@@ -17,23 +17,14 @@ import { checkMesh } from '../src/mesh/check.js';
 import { generateMesh, hilbertIndex } from '../src/mesh/generate.js';
 import { buildSizeField } from '../src/mesh/sizefield.js';
 import type { Geometry } from '../src/model/schema.js';
+import { BRACKET } from './support/shapes.js';
 
 const SHAPES: Record<string, Geometry> = {
   'plate with a circular hole': {
     outline: { shape: 'path', path: [[0, 0], [100, 0], [100, 40], [0, 40]] },
     holes: [{ shape: 'circle', center: [50, 20], radius: 5 }],
   },
-  'bracket with fillets, slot, ellipse and rounded rectangle': {
-    outline: {
-      shape: 'path',
-      path: [{ at: [0, 0], round: 5 }, [120, 0], { at: [120, 30], round: 8 }, { at: [60, 30], round: 6 }, { at: [60, 80], round: 10 }, { at: [0, 80], round: 3 }],
-    },
-    holes: [
-      { shape: 'slot', center: [90, 15], length: 30, width: 8 },
-      { shape: 'ellipse', center: [30, 55], a: 12, b: 4, angle: 30 },
-      { shape: 'rounded-rect', center: [30, 20], width: 20, height: 12, radius: 2, angle: -15 },
-    ],
-  },
+  'bracket with fillets, slot, ellipse and rounded rectangle': BRACKET,
   'outline with arcs given by centre, radius and a through point': {
     outline: {
       shape: 'path',

@@ -14,12 +14,8 @@
 import { benchModel } from './model.js';
 import { analyseCasesOnMesh, analyseOnMesh, prepareLoadCases, prepareModel, type Analysis } from '../pipeline/analyse.js';
 import type { Load, Model } from '../model/schema.js';
+import { median } from './stats.js';
 
-function median(xs: number[]): number {
-  const s = xs.slice().sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
 
 /** The bench strap at size factor k with n named cases, case i pulled by i times the bench load. */
 function casesModel(k: number, n: number): Model {

@@ -21,12 +21,8 @@ import { constitutiveMatrix } from '../fem/material.js';
 import { solveContact } from '../fem/contact.js';
 import { solveSpd } from '../solve/index.js';
 import { lug } from '../model/templates.js';
+import { median } from './stats.js';
 
-function median(xs: number[]): number {
-  const s = xs.slice().sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
 
 export interface ContactBenchRow {
   dof: number;

@@ -16,6 +16,7 @@ import { performance } from 'node:perf_hooks';
 import { fileURLToPath } from 'node:url';
 import { cantileverProblemP2 } from './fixtures/cantilever-p2.js';
 import { readMatrixMarket } from '../solve/matrixmarket.js';
+import { median } from './stats.js';
 
 /** The reading speed the bench row asks for, MB/s. */
 const TARGET_MB_PER_S = 100;
@@ -57,11 +58,6 @@ function writeBlockFile(path: string, megabytes: number): { n: number; entries: 
   return { n, entries };
 }
 
-function median(xs: number[]): number {
-  const s = xs.slice().sort((x, y) => x - y);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
 
 /** Writes the file, reads it `runs` times after one warm-up read, prints the row, deletes the file. */
 export function runMatrixMarketBench(log: (s: string) => void, megabytes = 200, runs = 3): void {

@@ -19,16 +19,12 @@ import { loadModelFile } from '../model/load.js';
 import { certifyModel } from '../pipeline/certify.js';
 import { buildResult } from '../report/result.js';
 import { writeResultFiles } from '../report/files.js';
+import { median } from './stats.js';
 
 const STRAP = fileURLToPath(new URL('../../examples/strap-bolt-hole.json', import.meta.url));
 /** seconds: the target for the whole -o overhead of the strap example */
 const TARGET_S = 1.0;
 
-function median(xs: number[]): number {
-  const s = xs.slice().sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
 
 /** Certifies the strap example (untimed), then writes its result files into dir; returns the seconds of the write. */
 function writeOnce(dir: string): number {

@@ -12,6 +12,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { performance } from 'node:perf_hooks';
+import { median } from './stats.js';
 
 const CLI = fileURLToPath(new URL('../cli/raiser.js', import.meta.url));
 const STRAP = fileURLToPath(new URL('../../examples/strap-bolt-hole.json', import.meta.url));
@@ -33,11 +34,6 @@ const ROWS: ProcessRow[] = [
   { label: 'raiser solve examples/strap-bolt-hole.json -o DIR (with pictures and report)', args: [CLI, 'solve', STRAP], out: true },
 ];
 
-function median(xs: number[]): number {
-  const s = xs.slice().sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
 
 /** Seconds of one run of `node args`; throws when the command fails. */
 function timeOnce(row: ProcessRow): number {

@@ -14,12 +14,8 @@ import { cantileverProblem } from './fixtures/cantilever.js';
 import { randomVector } from './fixtures/random.js';
 import { RepeatedSolver } from '../solve/repeated.js';
 import type { SymmetricCsc } from '../solve/sparse.js';
+import { median } from './stats.js';
 
-function median(xs: number[]): number {
-  const s = xs.slice().sort((x, y) => x - y);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
 
 /** The values of a with each diagonal entry times 1.1 (the diagonal is the first entry of its column). */
 function raisedDiagonal(a: SymmetricCsc): Float64Array {

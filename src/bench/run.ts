@@ -25,12 +25,8 @@ import { runSeriesBench } from './series.js';
 import { runPicturesBench } from './pictures.js';
 import { runCasesBench } from './cases.js';
 import { benchAssembly, benchMesherAt, benchScaling, benchWholeMillion } from './scale.js';
+import { median } from './stats.js';
 
-function median(xs: number[]): number {
-  const s = xs.slice().sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
 
 function mb(bytes: number): string {
   return (bytes / 2 ** 20).toFixed(0);

@@ -13,12 +13,8 @@ import { assembleSystem } from '../fem/assemble.js';
 import { constitutiveMatrix } from '../fem/material.js';
 import { benchModel } from './model.js';
 import { sizeFactorFor, sizeFactorForDof, type WholeRow } from './whole.js';
+import { median } from './stats.js';
 
-function median(xs: number[]): number {
-  const s = xs.slice().sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
 
 /** Least-squares slope of log y against log x. */
 function observedExponent(x: readonly number[], y: readonly number[]): number {

@@ -24,6 +24,7 @@ import { cantileverProblem } from './fixtures/cantilever.js';
 import { cantileverProblemP2 } from './fixtures/cantilever-p2.js';
 import { backwardError, SolverThreads, solveSpd, type OrderingMethod, type SolveStats } from '../solve/index.js';
 import { peakResidentBytes } from './memory.js';
+import { median } from './stats.js';
 
 export type BenchElement = 'linear' | 'quadratic';
 
@@ -84,11 +85,6 @@ export interface SolveBenchOptions {
   readonly log?: (line: string) => void;
 }
 
-function median(xs: number[]): number {
-  const s = xs.slice().sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
 
 /** Runs the benchmark and returns one row per (size, ordering); prints the table through log. */
 export function runSolveBench(options: SolveBenchOptions = {}): SolveBenchRow[] {

@@ -16,6 +16,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { fileURLToPath } from 'node:url';
+import { median } from './stats.js';
 
 const CLI = fileURLToPath(new URL('../cli/raiser.js', import.meta.url));
 
@@ -28,11 +29,6 @@ function timeRaiser(args: string[]): number {
   return t;
 }
 
-function median(xs: number[]): number {
-  const s = xs.slice().sort((x, y) => x - y);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
 
 export function runSweepBench(log: (s: string) => void, cases = 5, runs = 3): void {
   const dir = mkdtempSync(join(tmpdir(), 'raiser-sweep-bench-'));

@@ -16,6 +16,7 @@ import { peakResidentBytes } from './memory.js';
 import { analyseModel, type Analysis } from '../pipeline/analyse.js';
 import { buildDomain } from '../geometry/domain.js';
 import { generateMesh } from '../mesh/generate.js';
+import { median } from './stats.js';
 
 /** DOF of the bench strap with 6-node triangles at sizeFactor 1 (measured: 21,876). */
 const DOF_AT_UNIT_SIZE = { quadratic: 21876, linear: 5600 } as const;
@@ -30,11 +31,6 @@ export interface WholeRow {
   runs: number;
 }
 
-function median(xs: number[]): number {
-  const s = xs.slice().sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
 
 /**
  * The size factor of benchModel that gives about `target` of what `count` counts (DOF,
