@@ -54,33 +54,31 @@ const bits = new Float64Array(1);
 const bitsHigh = new Uint32Array(bits.buffer, endianness() === 'LE' ? 4 : 0, 1);
 
 /**
- * dd <- (hi + lo) * p for an exact power of ten p, the rounding error of hi * p kept exactly
- * (Dekker's two-product, exact when nothing overflows; |hi * p| stays below 1e64 here).
+ * The rounding error of the product a * b, exactly: a * b = fl(a * b) + error (Dekker's
+ * two-product by Veltkamp splitting, exact when nothing overflows; |a * b| stays below 1e64 here).
  */
+function productError(a: number, b: number, ab: number): number {
+  let t = SPLITTER * a;
+  const ah = t - (t - a);
+  const al = a - ah;
+  t = SPLITTER * b;
+  const bh = t - (t - b);
+  const bl = b - bh;
+  return ((ah * bh - ab) + ah * bl + al * bh) + al * bl;
+}
+
+/** dd <- (hi + lo) * p for an exact power of ten p, the rounding error of hi * p kept exactly. */
 function multiplyDoubleDouble(hi: number, lo: number, p: number): void {
   const h = hi * p;
-  let t = SPLITTER * hi;
-  const ah = t - (t - hi);
-  const al = hi - ah;
-  t = SPLITTER * p;
-  const bh = t - (t - p);
-  const bl = p - bh;
-  const e = ((ah * bh - h) + ah * bl + al * bh) + al * bl;
   dd.hi = h;
-  dd.lo = e + lo * p;
+  dd.lo = productError(hi, p, h) + lo * p;
 }
 
 /** dd <- (hi + lo) / p for an exact power of ten p: the quotient's remainder is found exactly by the two-product. */
 function divideDoubleDouble(hi: number, lo: number, p: number): void {
   const q = hi / p;
-  let t = SPLITTER * q;
-  const ah = t - (t - q);
-  const al = q - ah;
-  t = SPLITTER * p;
-  const bh = t - (t - p);
-  const bl = p - bh;
   const prod = q * p;
-  const e = ((ah * bh - prod) + ah * bl + al * bh) + al * bl;
+  const e = productError(q, p, prod);
   // hi - q p = (hi - prod) - e, and hi - prod is exact (Sterbenz: prod is within an ulp of hi)
   dd.hi = q;
   dd.lo = ((hi - prod) - e + lo) / p;
